@@ -1,0 +1,66 @@
+// Express wiring: logging, body limits, who-is-asking, CSRF guard, the route table, the built
+// client, and the one error handler.
+import express, { Router } from 'express';
+import fs from 'node:fs';
+import path from 'node:path';
+import { pinoHttp } from 'pino-http';
+import type { Logger } from 'pino';
+import { loadAuth } from './auth/context';
+import { checkOrigin } from './auth/origin';
+import { mountRoutes } from './routes/route';
+import { allRoutes } from './routes';
+import { errorHandler } from './http/error-handler';
+import { NotFound } from './http/errors';
+
+export interface AppOptions {
+  logger: Logger;
+  /** The built client (vite build output); served with an SPA fallback when present. */
+  clientDir?: string;
+  trustProxy?: string;
+  /** Extra routers mounted after the API (e.g. the development mailbox). */
+  extraRouters?: Router[];
+}
+
+export function createApp(opts: AppOptions) {
+  const app = express();
+  app.disable('x-powered-by');
+  // Set explicitly: behind a proxy, rate limits and Origin checks must see the client, not the proxy.
+  app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
+  app.use(pinoHttp({ logger: opts.logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+
+  const api = Router();
+  // Sync batches are the largest JSON bodies (a whole session of readings); photos go through multer.
+  api.use(express.json({ limit: '4mb' }));
+  api.use(loadAuth);
+  api.use(checkOrigin);
+  mountRoutes(api, allRoutes);
+  api.use('/api', (_req, _res, next) => next(new NotFound('API route')));
+  app.use(api);
+  for (const r of opts.extraRouters ?? []) app.use(r);
+
+  if (opts.clientDir && fs.existsSync(path.join(opts.clientDir, 'index.html'))) {
+    const dir = opts.clientDir;
+    app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(path.join(dir, 'index.html'));
+    });
+  }
+  app.use(errorHandler);
+  return app;
+}
+
+// The service worker and the HTML shell must always be revalidated so a new version is seen.
+function noCacheForShell(res: express.Response, file: string) {
+  const base = path.basename(file);
+  if (base === 'sw.js' || base === 'index.html' || base.endsWith('.webmanifest') || base.startsWith('workbox-')) {
+    res.setHeader('Cache-Control', 'no-cache');
+  }
+}
+
+function parseTrustProxy(v: string): boolean | number | string {
+  if (v === 'true') return true;
+  if (v === 'false') return false;
+  if (/^\d+$/.test(v)) return Number(v);
+  return v;
+}

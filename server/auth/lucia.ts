@@ -1,0 +1,81 @@
+// All session code lives here so the session library can be swapped later (lucia v3 is in
+// maintenance mode). Sessions are stored in PostgreSQL through a small Sequelize adapter of our
+// own; lucia ships none for Sequelize.
+import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
+import { Argon2id } from 'oslo/password';
+import { Op } from 'sequelize';
+import { UserModel, UserSessionModel } from '../models';
+
+/** OWASP Password Storage Cheat Sheet minimum for Argon2id: m = 19456 KiB, t = 2, p = 1. */
+export const ARGON2_PARAMS = { memorySize: 19456, iterations: 2, parallelism: 1, tagLength: 32 } as const;
+const argon2id = new Argon2id(ARGON2_PARAMS);
+
+export const hashPassword = (password: string) => argon2id.hash(password);
+export const verifyPassword = (hash: string, password: string) => argon2id.verify(hash, password);
+
+const toSession = (s: UserSessionModel): DatabaseSession => ({
+  id: s.id,
+  userId: s.userId,
+  expiresAt: s.expiresAt,
+  attributes: { teamId: s.teamId },
+});
+
+const sequelizeAdapter: Adapter = {
+  async getSessionAndUser(sessionId) {
+    const s = await UserSessionModel.findByPk(sessionId);
+    if (!s) return [null, null];
+    const u = await UserModel.findByPk(s.userId);
+    if (!u) return [null, null];
+    const user: DatabaseUser = { id: u.id, attributes: { email: u.email, name: u.name } };
+    return [toSession(s), user];
+  },
+  async getUserSessions(userId) {
+    return (await UserSessionModel.findAll({ where: { userId } })).map(toSession);
+  },
+  async setSession(session) {
+    await UserSessionModel.create({
+      id: session.id,
+      userId: session.userId,
+      teamId: (session.attributes as { teamId: string }).teamId,
+      expiresAt: session.expiresAt,
+    });
+  },
+  async updateSessionExpiration(sessionId, expiresAt) {
+    await UserSessionModel.update({ expiresAt }, { where: { id: sessionId } });
+  },
+  async deleteSession(sessionId) {
+    await UserSessionModel.destroy({ where: { id: sessionId } });
+  },
+  async deleteUserSessions(userId) {
+    await UserSessionModel.destroy({ where: { userId } });
+  },
+  async deleteExpiredSessions() {
+    await UserSessionModel.destroy({ where: { expiresAt: { [Op.lte]: new Date() } } });
+  },
+};
+
+export const lucia = new Lucia(sequelizeAdapter, {
+  sessionExpiresIn: new TimeSpan(30, 'd'),
+  sessionCookie: {
+    name: 'twistlog_session',
+    attributes: { secure: process.env.NODE_ENV === 'production', sameSite: 'lax' },
+  },
+  getSessionAttributes: (a) => ({ teamId: a.teamId }),
+  getUserAttributes: (a) => ({ email: a.email, name: a.name }),
+});
+
+declare module 'lucia' {
+  interface Register {
+    Lucia: typeof lucia;
+    DatabaseSessionAttributes: { teamId: string };
+    DatabaseUserAttributes: { email: string; name: string };
+  }
+}
+
+/** Start a fresh session (a new id at every sign-in) and return its cookie header value. */
+export async function startSession(userId: string, teamId: string): Promise<string> {
+  const session = await lucia.createSession(userId, { teamId });
+  return lucia.createSessionCookie(session.id).serialize();
+}
+
+export const blankSessionCookie = () => lucia.createBlankSessionCookie().serialize();

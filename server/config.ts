@@ -1,0 +1,32 @@
+// Settings from the environment, validated once at start-up so a typo fails loudly.
+import { z } from 'zod';
+
+const env = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  DATABASE_URL: z.string().startsWith('postgres://'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(5180),
+  HOST: z.string().default('127.0.0.1'),
+  PUBLIC_URL: z.string().url().optional(),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().default(2525),
+  SMTP_SECURE: z.enum(['true', 'false']).default('false'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  MAIL_FROM: z.string().default('Twistlog <no-reply@twistlog.invalid>'),
+  PHOTO_DIR: z.string().default('.data/photos'),
+  TRUST_PROXY: z.string().default('false'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+  DB_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
+});
+
+export type Config = z.infer<typeof env> & { publicUrl: string };
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = env.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`bad environment settings:\n${lines.join('\n')}`);
+  }
+  const c = parsed.data;
+  return { ...c, publicUrl: c.PUBLIC_URL ?? `http://${c.HOST}:${c.PORT}` };
+}

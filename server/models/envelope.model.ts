@@ -1,0 +1,41 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { syncedColumns } from './synced-columns';
+
+export class EnvelopeModel extends Model<InferAttributes<EnvelopeModel>, InferCreationAttributes<EnvelopeModel>> {
+  declare id: string;
+  declare teamId: string;
+  declare vehicleId: string;
+  declare sessionId: string;
+  declare revision: CreationOptional<number>;
+  declare status: CreationOptional<'draft' | 'signed' | 'superseded'>;
+  declare params: object;
+  declare snapshot: CreationOptional<object | null>;
+  declare contentHash: CreationOptional<string | null>;
+  declare signedBy: CreationOptional<string | null>;
+  declare signedAt: CreationOptional<Date | null>;
+  declare createdBy: string;
+  declare version: CreationOptional<number>;
+  declare changeSeq: CreationOptional<number>;
+  declare deletedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export function initEnvelope(sequelize: Sequelize) {
+  EnvelopeModel.init(
+    {
+      ...syncedColumns,
+      vehicleId: { type: DataTypes.UUID, allowNull: false },
+      sessionId: { type: DataTypes.UUID, allowNull: false },
+      revision: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      status: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'draft' },
+      params: { type: DataTypes.JSONB, allowNull: false },
+      snapshot: { type: DataTypes.JSONB, allowNull: true },
+      contentHash: { type: DataTypes.TEXT, allowNull: true },
+      signedBy: { type: DataTypes.UUID, allowNull: true },
+      signedAt: { type: DataTypes.DATE, allowNull: true },
+      createdBy: { type: DataTypes.UUID, allowNull: false },
+    },
+    { sequelize, tableName: 'envelopes' },
+  );
+}

@@ -1,0 +1,179 @@
+// The demo workshop: an invented shop, invented people and invented trucks, so a newcomer sees a
+// realistic flex session at once. Fixed ids make seeding idempotent: a second run changes nothing.
+// All names and figures here are made up for the demo.
+import { MembershipModel, TeamModel, UserModel, VehicleModel, GaugePointModel, TestSessionModel, PoseModel, ReadingModel } from '../models';
+import { hashPassword } from '../auth/lucia';
+import type { Axis } from '../../shared/schemas';
+
+export const DEMO_TEAM_ID = '0d3c5a10-0000-4000-8000-000000000001';
+export const DEMO_PASSWORD = 'flex-demo-2026';
+export const DEMO_PEOPLE = [
+  { id: '0d3c5a10-0000-4000-8000-0000000000a1', email: 'ilse@tarnwell.test', name: 'Ilse Darrow', role: 'admin' },
+  { id: '0d3c5a10-0000-4000-8000-0000000000a2', email: 'mara@tarnwell.test', name: 'Mara Venn', role: 'engineer' },
+  { id: '0d3c5a10-0000-4000-8000-0000000000a3', email: 'joss@tarnwell.test', name: 'Joss Harl', role: 'tester' },
+  { id: '0d3c5a10-0000-4000-8000-0000000000a4', email: 'ren@pellstitch.test', name: 'Ren Osk', role: 'viewer' },
+] as const;
+export const DEMO_SIGN_IN = { email: DEMO_PEOPLE[1].email, password: DEMO_PASSWORD };
+
+export const DEMO_VEHICLES = [
+  {
+    id: '0d3c5a10-0000-4000-8000-0000000000b1',
+    name: 'TC-14 "Mossback"',
+    chassis: 'Medium 4×4 cab-chassis, ladder frame',
+    body: 'GRP sandwich box on three-point pivoting subframe',
+    wheelbaseMm: 3800,
+    trackFrontMm: 1900,
+    trackRearMm: 1880,
+    opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
+    nominalGapMm: 90,
+    // Lateral shear per degree of twist and roll of the cab per degree, for the demo's readings.
+    shearPerDeg: 7.4,
+    rollPerDeg: 0.0005,
+  },
+  {
+    id: '0d3c5a10-0000-4000-8000-0000000000b2',
+    name: 'TC-09 "Longfen"',
+    chassis: 'Heavy 4×4 cab-chassis, ladder frame',
+    body: 'Aluminium box on four-point spring subframe',
+    wheelbaseMm: 4200,
+    trackFrontMm: 2050,
+    trackRearMm: 2050,
+    opening: { widthMm: 600, heightMm: 600, cornerRadiusMm: 100, centreYMm: 0, bottomZMm: 300 },
+    nominalGapMm: 110,
+    shearPerDeg: 5.5,
+    rollPerDeg: 0.0004,
+  },
+] as const;
+
+const points = [
+  { label: 'A', y: 330, z: 830 },
+  { label: 'B', y: 0, z: 830 },
+  { label: 'C', y: -330, z: 830 },
+  { label: 'D', y: -330, z: 370 },
+  { label: 'E', y: 0, z: 370 },
+  { label: 'F', y: 330, z: 370 },
+];
+
+/** Poses of a typical outing: level baseline, single wheels up, diagonals, a 20° ramp. */
+const poses = [
+  { label: 'Level', kind: 'level', fl: 0, fr: 0, rl: 0, rr: 0 },
+  { label: 'FL on 300 block', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 0 },
+  { label: 'FR on 300 block', kind: 'wheels', fl: 0, fr: 300, rl: 0, rr: 0 },
+  { label: 'RL on 300 block', kind: 'wheels', fl: 0, fr: 0, rl: 300, rr: 0 },
+  { label: 'Diagonal FL + RR 300', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 300 },
+  { label: 'Diagonal FR + RL 300', kind: 'wheels', fl: 0, fr: 300, rl: 300, rr: 0 },
+  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500 },
+] as const;
+
+const id = (n: number, kind: string) => `0d3c5a10-0000-4000-8${kind}-${n.toString(16).padStart(12, '0')}`;
+
+// A small deterministic generator so the demo's "measurement noise" is the same every run.
+function noise(seed: number) {
+  let s = seed >>> 0;
+  return () => {
+    s = (s * 1664525 + 1013904223) >>> 0;
+    return (s / 2 ** 32 - 0.5) * 1.2;
+  };
+}
+
+export async function seedDemo(): Promise<boolean> {
+  if (await TeamModel.findByPk(DEMO_TEAM_ID)) return false;
+  const sequelize = TeamModel.sequelize!;
+  const hash = await hashPassword(DEMO_PASSWORD);
+  await sequelize.transaction(async (transaction) => {
+    await TeamModel.create({ id: DEMO_TEAM_ID, name: 'Tarnwell Camper Works', unitSystem: 'mm' }, { transaction });
+    for (const [i, p] of DEMO_PEOPLE.entries()) {
+      await UserModel.create({ id: p.id, email: p.email, name: p.name, passwordHash: hash }, { transaction });
+      await MembershipModel.create({ id: id(i + 1, '001'), teamId: DEMO_TEAM_ID, userId: p.id, role: p.role }, { transaction });
+    }
+    const tester = DEMO_PEOPLE[2].id;
+    for (const [vi, v] of DEMO_VEHICLES.entries()) {
+      const { shearPerDeg, rollPerDeg, ...vehicle } = v;
+      await VehicleModel.create({ ...vehicle, opening: { ...vehicle.opening }, teamId: DEMO_TEAM_ID, notes: '' }, { transaction });
+      const pointIds = points.map((_, pi) => id(vi * 100 + pi + 1, '002'));
+      for (const [pi, p] of points.entries()) {
+        const zScale = v.opening.heightMm / 500;
+        await GaugePointModel.create(
+          { id: pointIds[pi], teamId: DEMO_TEAM_ID, vehicleId: v.id, label: p.label, yMm: Math.round(p.y * (v.opening.widthMm / 700)), zMm: Math.round(v.opening.bottomZMm + (p.z - 350) * zScale) },
+          { transaction },
+        );
+      }
+      const sessionId = id(vi + 1, '003');
+      await TestSessionModel.create(
+        {
+          id: sessionId,
+          teamId: DEMO_TEAM_ID,
+          vehicleId: v.id,
+          title: vi === 0 ? 'Yard flex test before boot order' : 'Flex test after subframe rebuild',
+          testedOn: vi === 0 ? '2026-11-18' : '2026-11-25',
+          conditions: 'Dry gravel yard, 8 °C, overcast',
+          loadState: 'Water and fuel full, no crew in body',
+          tyrePressures: '3.5 bar front, 4.0 bar rear',
+          crew: 'Joss Harl (driver), Ilse Darrow (spotter)',
+          readingMode: 'gap',
+          safetyAckAt: new Date(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:05:00Z`),
+          safetyAckBy: tester,
+          createdBy: tester,
+        },
+        { transaction },
+      );
+      const rand = noise(42 + vi);
+      for (const [si, p] of poses.entries()) {
+        const poseId = id(vi * 100 + si + 1, '004');
+        await PoseModel.create(
+          {
+            id: poseId,
+            teamId: DEMO_TEAM_ID,
+            sessionId,
+            seq: si,
+            label: p.label,
+            kind: p.kind,
+            liftFlMm: p.fl,
+            liftFrMm: p.fr,
+            liftRlMm: p.rl,
+            liftRrMm: p.rr,
+            rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
+            rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
+            recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000),
+            createdBy: tester,
+          },
+          { transaction },
+        );
+        // Cross-axle twist imposed at the wheels (degrees), then a small rigid motion of the cab
+        // against the body: lateral shear and roll grow with twist, fore-aft and vertical less so.
+        const twist =
+          (Math.atan((p.fl - p.fr) / v.trackFrontMm) - Math.atan((p.rl - p.rr) / v.trackRearMm)) * (180 / Math.PI);
+        const ty = shearPerDeg * twist;
+        const tz = 2.2 * Math.abs(twist);
+        const wx = rollPerDeg * twist;
+        const tx = 0.6 * Math.abs(twist);
+        const wz = 0.0004 * twist;
+        const baseline: Record<Axis, number> = { foreAft: v.nominalGapMm, lateral: 20, vertical: 15 };
+        for (const [pi, pt] of points.entries()) {
+          const gp = { y: pt.y * (v.opening.widthMm / 700), z: v.opening.bottomZMm + (pt.z - 350) * (v.opening.heightMm / 500) };
+          const d: Record<Axis, number> = {
+            foreAft: tx - wz * gp.y,
+            lateral: ty - wx * gp.z,
+            vertical: tz + wx * gp.y,
+          };
+          for (const [ai, axis] of (['foreAft', 'lateral', 'vertical'] as const).entries()) {
+            const value = si === 0 ? baseline[axis] : baseline[axis] + d[axis] + rand();
+            await ReadingModel.create(
+              {
+                id: id(vi * 10000 + si * 100 + pi * 3 + ai + 1, '005'),
+                teamId: DEMO_TEAM_ID,
+                poseId,
+                gaugePointId: pointIds[pi],
+                axis,
+                valueMm: Math.round(value * 2) / 2,
+                enteredBy: tester,
+              },
+              { transaction },
+            );
+          }
+        }
+      }
+    }
+  });
+  return true;
+}

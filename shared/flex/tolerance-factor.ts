@@ -1,0 +1,49 @@
+/**
+ * One-sided normal tolerance factor k1: with n repeated values of mean m and SD s, the bound
+ * m + k1·s exceeds at least a fraction `coverage` (p) of the population with confidence gamma.
+ *
+ * Formula (exact): k1 = t'_gamma(df = n − 1, delta = z_p·√n) / √n, t' the noncentral t quantile.
+ * Natrella's approximation (exported separately, for comparison with printed tables):
+ *   k1 ≈ (z_p + √(z_p² − a·b)) / a,  a = 1 − z_gamma² / (2(n − 1)),  b = z_p² − z_gamma² / n.
+ * Source: NIST/SEMATECH e-Handbook of Statistical Methods §7.2.6.3; Natrella, Experimental
+ * Statistics, NBS Handbook 91 (1963).
+ *
+ * Example: oneSidedToleranceFactor(43, 0.9, 0.99) // => 1.8752
+ */
+import { FlexInputError, requireFinite, requireProbability } from './errors';
+import { noncentralTQuantile } from './noncentral-t';
+import { normalQuantile } from './normal';
+
+const MAX_N = 1e6;
+
+function requireSampleSize(fn: string, n: number): void {
+  requireFinite(fn, 'n', n);
+  if (!Number.isInteger(n) || n < 2 || n > MAX_N) {
+    throw new FlexInputError(fn, 'n', `must be a whole number from 2 to ${MAX_N}, got ${n}`);
+  }
+}
+
+export function oneSidedToleranceFactor(n: number, coverage: number, confidence: number): number {
+  const fn = 'oneSidedToleranceFactor';
+  requireSampleSize(fn, n);
+  requireProbability(fn, 'coverage', coverage);
+  requireProbability(fn, 'confidence', confidence);
+  const delta = normalQuantile(coverage) * Math.sqrt(n);
+  return noncentralTQuantile(confidence, n - 1, delta) / Math.sqrt(n);
+}
+
+export function natrellaToleranceFactor(n: number, coverage: number, confidence: number): number {
+  const fn = 'natrellaToleranceFactor';
+  requireSampleSize(fn, n);
+  requireProbability(fn, 'coverage', coverage);
+  requireProbability(fn, 'confidence', confidence);
+  const zp = normalQuantile(coverage);
+  const zg = normalQuantile(confidence);
+  const a = 1 - (zg * zg) / (2 * (n - 1));
+  const b = zp * zp - (zg * zg) / n;
+  const radicand = zp * zp - a * b;
+  if (a <= 0 || radicand < 0) {
+    throw new FlexInputError(fn, 'n', `is too small for the approximation at this confidence (n = ${n}); use oneSidedToleranceFactor`);
+  }
+  return (zp + Math.sqrt(radicand)) / a;
+}

@@ -1,0 +1,17 @@
+import type { ReactNode } from 'react';
+import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
+import { createSyncStoragePersister } from '@tanstack/query-sync-storage-persister';
+import { queryClient, PERSIST_MAX_AGE } from './query-client';
+
+const persister = createSyncStoragePersister({ storage: window.localStorage, key: 'twistlog-query-cache' });
+
+export function AppProviders({ children }: { children: ReactNode }) {
+  return (
+    <PersistQueryClientProvider
+      client={queryClient}
+      persistOptions={{ persister, maxAge: PERSIST_MAX_AGE, buster: __APP_VERSION__ }}
+    >
+      {children}
+    </PersistQueryClientProvider>
+  );
+}

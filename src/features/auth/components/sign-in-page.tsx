@@ -1,0 +1,45 @@
+import { useState, type FormEvent } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { signInInput, useSignIn } from '../api/sign-in';
+
+export function SignInPage() {
+  const signIn = useSignIn();
+  const navigate = useNavigate();
+  const [error, setError] = useState<string | null>(null);
+
+  function submit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const form = new FormData(e.currentTarget);
+    const parsed = signInInput.safeParse({ email: form.get('email'), password: form.get('password') });
+    if (!parsed.success) {
+      setError('Enter your e-mail address and password.');
+      return;
+    }
+    setError(null);
+    signIn.mutate(parsed.data, { onSuccess: () => navigate('/') });
+  }
+
+  return (
+    <div className="mx-auto max-w-md py-8">
+      <h1 className="mb-4 text-3xl font-bold">Sign in to Twistlog</h1>
+      <form onSubmit={submit} className="card space-y-4" noValidate>
+        <label className="block">
+          <span className="field-label">E-mail</span>
+          <input name="email" type="email" autoComplete="username" className="input" required />
+        </label>
+        <label className="block">
+          <span className="field-label">Password</span>
+          <input name="password" type="password" autoComplete="current-password" className="input" required />
+        </label>
+        {(error || signIn.isError) && (
+          <p role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
+            {error ?? signIn.error?.message}
+          </p>
+        )}
+        <button type="submit" className="btn-primary w-full" disabled={signIn.isPending}>
+          {signIn.isPending ? 'Signing in…' : 'Sign in'}
+        </button>
+      </form>
+    </div>
+  );
+}

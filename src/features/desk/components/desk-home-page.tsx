@@ -1,0 +1,40 @@
+import { Link } from 'react-router-dom';
+import { QueryState } from '@/components/query-state';
+import { SafetyNotice } from '@/components/safety-notice';
+import { formatLength } from '@shared/units';
+import { useMe } from '@/features/auth/api/get-me';
+import { useVehicles } from '@/features/vehicles/api/get-vehicles';
+import { SessionListPage } from '@/features/sessions/components/session-list-page';
+
+/** Desk: the team's vehicles and sessions, the starting point for review. */
+export function DeskHomePage() {
+  const me = useMe();
+  const vehicles = useVehicles();
+  const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
+  if (me.data?.role === 'viewer') return <p>Signed-off envelopes shared with you appear here.</p>;
+  return (
+    <div className="space-y-6">
+      <SafetyNotice compact />
+      <section>
+        <h1 className="mb-3 text-2xl font-bold">Vehicles</h1>
+        <QueryState query={vehicles}>
+          {(list) => (
+            <ul className="grid gap-2 sm:grid-cols-2">
+              {list.map((v) => (
+                <li key={v.id} className="card">
+                  <Link to={`/desk/vehicles/${v.id}`} className="text-lg font-bold underline">{v.name}</Link>
+                  <p className="text-sm">{v.chassis}</p>
+                  <p className="text-sm">
+                    Wheelbase {formatLength(v.wheelbaseMm, unit, 0)} · track {formatLength(v.trackFrontMm, unit, 0)} /{' '}
+                    {formatLength(v.trackRearMm, unit, 0)}
+                  </p>
+                </li>
+              ))}
+            </ul>
+          )}
+        </QueryState>
+      </section>
+      <SessionListPage base="/desk" />
+    </div>
+  );
+}

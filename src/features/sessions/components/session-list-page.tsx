@@ -1,0 +1,33 @@
+import { Link } from 'react-router-dom';
+import { QueryState } from '@/components/query-state';
+import { useSessions } from '../api/get-sessions';
+
+/** Field: the team's test sessions, newest first. */
+export function SessionListPage({ base = '/field' }: { base?: string }) {
+  const sessions = useSessions();
+  return (
+    <section>
+      <h1 className="mb-3 text-2xl font-bold">Sessions</h1>
+      <QueryState query={sessions}>
+        {(list) =>
+          list.length === 0 ? (
+            <p>No sessions yet.</p>
+          ) : (
+            <ul className="space-y-2">
+              {list.map((s) => (
+                <li key={s.id}>
+                  <Link to={`${base}/sessions/${s.id}`} className="card flex min-h-touch flex-col hover:border-slate">
+                    <span className="text-lg font-bold">{s.vehicleName}</span>
+                    <span>
+                      {s.testedOn} · {s.title || 'Flex test'}
+                    </span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          )
+        }
+      </QueryState>
+    </section>
+  );
+}

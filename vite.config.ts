@@ -1,0 +1,73 @@
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+import { VitePWA } from 'vite-plugin-pwa';
+import { fileURLToPath } from 'node:url';
+import pkg from './package.json' with { type: 'json' };
+
+// All PWA settings live here. registerType 'prompt': a new version is offered to the user and
+// never forced mid-entry (autoUpdate would reload tabs and lose half-typed readings).
+export default defineConfig({
+  // Busts the persisted query cache whenever a new build ships.
+  define: { __APP_VERSION__: JSON.stringify(`${pkg.version}-${Date.now()}`) },
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+    },
+  },
+  plugins: [
+    react(),
+    tailwindcss(),
+    VitePWA({
+      registerType: 'prompt',
+      injectRegister: null,
+      includeAssets: ['icons/*.png', 'icons/icon.svg'],
+      manifest: {
+        name: 'Twistlog',
+        short_name: 'Twistlog',
+        description: 'Record flex tests in the field; derive and sign off the cab-to-body design envelope.',
+        theme_color: '#10333d',
+        background_color: '#f4f1e8',
+        display: 'standalone',
+        start_url: '/',
+        icons: [
+          { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        ],
+      },
+      workbox: {
+        // The shell and fonts are precached; heavy on-demand chunks (charts, PDF) are not.
+        globPatterns: ['**/*.{js,css,html,woff,woff2,png,svg,webmanifest}'],
+        globIgnores: ['**/lazy-*.js'],
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//, /^\/dev\//],
+        runtimeCaching: [
+          {
+            // On-demand chunks: cached once fetched so a screen opened online also opens offline.
+            urlPattern: ({ url }) => url.pathname.startsWith('/assets/lazy-'),
+            handler: 'CacheFirst',
+            options: { cacheName: 'twistlog-lazy-chunks', expiration: { maxEntries: 30, maxAgeSeconds: 60 * 60 * 24 * 30 } },
+          },
+          {
+            // Photo thumbnails: shown offline after one view; they never change once stored.
+            urlPattern: ({ url }) => /^\/api\/photos\/[^/]+\/thumb$/.test(url.pathname),
+            handler: 'CacheFirst',
+            options: { cacheName: 'twistlog-photo-thumbs', expiration: { maxEntries: 500, maxAgeSeconds: 60 * 60 * 24 * 60 } },
+          },
+        ],
+      },
+    }),
+  ],
+  build: {
+    rollupOptions: {
+      output: {
+        chunkFileNames: (chunk) => (chunk.isDynamicEntry ? 'assets/lazy-[name]-[hash].js' : 'assets/[name]-[hash].js'),
+      },
+    },
+  },
+  server: {
+    proxy: { '/api': 'http://127.0.0.1:5180', '/dev': 'http://127.0.0.1:5180' },
+  },
+});
