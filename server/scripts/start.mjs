@@ -34,6 +34,6 @@ const env = {
   SMTP_PORT: String(smtpPort),
   PHOTO_DIR: process.env.PHOTO_DIR ?? path.join(repoRoot, '.data', 'photos'),
 };
-const { child, done } = spawnChild('npx', ['tsx', 'server/main.ts', '--seed-demo', '--mail-sink'], { cwd: repoRoot, env });
+const { child, done } = spawnChild(process.execPath, ['--import', 'tsx', 'server/main.ts', '--seed-demo', '--mail-sink'], { cwd: repoRoot, env });
 for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => child.kill('SIGTERM'));
 shutdown(await done);

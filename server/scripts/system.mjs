@@ -87,6 +87,7 @@ export async function startCluster({ dataDir, port, fresh = false }) {
   ensureDebPackages(['postgresql']);
   const bin = postgresBinDir();
   let dir = dataDir;
+  fs.mkdirSync(path.dirname(dir), { recursive: true, mode: 0o755 });
   if (isRoot) {
     const probe = spawnSync('runuser', ['-u', 'postgres', '--', 'test', '-x', path.dirname(dir)]);
     if (probe.status !== 0) {

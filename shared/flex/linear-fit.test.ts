@@ -1,0 +1,97 @@
+import { describe, it, expect } from 'vitest';
+import fc from 'fast-check';
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { linearRegression, rSquared } from 'simple-statistics';
+import { linearFit } from './linear-fit';
+import { studentTQuantile } from './student-t';
+import { FlexInputError } from './errors';
+
+// CI copies shared/ beside the repo, so the data sheet lives at <repo>/../shared/data.
+const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const norrisPath = path.resolve(repoRoot, '../shared/data/nist-strd-norris.csv');
+
+function readNorris(): { xs: number[]; ys: number[] } {
+  const rows = readFileSync(norrisPath, 'utf8')
+    .split('\n')
+    .map((line) => line.trim())
+    .filter((line) => line !== '' && !line.startsWith('#') && line !== 'y,x');
+  const ys = rows.map((row) => Number(row.split(',')[0]));
+  const xs = rows.map((row) => Number(row.split(',')[1]));
+  return { xs, ys };
+}
+
+describe('linearFit', () => {
+  it('reproduces the NIST StRD Norris certified values', () => {
+    const { xs, ys } = readNorris();
+    expect(xs).toHaveLength(36);
+    const fit = linearFit(xs, ys, { throughOrigin: false });
+    // NIST StRD linear least squares, dataset Norris, certified values (itl.nist.gov/div898/strd)
+    expect(Math.abs(fit.intercept - -0.262323073774029)).toBeLessThan(1e-9);
+    expect(Math.abs(fit.slope - 1.00211681802045)).toBeLessThan(1e-9);
+    expect(Math.abs(fit.residualSd - 0.884796396144373)).toBeLessThan(1e-9);
+    expect(Math.abs(fit.rSquared - 0.999993745883712)).toBeLessThan(1e-9);
+    expect(fit.df).toBe(34); // NIST StRD Norris: residual df 34
+  });
+
+  it('agrees with simple-statistics least squares on random data', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.double({ min: -50, max: 50, noNaN: true }), fc.double({ min: -500, max: 500, noNaN: true })), {
+          minLength: 3,
+          maxLength: 40,
+        }),
+        (pairs) => {
+          const xs = pairs.map((p) => p[0]);
+          const ys = pairs.map((p) => p[1]);
+          const spread = Math.max(...xs) - Math.min(...xs);
+          fc.pre(spread > 1e-3);
+          const fit = linearFit(xs, ys, { throughOrigin: false });
+          // simple-statistics linearRegression / rSquared (independent implementation)
+          const reference = linearRegression(pairs);
+          expect(fit.slope).toBeCloseTo(reference.m, 6);
+          expect(fit.intercept).toBeCloseTo(reference.b, 5);
+          const r2 = rSquared(pairs, (x) => reference.b + reference.m * x);
+          if (Number.isFinite(r2)) expect(fit.rSquared).toBeCloseTo(Math.max(0, r2), 6);
+        },
+      ),
+    );
+  });
+
+  it('fits through the origin by default with the textbook leverage and bound', () => {
+    const xs = [2, 4, 6, 8];
+    const ys = [9, 21, 29, 41];
+    const fit = linearFit(xs, ys);
+    // hand-checked: Σxy = 18 + 84 + 174 + 328 = 604, Σx² = 120, slope = 5.0333…
+    expect(fit.slope).toBeCloseTo(604 / 120, 12);
+    expect(fit.intercept).toBe(0);
+    expect(fit.df).toBe(3);
+    const ssr = xs.reduce((sum, x, i) => sum + (ys[i] - fit.slope * x) ** 2, 0);
+    expect(fit.residualSd).toBeCloseTo(Math.sqrt(ssr / 3), 12);
+    expect(fit.leverage(10)).toBeCloseTo(100 / 120, 12);
+    // Draper & Smith §3.1: ŷ + t(0.95, df)·s·√(1 + h)
+    expect(fit.upperPredictionBound(10, 0.95)).toBeCloseTo(
+      fit.slope * 10 + studentTQuantile(0.95, 3) * fit.residualSd * Math.sqrt(1 + 100 / 120),
+      12,
+    );
+    expect(fit.upperPredictionBound(10, 0.95)).toBeGreaterThan(fit.predict(10));
+  });
+
+  it('reports R² = 1 and a zero-width bound for exact data', () => {
+    const fit = linearFit([1, 2, 3], [3, 6, 9]);
+    expect(fit.slope).toBe(3);
+    expect(fit.rSquared).toBe(1);
+    expect(fit.upperPredictionBound(5, 0.99)).toBeCloseTo(15, 12);
+  });
+
+  it('throws FlexInputError for unusable input', () => {
+    expect(() => linearFit([1], [2])).toThrowError(/linearFit: xs needs at least 2 points/);
+    expect(() => linearFit([1, 2], [2, 3], { throughOrigin: false })).toThrowError(FlexInputError);
+    expect(() => linearFit([0, 0, 0], [1, 2, 3])).toThrowError(/all 0/);
+    expect(() => linearFit([1, 1, 1], [1, 2, 3], { throughOrigin: false })).toThrowError(/all equal/);
+    expect(() => linearFit([1, 2, NaN], [1, 2, 3])).toThrowError(/xs\[2\]/);
+    expect(() => linearFit([1, 2], [1, 2, 3])).toThrowError(/ys must have the same length/);
+    expect(() => linearFit([1, 2, 3], [1, 2, 3]).predict(NaN)).toThrowError(FlexInputError);
+  });
+});

@@ -1,0 +1,106 @@
+// The server under test: the real app on the real PostgreSQL that `npm test` started
+// (DATABASE_URL), listening on a free loopback port, with supertest agents that carry cookies
+// and this host's Origin like a browser would.
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { randomUUID } from 'node:crypto';
+import path from 'node:path';
+import { pino } from 'pino';
+import request from 'supertest';
+import type { Sequelize } from 'sequelize';
+import { createSequelize } from '../../server/db';
+import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models';
+import { migrate } from '../../server/migrate';
+import { createApp } from '../../server/app';
+import { hashPassword } from '../../server/auth/lucia';
+import type { Role } from '../../shared/schemas';
+
+export const repoRoot = path.resolve(import.meta.dirname, '../..');
+
+export interface TestServer {
+  sequelize: Sequelize;
+  server: http.Server;
+  baseUrl: string;
+  origin: string;
+  close(): Promise<void>;
+}
+
+export async function startTestServer(opts: { clientDir?: string } = {}): Promise<TestServer> {
+  const url = process.env.DATABASE_URL;
+  if (!url) throw new Error('DATABASE_URL is not set: run the tests with `npm test`, which starts PostgreSQL');
+  const sequelize = createSequelize(url, 10);
+  initModels(sequelize);
+  await migrate(sequelize);
+  const app = createApp({ logger: pino({ level: 'silent' }), clientDir: opts.clientDir });
+  const server = http.createServer(app);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const { port } = server.address() as AddressInfo;
+  const baseUrl = `http://127.0.0.1:${port}`;
+  return {
+    sequelize,
+    server,
+    baseUrl,
+    origin: baseUrl,
+    async close() {
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await sequelize.close();
+    },
+  };
+}
+
+export type Agent = ReturnType<typeof request.agent>;
+
+/** A browser-like client: keeps cookies and sends this server's Origin on every request. */
+export function agentFor(ts: TestServer): Agent {
+  const agent = request.agent(ts.server);
+  agent.set('Origin', ts.origin);
+  return agent;
+}
+
+export const TEST_PASSWORD = 'correct horse battery staple';
+let passwordHash: Promise<string> | undefined;
+
+export interface TestTeam {
+  teamId: string;
+  members: Record<Role, { userId: string; email: string }>;
+}
+
+/** A fresh team with one member of each role (each test builds its own data). */
+export async function createTeam(name = 'Test workshop'): Promise<TestTeam> {
+  passwordHash ??= hashPassword(TEST_PASSWORD);
+  const hash = await passwordHash;
+  const teamId = randomUUID();
+  await TeamModel.create({ id: teamId, name });
+  const members = {} as TestTeam['members'];
+  for (const role of ['admin', 'engineer', 'tester', 'viewer'] as const) {
+    const userId = randomUUID();
+    const email = `${role}-${userId.slice(0, 8)}@workshop.test`;
+    await UserModel.create({ id: userId, email, name: `${role} ${userId.slice(0, 4)}`, passwordHash: hash });
+    await MembershipModel.create({ id: randomUUID(), teamId, userId, role });
+    members[role] = { userId, email };
+  }
+  return { teamId, members };
+}
+
+export async function signedInAgent(ts: TestServer, email: string): Promise<Agent> {
+  const agent = agentFor(ts);
+  const res = await agent.post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD });
+  if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status} ${JSON.stringify(res.body)}`);
+  return agent;
+}
+
+export function vehicleBody(overrides: Record<string, unknown> = {}) {
+  return {
+    id: randomUUID(),
+    name: 'Test truck',
+    chassis: 'Medium 4×4',
+    body: 'Box body',
+    wheelbaseMm: 3800,
+    trackFrontMm: 1900,
+    trackRearMm: 1880,
+    opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
+    nominalGapMm: 90,
+    notes: '',
+    ...overrides,
+  };
+}
