@@ -9,19 +9,23 @@ const extraArgs = process.argv.slice(2);
 
 ensureNpmPackages();
 ensureDebPackages(['chromium', 'fonts-dejavu-core']);
-const cluster = await startCluster({ dataDir: path.join(repoRoot, '.data', 'pg-test'), port: pgPort, fresh: true });
+// Port-specific folders let two runs (e.g. two developers on one machine) proceed side by side.
+const cluster = await startCluster({ dataDir: path.join(repoRoot, '.data', `pg-test-${pgPort}`), port: pgPort, fresh: true });
+const clientDir = path.join(repoRoot, '.data', `dist-test-${pgPort}`);
 let code = 1;
-const report = path.join(repoRoot, '.data', 'test-report.json');
+const report = path.join(repoRoot, '.data', `test-report-${pgPort}.json`);
 try {
   ensureDatabase(cluster, 'twistlog_test');
   log('building the client for the browser tests…');
-  run('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: repoRoot });
+  run('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', clientDir, '--emptyOutDir'], { cwd: repoRoot });
   fs.rmSync(report, { force: true });
   const env = {
     ...process.env,
     NODE_ENV: 'test',
     DATABASE_URL: cluster.url('twistlog_test'),
-    PHOTO_DIR: path.join(repoRoot, '.data', 'photos-test'),
+    PHOTO_DIR: path.join(repoRoot, '.data', `photos-test-${pgPort}`),
+    CLIENT_DIR: clientDir,
+    SMTP_PORT: String(pgPort + 1),
     LOG_LEVEL: 'silent',
     CHROMIUM_PATH: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
   };

@@ -11,6 +11,7 @@
  * Example: buildSyntheticSession({ poses: 4, seed: 1 }).poses.length // => 5 (baseline + 4)
  */
 import { predictDisplacement } from './predict-displacement';
+import { crossAxleTwistDeg } from './twist';
 import type { Axis, GaugePoint, Reading, RigidMotion, WheelLifts } from './types';
 import type { OpeningOutline } from './perimeter';
 
@@ -144,8 +145,7 @@ export function buildSyntheticSession(options: SyntheticSessionOptions = {}): Sy
     // Step the lift up to the maximum and alternate the diagonal, as a crew works through a flex test.
     const lift = maxLift * ((Math.floor(i / 2) % 4) + 1) / 4;
     const lifts: WheelLifts = i % 2 === 0 ? { fl: lift, fr: 0, rl: 0, rr: lift * 0.8 } : { fl: 0, fr: lift, rl: lift * 0.8, rr: 0 };
-    const twist =
-      (Math.atan((lifts.fl - lifts.fr) / tracks.frontMm) - Math.atan((lifts.rl - lifts.rr) / tracks.rearMm)) * (180 / Math.PI);
+    const twist = crossAxleTwistDeg(lifts, tracks.frontMm, tracks.rearMm);
     poses.push({ id: `pose-${i + 1}`, lifts, readings: readingsFor(twist, false) });
   }
   return { tracks, outline, gaugePoints, baselinePoseId: 'level', poses, motionPerDeg: perDeg };

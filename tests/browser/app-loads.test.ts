@@ -2,14 +2,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import path from 'node:path';
 import type { Browser } from 'playwright-core';
-import { repoRoot, startTestServer, type TestServer } from '../support/test-app';
+import { clientDir, startTestServer, type TestServer } from '../support/test-app';
 import { launchBrowser, screenshotDir } from '../support/browser';
 import { seedDemo, DEMO_SIGN_IN } from '../../server/seed/demo';
 
 let ts: TestServer;
 let browser: Browser;
 beforeAll(async () => {
-  ts = await startTestServer({ clientDir: path.join(repoRoot, 'dist') });
+  ts = await startTestServer({ clientDir });
   await seedDemo();
   browser = await launchBrowser();
 });

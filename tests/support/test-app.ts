@@ -16,6 +16,8 @@ import { hashPassword } from '../../server/auth/lucia';
 import type { Role } from '../../shared/schemas';
 
 export const repoRoot = path.resolve(import.meta.dirname, '../..');
+/** The client build `npm test` made for this run. */
+export const clientDir = process.env.CLIENT_DIR ?? path.join(repoRoot, 'dist');
 
 export interface TestServer {
   sequelize: Sequelize;
