@@ -4,5 +4,8 @@ import { healthRoutes } from './health';
 import { authRoutes } from './auth';
 import { vehicleRoutes } from './vehicles';
 import { sessionRoutes } from './sessions';
+import { teamRoutes } from './team';
+import { syncRoutes } from './sync';
+import { photoRoutes } from './photos';
 
-export const allRoutes: AnyRoute[] = [...healthRoutes, ...authRoutes, ...vehicleRoutes, ...sessionRoutes];
+export const allRoutes: AnyRoute[] = [...healthRoutes, ...authRoutes, ...teamRoutes, ...vehicleRoutes, ...sessionRoutes, ...syncRoutes, ...photoRoutes];

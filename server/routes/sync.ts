@@ -1,0 +1,30 @@
+import { z } from 'zod';
+import { route } from './route';
+import { id } from '../../shared/schemas';
+import { pullQuery, pushRequest, resolveConflictInput } from '../../shared/schemas/sync';
+import { pullChanges, pushBatch, resolveConflict } from '../services/sync.service';
+
+export const syncRoutes = [
+  route({
+    method: 'post',
+    path: '/api/sync/push',
+    access: 'session.record',
+    body: pushRequest,
+    handler: async ({ auth, body }) => pushBatch(auth, body),
+  }),
+  route({
+    method: 'get',
+    path: '/api/sync/pull',
+    access: 'session.read',
+    query: pullQuery,
+    handler: async ({ auth, query }) => pullChanges(auth, query.since, query.limit),
+  }),
+  route({
+    method: 'post',
+    path: '/api/sync/conflicts/:id/resolve',
+    access: 'session.record',
+    params: z.object({ id }),
+    body: resolveConflictInput,
+    handler: async ({ auth, params, body }) => resolveConflict(auth, params.id, body.keep),
+  }),
+];

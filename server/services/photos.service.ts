@@ -1,0 +1,178 @@
+// Photos: checked, read for capture time and GPS (exifr), re-encoded without any metadata and
+// thumbnailed (sharp), then stored under server-made names and recorded against the session.
+import exifr from 'exifr';
+import sharp, { type Metadata } from 'sharp';
+import { UniqueConstraintError } from 'sequelize';
+import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
+import { PhotoModel, PoseModel, TestSessionModel } from '../models';
+import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-store';
+import type { AuthContext } from '../auth/context';
+import type { Photo } from '../../shared/schemas';
+import type { PhotoUploadFields } from '../../shared/schemas/sync';
+
+/** Largest upload: a full-resolution phone photo is 3–12 MB (common practice). */
+export const MAX_PHOTO_BYTES = 20 * 1024 * 1024;
+/** Pixel ceiling against decompression bombs: 50 MP covers the 48 MP phone sensors (from memory). */
+export const MAX_PHOTO_PIXELS = 50_000_000;
+/** The stored copy's longest side; plenty to read a gauge mark, far smaller than the original. */
+const STORED_MAX_SIDE = 2560;
+const THUMB_MAX_SIDE = 320;
+
+type ImageKind = 'jpeg' | 'png' | 'webp';
+
+/** What the first bytes say the file is; the extension and the client's MIME type are not trusted. */
+export function sniffImage(buf: Buffer): ImageKind | null {
+  if (buf.length >= 3 && buf[0] === 0xff && buf[1] === 0xd8 && buf[2] === 0xff) return 'jpeg';
+  if (buf.length >= 8 && buf.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))) return 'png';
+  if (buf.length >= 12 && buf.toString('latin1', 0, 4) === 'RIFF' && buf.toString('latin1', 8, 12) === 'WEBP') return 'webp';
+  return null;
+}
+
+interface Metadata {
+  capturedAt: Date | null;
+  gpsLat: number | null;
+  gpsLon: number | null;
+}
+
+async function readMetadata(buf: Buffer): Promise<Metadata> {
+  try {
+    const m = await exifr.parse(buf, { gps: true, exif: true, tiff: true, xmp: false, icc: false, iptc: false });
+    const when = m?.DateTimeOriginal ?? m?.CreateDate;
+    const lat = typeof m?.latitude === 'number' && Number.isFinite(m.latitude) ? m.latitude : null;
+    const lon = typeof m?.longitude === 'number' && Number.isFinite(m.longitude) ? m.longitude : null;
+    return { capturedAt: when instanceof Date && !Number.isNaN(when.getTime()) ? when : null, gpsLat: lat, gpsLon: lon };
+  } catch {
+    // Unreadable EXIF is not a reason to lose the photo.
+    return { capturedAt: null, gpsLat: null, gpsLon: null };
+  }
+}
+
+async function reencode(buf: Buffer) {
+  const input = () => sharp(buf, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' });
+  let meta: Metadata;
+  try {
+    meta = await input().metadata();
+  } catch {
+    throw new Invalid('photo: the file could not be read as an image', [{ field: 'photo', message: 'not a readable image' }]);
+  }
+  const pixels = (meta.width ?? 0) * (meta.height ?? 0);
+  if (pixels > MAX_PHOTO_PIXELS) {
+    throw new Invalid(`photo: ${meta.width}×${meta.height} is more than ${MAX_PHOTO_PIXELS / 1e6} megapixels`, [
+      { field: 'photo', message: `too many pixels (${meta.width}×${meta.height}); at most ${MAX_PHOTO_PIXELS / 1e6} MP` },
+    ]);
+  }
+  try {
+    // rotate() applies the EXIF orientation; no withMetadata/withExif, so nothing (GPS included) is copied.
+    const stored = await input()
+      .rotate()
+      .resize({ width: STORED_MAX_SIDE, height: STORED_MAX_SIDE, fit: 'inside', withoutEnlargement: true })
+      .jpeg({ quality: 85 })
+      .toBuffer({ resolveWithObject: true });
+    const thumb = await sharp(stored.data)
+      .resize({ width: THUMB_MAX_SIDE, height: THUMB_MAX_SIDE, fit: 'inside', withoutEnlargement: true })
+      .jpeg({ quality: 75 })
+      .toBuffer();
+    return { stored, thumb };
+  } catch (err) {
+    const message = /pixel limit/i.test(String((err as Error).message)) ? `more than ${MAX_PHOTO_PIXELS / 1e6} megapixels` : 'the image data is damaged';
+    throw new Invalid(`photo: ${message}`, [{ field: 'photo', message }]);
+  }
+}
+
+const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
+
+export const photoOut = (p: PhotoModel): Photo & { changeSeq: number } => ({
+  id: p.id,
+  version: p.version,
+  deletedAt: iso(p.deletedAt),
+  sessionId: p.sessionId,
+  poseId: p.poseId,
+  caption: p.caption,
+  mime: p.mime,
+  width: p.width,
+  height: p.height,
+  bytes: p.bytes,
+  capturedAt: iso(p.capturedAt),
+  hasGps: p.gpsLat != null && p.gpsLon != null,
+  changeSeq: p.changeSeq,
+});
+
+/** A raw photos row (as a pull reads it) → the photo record. */
+export function photoRecordFromRow(r: Record<string, unknown>): Photo & { changeSeq: number } {
+  return {
+    id: r.id as string,
+    version: r.version as number,
+    deletedAt: iso(r.deleted_at as Date | null),
+    sessionId: r.session_id as string,
+    poseId: (r.pose_id as string | null) ?? null,
+    caption: r.caption as string,
+    mime: r.mime as string,
+    width: r.width as number,
+    height: r.height as number,
+    bytes: r.bytes as number,
+    capturedAt: iso(r.captured_at as Date | null),
+    hasGps: r.gps_lat != null && r.gps_lon != null,
+    changeSeq: Number(r.change_seq),
+  };
+}
+
+/**
+ * Stores one uploaded photo. The client's id makes a retried upload (lost answer) return the
+ * photo already stored instead of storing it twice.
+ */
+export async function savePhoto(auth: AuthContext, fields: { id: string; sessionId: string; poseId: string | null; caption: string }, file: Buffer | undefined) {
+  if (!file) throw new Invalid('photo: no file was sent', [{ field: 'photo', message: 'required' }]);
+  const existing = await PhotoModel.findByPk(fields.id);
+  if (existing) {
+    if (existing.teamId !== auth.teamId) throw new Conflict('that photo id is taken');
+    return { photo: photoOut(existing), created: false };
+  }
+  const kind = sniffImage(file);
+  if (!kind) {
+    throw new Invalid('photo: not a JPEG, PNG or WebP image (checked by its first bytes)', [
+      { field: 'photo', message: 'unsupported file type: send a JPEG, PNG or WebP photo' },
+    ]);
+  }
+  const session = await TestSessionModel.findOne({ where: { id: fields.sessionId, teamId: auth.teamId } });
+  if (!session) throw new Invalid('body.sessionId: session not found', [{ field: 'body.sessionId', message: 'no such session in your team' }]);
+  if (fields.poseId) {
+    const pose = await PoseModel.findOne({ where: { id: fields.poseId, teamId: auth.teamId, sessionId: fields.sessionId } });
+    if (!pose) throw new Invalid('body.poseId: pose not found in that session', [{ field: 'body.poseId', message: 'no such pose in that session' }]);
+  }
+  // Metadata first: the re-encoded copy no longer has it.
+  const meta = await readMetadata(file);
+  const { stored, thumb } = await reencode(file);
+  const files = await writePhotoFiles(stored.data, thumb);
+  try {
+    const row = await PhotoModel.create({
+      id: fields.id,
+      teamId: auth.teamId,
+      sessionId: fields.sessionId,
+      poseId: fields.poseId,
+      caption: fields.caption,
+      ...files,
+      mime: 'image/jpeg',
+      width: stored.info.width,
+      height: stored.info.height,
+      bytes: stored.data.length,
+      ...meta,
+      createdBy: auth.userId,
+    });
+    return { photo: photoOut(row), created: true };
+  } catch (err) {
+    await removePhotoFiles(files);
+    // The same photo sent twice at once: the first one stored wins, the second answers with it.
+    const winner = err instanceof UniqueConstraintError ? await PhotoModel.findOne({ where: { id: fields.id, teamId: auth.teamId } }) : null;
+    if (winner) return { photo: photoOut(winner), created: false };
+    throw err;
+  }
+}
+
+/** The file of a team's photo (full size or thumbnail). */
+export async function photoFile(auth: AuthContext, id: string, size: 'full' | 'thumb'): Promise<string> {
+  const p = await PhotoModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null } });
+  if (!p) throw new NotFound('photo');
+  return photoPath(size === 'thumb' ? p.thumbName : p.storedName);
+}
+
+export const tooLarge = () => new AppError(413, 'too_large', `photo is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB`, [{ field: 'photo', message: 'file too large' }]);

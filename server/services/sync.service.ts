@@ -1,0 +1,385 @@
+// Push and pull for the field client.
+//
+// Push applies one batch in ONE transaction: every record is checked first (team ownership,
+// references, uniqueness, versions), and any problem rejects the whole batch with field errors
+// naming the record and the field; only then are rows written, with one array-based statement
+// per table and kind (insert / update), not one query per row. A stale base version is a
+// conflict: the server row stays as it is and both versions are kept in sync_conflicts. The
+// answer is stored under the batch's idempotency key, so the same batch twice writes once and
+// answers the same.
+//
+// Pull returns rows whose change_seq is past the client's cursor. change_seq comes from one
+// global sequence stamped by a trigger; a transaction that took a number but has not committed
+// yet would be skipped by a cursor that already moved past it. Pushes therefore hold the team's
+// change lock until they commit and pulls wait on it (shared), so a pull never sees a later
+// number before an earlier one of the same team. Other writers of synced rows should take the
+// same lock (lockTeamChanges).
+import { createHash, randomUUID } from 'node:crypto';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { AuthContext } from '../auth/context';
+import { Conflict, Invalid, NotFound, type FieldError } from '../http/errors';
+import { VehicleModel } from '../models';
+import { photoRecordFromRow } from './photos.service';
+import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
+import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
+
+type Row = Record<string, unknown>;
+
+const db = (): Sequelize => VehicleModel.sequelize!;
+
+async function select<T = Row>(sql: string, bind: unknown[], transaction: Transaction): Promise<T[]> {
+  return db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
+}
+
+/** Serialises writers of one team's synced rows against pulls (see the header). */
+export async function lockTeamChanges(teamId: string, transaction: Transaction, mode: 'write' | 'read' = 'write') {
+  const fn = mode === 'write' ? 'pg_advisory_xact_lock' : 'pg_advisory_xact_lock_shared';
+  await db().query(`SELECT ${fn}(hashtextextended('twistlog-sync:' || $1, 0))`, { bind: [teamId], transaction, type: QueryTypes.SELECT });
+}
+
+const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
+
+interface Item {
+  index: number;
+  entity: SyncEntity;
+  record: Record<string, unknown> & { id: string; version: number };
+}
+
+interface Plan {
+  inserts: Map<SyncEntity, Item[]>;
+  updates: Map<SyncEntity, Item[]>;
+  conflicts: { item: Item; serverRow: Row }[];
+}
+
+const field = (item: Item, key: string) => `body.changes.${item.index}.record.${key}`;
+const short = (id: string) => id.slice(0, 8);
+
+export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<PushResponse> {
+  const hash = requestHash(req);
+  return db().transaction(async (transaction) => {
+    await lockTeamChanges(auth.teamId, transaction);
+    const [earlier] = await select<{ request_hash: string; response: PushResponse }>(
+      'SELECT request_hash, response FROM sync_batches WHERE team_id = $1 AND idempotency_key = $2',
+      [auth.teamId, req.idempotencyKey],
+      transaction,
+    );
+    if (earlier) {
+      if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
+      return earlier.response;
+    }
+    const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
+    const plan = await checkBatch(auth, items, transaction);
+    const response = await applyPlan(auth, plan, transaction);
+    await db().query(
+      'INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)',
+      { bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)], transaction },
+    );
+    return response;
+  });
+}
+
+/** Every check before any write; throws Invalid naming each bad record and field. */
+async function checkBatch(auth: AuthContext, items: Item[], transaction: Transaction): Promise<Plan> {
+  const errors: FieldError[] = [];
+  const byEntity = new Map<SyncEntity, Item[]>(syncOrder.map((e) => [e, []]));
+  const seen = new Map<string, Item>();
+  for (const item of items) {
+    const key = `${item.entity}:${item.record.id}`;
+    const first = seen.get(key);
+    if (first) errors.push({ field: field(item, 'id'), message: `${item.entity} ${item.record.id} appears twice in the batch (also change ${first.index})` });
+    else {
+      seen.set(key, item);
+      byEntity.get(item.entity)!.push(item);
+    }
+  }
+
+  const plan: Plan = { inserts: new Map(), updates: new Map(), conflicts: [] };
+  /** Ids each entity will have after this batch: the batch's records plus the team's rows. */
+  const known = new Map<SyncEntity, Set<string>>(syncOrder.map((e) => [e, new Set(byEntity.get(e)!.map((i) => i.record.id))]));
+  const rowsById = new Map<SyncEntity, Map<string, Row>>();
+
+  for (const entity of syncOrder) {
+    const spec = syncTables[entity];
+    const list = byEntity.get(entity)!;
+    const rows = list.length
+      ? await select(`SELECT * FROM ${spec.table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [list.map((i) => i.record.id)], transaction)
+      : [];
+    const rowMap = new Map(rows.map((r) => [r.id as string, r]));
+    rowsById.set(entity, rowMap);
+    const inserts: Item[] = [];
+    const updates: Item[] = [];
+    for (const item of list) {
+      const row = rowMap.get(item.record.id);
+      if (!row) {
+        if (item.record.version !== 1) {
+          errors.push({ field: field(item, 'version'), message: `${entity} ${short(item.record.id)} is not on the server, so its version must be 1, got ${item.record.version}` });
+        } else inserts.push(item);
+      } else if (row.team_id !== auth.teamId) {
+        errors.push({ field: field(item, 'id'), message: `${entity} id ${item.record.id} is already taken` });
+      } else if (row.version !== item.record.version) {
+        plan.conflicts.push({ item, serverRow: row });
+      } else updates.push(item);
+    }
+    plan.inserts.set(entity, inserts);
+    plan.updates.set(entity, updates);
+  }
+
+  await checkReferences(auth, byEntity, known, errors, transaction);
+  await checkReadingsUnique(byEntity.get('reading')!, errors, transaction);
+  await checkGaugeLabelsUnique(byEntity.get('gaugePoint')!, errors, transaction);
+
+  if (errors.length) {
+    errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
+    throw new Invalid(`batch rejected, nothing was written: ${errors.length} problem${errors.length > 1 ? 's' : ''}, first ${errors[0].field}: ${errors[0].message}`, errors);
+  }
+  return plan;
+}
+
+async function checkReferences(
+  auth: AuthContext,
+  byEntity: Map<SyncEntity, Item[]>,
+  known: Map<SyncEntity, Set<string>>,
+  errors: FieldError[],
+  transaction: Transaction,
+) {
+  // Referenced ids not in this batch must be the team's rows; one query per referenced table.
+  const wanted = new Map<SyncEntity, Set<string>>();
+  for (const entity of syncOrder) {
+    for (const ref of syncTables[entity].references) {
+      for (const item of byEntity.get(entity)!) {
+        const target = item.record[ref.key] as string;
+        if (!known.get(ref.entity)!.has(target)) {
+          if (!wanted.has(ref.entity)) wanted.set(ref.entity, new Set());
+          wanted.get(ref.entity)!.add(target);
+        }
+      }
+    }
+  }
+  for (const [entity, ids] of wanted) {
+    const rows = await select<{ id: string }>(
+      `SELECT id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($2::uuid[])`,
+      [auth.teamId, [...ids]],
+      transaction,
+    );
+    for (const r of rows) known.get(entity)!.add(r.id);
+  }
+  for (const entity of syncOrder) {
+    for (const ref of syncTables[entity].references) {
+      for (const item of byEntity.get(entity)!) {
+        const target = item.record[ref.key] as string;
+        if (!known.get(ref.entity)!.has(target)) {
+          errors.push({ field: field(item, ref.key), message: `${entity} ${short(item.record.id)} refers to ${ref.entity} ${target}, which is neither in this batch nor on the server` });
+        }
+      }
+    }
+  }
+}
+
+/** One reading per pose, gauge point and axis (the table's unique key), within the batch and against the server. */
+async function checkReadingsUnique(readings: Item[], errors: FieldError[], transaction: Transaction) {
+  if (!readings.length) return;
+  const slot = (r: Record<string, unknown>) => `${r.poseId}|${r.gaugePointId}|${r.axis}`;
+  const claimed = new Map<string, string>();
+  const poseIds = [...new Set(readings.map((i) => i.record.poseId as string))];
+  const rows = await select<{ id: string; pose_id: string; gauge_point_id: string; axis: string }>(
+    'SELECT id, pose_id, gauge_point_id, axis FROM readings WHERE pose_id = ANY($1::uuid[])',
+    [poseIds],
+    transaction,
+  );
+  const batchIds = new Set(readings.map((i) => i.record.id));
+  for (const r of rows) if (!batchIds.has(r.id)) claimed.set(`${r.pose_id}|${r.gauge_point_id}|${r.axis}`, r.id);
+  for (const item of readings) {
+    const key = slot(item.record);
+    const holder = claimed.get(key);
+    if (holder && holder !== item.record.id) {
+      errors.push({ field: field(item, 'axis'), message: `reading ${short(item.record.id)}: pose ${short(item.record.poseId as string)} already has a ${item.record.axis} reading at this gauge point (reading ${short(holder)})` });
+    } else claimed.set(key, item.record.id);
+  }
+}
+
+/** Live gauge point labels are unique per vehicle. */
+async function checkGaugeLabelsUnique(points: Item[], errors: FieldError[], transaction: Transaction) {
+  const live = points.filter((p) => !p.record.deletedAt);
+  if (!live.length) return;
+  const vehicleIds = [...new Set(live.map((p) => p.record.vehicleId as string))];
+  const rows = await select<{ id: string; vehicle_id: string; label: string }>(
+    'SELECT id, vehicle_id, label FROM gauge_points WHERE vehicle_id = ANY($1::uuid[]) AND deleted_at IS NULL',
+    [vehicleIds],
+    transaction,
+  );
+  const batchIds = new Set(points.map((p) => p.record.id));
+  const claimed = new Map<string, string>();
+  for (const r of rows) if (!batchIds.has(r.id)) claimed.set(`${r.vehicle_id}|${r.label}`, r.id);
+  for (const item of live) {
+    const key = `${item.record.vehicleId}|${item.record.label}`;
+    const holder = claimed.get(key);
+    if (holder && holder !== item.record.id) {
+      errors.push({ field: field(item, 'label'), message: `gauge point label '${item.record.label}' is already used on this vehicle` });
+    } else claimed.set(key, item.record.id);
+  }
+}
+
+async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction): Promise<PushResponse> {
+  const accepted: PushResponse['accepted'] = [];
+  for (const entity of syncOrder) {
+    const spec = syncTables[entity];
+    const inserts = plan.inserts.get(entity)!;
+    if (inserts.length) {
+      await bulkInsert(auth, spec, inserts, transaction);
+      for (const i of inserts) accepted.push({ entity, id: i.record.id, version: 1 });
+    }
+    const updates = plan.updates.get(entity)!;
+    if (updates.length) {
+      const rows = await bulkUpdate(auth, spec, updates, transaction);
+      for (const r of rows) accepted.push({ entity, id: r.id, version: r.version });
+    }
+  }
+  const conflicts = await keepConflicts(auth, plan.conflicts, transaction);
+  return { accepted, conflicts };
+}
+
+/** unnest($n::type[], …) AS u(id, cols…): one typed array per column, so the row count never meets the parameter limit. */
+function unnestSource(spec: SyncTable, items: Item[], firstParam: number) {
+  const bind: unknown[] = [items.map((i) => i.record.id), items.map((i) => i.record.version)];
+  const arrays = [`$${firstParam}::uuid[]`, `$${firstParam + 1}::int4[]`];
+  spec.columns.forEach((col, k) => {
+    bind.push(items.map((i) => columnValue(col, i.record)));
+    arrays.push(`$${firstParam + 2 + k}::${col.type}[]`);
+  });
+  const names = ['id', 'base_version', ...spec.columns.map((col) => col.column)];
+  return { bind, sql: `unnest(${arrays.join(', ')}) AS u(${names.join(', ')})` };
+}
+
+async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {
+  // $2 (the signed-in user) is bound only where a column takes it: PostgreSQL refuses an untyped unused parameter.
+  const needsUser = Boolean(spec.createdByColumn);
+  const src = unnestSource(spec, items, needsUser ? 3 : 2);
+  const cols = spec.columns.map((col) => col.column);
+  const extraCols = [...(spec.createdByColumn ? [spec.createdByColumn] : []), ...(spec.entity === 'testSession' ? ['safety_ack_by'] : [])];
+  const extraVals = [...(spec.createdByColumn ? ['$2::uuid'] : []), ...(spec.entity === 'testSession' ? ['CASE WHEN u.safety_ack_at IS NULL THEN NULL ELSE $2::uuid END'] : [])];
+  const sql = `INSERT INTO ${spec.table} (id, team_id, version, ${[...cols, ...extraCols].join(', ')})
+    SELECT u.id, $1::uuid, 1, ${[...cols.map((c) => `u.${c}`), ...extraVals].join(', ')} FROM ${src.sql}`;
+  await db().query(sql, { bind: [auth.teamId, ...(needsUser ? [auth.userId] : []), ...src.bind], transaction });
+}
+
+async function bulkUpdate(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {
+  const needsUser = spec.entity === 'testSession';
+  const src = unnestSource(spec, items, needsUser ? 3 : 2);
+  const sets = spec.columns.map((col) => `${col.column} = u.${col.column}`);
+  if (spec.entity === 'testSession') {
+    // Who acknowledged the checklist is the person who first sent the acknowledgement.
+    sets.push('safety_ack_by = CASE WHEN u.safety_ack_at IS NULL THEN NULL WHEN t.safety_ack_at IS NULL THEN $2::uuid ELSE t.safety_ack_by END');
+  }
+  // The base-version condition repeats the check made under FOR UPDATE, so a stale row can never be overwritten.
+  const sql = `UPDATE ${spec.table} AS t SET ${sets.join(', ')}, version = t.version + 1
+    FROM ${src.sql}
+    WHERE t.id = u.id AND t.team_id = $1::uuid AND t.version = u.base_version
+    RETURNING t.id, t.version`;
+  const rows = await select<{ id: string; version: number }>(sql, [auth.teamId, ...(needsUser ? [auth.userId] : []), ...src.bind], transaction);
+  if (rows.length !== items.length) throw new Error(`${spec.table}: ${items.length - rows.length} row(s) changed under the lock`);
+  return rows;
+}
+
+async function keepConflicts(auth: AuthContext, conflicts: Plan['conflicts'], transaction: Transaction): Promise<SyncConflict[]> {
+  if (!conflicts.length) return [];
+  const ids = conflicts.map(() => randomUUID());
+  const rows = await select(
+    `INSERT INTO sync_conflicts (id, team_id, entity, entity_id, base_version, server_version, client_record, server_record, user_id)
+     SELECT u.id, $1::uuid, u.entity, u.entity_id, u.base_version, u.server_version, u.client_record, u.server_record, $2::uuid
+     FROM unnest($3::uuid[], $4::text[], $5::uuid[], $6::int4[], $7::int4[], $8::jsonb[], $9::jsonb[])
+       AS u(id, entity, entity_id, base_version, server_version, client_record, server_record)
+     RETURNING *`,
+    [
+      auth.teamId,
+      auth.userId,
+      ids,
+      conflicts.map((c) => c.item.entity),
+      conflicts.map((c) => c.item.record.id),
+      conflicts.map((c) => c.item.record.version),
+      conflicts.map((c) => c.serverRow.version),
+      conflicts.map((c) => JSON.stringify(c.item.record)),
+      conflicts.map((c) => JSON.stringify(withoutSeq(rowToRecord(syncTables[c.item.entity], c.serverRow)))),
+    ],
+    transaction,
+  );
+  const byId = new Map(rows.map((r) => [r.id as string, r]));
+  return ids.map((id) => conflictOut(byId.get(id)!));
+}
+
+function withoutSeq<T extends { changeSeq: number }>(r: T): Omit<T, 'changeSeq'> {
+  const { changeSeq: _drop, ...rest } = r;
+  return rest;
+}
+
+const iso = (v: unknown) => (v == null ? null : new Date(v as string).toISOString());
+
+function conflictOut(r: Row): SyncConflict {
+  return {
+    id: r.id as string,
+    entity: r.entity as SyncEntity,
+    entityId: r.entity_id as string,
+    baseVersion: r.base_version as number,
+    serverVersion: r.server_version as number,
+    clientRecord: r.client_record as Record<string, unknown>,
+    serverRecord: r.server_record as Record<string, unknown>,
+    createdAt: iso(r.created_at)!,
+    resolvedAt: iso(r.resolved_at),
+    resolution: (r.resolution as 'client' | 'server' | null) ?? null,
+  };
+}
+
+/** Everything of the team changed after `since`, oldest first, at most `limit` rows per table. */
+export async function pullChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
+  return db().transaction(async (transaction) => {
+    await lockTeamChanges(auth.teamId, transaction, 'read');
+    const page = (table: string) =>
+      select(`SELECT * FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
+    const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'] as const;
+    const pages = await Promise.all(tables.map(async (t) => [t, await page(t)] as const));
+    // A full page may have more behind it: stop the cursor at the lowest last seq of the full
+    // pages, and hold back every row beyond it so no table skips rows.
+    const full = pages.filter(([, rows]) => rows.length === limit);
+    const allSeqs = pages.flatMap(([, rows]) => rows.map((r) => Number(r.change_seq)));
+    const cursor = full.length
+      ? Math.min(...full.map(([, rows]) => Number(rows[rows.length - 1].change_seq)))
+      : Math.max(since, ...allSeqs);
+    const get = (t: (typeof tables)[number]) => pages.find(([name]) => name === t)![1].filter((r) => Number(r.change_seq) <= cursor);
+    return {
+      cursor,
+      hasMore: full.length > 0,
+      vehicles: get('vehicles').map((r) => rowToRecord(syncTables.vehicle, r)),
+      gaugePoints: get('gauge_points').map((r) => rowToRecord(syncTables.gaugePoint, r)),
+      testSessions: get('test_sessions').map((r) => rowToRecord(syncTables.testSession, r)),
+      poses: get('poses').map((r) => rowToRecord(syncTables.pose, r)),
+      readings: get('readings').map((r) => rowToRecord(syncTables.reading, r)),
+      photos: get('photos').map(photoRecordFromRow),
+      conflicts: get('sync_conflicts').map(conflictOut),
+    } as PullResponse;
+  });
+}
+
+/** A person's decision on a kept conflict: keep the server's version, or write the client's over it. */
+export async function resolveConflict(auth: AuthContext, id: string, keep: 'client' | 'server'): Promise<SyncConflict> {
+  return db().transaction(async (transaction) => {
+    await lockTeamChanges(auth.teamId, transaction);
+    const [row] = await select('SELECT * FROM sync_conflicts WHERE id = $1 AND team_id = $2 FOR UPDATE', [id, auth.teamId], transaction);
+    if (!row) throw new NotFound('conflict');
+    if (row.resolved_at) throw new Conflict('this conflict was already resolved');
+    if (keep === 'client') {
+      const entity = row.entity as SyncEntity;
+      const spec = syncTables[entity];
+      const parsed = syncChange.safeParse({ entity, record: row.client_record });
+      if (!parsed.success) throw Invalid.fromZod('clientRecord', parsed.error);
+      const [current] = await select(`SELECT version FROM ${spec.table} WHERE id = $1 AND team_id = $2 FOR UPDATE`, [row.entity_id, auth.teamId], transaction);
+      if (!current) throw new NotFound(entity);
+      const record = { ...(parsed.data.record as Item['record']), version: current.version as number };
+      await bulkUpdate(auth, spec, [{ index: 0, entity, record }], transaction);
+    }
+    const [done] = await select(
+      'UPDATE sync_conflicts SET resolved_at = now(), resolved_by = $2, resolution = $3 WHERE id = $1 RETURNING *',
+      [id, auth.userId, keep],
+      transaction,
+    );
+    return conflictOut(done);
+  });
+}

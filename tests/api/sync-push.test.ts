@@ -1,0 +1,193 @@
+// Push and pull through HTTP on the real PostgreSQL: idempotent batches, kept conflicts, whole-batch
+// rejection, team scope, and the pull cursor.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
+import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
+import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
+
+let ts: TestServer;
+beforeAll(async () => {
+  ts = await startTestServer();
+});
+afterAll(async () => ts.close());
+
+async function fieldSetup() {
+  const team = await createTeam();
+  const tester = await signedInAgent(ts, team.members.tester.email);
+  const { vehicleId, pointIds } = await vehicleWithPoints(tester);
+  const session = sessionRecord(vehicleId);
+  const level = poseRecord(session.id, 0);
+  const readings = pointIds.map((p, i) => readingRecord(level.id, p, 'lateral', 90 + i));
+  return { team, tester, vehicleId, pointIds, session, level, readings };
+}
+
+describe('push', () => {
+  it('writes a session, pose and readings, with enteredBy and createdBy from the signed-in user', async () => {
+    const f = await fieldSetup();
+    const res = await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), ...f.readings.map((r) => change('reading', r))],
+    });
+    expect(res.status).toBe(200);
+    expect(res.body.conflicts).toEqual([]);
+    expect(res.body.accepted).toHaveLength(2 + f.readings.length);
+    const s = await TestSessionModel.findByPk(f.session.id);
+    expect(s?.teamId).toBe(f.team.teamId);
+    expect(s?.createdBy).toBe(f.team.members.tester.userId);
+    expect(s?.safetyAckBy).toBe(f.team.members.tester.userId);
+    const rows = await ReadingModel.findAll({ where: { poseId: f.level.id } });
+    expect(rows.map((r) => r.valueMm).sort()).toEqual([90, 91, 92, 93]);
+    expect(new Set(rows.map((r) => r.enteredBy))).toEqual(new Set([f.team.members.tester.userId]));
+  });
+
+  it('writes a batch sent twice only once and answers the same', async () => {
+    const f = await fieldSetup();
+    const body = { idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level), change('reading', f.readings[0])] };
+    const first = await f.tester.post('/api/sync/push').send(body);
+    const second = await f.tester.post('/api/sync/push').send(body);
+    expect(first.status).toBe(200);
+    expect(second.status).toBe(200);
+    expect(second.body).toEqual(first.body);
+    expect(await ReadingModel.count({ where: { poseId: f.level.id } })).toBe(1);
+    expect((await ReadingModel.findByPk(f.readings[0].id))?.version).toBe(1);
+  });
+
+  it('after a lost answer, the retried batch leaves one row and the answer the client missed', async () => {
+    const f = await fieldSetup();
+    const body = { idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level)] };
+    // The answer to this request is "lost": the client never reads it and retries later.
+    const lost = f.tester.post('/api/sync/push').send(body).then((r) => r.body);
+    await lost;
+    const edited = { ...f.level, label: 'Level (after retry)' };
+    const retry = await f.tester.post('/api/sync/push').send(body);
+    expect(retry.status).toBe(200);
+    expect(retry.body.accepted).toEqual(expect.arrayContaining([{ entity: 'pose', id: f.level.id, version: 1 }]));
+    expect(await PoseModel.count({ where: { sessionId: f.session.id } })).toBe(1);
+    // The same key with different contents is refused, not applied.
+    const reused = await f.tester.post('/api/sync/push').send({ ...body, changes: [change('testSession', f.session), change('pose', edited)] });
+    expect(reused.status).toBe(409);
+    expect((await PoseModel.findByPk(f.level.id))?.label).toBe('Level');
+  });
+
+  it('keeps both versions of a stale edit as a conflict and leaves the server row unchanged', async () => {
+    const f = await fieldSetup();
+    await f.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level), change('reading', f.readings[0])] });
+    // Someone else edits the reading first (base version 1 → server version 2).
+    const engineer = await signedInAgent(ts, f.team.members.engineer.email);
+    const theirs = await engineer.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('reading', { ...f.readings[0], valueMm: 95 })] });
+    expect(theirs.body).toMatchObject({ conflicts: [] });
+    expect(theirs.body.accepted).toEqual([{ entity: 'reading', id: f.readings[0].id, version: 2 }]);
+    // The tester's edit still says base version 1.
+    const mine = await f.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('reading', { ...f.readings[0], valueMm: 97 })] });
+    expect(mine.status).toBe(200);
+    expect(mine.body.accepted).toEqual([]);
+    expect(mine.body.conflicts).toHaveLength(1);
+    const c = mine.body.conflicts[0];
+    expect(c).toMatchObject({ entity: 'reading', entityId: f.readings[0].id, baseVersion: 1, serverVersion: 2 });
+    expect(c.clientRecord.valueMm).toBe(97);
+    expect(c.serverRecord.valueMm).toBe(95);
+    const row = await ReadingModel.findByPk(f.readings[0].id);
+    expect(row?.valueMm).toBe(95);
+    expect(row?.version).toBe(2);
+    expect(await SyncConflictModel.count({ where: { entityId: f.readings[0].id, resolvedAt: null } })).toBe(1);
+
+    // A person keeps the tester's value: written over the server row with a new version.
+    const resolved = await f.tester.post(`/api/sync/conflicts/${c.id}/resolve`).send({ keep: 'client' });
+    expect(resolved.status).toBe(200);
+    expect(resolved.body.resolution).toBe('client');
+    const after = await ReadingModel.findByPk(f.readings[0].id);
+    expect([after?.valueMm, after?.version]).toEqual([97, 3]);
+  });
+
+  it('rejects a partly bad batch whole, naming the record and field, and writes nothing', async () => {
+    const f = await fieldSetup();
+    const strayPose = randomUUID();
+    const res = await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [
+        change('testSession', f.session),
+        change('pose', f.level),
+        change('reading', f.readings[0]),
+        change('reading', readingRecord(strayPose, f.pointIds[1], 'lateral', 12)),
+      ],
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual([{ field: 'body.changes.3.record.poseId', message: expect.stringMatching(new RegExp(strayPose)) }]);
+    expect(await TestSessionModel.count({ where: { id: f.session.id } })).toBe(0);
+    expect(await PoseModel.count({ where: { id: f.level.id } })).toBe(0);
+    expect(await ReadingModel.count({ where: { id: f.readings[0].id } })).toBe(0);
+  });
+
+  it('rejects a batch with a bad value whole, naming the field', async () => {
+    const f = await fieldSetup();
+    const res = await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), change('reading', { ...f.readings[0], valueMm: 'twelve' })],
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.map((e: { field: string }) => e.field)).toEqual(['body.changes.2.record.valueMm']);
+    expect(await TestSessionModel.count({ where: { id: f.session.id } })).toBe(0);
+  });
+
+  it('rejects a second reading for the same pose, point and axis', async () => {
+    const f = await fieldSetup();
+    const twin = readingRecord(f.level.id, f.pointIds[0], 'lateral', 50);
+    const res = await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), change('reading', f.readings[0]), change('reading', twin)],
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.map((e: { field: string }) => e.field)).toEqual(['body.changes.3.record.axis']);
+    expect(await PoseModel.count({ where: { id: f.level.id } })).toBe(0);
+  });
+
+  it('takes the team from the session: another team\'s records cannot be referenced or overwritten', async () => {
+    const f = await fieldSetup();
+    await f.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level)] });
+    const other = await createTeam('Other workshop');
+    const outsider = await signedInAgent(ts, other.members.tester.email);
+    const res = await outsider.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('pose', { ...f.level, label: 'hijacked' }), change('reading', readingRecord(f.level.id, f.pointIds[0], 'vertical', 1))],
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.map((e: { field: string }) => e.field)).toEqual(['body.changes.0.record.id', 'body.changes.0.record.sessionId', 'body.changes.1.record.gaugePointId']);
+    expect((await PoseModel.findByPk(f.level.id))?.label).toBe('Level');
+  });
+
+  it('is refused to a viewer', async () => {
+    const f = await fieldSetup();
+    const viewer = await signedInAgent(ts, f.team.members.viewer.email);
+    const res = await viewer.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session)] });
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('pull', () => {
+  it('returns the team\'s changes after a cursor, page by page, and nothing of other teams', async () => {
+    const f = await fieldSetup();
+    await createTeam('Noise workshop').then(async (t) => vehicleWithPoints(await signedInAgent(ts, t.members.tester.email)));
+    const all = await f.tester.get('/api/sync/pull?since=0');
+    expect(all.status).toBe(200);
+    expect(all.body.vehicles.map((v: { id: string }) => v.id)).toEqual([f.vehicleId]);
+    expect(all.body.gaugePoints).toHaveLength(4);
+    const cursor = all.body.cursor;
+
+    await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), ...f.readings.map((r) => change('reading', r))],
+    });
+    // Pages of 2 rows per table until the end; every new row arrives exactly once.
+    const seen: string[] = [];
+    let since = cursor;
+    for (let guard = 0; guard < 10; guard++) {
+      const page = await f.tester.get(`/api/sync/pull?since=${since}&limit=2`);
+      seen.push(...page.body.testSessions.map((r: { id: string }) => r.id), ...page.body.poses.map((r: { id: string }) => r.id), ...page.body.readings.map((r: { id: string }) => r.id));
+      expect(page.body.cursor).toBeGreaterThanOrEqual(since);
+      since = page.body.cursor;
+      if (!page.body.hasMore) break;
+    }
+    expect(seen.sort()).toEqual([f.session.id, f.level.id, ...f.readings.map((r) => r.id)].sort());
+  });
+});
