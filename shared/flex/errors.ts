@@ -10,12 +10,15 @@
 export class FlexInputError extends Error {
   readonly fn: string;
   readonly field: string;
+  /** What was wrong, without the function and field: lets a caller re-raise under its own names. */
+  readonly problem: string;
 
   constructor(fn: string, field: string, problem: string) {
     super(`${fn}: ${field} ${problem}`);
     this.name = 'FlexInputError';
     this.fn = fn;
     this.field = field;
+    this.problem = problem;
   }
 }
 

@@ -131,7 +131,7 @@ function candidates(g: Geometry, cy: number, cz: number): OutlinePoint[] {
   return points;
 }
 
-/** Worst point of the outline for one affine component; exported for the boot and envelope steps. */
+/** Worst point of the outline for one affine component: the candidate with the largest |value|. */
 function worstOf(g: Geometry, c0: number, cy: number, cz: number): AxisWorst {
   let best: AxisWorst | null = null;
   for (const p of candidates(g, cy, cz)) {
@@ -185,7 +185,7 @@ export function sampleOutline(outline: OpeningOutline, stepMm = 5): OutlinePoint
     }
   };
   const [topLeft, topRight, bottomRight, bottomLeft] = g.arcs;
-  // Anticlockwise in the (y, z) plane, starting at the right end of the left side's lower arc junction.
+  // Anticlockwise in the (y, z) plane, starting at the lower end of the left side.
   line('left', g.left, g.bottom + g.r, g.left, g.top - g.r);
   arc(topLeft);
   line('top', g.left - g.r, g.top, g.right + g.r, g.top);

@@ -20,7 +20,10 @@
  * Source: the model is small-rotation rigid-body kinematics; least squares: Golub & Van Loan §5.3;
  * outliers: NIST/SEMATECH e-Handbook §1.3.5.17. Complexity O(readings) per pose.
  *
- * Example: fitRelativeMotion(points, readings).motion // => { t: {x, y, z}, omega: {x, y, z} }
+ * Example: fitRelativeMotion(
+ *   [{ id: 'A', y: 0, z: 0 }, { id: 'B', y: 100, z: 0 }, { id: 'C', y: 0, z: 100 }],
+ *   [{ pointId: 'A', axis: 'foreAft', value: 2 }, { pointId: 'B', axis: 'foreAft', value: 2 },
+ *    { pointId: 'C', axis: 'foreAft', value: 3 }]).motion.omega.y // => 0.01 (tx = 2, wz = 0)
  */
 import { FlexInputError, requireLength } from './errors';
 import { leastSquares } from './least-squares';

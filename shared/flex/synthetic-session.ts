@@ -10,7 +10,7 @@
  *
  * Example: buildSyntheticSession({ poses: 4, seed: 1 }).poses.length // => 5 (baseline + 4)
  */
-import { predictDisplacement } from './predict-displacement';
+import { predictDisplacement, scaleMotion } from './predict-displacement';
 import { crossAxleTwistDeg } from './twist';
 import type { Axis, GaugePoint, Reading, RigidMotion, WheelLifts } from './types';
 import type { OpeningOutline } from './perimeter';
@@ -122,11 +122,7 @@ export function buildSyntheticSession(options: SyntheticSessionOptions = {}): Sy
   const axes: Axis[] = ['foreAft', 'lateral', 'vertical'];
 
   const readingsFor = (twistDeg: number, baseline: boolean): Reading[] => {
-    const factor = (value: number): number => value * twistDeg;
-    const motion: RigidMotion = {
-      t: { x: factor(perDeg.t.x), y: factor(perDeg.t.y), z: factor(perDeg.t.z) },
-      omega: { x: factor(perDeg.omega.x), y: factor(perDeg.omega.y), z: factor(perDeg.omega.z) },
-    };
+    const motion = scaleMotion(perDeg, twistDeg);
     const readings: Reading[] = [];
     for (const point of gaugePoints) {
       const d = predictDisplacement(motion, point.y, point.z);

@@ -6,7 +6,7 @@
  *
  * Example: inToMm(8) // => 203.2 ; mmToIn(203.2) // => 8
  */
-export const MM_PER_INCH = 25.4;
+const MM_PER_INCH = 25.4;
 
 export function mmToIn(mm: number): number {
   return mm / MM_PER_INCH;

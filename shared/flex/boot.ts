@@ -1,0 +1,194 @@
+/**
+ * Boot and seal check per side of the opening (brief step 8).
+ *
+ * For every state (the rest state plus each given motion) and every outline point of a side, the boot
+ * spans the 3D distance between its cab and body attachment lines:
+ *   span = √((g + dx)² + dy² + dz²),  g = nominal fore-aft gap, (dx, dy, dz) from predictDisplacement;
+ * dx opens or closes the gap, (dy, dz) is the in-plane shear. Per side: shortest and longest span,
+ * extension ratio = longest / shortest, fore-aft gap range [g + min dx, g + max dx], largest shear.
+ * Corner arcs count towards both sides they join.
+ * Seal check: compression % = (free height − compressed height) / free height × 100 (seal makers'
+ * guidance). A seal of free height H installed across the gap follows the fore-aft range when, at the
+ * widest gap, it is still compressed at least the minimum and, at the narrowest, at most the maximum:
+ *   gapMax ≤ H·(1 − min%/100) and gapMin ≥ H·(1 − max%/100),
+ * so the free heights that work are [gapMax / (1 − min%/100), gapMin / (1 − max%/100)].
+ * Defaults 25–50 % are common practice for solid EPDM (seal makers' guidance: target 25–40 %,
+ * about 50 % ceiling); closed-cell sponge should stay below about 35 %.
+ * Boots take axial, lateral (shear), angular and torsional motion; large shear is better taken by two
+ * in series (expansion-joint makers' guidance) — the extension ratio is the figure to give the maker.
+ * Complexity O(states × outline samples).
+ *
+ * Example: sealCompressionPercent(20, 15) // => 25
+ */
+import { FlexInputError, requireFinite, requireLength, requirePositiveLength } from './errors';
+import { sampleOutline, validateOutline, type OpeningOutline, type OutlineSide, type StraightSide } from './perimeter';
+import { predictDisplacement } from './predict-displacement';
+import type { RigidMotion } from './types';
+
+export interface SealSpec {
+  freeHeightMm: number;
+  /** Default 25 (%). */
+  minCompressionPercent?: number;
+  /** Default 50 (%). */
+  maxCompressionPercent?: number;
+}
+
+export interface BootSpanInput {
+  outline: OpeningOutline;
+  /** Fore-aft gap between cab and body at rest, mm (> 0). */
+  nominalGapMm: number;
+  /** Motions to check (fitted per pose, or scaled to the design twist with scaleMotion); rest is always included. */
+  motions: RigidMotion[];
+  seal?: SealSpec;
+  /** Outline sampling step, mm; default 10. */
+  stepMm?: number;
+}
+
+export interface SealCheck {
+  freeHeightMm: number;
+  minCompressionPercent: number;
+  maxCompressionPercent: number;
+  compressionAtNominalPercent: number;
+  /** At the widest gap (least compressed). */
+  compressionAtWidestPercent: number;
+  /** At the narrowest gap (most compressed). */
+  compressionAtNarrowestPercent: number;
+  follows: boolean;
+  reason: string;
+}
+
+export interface SideSpan {
+  side: StraightSide;
+  shortestMm: number;
+  longestMm: number;
+  /** longest / shortest; null when the gap closes fully (shortest span 0). */
+  extensionRatio: number | null;
+  gapMinMm: number;
+  gapMaxMm: number;
+  /** The fore-aft gap closes to 0 or below somewhere on this side: cab and body touch. */
+  contact: boolean;
+  largestShearMm: number;
+  /** Seal free heights that follow this side's fore-aft range at the compression limits; null if none. */
+  sealFreeHeightRangeMm: { min: number; max: number } | null;
+  seal: SealCheck | null;
+}
+
+export type BootSpanResult = Record<StraightSide, SideSpan>;
+
+const FN = 'bootSpan';
+/** Rotations beyond half a radian are far outside the small-angle model: input error. */
+const MAX_ROTATION_RAD = 0.5;
+
+const SIDES_OF: Record<OutlineSide, StraightSide[]> = {
+  top: ['top'],
+  bottom: ['bottom'],
+  left: ['left'],
+  right: ['right'],
+  topLeft: ['top', 'left'],
+  topRight: ['top', 'right'],
+  bottomLeft: ['bottom', 'left'],
+  bottomRight: ['bottom', 'right'],
+};
+
+export function sealCompressionPercent(freeHeightMm: number, compressedHeightMm: number): number {
+  requirePositiveLength('sealCompressionPercent', 'freeHeightMm', freeHeightMm);
+  requireLength('sealCompressionPercent', 'compressedHeightMm', compressedHeightMm);
+  return ((freeHeightMm - compressedHeightMm) / freeHeightMm) * 100;
+}
+
+function validateMotion(index: number, motion: RigidMotion): void {
+  if (motion === null || typeof motion !== 'object' || motion.t == null || motion.omega == null) {
+    throw new FlexInputError(FN, `motions[${index}]`, 'must have t and omega');
+  }
+  for (const k of ['x', 'y', 'z'] as const) {
+    requireLength(FN, `motions[${index}].t.${k}`, motion.t[k]);
+    requireFinite(FN, `motions[${index}].omega.${k}`, motion.omega[k]);
+    if (Math.abs(motion.omega[k]) > MAX_ROTATION_RAD) {
+      throw new FlexInputError(FN, `motions[${index}].omega.${k}`, `must be within ±${MAX_ROTATION_RAD} rad (small angles), got ${motion.omega[k]}`);
+    }
+  }
+}
+
+function checkSeal(seal: SealSpec, gapMin: number, gapMax: number, nominal: number): SealCheck {
+  const minPct = seal.minCompressionPercent ?? 25;
+  const maxPct = seal.maxCompressionPercent ?? 50;
+  const compressionAtWidestPercent = sealCompressionPercent(seal.freeHeightMm, gapMax);
+  const compressionAtNarrowestPercent = sealCompressionPercent(seal.freeHeightMm, gapMin);
+  const tooLoose = compressionAtWidestPercent < minPct;
+  const crushed = compressionAtNarrowestPercent > maxPct;
+  const reasons: string[] = [];
+  if (tooLoose) reasons.push(`at the widest gap (${gapMax.toFixed(1)} mm) it is compressed only ${compressionAtWidestPercent.toFixed(0)} % (< ${minPct} %)`);
+  if (crushed) reasons.push(`at the narrowest gap (${gapMin.toFixed(1)} mm) it is compressed ${compressionAtNarrowestPercent.toFixed(0)} % (> ${maxPct} %)`);
+  return {
+    freeHeightMm: seal.freeHeightMm,
+    minCompressionPercent: minPct,
+    maxCompressionPercent: maxPct,
+    compressionAtNominalPercent: sealCompressionPercent(seal.freeHeightMm, nominal),
+    compressionAtWidestPercent,
+    compressionAtNarrowestPercent,
+    follows: !tooLoose && !crushed,
+    reason: reasons.length === 0 ? `stays within ${minPct}–${maxPct} % compression over the fore-aft range` : reasons.join('; '),
+  };
+}
+
+export function bootSpan(input: BootSpanInput): BootSpanResult {
+  if (input === null || typeof input !== 'object') throw new FlexInputError(FN, 'input', 'must be an object');
+  validateOutline(FN, input.outline);
+  const gap = requirePositiveLength(FN, 'nominalGapMm', input.nominalGapMm);
+  if (!Array.isArray(input.motions)) throw new FlexInputError(FN, 'motions', 'must be an array');
+  input.motions.forEach((motion, i) => validateMotion(i, motion));
+  if (input.seal !== undefined) {
+    requirePositiveLength(FN, 'seal.freeHeightMm', input.seal.freeHeightMm);
+    const minPct = requireFinite(FN, 'seal.minCompressionPercent', input.seal.minCompressionPercent ?? 25);
+    const maxPct = requireFinite(FN, 'seal.maxCompressionPercent', input.seal.maxCompressionPercent ?? 50);
+    if (minPct < 0 || maxPct >= 100 || minPct > maxPct) {
+      throw new FlexInputError(FN, 'seal.minCompressionPercent', `and maxCompressionPercent must satisfy 0 ≤ min ≤ max < 100, got ${minPct}–${maxPct}`);
+    }
+  }
+  const samples = sampleOutline(input.outline, input.stepMm ?? 10);
+  const rest: RigidMotion = { t: { x: 0, y: 0, z: 0 }, omega: { x: 0, y: 0, z: 0 } };
+  const states = [rest, ...input.motions];
+
+  const acc = {} as Record<StraightSide, { shortest: number; longest: number; gapMin: number; gapMax: number; shear: number }>;
+  for (const side of ['top', 'bottom', 'left', 'right'] as const) {
+    acc[side] = { shortest: Infinity, longest: 0, gapMin: Infinity, gapMax: -Infinity, shear: 0 };
+  }
+  for (const motion of states) {
+    for (const point of samples) {
+      const d = predictDisplacement(motion, point.y, point.z);
+      const gapHere = gap + d.dx;
+      const shear = Math.hypot(d.dy, d.dz);
+      const span = Math.hypot(gapHere, shear);
+      for (const side of SIDES_OF[point.side]) {
+        const a = acc[side];
+        a.shortest = Math.min(a.shortest, span);
+        a.longest = Math.max(a.longest, span);
+        a.gapMin = Math.min(a.gapMin, gapHere);
+        a.gapMax = Math.max(a.gapMax, gapHere);
+        a.shear = Math.max(a.shear, shear);
+      }
+    }
+  }
+
+  const minPct = input.seal?.minCompressionPercent ?? 25;
+  const maxPct = input.seal?.maxCompressionPercent ?? 50;
+  const result = {} as BootSpanResult;
+  for (const side of ['top', 'bottom', 'left', 'right'] as const) {
+    const a = acc[side];
+    const lowest = a.gapMax / (1 - minPct / 100);
+    const highest = a.gapMin / (1 - maxPct / 100);
+    result[side] = {
+      side,
+      shortestMm: a.shortest,
+      longestMm: a.longest,
+      extensionRatio: a.shortest > 0 ? a.longest / a.shortest : null,
+      gapMinMm: a.gapMin,
+      gapMaxMm: a.gapMax,
+      contact: a.gapMin <= 0,
+      largestShearMm: a.shear,
+      sealFreeHeightRangeMm: a.gapMin > 0 && lowest <= highest ? { min: lowest, max: highest } : null,
+      seal: input.seal !== undefined ? checkSeal(input.seal, a.gapMin, a.gapMax, gap) : null,
+    };
+  }
+  return result;
+}
