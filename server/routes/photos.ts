@@ -37,9 +37,9 @@ const sendPhoto = (size: 'full' | 'thumb') =>
       const file = await photoFile(auth, params.id, size);
       res.setHeader('Content-Type', 'image/jpeg');
       res.setHeader('X-Content-Type-Options', 'nosniff');
-      // A stored photo never changes: its id names it for good.
+      // A stored photo never changes: its id names it for good. PHOTO_DIR may sit in a dot folder (.data).
       res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
-      await new Promise<void>((resolve, reject) => res.sendFile(file, (err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve, reject) => res.sendFile(file, { dotfiles: 'allow' }, (err) => (err ? reject(err) : resolve())));
       return undefined;
     },
   });

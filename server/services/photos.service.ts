@@ -47,20 +47,22 @@ async function readMetadata(buf: Buffer): Promise<Metadata> {
   }
 }
 
+function tooManyPixels(size: string | null) {
+  const message = `${size ? `${size} is ` : ''}more than ${MAX_PHOTO_PIXELS / 1e6} megapixels`;
+  return new Invalid(`photo: ${message}`, [{ field: 'photo', message }]);
+}
+
 async function reencode(buf: Buffer) {
   const input = () => sharp(buf, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' });
   let meta: Metadata;
   try {
     meta = await input().metadata();
-  } catch {
+  } catch (err) {
+    if (/pixel limit/i.test(String((err as Error).message))) throw tooManyPixels(null);
     throw new Invalid('photo: the file could not be read as an image', [{ field: 'photo', message: 'not a readable image' }]);
   }
   const pixels = (meta.width ?? 0) * (meta.height ?? 0);
-  if (pixels > MAX_PHOTO_PIXELS) {
-    throw new Invalid(`photo: ${meta.width}×${meta.height} is more than ${MAX_PHOTO_PIXELS / 1e6} megapixels`, [
-      { field: 'photo', message: `too many pixels (${meta.width}×${meta.height}); at most ${MAX_PHOTO_PIXELS / 1e6} MP` },
-    ]);
-  }
+  if (pixels > MAX_PHOTO_PIXELS) throw tooManyPixels(`${meta.width}×${meta.height}`);
   try {
     // rotate() applies the EXIF orientation; no withMetadata/withExif, so nothing (GPS included) is copied.
     const stored = await input()
@@ -74,8 +76,8 @@ async function reencode(buf: Buffer) {
       .toBuffer();
     return { stored, thumb };
   } catch (err) {
-    const message = /pixel limit/i.test(String((err as Error).message)) ? `more than ${MAX_PHOTO_PIXELS / 1e6} megapixels` : 'the image data is damaged';
-    throw new Invalid(`photo: ${message}`, [{ field: 'photo', message }]);
+    if (/pixel limit/i.test(String((err as Error).message))) throw tooManyPixels(null);
+    throw new Invalid('photo: the image data is damaged', [{ field: 'photo', message: 'the image data is damaged' }]);
   }
 }
 
