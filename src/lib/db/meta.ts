@@ -1,0 +1,29 @@
+// Small values in table meta of field-db.ts: the pull cursor, the last sync and its error, the
+// display unit chosen on this phone, and whether persistent storage was granted.
+import type { UnitSystem } from '@shared/schemas';
+import { fieldDb, type FieldDb } from './field-db';
+
+export interface SyncProblem {
+  message: string;
+  fields: { field: string; message: string }[];
+  at: string;
+}
+
+export interface MetaValues {
+  pullCursor: number;
+  lastSyncAt: string | null;
+  lastError: SyncProblem | null;
+  unit: UnitSystem | null;
+  persisted: boolean | null;
+}
+
+const defaults: MetaValues = { pullCursor: 0, lastSyncAt: null, lastError: null, unit: null, persisted: null };
+
+export async function getMeta<K extends keyof MetaValues>(key: K, db: FieldDb = fieldDb): Promise<MetaValues[K]> {
+  const row = await db.meta.get(key);
+  return row ? (row.value as MetaValues[K]) : defaults[key];
+}
+
+export async function setMeta<K extends keyof MetaValues>(key: K, value: MetaValues[K], db: FieldDb = fieldDb): Promise<void> {
+  await db.meta.put({ key, value });
+}

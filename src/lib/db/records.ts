@@ -1,0 +1,97 @@
+// The field's records in IndexedDB (tables vehicles, gaugePoints, sessions, poses, readings of
+// field-db.ts) and their outbox entries. A record and its outbox entry are written in one
+// transaction, so neither exists without the other. Values are checked with the shared zod
+// schemas on the way in and on the way out: a bad value or a corrupt row comes back as a per-item
+// result naming the record and the field, never as a thrown error.
+import type { ZodType } from 'zod';
+import { gaugePoint, pose, reading, testSession, vehicle } from '@shared/schemas';
+import type { SyncEntity } from '@shared/schemas/sync';
+import { fieldDb, tableOf, type FieldDb } from './field-db';
+
+export const recordSchemas: Record<SyncEntity, ZodType> = {
+  vehicle,
+  gaugePoint,
+  testSession,
+  pose,
+  reading,
+};
+
+export interface ItemError {
+  field: string;
+  message: string;
+}
+
+export type ItemResult = { id: string; ok: true } | { id: string; ok: false; message: string; fields: ItemError[] };
+
+export interface Checked<T> {
+  records: T[];
+  corrupt: { id: string; message: string }[];
+}
+
+/** Validates records, then writes the valid ones and their outbox entries in one transaction. */
+export async function saveRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb = fieldDb): Promise<ItemResult[]> {
+  const results: ItemResult[] = [];
+  const valid: T[] = [];
+  for (const r of records) {
+    const parsed = recordSchemas[entity].safeParse(r);
+    if (parsed.success) valid.push(parsed.data as T);
+    else {
+      const fields = parsed.error.issues.map((i) => ({ field: i.path.join('.') || 'record', message: i.message }));
+      results.push({ id: r.id, ok: false, message: `${fields[0].field}: ${fields[0].message}`, fields });
+    }
+  }
+  if (!valid.length) return results;
+  const table = tableOf(db, entity);
+  try {
+    await db.transaction('rw', table, db.outbox, async () => {
+      await table.bulkPut(valid as never[]);
+      for (const r of valid) {
+        // One waiting entry per record is enough: the batch reads the latest content when it forms.
+        const waiting = await db.outbox
+          .where('[entity+recordId]')
+          .equals([entity, r.id])
+          .filter((e) => e.batchKey === '')
+          .count();
+        if (!waiting) await db.outbox.add({ entity, recordId: r.id, batchKey: '', queuedAt: new Date().toISOString() });
+      }
+    });
+    for (const r of valid) results.push({ id: r.id, ok: true });
+    announceSaved();
+  } catch (err) {
+    const message = storageMessage(err);
+    for (const r of valid) results.push({ id: r.id, ok: false, message, fields: [] });
+  }
+  return results;
+}
+
+/** One record; the result says whether it is stored. */
+export async function saveRecord<T extends { id: string }>(entity: SyncEntity, record: T, db: FieldDb = fieldDb): Promise<ItemResult> {
+  const [result] = await saveRecords(entity, [record], db);
+  return result;
+}
+
+/** Rows read back from storage, checked against the shared schema; corrupt ones are reported, not trusted. */
+export function checkRows<T extends { id: string }>(entity: SyncEntity, rows: unknown[]): Checked<T> {
+  const out: Checked<T> = { records: [], corrupt: [] };
+  for (const row of rows) {
+    const parsed = recordSchemas[entity].safeParse(row);
+    if (parsed.success) out.records.push(parsed.data as T);
+    else {
+      const issue = parsed.error.issues[0];
+      out.corrupt.push({ id: String((row as { id?: unknown })?.id ?? '?'), message: `${entity} ${issue.path.join('.')}: ${issue.message}` });
+    }
+  }
+  return out;
+}
+
+/** Tells whoever listens (the sync engine) that something new waits, without this layer knowing who. */
+export function announceSaved() {
+  if (typeof window !== 'undefined') window.dispatchEvent(new Event('twistlog:saved'));
+}
+
+export function storageMessage(err: unknown): string {
+  const e = err as { name?: string; message?: string; inner?: { name?: string } };
+  const name = e?.inner?.name ?? e?.name;
+  if (name === 'QuotaExceededError') return 'the phone is out of storage space for Twistlog: nothing new was saved';
+  return `could not save on this device: ${e?.message ?? String(err)}`;
+}
