@@ -1,7 +1,7 @@
 // Photos: checked, read for capture time and GPS (exifr), re-encoded without any metadata and
 // thumbnailed (sharp), then stored under server-made names and recorded against the session.
 import exifr from 'exifr';
-import sharp, { type Metadata } from 'sharp';
+import sharp, { type Metadata as ImageMetadata } from 'sharp';
 import { UniqueConstraintError } from 'sequelize';
 import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
 import { PhotoModel, PoseModel, TestSessionModel } from '../models';
@@ -54,7 +54,7 @@ function tooManyPixels(size: string | null) {
 
 async function reencode(buf: Buffer) {
   const input = () => sharp(buf, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' });
-  let meta: Metadata;
+  let meta: ImageMetadata;
   try {
     meta = await input().metadata();
   } catch (err) {

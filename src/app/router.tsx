@@ -2,9 +2,15 @@ import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { Layout } from '@/components/layout';
 import { useMe } from '@/features/auth/api/get-me';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
-import { SessionListPage } from '@/features/sessions/components/session-list-page';
 import { SessionDetailPage } from '@/features/sessions/components/session-detail-page';
 import { DeskHomePage } from '@/features/desk/components/desk-home-page';
+import { FieldSessionsPage } from '@/features/sessions/components/field-sessions-page';
+import { StartSessionPage } from '@/features/sessions/components/start-session-page';
+import { FieldSessionPage } from '@/features/sessions/components/field-session-page';
+import { PoseRecorderPage } from '@/features/poses/components/pose-recorder-page';
+import { VehicleListPage } from '@/features/vehicles/components/vehicle-list-page';
+import { VehicleSetupPage } from '@/features/vehicles/components/vehicle-setup-page';
+import { SyncPage } from '@/features/sync/components/sync-page';
 
 /** Pages behind sign-in. Offline with a cached identity, the app still opens. */
 function RequireSignIn() {
@@ -28,8 +34,13 @@ export const router = createBrowserRouter([
         element: <Layout />,
         children: [
           { index: true, element: <Home /> },
-          { path: 'field', element: <SessionListPage /> },
-          { path: 'field/sessions/:id', element: <SessionDetailPage /> },
+          { path: 'field', element: <FieldSessionsPage /> },
+          { path: 'field/sessions/new', element: <StartSessionPage /> },
+          { path: 'field/sessions/:id', element: <FieldSessionPage /> },
+          { path: 'field/sessions/:id/poses/:poseId', element: <PoseRecorderPage /> },
+          { path: 'field/vehicles', element: <VehicleListPage /> },
+          { path: 'field/vehicles/:id', element: <VehicleSetupPage /> },
+          { path: 'field/sync', element: <SyncPage /> },
           { path: 'desk', element: <DeskHomePage /> },
           { path: 'desk/sessions/:id', element: <SessionDetailPage /> },
         ],

@@ -1,6 +1,7 @@
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
+import { SyncStatusBar } from '@/features/sync/components/sync-status-bar';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `flex min-h-touch items-center rounded-lg px-3 font-bold ${isActive ? 'bg-paper text-slate' : 'text-paper'}`;
@@ -35,6 +36,7 @@ export function Layout() {
           )}
         </div>
       </header>
+      {role && role !== 'viewer' && <SyncStatusBar />}
       <main className="mx-auto max-w-6xl px-3 py-4">
         <Outlet />
       </main>

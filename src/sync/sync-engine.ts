@@ -66,7 +66,7 @@ export function syncSoon() {
 
 let started = false;
 
-export function startSyncEngine() {
+export function startSyncEngine(): void {
   if (started) return;
   started = true;
   window.addEventListener('online', () => {

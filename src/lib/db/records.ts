@@ -4,7 +4,7 @@
 // schemas on the way in and on the way out: a bad value or a corrupt row comes back as a per-item
 // result naming the record and the field, never as a thrown error.
 import type { ZodType } from 'zod';
-import { gaugePoint, pose, reading, testSession, vehicle } from '@shared/schemas';
+import { gaugePoint, pose, reading, testSession, vehicle, type Reading } from '@shared/schemas';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
 
@@ -94,4 +94,22 @@ export function storageMessage(err: unknown): string {
   const name = e?.inner?.name ?? e?.name;
   if (name === 'QuotaExceededError') return 'the phone is out of storage space for Twistlog: nothing new was saved';
   return `could not save on this device: ${e?.message ?? String(err)}`;
+}
+
+/**
+ * Sets (or clears, with null) the reading at one gauge point and axis of a pose. The same record
+ * is reused for its slot, even after a clear, since the server holds one reading per slot.
+ */
+export async function setReadingValue(
+  slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] },
+  valueMm: number | null,
+  db: FieldDb = fieldDb,
+): Promise<ItemResult> {
+  const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
+  if (valueMm === null) {
+    if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
+    return saveRecord('reading', { ...existing, deletedAt: new Date().toISOString() }, db);
+  }
+  const base: Reading = existing ?? { id: crypto.randomUUID(), version: 1, ...slot, valueMm, excluded: false, excludeReason: null, flagNote: null };
+  return saveRecord('reading', { ...base, valueMm, deletedAt: null }, db);
 }

@@ -1,0 +1,96 @@
+// Live reads of the field store for the screens (dexie-react-hooks): each re-renders when the
+// tables it reads change. Records are checked with the shared schemas on the way out; deleted
+// ones are left out; corrupt rows are counted, not shown as data.
+import { useLiveQuery } from 'dexie-react-hooks';
+import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
+import { fieldDb } from './field-db';
+import { checkRows } from './records';
+import { getMeta, type MetaValues } from './meta';
+
+const live = <T extends { deletedAt?: string | null }>(rows: T[]) => rows.filter((r) => !r.deletedAt);
+
+export function useLocalVehicles() {
+  return useLiveQuery(async () => {
+    const checked = checkRows<Vehicle>('vehicle', await fieldDb.vehicles.toArray());
+    return { vehicles: live(checked.records).sort((a, b) => a.name.localeCompare(b.name)), corrupt: checked.corrupt };
+  });
+}
+
+export function useLocalVehicle(id: string | undefined) {
+  return useLiveQuery(async () => {
+    if (!id) return null;
+    const [v] = checkRows<Vehicle>('vehicle', [await fieldDb.vehicles.get(id)].filter(Boolean)).records;
+    if (!v) return null;
+    const points = checkRows<GaugePoint>('gaugePoint', await fieldDb.gaugePoints.where('vehicleId').equals(id).toArray());
+    return { vehicle: v, gaugePoints: live(points.records).sort((a, b) => a.label.localeCompare(b.label, 'en', { numeric: true })), allPoints: points.records };
+  }, [id]);
+}
+
+export function useLocalSessions() {
+  return useLiveQuery(async () => {
+    const checked = checkRows<TestSession>('testSession', await fieldDb.sessions.toArray());
+    const vehicles = new Map((await fieldDb.vehicles.toArray()).map((v) => [v.id, v.name]));
+    const pending = new Set((await fieldDb.outbox.where('entity').equals('testSession').toArray()).map((e) => e.recordId));
+    return {
+      sessions: live(checked.records)
+        .sort((a, b) => b.testedOn.localeCompare(a.testedOn))
+        .map((s) => ({ ...s, vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)', pending: pending.has(s.id) })),
+      corrupt: checked.corrupt,
+    };
+  });
+}
+
+export interface LocalSession {
+  session: TestSession;
+  vehicle: Vehicle | null;
+  gaugePoints: GaugePoint[];
+  poses: Pose[];
+  readings: Reading[];
+  corrupt: { id: string; message: string }[];
+}
+
+/** A session with everything the recorder needs: vehicle, gauge points, poses and all readings. */
+export function useLocalSession(id: string | undefined) {
+  return useLiveQuery(async (): Promise<LocalSession | null> => {
+    if (!id) return null;
+    const [s] = checkRows<TestSession>('testSession', [await fieldDb.sessions.get(id)].filter(Boolean)).records;
+    if (!s) return null;
+    const [v] = checkRows<Vehicle>('vehicle', [await fieldDb.vehicles.get(s.vehicleId)].filter(Boolean)).records;
+    const points = checkRows<GaugePoint>('gaugePoint', await fieldDb.gaugePoints.where('vehicleId').equals(s.vehicleId).toArray());
+    const poses = checkRows<Pose>('pose', await fieldDb.poses.where('sessionId').equals(id).toArray());
+    const poseIds = poses.records.map((p) => p.id);
+    const readings = checkRows<Reading>('reading', await fieldDb.readings.where('poseId').anyOf(poseIds).toArray());
+    return {
+      session: s,
+      vehicle: v ?? null,
+      gaugePoints: live(points.records).sort((a, b) => a.label.localeCompare(b.label, 'en', { numeric: true })),
+      poses: live(poses.records).sort((a, b) => a.seq - b.seq),
+      readings: readings.records,
+      corrupt: [...points.corrupt, ...poses.corrupt, ...readings.corrupt],
+    };
+  }, [id]);
+}
+
+export function useSessionPhotos(sessionId: string | undefined) {
+  return useLiveQuery(async () => (sessionId ? fieldDb.photos.where('sessionId').equals(sessionId).toArray() : []), [sessionId]);
+}
+
+export function usePendingCounts() {
+  return useLiveQuery(async () => {
+    const entries = await fieldDb.outbox.toArray();
+    return {
+      records: new Set(entries.map((e) => `${e.entity}:${e.recordId}`)).size,
+      photos: await fieldDb.photos.where('status').equals('pending').count(),
+      failedPhotos: await fieldDb.photos.where('status').equals('failed').count(),
+      conflicts: (await fieldDb.conflicts.toArray()).filter((c) => !c.resolvedAt).length,
+    };
+  });
+}
+
+export function useOpenConflicts() {
+  return useLiveQuery(async () => (await fieldDb.conflicts.toArray()).filter((c) => !c.resolvedAt));
+}
+
+export function useMetaValue<K extends keyof MetaValues>(key: K) {
+  return useLiveQuery(() => getMeta(key), [key]);
+}
