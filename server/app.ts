@@ -43,7 +43,8 @@ export function createApp(opts: AppOptions) {
     app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(path.join(dir, 'index.html'));
+      // `root` keeps send's dotfile rule to the path below `dir`: the test build lives under .data/.
+      res.sendFile('index.html', { root: dir });
     });
   }
   app.use(errorHandler);

@@ -2,12 +2,17 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { pino } from 'pino';
+import type { Router } from 'express';
 import { loadConfig } from './config';
 import { createSequelize } from './db';
 import { initModels } from './models';
 import { migrate } from './migrate';
 import { createApp } from './app';
 import { seedDemo, DEMO_SIGN_IN } from './seed/demo';
+import { configureMailer } from './mail/mailer';
+import { startMailSink } from './mail/sink';
+import { createMailboxRouter } from './mail/mailbox';
+import { setAppUrl } from './mail/templates';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -22,13 +27,34 @@ async function main() {
     const seeded = await seedDemo();
     logger.info(seeded ? 'demo workshop seeded' : 'demo workshop already present');
   }
-  const app = createApp({ logger, clientDir: path.join(root, 'dist'), trustProxy: config.TRUST_PROXY });
+  // E-mail: links point at the public URL; `--mail-sink` (npm start) catches every message in a
+  // local SMTP sink on SMTP_PORT instead of sending it, and the development mailbox lists them.
+  setAppUrl(config.publicUrl);
+  const extraRouters: Router[] = [];
+  let mailSink: Awaited<ReturnType<typeof startMailSink>> | undefined;
+  if (process.argv.includes('--mail-sink')) {
+    mailSink = await startMailSink({ port: config.SMTP_PORT, host: '127.0.0.1' });
+    configureMailer({ host: '127.0.0.1', port: mailSink.port, secure: false, from: config.MAIL_FROM });
+    if (config.NODE_ENV !== 'production') extraRouters.push(createMailboxRouter(mailSink));
+  } else {
+    configureMailer({
+      host: config.SMTP_HOST,
+      port: config.SMTP_PORT,
+      secure: config.SMTP_SECURE === 'true',
+      user: config.SMTP_USER,
+      pass: config.SMTP_PASS,
+      from: config.MAIL_FROM,
+    });
+  }
+  const app = createApp({ logger, clientDir: path.join(root, 'dist'), trustProxy: config.TRUST_PROXY, extraRouters });
   const server = app.listen(config.PORT, config.HOST, () => {
     const url = config.publicUrl;
     process.stdout.write(`\nTwistlog is running at ${url}\n`);
+    if (mailSink && extraRouters.length) process.stdout.write(`Mailbox (every e-mail the app sends): ${url}/dev/mailbox\n`);
     process.stdout.write(`Demo sign-in: ${DEMO_SIGN_IN.email} / ${DEMO_SIGN_IN.password} (engineer; more in the README)\n\n`);
   });
   const stop = () => {
+    void mailSink?.close();
     server.close(() => sequelize.close().finally(() => process.exit(0)));
     setTimeout(() => process.exit(0), 3000).unref();
   };

@@ -3,7 +3,7 @@
 import type { RequestHandler } from 'express';
 import type { Role } from '../../shared/schemas/common';
 import { MembershipModel } from '../models';
-import { lucia } from './lucia';
+import { blankSessionCookie, endSession, validateSessionCookie } from './lucia';
 
 export interface AuthContext {
   userId: string;
@@ -24,28 +24,24 @@ declare global {
 }
 
 export const loadAuth: RequestHandler = async (req, res, next) => {
-  const sessionId = lucia.readSessionCookie(req.headers.cookie ?? '');
-  if (!sessionId) return next();
-  const { session, user } = await lucia.validateSession(sessionId);
-  if (!session) {
-    res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize());
-    return next();
-  }
-  if (session.fresh) res.append('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
-  const membership = await MembershipModel.findOne({ where: { userId: user.id, teamId: session.teamId } });
+  const { session, setCookies } = await validateSessionCookie(req.headers.cookie);
+  for (const c of setCookies) res.append('Set-Cookie', c);
+  if (!session) return next();
+  // The role is read afresh on every request, so a role change or a removal counts at once.
+  const membership = await MembershipModel.findOne({ where: { userId: session.userId, teamId: session.teamId } });
   if (!membership) {
     // Removed from the team: the session no longer grants anything.
-    await lucia.invalidateSession(session.id);
-    res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize());
+    await endSession(session.sessionId);
+    res.append('Set-Cookie', blankSessionCookie());
     return next();
   }
   req.auth = {
-    userId: user.id,
+    userId: session.userId,
     teamId: session.teamId,
     role: membership.role,
-    sessionId: session.id,
-    email: user.email,
-    name: user.name,
+    sessionId: session.sessionId,
+    email: session.email,
+    name: session.name,
   };
   next();
 };

@@ -79,3 +79,62 @@ export async function startSession(userId: string, teamId: string): Promise<stri
 }
 
 export const blankSessionCookie = () => lucia.createBlankSessionCookie().serialize();
+
+/** The session id named by a request's Cookie header, if any. */
+export const readSessionId = (cookieHeader: string | undefined) => lucia.readSessionCookie(cookieHeader ?? '');
+
+/** End one session (sign out of this browser). */
+export const endSession = (sessionId: string) => lucia.invalidateSession(sessionId);
+
+/** End every session of a person, on every device (sign out everywhere, password change or reset). */
+export const endAllSessions = (userId: string) => lucia.invalidateUserSessions(userId);
+
+/** End a person's sessions in one team (they were removed from it). */
+export async function endTeamSessions(userId: string, teamId: string): Promise<void> {
+  await UserSessionModel.destroy({ where: { userId, teamId } });
+}
+
+/**
+ * Sign a browser in: end the session it already had (if any), start a new one, and set its
+ * cookie. The id is new at every sign-in, so a session id planted before sign-in is worthless.
+ */
+export async function signInResponse(
+  res: { append(field: string, value: string): unknown },
+  previousSessionId: string | undefined,
+  userId: string,
+  teamId: string,
+): Promise<void> {
+  if (previousSessionId) await lucia.invalidateSession(previousSessionId);
+  res.append('Set-Cookie', await startSession(userId, teamId));
+}
+
+/** Sign a browser out: end its session and clear its cookie. */
+export async function signOutResponse(res: { append(field: string, value: string): unknown }, sessionId: string): Promise<void> {
+  await lucia.invalidateSession(sessionId);
+  res.append('Set-Cookie', blankSessionCookie());
+}
+
+export interface ValidatedSession {
+  sessionId: string;
+  userId: string;
+  teamId: string;
+  email: string;
+  name: string;
+}
+
+/**
+ * Check the session named by a request's cookies. Returns the session (or null) and the
+ * Set-Cookie values to send back: a refreshed cookie when lucia extended the session, a blank
+ * one when the cookie named no live session.
+ */
+export async function validateSessionCookie(cookieHeader: string | undefined): Promise<{ session: ValidatedSession | null; setCookies: string[] }> {
+  const sessionId = readSessionId(cookieHeader);
+  if (!sessionId) return { session: null, setCookies: [] };
+  const { session, user } = await lucia.validateSession(sessionId);
+  if (!session) return { session: null, setCookies: [blankSessionCookie()] };
+  const setCookies = session.fresh ? [lucia.createSessionCookie(session.id).serialize()] : [];
+  return {
+    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, email: user.email, name: user.name },
+    setCookies,
+  };
+}

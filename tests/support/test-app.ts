@@ -1,6 +1,8 @@
 // The server under test: the real app on the real PostgreSQL that `npm test` started
 // (DATABASE_URL), listening on a free loopback port, with supertest agents that carry cookies
-// and this host's Origin like a browser would.
+// and this host's Origin like a browser would. Each test server has its own SMTP sink on a free
+// loopback port (the mailer is pointed at it, e-mailed links at the server) and serves the
+// development mailbox at /dev/mailbox; `ts.mail` holds what it caught.
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { randomUUID } from 'node:crypto';
@@ -12,7 +14,11 @@ import { createSequelize } from '../../server/db';
 import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models';
 import { migrate } from '../../server/migrate';
 import { createApp } from '../../server/app';
-import { hashPassword } from '../../server/auth/lucia';
+import { hashPassword, startSession } from '../../server/auth/lucia';
+import { configureMailer } from '../../server/mail/mailer';
+import { startMailSink, type MailSink } from '../../server/mail/sink';
+import { createMailboxRouter } from '../../server/mail/mailbox';
+import { setAppUrl } from '../../server/mail/templates';
 import type { Role } from '../../shared/schemas';
 
 export const repoRoot = path.resolve(import.meta.dirname, '../..');
@@ -24,27 +30,48 @@ export interface TestServer {
   server: http.Server;
   baseUrl: string;
   origin: string;
+  /** The SMTP sink this server's e-mail goes to: `ts.mail.messages`, `ts.mail.waitFor(…)`. */
+  mail: MailSink;
   close(): Promise<void>;
 }
 
-export async function startTestServer(opts: { clientDir?: string } = {}): Promise<TestServer> {
+export interface TestServerOptions {
+  clientDir?: string;
+  /** Express 'trust proxy' (default 'false', as in production without TRUST_PROXY). */
+  trustProxy?: string;
+  /** Port of the SMTP sink: 0 (default) picks a free one, so test files never collide. */
+  smtpPort?: number;
+}
+
+export async function startTestServer(opts: TestServerOptions = {}): Promise<TestServer> {
   const url = process.env.DATABASE_URL;
   if (!url) throw new Error('DATABASE_URL is not set: run the tests with `npm test`, which starts PostgreSQL');
   const sequelize = createSequelize(url, 10);
   initModels(sequelize);
   await migrate(sequelize);
-  const app = createApp({ logger: pino({ level: 'silent' }), clientDir: opts.clientDir });
+  const mail = await startMailSink({ port: opts.smtpPort ?? 0 });
+  configureMailer({ host: '127.0.0.1', port: mail.port, secure: false, from: 'Twistlog <no-reply@twistlog.invalid>' });
+  const app = createApp({
+    logger: pino({ level: 'silent' }),
+    clientDir: opts.clientDir,
+    trustProxy: opts.trustProxy,
+    extraRouters: [createMailboxRouter(mail)],
+  });
   const server = http.createServer(app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const { port } = server.address() as AddressInfo;
   const baseUrl = `http://127.0.0.1:${port}`;
+  setAppUrl(baseUrl);
   return {
     sequelize,
     server,
     baseUrl,
     origin: baseUrl,
+    mail,
     async close() {
+      server.closeAllConnections?.();
       await new Promise<void>((resolve) => server.close(() => resolve()));
+      await mail.close();
       await sequelize.close();
     },
   };
@@ -88,6 +115,17 @@ export async function signedInAgent(ts: TestServer, email: string): Promise<Agen
   const agent = agentFor(ts);
   const res = await agent.post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD });
   if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status} ${JSON.stringify(res.body)}`);
+  return agent;
+}
+
+/**
+ * An agent signed in without going through /api/auth/sign-in (no password check, no throttle):
+ * for tests that need many sessions, like the access matrix.
+ */
+export async function sessionAgent(ts: TestServer, userId: string, teamId: string): Promise<Agent> {
+  const agent = agentFor(ts);
+  const cookie = await startSession(userId, teamId);
+  agent.jar.setCookie(cookie.split(';')[0], '127.0.0.1', '/');
   return agent;
 }
 

@@ -1,0 +1,67 @@
+// The development mailbox: every message the local sink caught, newest first, as one plain
+// HTML page (links clickable) and as JSON. Mounted only when NODE_ENV !== 'production'.
+import { Router } from 'express';
+import type { MailSink } from './sink';
+
+const escapeHtml = (s: string) =>
+  s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+
+/** Escape a text body and make its http(s) links clickable. */
+export function linkify(text: string): string {
+  const parts = text.split(/(https?:\/\/[^\s<>"']+)/g);
+  return parts.map((p, i) => (i % 2 === 1 ? `<a href="${escapeHtml(p)}">${escapeHtml(p)}</a>` : escapeHtml(p))).join('');
+}
+
+let mountedAt: string | undefined;
+/** Where the development mailbox is served, when it is (sign-up answers name it for newcomers). */
+export const devMailboxPath = () => mountedAt;
+
+export function createMailboxRouter(sink: MailSink): Router {
+  if (process.env.NODE_ENV === 'production') throw new Error('the development mailbox is not served in production');
+  mountedAt = '/dev/mailbox';
+  const r = Router();
+  const newestFirst = () => [...sink.messages].reverse();
+
+  r.get('/dev/mailbox.json', (_req, res) => {
+    res.setHeader('Cache-Control', 'no-store');
+    res.json(newestFirst());
+  });
+
+  r.get('/dev/mailbox', (_req, res) => {
+    const items = newestFirst()
+      .map(
+        (m) => `<li id="message-${m.seq}">
+  <h2>${escapeHtml(m.subject || '(no subject)')}</h2>
+  <p class="meta">To: <span class="to">${escapeHtml(m.to.join(', '))}</span> · <time datetime="${m.receivedAt.toISOString()}">${escapeHtml(m.receivedAt.toISOString().replace('T', ' ').slice(0, 19))} UTC</time>${m.attachments.length ? ` · ${m.attachments.length} attachment(s): ${escapeHtml(m.attachments.map((a) => a.filename).join(', '))}` : ''}</p>
+  <pre>${linkify(m.text)}</pre>
+</li>`,
+      )
+      .join('\n');
+    res.setHeader('Cache-Control', 'no-store');
+    res.type('html').send(`<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>Mailbox (development) · Twistlog</title>
+<style>
+  body { font-family: system-ui, sans-serif; margin: 0 auto; max-width: 48rem; padding: 1rem; background: #f4f1e8; color: #0d1b1e; font-size: 18px; }
+  ol { list-style: none; padding: 0; }
+  li { background: #fff; border: 2px solid #c9c3b3; border-radius: 12px; padding: 0.75rem 1rem; margin: 0 0 1rem; }
+  h2 { margin: 0 0 0.25rem; font-size: 1.2rem; }
+  .meta { margin: 0 0 0.5rem; font-size: 0.9rem; color: #10333d; }
+  pre { white-space: pre-wrap; word-break: break-word; font-family: inherit; margin: 0; }
+  a { color: #10333d; font-weight: bold; display: inline-block; padding: 0.4rem 0; }
+</style>
+</head>
+<body>
+<h1>Mailbox</h1>
+<p>Every e-mail the app sent while running here, newest first. Nothing was delivered to anyone: the development mail sink keeps it. (${sink.messages.length} message${sink.messages.length === 1 ? '' : 's'}; reload to see new ones.)</p>
+<ol>
+${items || '<li>No e-mail yet.</li>'}
+</ol>
+</body>
+</html>`);
+  });
+  return r;
+}

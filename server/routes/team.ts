@@ -1,0 +1,59 @@
+// The workshop's members and invitations. Reading needs team.read; everything that changes who
+// is in the workshop, or with which role, needs team.manage (admins).
+import { z } from 'zod';
+import { route } from './route';
+import { id } from '../../shared/schemas';
+import { inviteInput, roleChangeInput } from '../../shared/schemas/account';
+import { changeRole, getTeam, invite, listInvitations, removeMember, revokeInvitation } from '../services/team.service';
+
+const byId = z.object({ id });
+
+export const teamRoutes = [
+  route({ method: 'get', path: '/api/team', access: 'team.read', handler: async ({ auth }) => getTeam(auth) }),
+  route({
+    method: 'get',
+    path: '/api/team/invitations',
+    access: 'team.manage',
+    handler: async ({ auth }) => listInvitations(auth),
+  }),
+  route({
+    method: 'post',
+    path: '/api/team/invitations',
+    access: 'team.manage',
+    body: inviteInput,
+    handler: async ({ auth, body, res }) => {
+      const created = await invite(auth, body);
+      res.status(201);
+      return created;
+    },
+  }),
+  route({
+    method: 'delete',
+    path: '/api/team/invitations/:id',
+    access: 'team.manage',
+    params: byId,
+    handler: async ({ auth, params }) => {
+      await revokeInvitation(auth, params.id);
+      return { ok: true };
+    },
+  }),
+  /** :id is the member's user id. */
+  route({
+    method: 'patch',
+    path: '/api/team/members/:id',
+    access: 'team.manage',
+    params: byId,
+    body: roleChangeInput,
+    handler: async ({ auth, params, body }) => changeRole(auth, params.id, body.role),
+  }),
+  route({
+    method: 'delete',
+    path: '/api/team/members/:id',
+    access: 'team.manage',
+    params: byId,
+    handler: async ({ auth, params }) => {
+      await removeMember(auth, params.id);
+      return { ok: true };
+    },
+  }),
+];
