@@ -7,5 +7,9 @@ import { sessionRoutes } from './sessions';
 import { teamRoutes } from './team';
 import { syncRoutes } from './sync';
 import { photoRoutes } from './photos';
+import { reviewRoutes } from './review';
+import { envelopeRoutes } from './envelopes';
+import { compareRoutes } from './compare';
+import { exportRoutes } from './exports';
 
-export const allRoutes: AnyRoute[] = [...healthRoutes, ...authRoutes, ...teamRoutes, ...vehicleRoutes, ...sessionRoutes, ...syncRoutes, ...photoRoutes];
+export const allRoutes: AnyRoute[] = [...healthRoutes, ...authRoutes, ...teamRoutes, ...vehicleRoutes, ...sessionRoutes, ...syncRoutes, ...photoRoutes, ...reviewRoutes, ...envelopeRoutes, ...compareRoutes, ...exportRoutes];

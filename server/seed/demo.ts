@@ -4,6 +4,9 @@
 import { MembershipModel, TeamModel, UserModel, VehicleModel, GaugePointModel, TestSessionModel, PoseModel, ReadingModel } from '../models';
 import { hashPassword } from '../auth/lucia';
 import type { Axis } from '../../shared/schemas';
+import { EnvelopeModel } from '../models';
+import { signOff } from '../services/envelope.service';
+import { DEFAULT_DRAFT_PARAMS, type EnvelopeParams } from '../../shared/schemas/envelope';
 
 export const DEMO_TEAM_ID = '0d3c5a10-0000-4000-8000-000000000001';
 export const DEMO_PASSWORD = 'flex-demo-2026';
@@ -76,7 +79,14 @@ function noise(seed: number) {
   };
 }
 
+/** Seeds the demo workshop once, then its signed envelope once; true when anything was added. */
 export async function seedDemo(): Promise<boolean> {
+  const workshop = await seedWorkshop();
+  const envelope = await seedDemoEnvelope();
+  return workshop || envelope;
+}
+
+async function seedWorkshop(): Promise<boolean> {
   if (await TeamModel.findByPk(DEMO_TEAM_ID)) return false;
   const sequelize = TeamModel.sequelize!;
   const hash = await hashPassword(DEMO_PASSWORD);
@@ -175,5 +185,27 @@ export async function seedDemo(): Promise<boolean> {
       }
     }
   });
+  return true;
+}
+
+export const DEMO_ENVELOPE_ID = id(1, '006');
+/** The reading of the Mossback ramp pose at gauge point D, fore-aft, that the crew flagged. */
+const DEMO_FLAGGED_READING_ID = id(6 * 100 + 3 * 3 + 0 + 1, '005');
+
+/**
+ * The Mossback session's envelope, signed off by the engineer Mara Venn through the same service
+ * the sign-off route uses (computed from the readings in the database), plus a crew's flag note.
+ */
+async function seedDemoEnvelope(): Promise<boolean> {
+  if (await EnvelopeModel.findByPk(DEMO_ENVELOPE_ID)) return false;
+  const engineer = DEMO_PEOPLE[1];
+  const vehicle = DEMO_VEHICLES[0];
+  await ReadingModel.update(
+    { flagNote: 'Dial gauge base shifted on the ramp; re-seated and read again, same value' },
+    { where: { id: DEMO_FLAGGED_READING_ID, flagNote: null } },
+  );
+  const params: EnvelopeParams = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
+  await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
+  await signOff({ teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name }, DEMO_ENVELOPE_ID, { version: 1 }, new Date('2026-11-20T15:30:00Z'));
   return true;
 }

@@ -2,6 +2,7 @@ import { GaugePointModel, PoseModel, ReadingModel, TestSessionModel, VehicleMode
 import { NotFound } from '../http/errors';
 import { gaugePointOut, poseOut, readingOut, testSessionOut, vehicleOut } from './serialize';
 import type { AuthContext } from '../auth/context';
+import type { Transaction } from 'sequelize';
 
 export async function listSessions(auth: AuthContext) {
   const rows = await TestSessionModel.findAll({
@@ -13,17 +14,18 @@ export async function listSessions(auth: AuthContext) {
 }
 
 /** A whole session with its vehicle, gauge points, poses and readings: what review and the envelope need. */
-export async function getSessionDetail(auth: AuthContext, id: string) {
-  const s = await TestSessionModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null } });
+// `transaction` lets a sign-off read the readings it freezes inside its own transaction.
+export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: string, { transaction }: { transaction?: Transaction } = {}) {
+  const s = await TestSessionModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, transaction });
   if (!s) throw new NotFound('session');
   const [v, points, poses] = await Promise.all([
-    VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId } }),
-    GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']] }),
-    PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']] }),
+    VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId }, transaction }),
+    GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']], transaction }),
+    PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction }),
   ]);
   if (!v) throw new NotFound('vehicle');
   const readings = poses.length
-    ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null } })
+    ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction })
     : [];
   return {
     session: testSessionOut(s),

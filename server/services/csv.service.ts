@@ -1,0 +1,91 @@
+// CSV exports of a session's readings and of a signed envelope. Values print through
+// shared/format.ts (the same digits as the screen and the sheet) in the chosen unit; the readings
+// file also carries each value exactly in mm, so a spreadsheet can recompute without rounding.
+// Written with papaparse's unparse (quotes fields with commas, quotes or line breaks). Free text
+// that a spreadsheet would run as a formula gets a leading apostrophe; negative numbers do not.
+const CSV_OPTIONS = { newline: '\r\n', escapeFormulae: /^(?:[=+@\t\r]|-(?!\d+(?:\.\d+)?$))/ };
+import Papa from 'papaparse';
+import type { UnitSystem } from '../../shared/schemas/common';
+import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
+import type { GaugePoint, Pose, Reading } from '../../shared/schemas';
+import { AXES } from '../../shared/flex';
+import { AXIS_NAMES, SIDE_NAMES, formatDegValue, formatLengthValue, formatRatio } from '../../shared/format';
+
+export interface ReadingsCsvInput {
+  gaugePoints: Pick<GaugePoint, 'id' | 'label'>[];
+  poses: Pick<Pose, 'id' | 'seq' | 'label'>[];
+  readings: (Pick<Reading, 'id' | 'poseId' | 'gaugePointId' | 'axis' | 'valueMm' | 'excluded' | 'excludeReason' | 'flagNote'> & { enteredBy: string })[];
+  people: Record<string, string>;
+}
+
+export function readingsCsv(data: ReadingsCsvInput, unit: UnitSystem): string {
+  const poseOf = new Map(data.poses.map((p) => [p.id, p]));
+  const labelOf = new Map(data.gaugePoints.map((g) => [g.id, g.label]));
+  const axisOrder = (a: string) => AXES.indexOf(a as (typeof AXES)[number]);
+  const rows = [...data.readings]
+    .filter((r) => poseOf.has(r.poseId))
+    .sort(
+      (a, b) =>
+        poseOf.get(a.poseId)!.seq - poseOf.get(b.poseId)!.seq ||
+        (labelOf.get(a.gaugePointId) ?? '').localeCompare(labelOf.get(b.gaugePointId) ?? '') ||
+        axisOrder(a.axis) - axisOrder(b.axis),
+    )
+    .map((r) => {
+      const pose = poseOf.get(r.poseId)!;
+      return {
+        pose_seq: pose.seq,
+        pose: pose.label,
+        gauge_point: labelOf.get(r.gaugePointId) ?? '',
+        axis: AXIS_NAMES[r.axis],
+        [`value_${unit}`]: formatLengthValue(r.valueMm, unit),
+        value_mm_exact: String(r.valueMm),
+        excluded: r.excluded ? 'yes' : 'no',
+        exclude_reason: r.excludeReason ?? '',
+        flag_note: r.flagNote ?? '',
+        entered_by: data.people[r.enteredBy] ?? '',
+        reading_id: r.id,
+      };
+    });
+  return Papa.unparse(rows, CSV_OPTIONS);
+}
+
+/** The signed envelope: one row per axis, then one per side of the boot check, with the sign-off. */
+export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: UnitSystem): string {
+  const common = { revision: s.revision, signed_by: s.signedBy.name, signed_at: s.signedAt, content_hash: contentHash };
+  const rows: Record<string, string | number>[] = AXES.map((axis) => {
+    const a = s.result.axes[axis];
+    return {
+      kind: 'axis',
+      name: AXIS_NAMES[axis],
+      [`measured_worst_${unit}`]: formatLengthValue(Math.abs(a.measuredWorstMm), unit),
+      [`upper_bound_${unit}`]: a.upperBoundMm === null ? '' : formatLengthValue(a.upperBoundMm, unit),
+      governs: a.governing === 'upperBound' ? 'upper bound' : 'measured',
+      [`envelope_${unit}`]: formatLengthValue(a.envelopeMm, unit),
+      [`gap_min_${unit}`]: '',
+      [`gap_max_${unit}`]: '',
+      [`largest_shear_${unit}`]: '',
+      extension_ratio: '',
+      design_twist_deg: formatDegValue(s.params.designTwistDeg),
+      ...common,
+    };
+  });
+  for (const side of ['top', 'bottom', 'left', 'right'] as const) {
+    const b = s.boot?.[side];
+    if (!b) continue;
+    rows.push({
+      kind: 'side',
+      name: SIDE_NAMES[side],
+      [`measured_worst_${unit}`]: '',
+      [`upper_bound_${unit}`]: '',
+      governs: '',
+      [`envelope_${unit}`]: '',
+      [`gap_min_${unit}`]: formatLengthValue(b.gapMinMm, unit),
+      [`gap_max_${unit}`]: formatLengthValue(b.gapMaxMm, unit),
+      [`largest_shear_${unit}`]: formatLengthValue(b.largestShearMm, unit),
+      extension_ratio: formatRatio(b.extensionRatio),
+      design_twist_deg: formatDegValue(s.params.designTwistDeg),
+      ...common,
+    });
+  }
+  return Papa.unparse(rows, CSV_OPTIONS);
+}

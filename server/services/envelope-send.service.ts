@@ -1,0 +1,62 @@
+// Sending a signed envelope's fabrication sheet by e-mail (the same mail path as invitations),
+// logged on the envelope and in the session's history. Only a revision that is signed now is
+// sent: a superseded sheet must not reach a fabricator.
+import { randomUUID } from 'node:crypto';
+import { EnvelopeSendModel, HistoryEventModel, TeamModel, UserModel } from '../models';
+import type { AuthContext } from '../auth/context';
+import { Conflict } from '../http/errors';
+import { sendMail } from '../mail/mailer';
+import type { UnitSystem } from '../../shared/schemas/common';
+import type { SendSheetInput } from '../../shared/schemas/envelope';
+import { AXES } from '../../shared/flex';
+import { AXIS_NAMES, formatLength, formatTimestamp } from '../../shared/format';
+import { getSignedEnvelope } from './envelope.service';
+import { PLANNING_AID_NOTICE, buildSheetPdf } from './fabrication-sheet.service';
+
+/** The unit a person reads lengths in: their own choice, else the team's. */
+export async function unitFor(auth: Pick<AuthContext, 'userId' | 'teamId'>, override?: UnitSystem): Promise<UnitSystem> {
+  if (override) return override;
+  const [user, team] = await Promise.all([UserModel.findByPk(auth.userId), TeamModel.findByPk(auth.teamId)]);
+  return user?.unitSystem ?? team?.unitSystem ?? 'mm';
+}
+
+export function sheetFileName(vehicleName: string, revision: number) {
+  const slug = vehicleName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'vehicle';
+  return `fabrication-sheet-${slug}-rev${revision}.pdf`;
+}
+
+export async function sendSheet(auth: AuthContext, envelopeId: string, input: SendSheetInput) {
+  const envelope = await getSignedEnvelope(auth, envelopeId);
+  if (envelope.status !== 'signed') throw new Conflict(`revision ${envelope.revision} is superseded by a later sign-off: send the current revision`);
+  const unit = await unitFor(auth);
+  const s = envelope.snapshot;
+  const pdf = await buildSheetPdf({ snapshot: s, contentHash: envelope.contentHash, status: 'signed', unit });
+  const lines = [
+    `${auth.name} sends you the fabrication sheet for the cab-to-body boot or seal of ${s.vehicle.name} (envelope revision ${s.revision}, signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}).`,
+    '',
+    ...(input.note ? [input.note, ''] : []),
+    'Design envelope per axis:',
+    ...AXES.map((axis) => `  ${AXIS_NAMES[axis]}: ±${formatLength(s.result.axes[axis].envelopeMm, unit)}`),
+    '',
+    `Content hash: ${envelope.contentHash}`,
+    '',
+    PLANNING_AID_NOTICE,
+  ];
+  const { messageId } = await sendMail({
+    to: input.to,
+    subject: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`,
+    text: lines.join('\n'),
+    attachments: [{ filename: sheetFileName(s.vehicle.name, s.revision), content: pdf, contentType: 'application/pdf' }],
+  });
+  const sequelize = EnvelopeSendModel.sequelize!;
+  const sendId = randomUUID();
+  const detail = { to: input.to, revision: s.revision };
+  await sequelize.transaction(async (transaction) => {
+    await EnvelopeSendModel.create({ id: sendId, teamId: auth.teamId, envelopeId, toEmail: input.to, sentBy: auth.userId, messageId }, { transaction });
+    await HistoryEventModel.create(
+      { teamId: auth.teamId, sessionId: envelope.sessionId, entity: 'envelope', entityId: envelopeId, action: 'envelope.send', userId: auth.userId, detail },
+      { transaction },
+    );
+  });
+  return { id: sendId, toEmail: input.to, messageId };
+}

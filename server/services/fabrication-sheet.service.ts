@@ -1,0 +1,253 @@
+// The fabrication sheet: one PDF per signed envelope revision, for whoever sews the boot or cuts the
+// seal. It prints only the frozen snapshot (never a recomputation), every number through
+// shared/format.ts so it reads as on screen and in the CSV, and the planning-aid notice.
+// Fonts: Atkinson Hyperlegible (SIL OFL 1.1, fonts/OFL.txt), read by pdfkit's fontkit from WOFF.
+import PDFDocument from 'pdfkit';
+import path from 'node:path';
+import type { UnitSystem } from '../../shared/schemas/common';
+import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
+import { AXES } from '../../shared/flex';
+import {
+  AXIS_NAMES,
+  SIDE_NAMES,
+  formatDeg,
+  formatLength,
+  formatLengthValue,
+  formatPercent,
+  formatRatio,
+  formatTimestamp,
+} from '../../shared/format';
+
+const FONT_DIR = path.resolve(import.meta.dirname, '../../fonts');
+const REGULAR = path.join(FONT_DIR, 'atkinson-hyperlegible-regular.woff');
+const BOLD = path.join(FONT_DIR, 'atkinson-hyperlegible-bold.woff');
+
+export const PLANNING_AID_NOTICE =
+  'Planning aid only. This envelope helps plan a boot, bellows or seal across the cab-to-body gap; it is not a structural or road-legality approval. Local codes and qualified professionals decide. Flex testing can roll or drop a vehicle: keep a spotter in sight and nobody beside or under it while it moves.';
+
+const INK = '#0d1b1e';
+const MUTED = '#4a5a5e';
+const LINE = '#10333d';
+const MARGIN = 48;
+
+export interface SheetInput {
+  snapshot: EnvelopeSnapshot;
+  contentHash: string;
+  status: 'signed' | 'superseded';
+  unit: UnitSystem;
+}
+
+type Doc = InstanceType<typeof PDFDocument>;
+
+function heading(doc: Doc, text: string) {
+  doc.moveDown(0.6).font('bold').fontSize(12).fillColor(LINE).text(text, MARGIN).moveDown(0.2);
+  doc.font('regular').fontSize(9).fillColor(INK);
+}
+
+/** A plain table: a bold header row, then rows; column widths in points. */
+function table(doc: Doc, columns: { title: string; width: number; align?: 'left' | 'right' }[], rows: string[][]) {
+  const draw = (cells: string[], bold: boolean) => {
+    if (doc.y > doc.page.height - MARGIN - 40) doc.addPage();
+    const y = doc.y;
+    let x = MARGIN;
+    let height = 0;
+    doc.font(bold ? 'bold' : 'regular').fontSize(9);
+    cells.forEach((cell, i) => {
+      const c = columns[i];
+      doc.text(cell, x, y, { width: c.width - 6, align: c.align ?? 'left' });
+      height = Math.max(height, doc.y - y);
+      x += c.width;
+    });
+    doc.x = MARGIN;
+    doc.y = y + height + 3;
+    doc.moveTo(MARGIN, doc.y - 1.5).lineTo(x, doc.y - 1.5).lineWidth(0.3).strokeColor(bold ? LINE : '#c9c3b3').stroke();
+  };
+  draw(columns.map((c) => c.title), true);
+  for (const row of rows) draw(row, false);
+  doc.font('regular');
+}
+
+function arrowLine(doc: Doc, x1: number, y1: number, x2: number, y2: number) {
+  doc.moveTo(x1, y1).lineTo(x2, y2).lineWidth(0.6).strokeColor(LINE).stroke();
+  const a = Math.atan2(y2 - y1, x2 - x1);
+  for (const [x, y, dir] of [[x1, y1, a], [x2, y2, a + Math.PI]] as const) {
+    doc
+      .moveTo(x, y)
+      .lineTo(x + 5 * Math.cos(dir + 0.35), y + 5 * Math.sin(dir + 0.35))
+      .lineTo(x + 5 * Math.cos(dir - 0.35), y + 5 * Math.sin(dir - 0.35))
+      .closePath()
+      .fillColor(LINE)
+      .fill();
+  }
+}
+
+/** The opening to scale, seen from the cab (the vehicle's left on the drawing's right), dimensioned. */
+function openingDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
+  const o = s.vehicle.opening;
+  const boxW = 300;
+  const boxH = 190;
+  const scale = Math.min(boxW / o.widthMm, boxH / o.heightMm);
+  const w = o.widthMm * scale;
+  const h = o.heightMm * scale;
+  const left = MARGIN + 40;
+  const top = doc.y + 24;
+  doc.roundedRect(left, top, w, h, o.cornerRadiusMm * scale).lineWidth(1.5).strokeColor(INK).stroke();
+  // Viewed from the cab looking rearward, +y (the vehicle's left) is on the right of the drawing.
+  const px = (y: number) => left + w / 2 + (y - o.centreYMm) * scale;
+  const py = (z: number) => top + h - (z - o.bottomZMm) * scale;
+  for (const g of s.gaugePoints) {
+    doc.circle(px(g.yMm), py(g.zMm), 3).fillColor('#8a4b00').fill();
+    doc.font('bold').fontSize(8).fillColor(INK).text(g.label, px(g.yMm) + 4, py(g.zMm) - 10, { lineBreak: false });
+  }
+  arrowLine(doc, left, top - 10, left + w, top - 10);
+  doc.font('regular').fontSize(9).fillColor(INK).text(`width ${formatLength(o.widthMm, unit)}`, left, top - 22, { width: w, align: 'center' });
+  arrowLine(doc, left - 12, top, left - 12, top + h);
+  doc.save().rotate(-90, { origin: [left - 16, top + h / 2] });
+  doc.text(`height ${formatLength(o.heightMm, unit)}`, left - 16 - h / 2, top + h / 2 - 11, { width: h, align: 'center' });
+  doc.restore();
+  const notesX = left + w + 24;
+  doc.fontSize(9).fillColor(INK);
+  doc.text(`corner radius ${formatLength(o.cornerRadiusMm, unit)}`, notesX, top);
+  doc.text(`centre ${formatLength(o.centreYMm, unit)} from the vehicle centreline (+ = left)`, notesX, doc.y + 2, { width: 160 });
+  doc.text(`bottom edge ${formatLength(o.bottomZMm, unit)} above the top of the frame rail`, notesX, doc.y + 2, { width: 160 });
+  doc.text(`nominal fore-aft gap ${formatLength(s.vehicle.nominalGapMm, unit)}`, notesX, doc.y + 2, { width: 160 });
+  doc.fillColor(MUTED).text('Seen from the cab, looking rearward; dots are the gauge points.', notesX, doc.y + 2, { width: 160 });
+  doc.fillColor(INK);
+  doc.x = MARGIN;
+  doc.y = Math.max(top + h + 12, doc.y + 6);
+}
+
+export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetInput): Promise<Buffer> {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: MARGIN,
+    info: { Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`, Author: s.signedBy.name, Creator: 'Twistlog' },
+  });
+  doc.registerFont('regular', REGULAR);
+  doc.registerFont('bold', BOLD);
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  doc.font('bold').fontSize(18).fillColor(LINE).text('Fabrication sheet: pass-through boot and seal');
+  doc.font('regular').fontSize(10).fillColor(INK);
+  doc.text(`${s.vehicle.name} · session "${s.session.title}" of ${s.session.testedOn} · envelope revision ${s.revision}`);
+  doc.text(`All lengths in ${unit}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`);
+  if (status === 'superseded') {
+    doc.moveDown(0.3).font('bold').fillColor('#b3261e').text('SUPERSEDED: a later revision of this envelope has been signed off. Do not fabricate from this sheet.');
+    doc.font('regular').fillColor(INK);
+  }
+
+  heading(doc, 'Opening');
+  openingDrawing(doc, s, unit);
+
+  heading(doc, 'Design envelope per axis');
+  table(
+    doc,
+    [
+      { title: 'axis', width: 70 },
+      { title: `measured worst (${unit})`, width: 90, align: 'right' },
+      { title: `upper bound (${unit})`, width: 90, align: 'right' },
+      { title: 'governs', width: 80 },
+      { title: `envelope (${unit})`, width: 90, align: 'right' },
+    ],
+    AXES.map((axis) => {
+      const a = s.result.axes[axis];
+      return [
+        AXIS_NAMES[axis],
+        formatLengthValue(Math.abs(a.measuredWorstMm), unit),
+        a.upperBoundMm === null ? '—' : formatLengthValue(a.upperBoundMm, unit),
+        a.governing === 'upperBound' ? 'upper bound' : 'measured',
+        `±${formatLengthValue(a.envelopeMm, unit)}`,
+      ];
+    }),
+  );
+  doc.fontSize(8).fillColor(MUTED);
+  for (const axis of AXES) doc.text(`${AXIS_NAMES[axis]}: ${s.result.axes[axis].reasons.join(' ')}`, MARGIN);
+  doc.fillColor(INK);
+
+  heading(doc, 'Boot spans per side');
+  if (s.boot === null) {
+    doc.text(s.bootNote ?? 'no boot check', MARGIN);
+  } else {
+    const boot = s.boot;
+    table(
+      doc,
+      [
+        { title: 'side', width: 62 },
+        { title: `gap min (${unit})`, width: 62, align: 'right' },
+        { title: `gap max (${unit})`, width: 62, align: 'right' },
+        { title: `largest shear (${unit})`, width: 70, align: 'right' },
+        { title: `shortest span (${unit})`, width: 70, align: 'right' },
+        { title: `longest span (${unit})`, width: 70, align: 'right' },
+        { title: 'extension ratio', width: 60, align: 'right' },
+        { title: 'contact', width: 44 },
+      ],
+      (['top', 'bottom', 'left', 'right'] as const).map((side) => {
+        const b = boot[side];
+        return [
+          SIDE_NAMES[side],
+          formatLengthValue(b.gapMinMm, unit),
+          formatLengthValue(b.gapMaxMm, unit),
+          formatLengthValue(b.largestShearMm, unit),
+          formatLengthValue(b.shortestMm, unit),
+          formatLengthValue(b.longestMm, unit),
+          formatRatio(b.extensionRatio),
+          b.contact ? 'yes' : 'no',
+        ];
+      }),
+    );
+    doc.fontSize(8).fillColor(MUTED).text(`The spans ${s.bootNote}.`, MARGIN).fillColor(INK);
+
+    heading(doc, 'Seal check');
+    const seal = s.params.seal;
+    if (seal === null) {
+      doc.text('No seal chosen. Free heights that follow each side at 25–50 % compression (common practice):', MARGIN);
+    } else {
+      doc.text(
+        `Seal free height ${formatLength(seal.freeHeightMm, unit)}, allowed compression ${seal.minCompressionPercent}–${seal.maxCompressionPercent} %.`,
+        MARGIN,
+      );
+    }
+    table(
+      doc,
+      [
+        { title: 'side', width: 70 },
+        { title: `free heights that follow (${unit})`, width: 140 },
+        { title: 'this seal', width: 318 },
+      ],
+      (['top', 'bottom', 'left', 'right'] as const).map((side) => {
+        const b = boot[side];
+        const range = b.sealFreeHeightRangeMm ? `${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)}` : 'none';
+        const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${b.seal.reason}` : '—';
+        return [SIDE_NAMES[side], range, check];
+      }),
+    );
+  }
+
+  heading(doc, 'Parameters');
+  const p = s.params;
+  const method =
+    p.method === 'prediction'
+      ? `one-sided prediction bound at ${formatPercent(p.confidence)} confidence, line ${p.throughOrigin ? 'through the origin' : 'with intercept'}`
+      : `one-sided tolerance bound, coverage ${formatPercent(p.coverage)} at ${formatPercent(p.confidence)} confidence`;
+  doc.text(`Design twist ${formatDeg(p.designTwistDeg)}; ${method}.`, MARGIN);
+  doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatLength(p.incrementMm, unit)}.`);
+  doc.text(`${s.poses.length} poses, ${s.readings.length} readings used, ${s.excludedReadings.length} excluded by the engineer.`);
+  if (s.result.notes.length > 0) {
+    doc.fontSize(8).fillColor(MUTED);
+    for (const note of s.result.notes) doc.text(`• ${note}`);
+    doc.fontSize(9).fillColor(INK);
+  }
+
+  heading(doc, 'Sign-off');
+  doc.text(`Signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}, revision ${s.revision}.`, MARGIN);
+  doc.fontSize(8).text(`Content hash (SHA-256 of the snapshot's canonical JSON): ${contentHash}`);
+
+  doc.moveDown(0.8).fontSize(9).font('bold').text(PLANNING_AID_NOTICE, MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
+  doc.end();
+  return done;
+}

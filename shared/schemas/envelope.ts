@@ -1,0 +1,188 @@
+// The desk's records: design parameters of an envelope, the envelope revision as the API returns
+// it, the frozen snapshot a sign-off stores, the review edits of a reading, and the fabrication
+// sheet's e-mail. One schema each: the server validates with them, the client's forms too.
+import { z } from 'zod';
+import { axis, id, isoDate, isoDateTime } from './common';
+import type { BootSpanResult, EnvelopeResult } from '../flex';
+
+/** Seal check inputs: free height and the allowed compression range (25–50 % is common practice). */
+export const sealSpec = z
+  .object({
+    freeHeightMm: z.number().finite().gt(0).max(1_000),
+    minCompressionPercent: z.number().finite().min(0).max(99),
+    maxCompressionPercent: z.number().finite().min(0).max(99),
+  })
+  .refine((s) => s.minCompressionPercent <= s.maxCompressionPercent, {
+    message: 'the least compression must not exceed the most',
+    path: ['minCompressionPercent'],
+  });
+export type SealSpecInput = z.infer<typeof sealSpec>;
+
+/** What the engineer sets; lengths in mm, fractions as fractions (0.15 = 15 %). */
+export const envelopeParams = z.object({
+  designTwistDeg: z.number().finite().gt(0).max(90),
+  method: z.enum(['prediction', 'tolerance']),
+  confidence: z.number().finite().gt(0.5).lt(1),
+  coverage: z.number().finite().gt(0.5).lt(1),
+  margin: z.number().finite().min(0).max(2),
+  allowanceMm: z.number().finite().min(0).max(500),
+  incrementMm: z.number().finite().gt(0).max(100),
+  throughOrigin: z.boolean(),
+  seal: sealSpec.nullable(),
+});
+export type EnvelopeParams = z.infer<typeof envelopeParams>;
+
+/**
+ * A first draft's parameters: the flex module's defaults (common practice), a design twist the
+ * engineer is expected to change, and the seal check off until a seal is chosen.
+ */
+export const DEFAULT_DRAFT_PARAMS: EnvelopeParams = {
+  designTwistDeg: 12,
+  method: 'prediction',
+  confidence: 0.95,
+  coverage: 0.9,
+  margin: 0.15,
+  allowanceMm: 10,
+  incrementMm: 5,
+  throughOrigin: true,
+  seal: null,
+};
+
+export const envelopeStatus = z.enum(['draft', 'signed', 'superseded']);
+export type EnvelopeStatus = z.infer<typeof envelopeStatus>;
+
+/** A pose as the snapshot keeps it: `key` is the name the computation and its reasons use. */
+export interface SnapshotPose {
+  id: string;
+  key: string;
+  seq: number;
+  label: string;
+  kind: 'level' | 'wheels' | 'ramp';
+  liftsMm: { fl: number; fr: number; rl: number; rr: number };
+}
+
+/**
+ * Everything a sign-off freezes: the inputs as read from the database at that moment, the
+ * parameters, the results of shared/flex, and who signed when. Its canonical JSON is hashed.
+ */
+export interface EnvelopeSnapshot {
+  format: 1;
+  signedBy: { id: string; name: string };
+  signedAt: string;
+  revision: number;
+  vehicle: {
+    id: string;
+    name: string;
+    wheelbaseMm: number;
+    trackFrontMm: number;
+    trackRearMm: number;
+    nominalGapMm: number;
+    opening: { widthMm: number; heightMm: number; cornerRadiusMm: number; centreYMm: number; bottomZMm: number };
+  };
+  session: { id: string; title: string; testedOn: string; readingMode: 'gap' | 'displacement' };
+  gaugePoints: { id: string; label: string; yMm: number; zMm: number }[];
+  poses: SnapshotPose[];
+  readings: { id: string; poseId: string; gaugePointId: string; axis: z.infer<typeof axis>; valueMm: number; version: number }[];
+  excludedReadings: { id: string; reason: string }[];
+  params: EnvelopeParams;
+  result: EnvelopeResult;
+  boot: BootSpanResult | null;
+  bootNote: string | null;
+}
+
+export interface EnvelopeSendRecord {
+  id: string;
+  toEmail: string;
+  sentBy: string;
+  sentAt: string;
+}
+
+/** An envelope revision as the API returns it. */
+export interface EnvelopeRecord {
+  id: string;
+  sessionId: string;
+  vehicleId: string;
+  vehicleName: string;
+  sessionTitle: string;
+  testedOn: string;
+  revision: number;
+  status: EnvelopeStatus;
+  version: number;
+  params: EnvelopeParams;
+  snapshot: EnvelopeSnapshot | null;
+  contentHash: string | null;
+  /** The stored snapshot still hashes to contentHash; null for a draft. */
+  hashVerifies: boolean | null;
+  signedBy: { id: string; name: string } | null;
+  signedAt: string | null;
+  createdAt: string;
+  sends: EnvelopeSendRecord[];
+}
+
+export const saveDraftInput = z.object({ version: z.number().int().min(1), params: envelopeParams });
+export const signOffInput = z.object({ version: z.number().int().min(1) });
+export const createDraftInput = z.object({ params: envelopeParams.optional() });
+
+/** A review edit of one reading: exclusion (with its reason), a flag note, a corrected value. */
+export const readingReviewInput = z
+  .object({
+    version: z.number().int().min(1),
+    excluded: z.boolean().optional(),
+    excludeReason: z.string().trim().max(500).nullable().optional(),
+    flagNote: z.string().trim().max(500).nullable().optional(),
+    valueMm: z.number().finite().min(-20_000).max(20_000).optional(),
+  })
+  .refine((r) => r.excluded !== true || (r.excludeReason ?? '').length > 0, {
+    message: 'excluding a reading needs a reason',
+    path: ['excludeReason'],
+  });
+export type ReadingReviewInput = z.infer<typeof readingReviewInput>;
+
+export const sendSheetInput = z.object({
+  to: z.email().max(254).transform((e) => e.toLowerCase()),
+  note: z.string().trim().max(2_000).optional(),
+});
+export type SendSheetInput = z.infer<typeof sendSheetInput>;
+
+export const compareQuery = z.object({
+  sessionIds: z
+    .string()
+    .transform((s) => s.split(',').filter(Boolean))
+    .pipe(z.array(id).min(1).max(12)),
+});
+
+/** One session in a comparison; lengths in mm. */
+export interface ComparedSession {
+  sessionId: string;
+  vehicleId: string;
+  vehicleName: string;
+  title: string;
+  testedOn: string;
+  poseCount: number;
+  twistReachedDeg: number;
+  worstMm: Record<z.infer<typeof axis>, number>;
+  slopeMmPerDeg: Record<z.infer<typeof axis>, number | null>;
+}
+
+export const historyEvent = z.object({
+  id: z.number(),
+  entity: z.string(),
+  entityId: id,
+  action: z.string(),
+  userName: z.string().nullable(),
+  detail: z.record(z.string(), z.unknown()),
+  createdAt: isoDateTime,
+});
+export type HistoryEventRecord = z.infer<typeof historyEvent>;
+
+export const signedEnvelopeSummary = z.object({
+  id,
+  vehicleName: z.string(),
+  sessionTitle: z.string(),
+  testedOn: isoDate,
+  revision: z.number().int(),
+  signedAt: isoDateTime,
+  signedBy: z.string(),
+  contentHash: z.string(),
+});
+export type SignedEnvelopeSummary = z.infer<typeof signedEnvelopeSummary>;
