@@ -121,7 +121,8 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
   const doc = new PDFDocument({
     size: 'A4',
     margin: MARGIN,
-    info: { Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`, Author: s.signedBy.name, Creator: 'Twistlog' },
+    // Dated at the sign-off, so the same revision always prints to the same file.
+    info: { Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`, Author: s.signedBy.name, Creator: 'Twistlog', CreationDate: new Date(s.signedAt) },
   });
   doc.registerFont('regular', REGULAR);
   doc.registerFont('bold', BOLD);

@@ -18,11 +18,10 @@ export async function listSessions(auth: AuthContext) {
 export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: string, { transaction }: { transaction?: Transaction } = {}) {
   const s = await TestSessionModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, transaction });
   if (!s) throw new NotFound('session');
-  const [v, points, poses] = await Promise.all([
-    VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId }, transaction }),
-    GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']], transaction }),
-    PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction }),
-  ]);
+  // One after another: queries of one transaction share its connection.
+  const v = await VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId }, transaction });
+  const points = await GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']], transaction });
+  const poses = await PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction });
   if (!v) throw new NotFound('vehicle');
   const readings = poses.length
     ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction })

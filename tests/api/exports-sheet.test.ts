@@ -1,0 +1,152 @@
+// Outputs of a signed envelope through HTTP: the fabrication sheet PDF carries the envelope's
+// numbers (read back with pdf-parse), the CSV files round-trip, and the e-mailed sheet reaches the
+// SMTP sink with the PDF attached and is logged on the envelope.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import Papa from 'papaparse';
+import { PDFParse } from 'pdf-parse';
+import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
+import { createDeskSession } from '../support/desk';
+import { waitForMail } from '../support/mail';
+import { DEFAULT_DRAFT_PARAMS, type EnvelopeRecord } from '../../shared/schemas/envelope';
+import { AXES } from '../../shared/flex';
+import { AXIS_NAMES, formatLengthValue, formatRatio } from '../../shared/format';
+import { EnvelopeSendModel } from '../../server/models';
+
+let ts: TestServer;
+beforeAll(async () => {
+  ts = await startTestServer();
+});
+afterAll(async () => ts.close());
+
+const params = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
+
+async function signedEnvelope(): Promise<{ agent: Agent; envelope: EnvelopeRecord; sessionId: string; team: Awaited<ReturnType<typeof createTeam>> }> {
+  const team = await createTeam();
+  const s = await createDeskSession(team);
+  const agent = await signedInAgent(ts, team.members.engineer.email);
+  await agent.patch(`/api/readings/${s.readingIds.get('2:P03:vertical')}/review`).send({ version: 1, flagNote: 'read twice, "same", value' }).expect(200);
+  await agent.patch(`/api/readings/${s.readingIds.get('4:P05:lateral')}/review`).send({ version: 1, excluded: true, excludeReason: '=tape slipped, redo' }).expect(200);
+  const draft = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params }).expect(201)).body;
+  const envelope = (await agent.post(`/api/envelopes/${draft.id}/sign`).send({ version: draft.version }).expect(200)).body;
+  return { agent, envelope, sessionId: s.sessionId, team };
+}
+
+const binary = (res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => done(null, Buffer.concat(chunks)));
+};
+
+async function pdfText(pdf: Buffer) {
+  const parser = new PDFParse({ data: new Uint8Array(pdf) });
+  try {
+    return (await parser.getText()).text.replace(/\s+/g, ' ');
+  } finally {
+    await parser.destroy();
+  }
+}
+
+describe('fabrication sheet', () => {
+  it('prints the envelope, boot spans, sign-off and hash of the snapshot in the PDF, in the chosen unit', async () => {
+    const { agent, envelope } = await signedEnvelope();
+    for (const unit of ['mm', 'in'] as const) {
+      const res = await agent.get(`/api/envelopes/${envelope.id}/sheet.pdf?unit=${unit}`).buffer(true).parse(binary);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-type']).toMatch(/application\/pdf/);
+      const text = await pdfText(res.body as Buffer);
+      const s = envelope.snapshot!;
+      for (const axis of AXES) {
+        const row = `${AXIS_NAMES[axis]} ${formatLengthValue(Math.abs(s.result.axes[axis].measuredWorstMm), unit)}`;
+        expect(text).toContain(row);
+        expect(text).toContain(`±${formatLengthValue(s.result.axes[axis].envelopeMm, unit)}`);
+      }
+      expect(text).toContain(formatRatio(s.boot!.left.extensionRatio));
+      expect(text).toContain(formatLengthValue(s.boot!.top.gapMaxMm, unit));
+      expect(text).toContain(envelope.contentHash!);
+      expect(text).toContain(envelope.signedBy!.name);
+      expect(text).toContain(`All lengths in ${unit}`);
+      expect(text).toMatch(/Planning aid only.*not a structural or road-legality approval.*Local codes and qualified professionals decide/);
+    }
+  });
+
+  it('is not printed for a draft, nor shown to a viewer before sign-off', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const agent = await signedInAgent(ts, team.members.engineer.email);
+    const draft = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params }).expect(201)).body;
+    expect((await agent.get(`/api/envelopes/${draft.id}/sheet.pdf`)).status).toBe(409);
+    const viewer = await signedInAgent(ts, team.members.viewer.email);
+    expect((await viewer.get(`/api/envelopes/${draft.id}/sheet.pdf`)).status).toBe(404);
+    expect((await viewer.get(`/api/envelopes/${draft.id}/envelope.csv`)).status).toBe(404);
+  });
+});
+
+describe('CSV exports', () => {
+  it('round-trips the readings: every reading once, exact mm, the screen digits, flags and exclusions', async () => {
+    const { agent, sessionId } = await signedEnvelope();
+    const review = (await agent.get(`/api/sessions/${sessionId}/review`)).body;
+    const res = await agent.get(`/api/sessions/${sessionId}/readings.csv?unit=in`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    const parsed = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.data).toHaveLength(review.readings.length);
+    const byId = new Map(parsed.data.map((row) => [row.reading_id, row]));
+    for (const r of review.readings) {
+      const row = byId.get(r.id)!;
+      expect(Number(row.value_mm_exact)).toBe(r.valueMm);
+      expect(row.value_in).toBe(formatLengthValue(r.valueMm, 'in'));
+      expect(row.excluded).toBe(r.excluded ? 'yes' : 'no');
+      expect(row.flag_note).toBe(r.flagNote ?? '');
+    }
+    const excluded = parsed.data.find((row) => row.excluded === 'yes')!;
+    // A reason starting with "=" is kept from running as a spreadsheet formula.
+    expect(excluded.exclude_reason).toBe("'=tape slipped, redo");
+    expect(parsed.data.find((row) => row.flag_note)?.flag_note).toBe('read twice, "same", value');
+  });
+
+  it('round-trips the envelope: the same numbers as the snapshot through the one formatter', async () => {
+    const { agent, envelope } = await signedEnvelope();
+    const res = await agent.get(`/api/envelopes/${envelope.id}/envelope.csv?unit=mm`);
+    expect(res.status).toBe(200);
+    const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
+    const s = envelope.snapshot!;
+    for (const axis of AXES) {
+      const row = rows.find((r) => r.kind === 'axis' && r.name === AXIS_NAMES[axis])!;
+      expect(row.envelope_mm).toBe(formatLengthValue(s.result.axes[axis].envelopeMm, 'mm'));
+      expect(row.measured_worst_mm).toBe(formatLengthValue(Math.abs(s.result.axes[axis].measuredWorstMm), 'mm'));
+      expect(row.content_hash).toBe(envelope.contentHash);
+    }
+    const left = rows.find((r) => r.kind === 'side' && r.name.startsWith('left'))!;
+    expect(left.largest_shear_mm).toBe(formatLengthValue(s.boot!.left.largestShearMm, 'mm'));
+    expect(rows).toHaveLength(7);
+  });
+});
+
+describe('sending the sheet', () => {
+  it('e-mails the PDF to the fabricator, logs the send and refuses testers', async () => {
+    const { agent, envelope, team } = await signedEnvelope();
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    expect((await tester.post(`/api/envelopes/${envelope.id}/send`).send({ to: 'cutter@bootmakers.test' })).status).toBe(403);
+    const bad = await agent.post(`/api/envelopes/${envelope.id}/send`).send({ to: 'not-an-address' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields[0].field).toBe('body.to');
+
+    const res = await agent.post(`/api/envelopes/${envelope.id}/send`).send({ to: 'Cutter@Bootmakers.test', note: 'Two boots please' });
+    expect(res.status).toBe(201);
+    const mail = await waitForMail(ts, 'cutter@bootmakers.test', /Fabrication sheet/);
+    expect(mail.attachments).toHaveLength(1);
+    expect(mail.attachments[0]).toMatchObject({ contentType: 'application/pdf' });
+    expect(mail.attachments[0].filename).toMatch(/^fabrication-sheet-test-truck-rev1\.pdf$/);
+    const pdf = await agent.get(`/api/envelopes/${envelope.id}/sheet.pdf`).buffer(true).parse(binary);
+    expect(mail.attachments[0].size).toBe((pdf.body as Buffer).length);
+    expect(mail.text).toContain('Two boots please');
+    expect(mail.text).toContain(`lateral: ±${formatLengthValue(envelope.snapshot!.result.axes.lateral.envelopeMm, 'mm')} mm`);
+    expect(mail.text).toContain('not a structural or road-legality approval');
+
+    const logged = await EnvelopeSendModel.findAll({ where: { envelopeId: envelope.id } });
+    expect(logged.map((l) => l.toEmail)).toEqual(['cutter@bootmakers.test']);
+    const after = (await agent.get(`/api/envelopes/${envelope.id}`)).body;
+    expect(after.sends).toMatchObject([{ toEmail: 'cutter@bootmakers.test' }]);
+  });
+});
