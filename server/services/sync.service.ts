@@ -335,7 +335,8 @@ export async function pullChanges(auth: AuthContext, since: number, limit: numbe
     const page = (table: string) =>
       select(`SELECT * FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
     const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'] as const;
-    const pages = await Promise.all(tables.map(async (t) => [t, await page(t)] as const));
+    const pages: (readonly [(typeof tables)[number], Row[]])[] = [];
+    for (const t of tables) pages.push([t, await page(t)] as const);
     // A full page may have more behind it: stop the cursor at the lowest last seq of the full
     // pages, and hold back every row beyond it so no table skips rows.
     const full = pages.filter(([, rows]) => rows.length === limit);

@@ -62,10 +62,12 @@ export function PoseRecorderPage() {
         <h1 className="mr-auto text-2xl font-bold">{pose.label || `Pose ${pose.seq}`}</h1>
         <UnitToggle unit={unit} onChange={setUnit} />
       </div>
-      <label className="block">
-        <span className="field-label">Pose name</span>
-        <input className="input" value={pose.label} onChange={(e) => void savePose({ label: e.target.value })} />
-      </label>
+      <div>
+        <label htmlFor="pose-name" className="field-label">
+          Pose name
+        </label>
+        <input id="pose-name" className="input" value={pose.label} onChange={(e) => void savePose({ label: e.target.value })} />
+      </div>
       <fieldset>
         <legend className="field-label">Kind</legend>
         <div className="flex gap-2">
@@ -146,10 +148,12 @@ export function PoseRecorderPage() {
           </fieldset>
         ))}
       </div>
-      <label className="block">
-        <span className="field-label">Notes</span>
-        <textarea className="input min-h-24 py-2" defaultValue={pose.notes} onChange={(e) => void savePose({ notes: e.target.value })} />
-      </label>
+      <div>
+        <label htmlFor="pose-notes" className="field-label">
+          Notes
+        </label>
+        <textarea id="pose-notes" className="input min-h-24 py-2" defaultValue={pose.notes} onChange={(e) => void savePose({ notes: e.target.value })} />
+      </div>
       <PhotoCapture sessionId={session.id} poseId={pose.id} />
       <SaveProblems results={problems} />
       <p className="text-sm">Everything is saved on this phone as you type.</p>

@@ -46,9 +46,11 @@ export function StartSessionPage() {
       }}
     >
       <h1 className="text-2xl font-bold">Start a session</h1>
-      <label className="block">
-        <span className="field-label">Vehicle</span>
-        <select className="input" required value={form.vehicleId} onChange={set('vehicleId')}>
+      <div>
+        <label htmlFor="session-vehicle" className="field-label">
+          Vehicle
+        </label>
+        <select id="session-vehicle" className="input" required value={form.vehicleId} onChange={set('vehicleId')}>
           <option value="">Choose…</option>
           {vehicles?.vehicles.map((v) => (
             <option key={v.id} value={v.id}>
@@ -56,7 +58,7 @@ export function StartSessionPage() {
             </option>
           ))}
         </select>
-      </label>
+      </div>
       <label className="block">
         <span className="field-label">Date</span>
         <input type="date" className="input" required value={form.testedOn} onChange={set('testedOn')} />
