@@ -2,7 +2,6 @@ import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { Layout } from '@/components/layout';
 import { useMe } from '@/features/auth/api/get-me';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
-import { SessionDetailPage } from '@/features/sessions/components/session-detail-page';
 import { DeskHomePage } from '@/features/desk/components/desk-home-page';
 import { FieldSessionsPage } from '@/features/sessions/components/field-sessions-page';
 import { StartSessionPage } from '@/features/sessions/components/start-session-page';
@@ -42,7 +41,10 @@ export const router = createBrowserRouter([
           { path: 'field/vehicles/:id', element: <VehicleSetupPage /> },
           { path: 'field/sync', element: <SyncPage /> },
           { path: 'desk', element: <DeskHomePage /> },
-          { path: 'desk/sessions/:id', element: <SessionDetailPage /> },
+          // Desk pages load on demand so the field's first load stays small.
+          { path: 'desk/sessions/:id', lazy: async () => ({ Component: (await import('@/features/desk/components/session-desk-page')).SessionDeskPage }) },
+          { path: 'desk/envelopes/:id', lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
+          { path: 'desk/compare', lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
         ],
       },
     ],

@@ -20,6 +20,7 @@ export function Layout() {
           <nav aria-label="Main" className="flex flex-wrap gap-1">
             {role && role !== 'viewer' && <NavLink to="/field" className={navClass}>Field</NavLink>}
             {role && <NavLink to="/desk" className={navClass}>Desk</NavLink>}
+            {role && role !== 'viewer' && <NavLink to="/desk/compare" className={navClass}>Compare</NavLink>}
             {role === 'admin' && <NavLink to="/team" className={navClass}>Team</NavLink>}
           </nav>
           <span className="ml-auto text-sm">

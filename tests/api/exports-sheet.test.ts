@@ -3,6 +3,7 @@
 // SMTP sink with the PDF attached and is logged on the envelope.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
+import type request from 'supertest';
 import { PDFParse } from 'pdf-parse';
 import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
 import { createDeskSession } from '../support/desk';
@@ -31,10 +32,11 @@ async function signedEnvelope(): Promise<{ agent: Agent; envelope: EnvelopeRecor
   return { agent, envelope, sessionId: s.sessionId, team };
 }
 
-const binary = (res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {
+const binary = (res: request.Response, done: (err: Error | null, body: Buffer) => void) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => done(null, Buffer.concat(chunks)));
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => done(null, Buffer.concat(chunks)));
 };
 
 async function pdfText(pdf: Buffer) {

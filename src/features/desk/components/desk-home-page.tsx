@@ -5,13 +5,20 @@ import { formatLength } from '@shared/units';
 import { useMe } from '@/features/auth/api/get-me';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
 import { SessionListPage } from '@/features/sessions/components/session-list-page';
+import { SignedEnvelopesList } from '@/features/envelope/components/signed-envelopes-list';
 
 /** Desk: the team's vehicles and sessions, the starting point for review. */
 export function DeskHomePage() {
   const me = useMe();
   const vehicles = useVehicles();
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  if (me.data?.role === 'viewer') return <p>Signed-off envelopes shared with you appear here.</p>;
+  if (me.data?.role === 'viewer')
+    return (
+      <div className="space-y-6">
+        <SafetyNotice compact />
+        <SignedEnvelopesList />
+      </div>
+    );
   return (
     <div className="space-y-6">
       <SafetyNotice compact />
@@ -35,6 +42,10 @@ export function DeskHomePage() {
         </QueryState>
       </section>
       <SessionListPage base="/desk" />
+      <p>
+        <Link to="/desk/compare" className="btn">Compare sessions and vehicles</Link>
+      </p>
+      <SignedEnvelopesList />
     </div>
   );
 }

@@ -1,0 +1,100 @@
+import { lazy, Suspense, useState } from 'react';
+import { useParams, useSearchParams } from 'react-router-dom';
+import { QueryState } from '@/components/query-state';
+import { SafetyNotice } from '@/components/safety-notice';
+import { AXIS_NAMES } from '@shared/format';
+import { useMe } from '@/features/auth/api/get-me';
+import { useReview, type SessionReview } from '@/features/review/api/get-review';
+import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
+import { ReadingsTable } from '@/features/review/components/readings-table';
+import { ReadingEditor } from '@/features/review/components/reading-editor';
+import { HistoryList } from '@/features/review/components/history-list';
+import { OpeningPlot } from '@/features/review/components/opening-plot';
+import { EnvelopePanel } from '@/features/envelope/components/envelope-panel';
+
+const TwistChart = lazy(() => import('@/features/envelope/components/twist-chart'));
+
+const SECTIONS = [
+  { id: 'readings', label: 'Readings' },
+  { id: 'plots', label: 'Plots' },
+  { id: 'envelope', label: 'Envelope and sign-off' },
+  { id: 'history', label: 'History' },
+] as const;
+type Section = (typeof SECTIONS)[number]['id'];
+
+/** The engineer's desk for one session: review the readings, look at the motion, derive and sign the envelope. */
+export function SessionDeskPage() {
+  const { id = '' } = useParams();
+  const review = useReview(id);
+  return <QueryState query={review}>{(data) => <SessionDesk review={data} />}</QueryState>;
+}
+
+function SessionDesk({ review }: { review: SessionReview }) {
+  const me = useMe();
+  const role = me.data?.role;
+  const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
+  const isDesigner = role === 'engineer' || role === 'admin';
+  const [search, setSearch] = useSearchParams();
+  const section = (SECTIONS.find((s) => s.id === search.get('section'))?.id ?? 'readings') as Section;
+  const [selected, setSelected] = useState<string | null>(null);
+  const fit = useFitFlags(review);
+  const labelOf = (readingId: string) => {
+    const r = review.readings.find((x) => x.id === readingId);
+    if (!r) return null;
+    return `${review.poses.find((p) => p.id === r.poseId)?.label ?? '?'} ${review.gaugePoints.find((g) => g.id === r.gaugePointId)?.label ?? '?'} ${AXIS_NAMES[r.axis]}`;
+  };
+  return (
+    <div className="space-y-4">
+      <SafetyNotice compact />
+      <header>
+        <h1 className="text-2xl font-bold">{review.vehicle.name}</h1>
+        <p>
+          {review.session.testedOn} · {review.session.title} · {review.poses.length} poses · {review.readings.filter((r) => r.excluded).length} reading(s) excluded ·{' '}
+          {fit.flags.size} far from the fit
+        </p>
+      </header>
+      <nav aria-label="Session sections" className="flex flex-wrap gap-2">
+        {SECTIONS.map((s) => (
+          <button
+            key={s.id}
+            type="button"
+            aria-pressed={section === s.id}
+            className={section === s.id ? 'btn-primary' : 'btn'}
+            onClick={() => setSearch(s.id === 'readings' ? {} : { section: s.id }, { replace: true })}
+          >
+            {s.label}
+          </button>
+        ))}
+      </nav>
+      {fit.error && (
+        <p role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
+          The fit cannot run on these readings: {fit.error}
+        </p>
+      )}
+      {section === 'readings' && (
+        <div className="space-y-3">
+          {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
+          <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
+          <p className="flex flex-wrap gap-2">
+            <a className="btn" href={`/api/sessions/${review.session.id}/readings.csv?unit=${unit}`} download>
+              Readings (CSV)
+            </a>
+          </p>
+        </div>
+      )}
+      {section === 'plots' && (
+        <div className="space-y-4">
+          <OpeningPlot review={review} result={fit.result} unit={unit} />
+          {fit.result && (
+            <Suspense fallback={<p role="status">Loading the charts…</p>}>
+              <TwistChart result={fit.result} unit={unit} />
+            </Suspense>
+          )}
+          <p className="text-sm">The charts here use the default parameters; the envelope section shows them with the draft's design twist and confidence.</p>
+        </div>
+      )}
+      {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={isDesigner} canSign={isDesigner} />}
+      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} />}
+    </div>
+  );
+}

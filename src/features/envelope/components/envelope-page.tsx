@@ -1,0 +1,98 @@
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { QueryState } from '@/components/query-state';
+import { SafetyNotice } from '@/components/safety-notice';
+import { formatDeg, formatLength, formatPercent, formatTimestamp } from '@shared/format';
+import { useMe } from '@/features/auth/api/get-me';
+import { useEnvelope } from '../api/get-envelopes';
+import { useReopenEnvelope } from '../api/reopen';
+import { EnvelopeResults } from './envelope-results';
+import { SendSheetForm } from './send-sheet-form';
+
+/** One envelope revision: the frozen snapshot, its hash check, the sheet and CSV, sending, re-opening. */
+export function EnvelopePage() {
+  const { id = '' } = useParams();
+  const envelope = useEnvelope(id);
+  const me = useMe();
+  const reopen = useReopenEnvelope();
+  const navigate = useNavigate();
+  const role = me.data?.role;
+  const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
+  const isDesigner = role === 'engineer' || role === 'admin';
+  return (
+    <QueryState query={envelope}>
+      {(e) => {
+        const s = e.snapshot;
+        return (
+          <article className="space-y-4">
+            <SafetyNotice compact />
+            <header>
+              <h1 className="text-2xl font-bold">
+                {e.vehicleName}: envelope revision {e.revision}
+              </h1>
+              <p>
+                Session "{e.sessionTitle}" of {e.testedOn} ·{' '}
+                <b className={e.status === 'signed' ? 'text-good' : e.status === 'superseded' ? 'text-alert' : ''}>{e.status}</b>
+                {role !== 'viewer' && (
+                  <>
+                    {' '}
+                    · <Link className="underline" to={`/desk/sessions/${e.sessionId}`}>back to the session</Link>
+                  </>
+                )}
+              </p>
+            </header>
+            {s === null ? (
+              <p>This revision is a draft: its results are computed live on the session page until it is signed off.</p>
+            ) : (
+              <>
+                <section className="card space-y-1" aria-label="Sign-off">
+                  <p>
+                    Signed off by <b>{s.signedBy.name}</b> on {formatTimestamp(s.signedAt)}.
+                  </p>
+                  <p className="break-all text-sm">Content hash (SHA-256): <code>{e.contentHash}</code></p>
+                  {e.hashVerifies ? (
+                    <p className="text-good" role="status">The stored snapshot matches its hash.</p>
+                  ) : (
+                    <p className="rounded-lg bg-alert-light p-2 text-alert" role="alert">The stored snapshot does NOT match its hash: do not use this sheet.</p>
+                  )}
+                  <p className="text-sm">
+                    Design twist {formatDeg(s.params.designTwistDeg)} · {s.params.method === 'prediction' ? 'prediction' : 'tolerance'} bound at{' '}
+                    {formatPercent(s.params.confidence)} · margin {formatPercent(s.params.margin)} · allowance {formatLength(s.params.allowanceMm, unit)} · increment{' '}
+                    {formatLength(s.params.incrementMm, unit)} · {s.readings.length} readings used, {s.excludedReadings.length} excluded
+                  </p>
+                </section>
+                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} />
+                <p className="flex flex-wrap gap-2">
+                  <a className="btn" href={`/api/envelopes/${e.id}/sheet.pdf?unit=${unit}`} download>
+                    Fabrication sheet (PDF)
+                  </a>
+                  <a className="btn" href={`/api/envelopes/${e.id}/envelope.csv?unit=${unit}`} download>
+                    Envelope (CSV)
+                  </a>
+                  {isDesigner && e.status === 'signed' && (
+                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate(`/desk/sessions/${e.sessionId}?section=envelope`) })}>
+                      Re-open as revision {e.revision + 1}
+                    </button>
+                  )}
+                </p>
+                {reopen.isError && <p role="alert" className="text-alert">{reopen.error.message}</p>}
+                {isDesigner && e.status === 'signed' && <SendSheetForm envelopeId={e.id} />}
+                {e.sends.length > 0 && (
+                  <section>
+                    <h3 className="font-bold">Sent</h3>
+                    <ul aria-label="Sheets sent">
+                      {e.sends.map((x) => (
+                        <li key={x.id}>
+                          {formatTimestamp(x.sentAt)} · {x.toEmail} · by {x.sentBy}
+                        </li>
+                      ))}
+                    </ul>
+                  </section>
+                )}
+              </>
+            )}
+          </article>
+        );
+      }}
+    </QueryState>
+  );
+}

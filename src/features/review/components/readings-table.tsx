@@ -1,0 +1,76 @@
+import type { Axis } from '@shared/schemas';
+import type { UnitSystem } from '@shared/schemas/common';
+import { AXIS_NAMES, formatLengthValue } from '@shared/format';
+import type { SessionReview } from '../api/get-review';
+import type { FitFlag } from '../hooks/use-fit-flags';
+
+const AXES: Axis[] = ['foreAft', 'lateral', 'vertical'];
+
+interface Props {
+  review: SessionReview;
+  flags: Map<string, FitFlag>;
+  unit: UnitSystem;
+  selectedId: string | null;
+  onSelect?: (readingId: string) => void;
+}
+
+/** Readings as pose × gauge point rows with one column per axis; flags and exclusions marked in the cell. */
+export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Props) {
+  const at = new Map(review.readings.map((r) => [`${r.poseId}|${r.gaugePointId}|${r.axis}`, r]));
+  return (
+    <div className="overflow-x-auto">
+      <table className="min-w-full border-collapse bg-white text-right">
+        <caption className="p-2 text-left">
+          <span className="font-bold">Readings ({unit})</span> as entered ({review.session.readingMode === 'gap' ? 'raw gaps' : 'displacements'}).
+          <span className="ml-2 text-sm">⚑ far from the fit · ✎ note · struck through: excluded</span>
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col" className="border border-rule p-2 text-left">Pose</th>
+            <th scope="col" className="border border-rule p-2 text-left">Point</th>
+            {AXES.map((a) => (
+              <th key={a} scope="col" className="border border-rule p-2">{AXIS_NAMES[a]}</th>
+            ))}
+            <th scope="col" className="border border-rule p-2 text-left">Entered by</th>
+          </tr>
+        </thead>
+        <tbody>
+          {review.poses.flatMap((pose) =>
+            review.gaugePoints.map((point, pi) => {
+              const cells = AXES.map((axis) => at.get(`${pose.id}|${point.id}|${axis}`));
+              const who = [...new Set(cells.flatMap((c) => (c ? [review.people[c.enteredBy] ?? '?'] : [])))].join(', ');
+              return (
+                <tr key={`${pose.id}-${point.id}`} className={pi === 0 ? 'border-t-4 border-rule' : ''}>
+                  <th scope="row" className="border border-rule p-2 text-left font-normal">{pi === 0 ? <b>{pose.label || `Pose ${pose.seq}`}</b> : <span className="sr-only">{pose.label}</span>}</th>
+                  <td className="border border-rule p-2 text-left font-bold">{point.label}</td>
+                  {cells.map((r, ai) => {
+                    if (!r) return <td key={ai} className="border border-rule p-2">—</td>;
+                    const flag = flags.get(r.id);
+                    const label = `${pose.label} ${point.label} ${AXIS_NAMES[AXES[ai]]}`;
+                    return (
+                      <td key={ai} className={`border border-rule p-0 ${selectedId === r.id ? 'outline outline-3 outline-signal' : ''} ${flag ? 'bg-signal/25' : ''}`}>
+                        <button
+                          type="button"
+                          className="block min-h-touch w-full px-2 text-right tabular-nums"
+                          aria-label={`Reading ${label}`}
+                          disabled={!onSelect}
+                          onClick={() => onSelect?.(r.id)}
+                          title={[flag && `far from the fit (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`, r.flagNote, r.excluded && `excluded: ${r.excludeReason}`].filter(Boolean).join(' · ')}
+                        >
+                          <span className={r.excluded ? 'text-slate line-through' : ''}>{formatLengthValue(r.valueMm, unit)}</span>
+                          {flag && <span className="ml-1 text-signal-dark" aria-label="far from the fit">⚑</span>}
+                          {r.flagNote && <span className="ml-1" aria-label="has a note">✎</span>}
+                        </button>
+                      </td>
+                    );
+                  })}
+                  <td className="border border-rule p-2 text-left text-sm">{who}</td>
+                </tr>
+              );
+            }),
+          )}
+        </tbody>
+      </table>
+    </div>
+  );
+}
