@@ -2,6 +2,11 @@ import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { Layout } from '@/components/layout';
 import { useMe } from '@/features/auth/api/get-me';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
+import { ConfirmSignUpPage, SignUpPage } from '@/features/auth/components/sign-up-page';
+import { ForgotPasswordPage, ResetPasswordPage } from '@/features/auth/components/password-pages';
+import { AcceptInvitationPage } from '@/features/auth/components/accept-invitation-page';
+import { AccountPage } from '@/features/auth/components/account-page';
+import { TeamPage } from '@/features/team/components/team-page';
 import { DeskHomePage } from '@/features/desk/components/desk-home-page';
 import { FieldSessionsPage } from '@/features/sessions/components/field-sessions-page';
 import { StartSessionPage } from '@/features/sessions/components/start-session-page';
@@ -26,6 +31,11 @@ function Home() {
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
+  { path: '/sign-up', element: <SignUpPage /> },
+  { path: '/sign-up/confirm/:token', element: <ConfirmSignUpPage /> },
+  { path: '/forgot-password', element: <ForgotPasswordPage /> },
+  { path: '/reset-password/:token', element: <ResetPasswordPage /> },
+  { path: '/invite/:token', element: <AcceptInvitationPage /> },
   {
     element: <RequireSignIn />,
     children: [
@@ -45,6 +55,8 @@ export const router = createBrowserRouter([
           { path: 'desk/sessions/:id', lazy: async () => ({ Component: (await import('@/features/desk/components/session-desk-page')).SessionDeskPage }) },
           { path: 'desk/envelopes/:id', lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
           { path: 'desk/compare', lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
+          { path: 'account', element: <AccountPage /> },
+          { path: 'team', element: <TeamPage /> },
         ],
       },
     ],

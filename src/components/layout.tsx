@@ -22,6 +22,7 @@ export function Layout() {
             {role && <NavLink to="/desk" className={navClass}>Desk</NavLink>}
             {role && role !== 'viewer' && <NavLink to="/desk/compare" className={navClass}>Compare</NavLink>}
             {role === 'admin' && <NavLink to="/team" className={navClass}>Team</NavLink>}
+            {role && <NavLink to="/account" className={navClass}>Account</NavLink>}
           </nav>
           <span className="ml-auto text-sm">
             {me.data && `${me.data.user.name} · ${me.data.role} · ${me.data.team.name}`}

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { signInInput, useSignIn } from '../api/sign-in';
 
 export function SignInPage() {
@@ -20,7 +20,7 @@ export function SignInPage() {
   }
 
   return (
-    <div className="mx-auto max-w-md py-8">
+    <div className="mx-auto max-w-md px-3 py-8">
       <h1 className="mb-4 text-3xl font-bold">Sign in to Twistlog</h1>
       <form onSubmit={submit} className="card space-y-4" noValidate>
         <label className="block">
@@ -40,6 +40,10 @@ export function SignInPage() {
           {signIn.isPending ? 'Signing in…' : 'Sign in'}
         </button>
       </form>
+      <nav aria-label="Account" className="mt-4 flex flex-col gap-1">
+        <Link to="/forgot-password" className="inline-flex min-h-touch items-center font-bold underline">Forgot your password?</Link>
+        <Link to="/sign-up" className="inline-flex min-h-touch items-center font-bold underline">New workshop? Create an account</Link>
+      </nav>
     </div>
   );
 }

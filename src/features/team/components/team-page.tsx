@@ -1,0 +1,175 @@
+import { useState, type FormEvent } from 'react';
+import type { Member, Role } from '@shared/schemas';
+import { inviteInput } from '@shared/schemas/account';
+import { QueryState } from '@/components/query-state';
+import { useMe } from '@/features/auth/api/get-me';
+import { can } from '@/features/auth/can';
+import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/features/auth/components/form-bits';
+import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam } from '../api/team';
+import { roleOptions, roleSummary } from '../roles';
+
+/** /team: the members and their roles; admins invite, change roles, remove, revoke. */
+export function TeamPage() {
+  const me = useMe();
+  const team = useTeam();
+  const manage = can(me.data?.role, 'team.manage');
+  return (
+    <div className="mx-auto max-w-3xl space-y-6">
+      <h1 className="text-2xl font-bold">Team{team.data ? ` · ${team.data.team.name}` : ''}</h1>
+      {manage && <InviteSection />}
+      <section aria-labelledby="members">
+        <h2 id="members" className="mb-2 text-xl font-bold">Members</h2>
+        <QueryState query={team}>
+          {(t) => (
+            <ul className="space-y-2">
+              {t.members.map((m) => (
+                <MemberRow key={m.userId} member={m} manage={manage} isMe={m.userId === me.data?.user.id} />
+              ))}
+            </ul>
+          )}
+        </QueryState>
+      </section>
+      {manage && <PendingInvitations />}
+      <section aria-labelledby="roles" className="card">
+        <h2 id="roles" className="mb-2 text-lg font-bold">Roles</h2>
+        <dl className="space-y-1">
+          {roleOptions.map((r) => (
+            <div key={r}>
+              <dt className="inline font-bold">{r}: </dt>
+              <dd className="inline">{roleSummary[r]}</dd>
+            </div>
+          ))}
+        </dl>
+      </section>
+    </div>
+  );
+}
+
+function RoleSelect({ id, value, onChange, disabled, label }: { id: string; value: Role; onChange: (r: Role) => void; disabled?: boolean; label: string }) {
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">{label}</label>
+      <select id={id} value={value} disabled={disabled} onChange={(e) => onChange(e.target.value as Role)} className="input">
+        {roleOptions.map((r) => (
+          <option key={r} value={r}>{r}</option>
+        ))}
+      </select>
+    </div>
+  );
+}
+
+function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; isMe: boolean }) {
+  const changeRole = useChangeRole();
+  const remove = useRemoveMember();
+  const [confirming, setConfirming] = useState(false);
+  const error = changeRole.error ?? remove.error;
+  return (
+    <li className="card space-y-2">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <div>
+          <p className="text-lg font-bold">{member.name}{isMe && ' (you)'}</p>
+          <p className="break-all text-sm">{member.email}</p>
+        </div>
+        {!manage && <span className="rounded-lg bg-paper px-3 py-1 font-bold">{member.role}</span>}
+      </div>
+      {manage && (
+        <div className="grid gap-2 sm:grid-cols-[1fr_auto] sm:items-end">
+          <RoleSelect
+            id={`role-${member.userId}`}
+            label={`Role of ${member.name}`}
+            value={member.role}
+            disabled={changeRole.isPending}
+            onChange={(role) => changeRole.mutate({ userId: member.userId, role })}
+          />
+          {confirming ? (
+            <div className="flex gap-2">
+              <button type="button" className="btn border-alert bg-alert text-paper" onClick={() => remove.mutate(member.userId, { onSettled: () => setConfirming(false) })}>
+                Remove {member.name}
+              </button>
+              <button type="button" className="btn" onClick={() => setConfirming(false)}>Keep</button>
+            </div>
+          ) : (
+            <button type="button" className="btn border-alert text-alert" onClick={() => setConfirming(true)}>
+              Remove…
+            </button>
+          )}
+        </div>
+      )}
+      <ErrorBanner>{error?.message}</ErrorBanner>
+    </li>
+  );
+}
+
+function InviteSection() {
+  const invite = useInvite();
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const [role, setRole] = useState<Role>('tester');
+  const [sentTo, setSentTo] = useState<string | null>(null);
+
+  function submit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const formEl = e.currentTarget;
+    const parsed = inviteInput.safeParse({ email: new FormData(formEl).get('email'), role });
+    setSentTo(null);
+    if (!parsed.success) return setErrors(fieldErrors(parsed.error));
+    setErrors({});
+    invite.mutate(parsed.data, {
+      onSuccess: (inv) => {
+        formEl.reset();
+        setSentTo(inv.email);
+      },
+      onError: (err) => setErrors(fieldErrors(err)),
+    });
+  }
+
+  return (
+    <section className="card space-y-3" aria-labelledby="invite">
+      <h2 id="invite" className="text-xl font-bold">Invite someone</h2>
+      <p className="text-sm">They get an e-mail with a link that works once, for 7 days, to choose their name and password.</p>
+      <form onSubmit={submit} className="space-y-4" noValidate>
+        <TextField label="E-mail address" name="email" type="email" autoComplete="off" error={errors.email} />
+        <RoleSelect id="invite-role" label="Role" value={role} onChange={setRole} />
+        <p className="text-sm">{role}: {roleSummary[role]}</p>
+        <ErrorBanner>{bannerText(invite.error, errors)}</ErrorBanner>
+        {sentTo && <Notice>Invitation sent to {sentTo}.</Notice>}
+        <button type="submit" className="btn-primary w-full" disabled={invite.isPending}>
+          {invite.isPending ? 'Sending…' : 'Send invitation'}
+        </button>
+      </form>
+    </section>
+  );
+}
+
+function PendingInvitations() {
+  const invitations = useInvitations(true);
+  const revoke = useRevokeInvitation();
+  return (
+    <section aria-labelledby="pending">
+      <h2 id="pending" className="mb-2 text-xl font-bold">Pending invitations</h2>
+      <QueryState query={invitations}>
+        {(list) =>
+          list.length === 0 ? (
+            <p>None.</p>
+          ) : (
+            <ul className="space-y-2">
+              {list.map((i) => (
+                <li key={i.id} className="card flex flex-wrap items-center justify-between gap-2">
+                  <div>
+                    <p className="break-all font-bold">{i.email}</p>
+                    <p className="text-sm">
+                      {i.role} · invited by {i.invitedByName || 'an admin'} · expires {new Date(i.expiresAt).toLocaleDateString()}
+                    </p>
+                  </div>
+                  <button type="button" className="btn" disabled={revoke.isPending} onClick={() => revoke.mutate(i.id)} aria-label={`Revoke the invitation of ${i.email}`}>
+                    Revoke
+                  </button>
+                </li>
+              ))}
+            </ul>
+          )
+        }
+      </QueryState>
+      <ErrorBanner>{revoke.error?.message}</ErrorBanner>
+    </section>
+  );
+}
