@@ -96,16 +96,14 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
   const plan: Plan = { inserts: new Map(), updates: new Map(), conflicts: [] };
   /** Ids each entity will have after this batch: the batch's records plus the team's rows. */
   const known = new Map<SyncEntity, Set<string>>(syncOrder.map((e) => [e, new Set(byEntity.get(e)!.map((i) => i.record.id))]));
-  const rowsById = new Map<SyncEntity, Map<string, Row>>();
 
   for (const entity of syncOrder) {
     const spec = syncTables[entity];
     const list = byEntity.get(entity)!;
     const rows = list.length
-      ? await select(`SELECT * FROM ${spec.table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [list.map((i) => i.record.id)], transaction)
+      ? await select(`SELECT id, team_id, version FROM ${spec.table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [list.map((i) => i.record.id)], transaction)
       : [];
     const rowMap = new Map(rows.map((r) => [r.id as string, r]));
-    rowsById.set(entity, rowMap);
     const inserts: Item[] = [];
     const updates: Item[] = [];
     for (const item of list) {
@@ -282,6 +280,14 @@ async function bulkUpdate(auth: AuthContext, spec: SyncTable, items: Item[], tra
 
 async function keepConflicts(auth: AuthContext, conflicts: Plan['conflicts'], transaction: Transaction): Promise<SyncConflict[]> {
   if (!conflicts.length) return [];
+  // The whole server row, kept beside the client's version (the checks read only id, team and version).
+  for (const entity of syncOrder) {
+    const mine = conflicts.filter((c) => c.item.entity === entity);
+    if (!mine.length) continue;
+    const full = await select(`SELECT * FROM ${syncTables[entity].table} WHERE id = ANY($1::uuid[])`, [mine.map((c) => c.item.record.id)], transaction);
+    const byRowId = new Map(full.map((r) => [r.id as string, r]));
+    for (const c of mine) c.serverRow = byRowId.get(c.item.record.id)!;
+  }
   const ids = conflicts.map(() => randomUUID());
   const rows = await select(
     `INSERT INTO sync_conflicts (id, team_id, entity, entity_id, base_version, server_version, client_record, server_record, user_id)

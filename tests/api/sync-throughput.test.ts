@@ -32,23 +32,29 @@ async function sessionWithPoses(poseCount: number) {
 describe('push throughput', () => {
   it('pushes 10,000 readings at no less than half the speed of a plain multi-row INSERT', async () => {
     const poseCount = Math.ceil(N / (60 * 3));
-    const pushed = await sessionWithPoses(poseCount);
-    const t0 = performance.now();
-    const res = await pushed.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: pushed.readings.map((r) => change('reading', r)) });
-    const pushMs = performance.now() - t0;
-    expect(res.status).toBe(200);
-    expect(res.body.accepted).toHaveLength(N);
+    // Best of two rounds each, alternating, so a neighbour's burst of load does not decide the result.
+    const pushTimes: number[] = [];
+    const insertTimes: number[] = [];
+    for (let round = 0; round < 2; round++) {
+      const pushed = await sessionWithPoses(poseCount);
+      const t0 = performance.now();
+      const res = await pushed.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: pushed.readings.map((r) => change('reading', r)) });
+      pushTimes.push(performance.now() - t0);
+      expect(res.status).toBe(200);
+      expect(res.body.accepted).toHaveLength(N);
+      expect(await ReadingModel.count({ where: { teamId: pushed.team.teamId } })).toBe(N);
 
-    const plain = await sessionWithPoses(poseCount);
-    const q = (s: string) => `'${s.replace(/'/g, "''")}'`;
-    const values = plain.readings
-      .map((r) => `(${q(randomUUID())}, ${q(plain.team.teamId)}, ${q(r.poseId)}, ${q(r.gaugePointId)}, ${q(r.axis)}, ${r.valueMm}, ${q(plain.team.members.tester.userId)})`)
-      .join(',\n');
-    const t1 = performance.now();
-    await ts.sequelize.query(`INSERT INTO readings (id, team_id, pose_id, gauge_point_id, axis, value_mm, entered_by) VALUES ${values}`);
-    const insertMs = performance.now() - t1;
-
-    expect(await ReadingModel.count({ where: { teamId: pushed.team.teamId } })).toBe(N);
+      const plain = await sessionWithPoses(poseCount);
+      const q = (s: string) => `'${s.replace(/'/g, "''")}'`;
+      const values = plain.readings
+        .map((r) => `(${q(randomUUID())}, ${q(plain.team.teamId)}, ${q(r.poseId)}, ${q(r.gaugePointId)}, ${q(r.axis)}, ${r.valueMm}, ${q(plain.team.members.tester.userId)})`)
+        .join(',\n');
+      const t1 = performance.now();
+      await ts.sequelize.query(`INSERT INTO readings (id, team_id, pose_id, gauge_point_id, axis, value_mm, entered_by) VALUES ${values}`);
+      insertTimes.push(performance.now() - t1);
+    }
+    const pushMs = Math.min(...pushTimes);
+    const insertMs = Math.min(...insertTimes);
     console.info(`push of ${N} readings: ${pushMs.toFixed(0)} ms; plain multi-row INSERT: ${insertMs.toFixed(0)} ms; speed ratio ${(insertMs / pushMs).toFixed(2)}`);
     expect(insertMs / pushMs).toBeGreaterThanOrEqual(0.5);
   });
