@@ -125,7 +125,7 @@ export function computeDeskEnvelope(data: DeskSessionData, params: EnvelopeParam
   return {
     result,
     boot,
-    bootNote: `covers the fitted motion of ${result.poses.filter((p) => p.fit).length} pose(s), each also scaled to the design twist of ${params.designTwistDeg}°`,
+    bootNote: `cover the fitted motion of ${result.poses.filter((p) => p.fit).length} pose(s), each also scaled to the design twist of ${params.designTwistDeg}°`,
   };
 }
 
