@@ -26,7 +26,14 @@ export function createApp(opts: AppOptions) {
   app.disable('x-powered-by');
   // Set explicitly: behind a proxy, rate limits and Origin checks must see the client, not the proxy.
   app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
-  app.use(pinoHttp({ logger: opts.logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(
+    pinoHttp({
+      logger: opts.logger,
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      // Session ids never reach the logs.
+      serializers: { req: withoutCookies('cookie'), res: withoutCookies('set-cookie') },
+    }),
+  );
 
   const api = Router();
   // Sync batches are the largest JSON bodies (a whole session of readings); photos go through multer.
@@ -57,6 +64,11 @@ function noCacheForShell(res: express.Response, file: string) {
   if (base === 'sw.js' || base === 'index.html' || base.endsWith('.webmanifest') || base.startsWith('workbox-')) {
     res.setHeader('Cache-Control', 'no-cache');
   }
+}
+
+function withoutCookies(header: string) {
+  return (r: { headers?: Record<string, unknown> }) =>
+    r?.headers?.[header] ? { ...r, headers: { ...r.headers, [header]: '[redacted]' } } : r;
 }
 
 function parseTrustProxy(v: string): boolean | number | string {

@@ -3,6 +3,11 @@
 // credentials, and the Origin check on state-changing requests (auth/origin.ts).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import { pino } from 'pino';
+import { Writable } from 'node:stream';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { createApp } from '../../server/app';
 import { agentFor, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
 import { UserModel, UserSessionModel } from '../../server/models';
 import { ARGON2_PARAMS } from '../../server/auth/lucia';
@@ -118,6 +123,32 @@ describe('password hashes', () => {
       expect(p).toBeGreaterThanOrEqual(1);
       expect({ mem, t, p }).toEqual({ mem: ARGON2_PARAMS.memorySize, t: ARGON2_PARAMS.iterations, p: ARGON2_PARAMS.parallelism });
       expect(user!.passwordHash).not.toContain('a long enough passphrase');
+    }
+  });
+});
+
+describe('the request log', () => {
+  it('never holds a session id, in or out', async () => {
+    const lines: string[] = [];
+    const logger = pino({ level: 'info' }, new Writable({ write: (c, _e, cb) => (lines.push(String(c)), cb()) }));
+    // The same app on the same database, with a logger that keeps what it writes.
+    const server = http.createServer(createApp({ logger }));
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    try {
+      const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+      const team = await createTeam();
+      const agent = request.agent(server);
+      const res = await agent.post('/api/auth/sign-in').set('Origin', origin).send({ email: team.members.admin.email, password: TEST_PASSWORD });
+      const id = idOf(sessionCookie(res));
+      expect(id).not.toBe('');
+      expect((await agent.get('/api/me')).status).toBe(200);
+      const log = lines.join('');
+      expect(log).toContain('/api/me');
+      expect(log).toContain('[redacted]');
+      expect(log).not.toContain(id);
+      expect(log).not.toContain(TEST_PASSWORD);
+    } finally {
+      await new Promise((r) => server.close(r));
     }
   });
 });

@@ -7,7 +7,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { randomUUID } from 'node:crypto';
 import path from 'node:path';
-import { pino } from 'pino';
+import { pino, type Logger } from 'pino';
 import request from 'supertest';
 import type { Sequelize } from 'sequelize';
 import { createSequelize } from '../../server/db';
@@ -41,7 +41,12 @@ export interface TestServerOptions {
   trustProxy?: string;
   /** Port of the SMTP sink: 0 (default) picks a free one, so test files never collide. */
   smtpPort?: number;
+  /** The app's logger (default: silent). */
+  logger?: Logger;
 }
+
+// Note: models are bound to the Sequelize of the last test server started in a file; start a
+// second one only if it lives as long as the first (close both at the end).
 
 export async function startTestServer(opts: TestServerOptions = {}): Promise<TestServer> {
   const url = process.env.DATABASE_URL;
@@ -52,7 +57,7 @@ export async function startTestServer(opts: TestServerOptions = {}): Promise<Tes
   const mail = await startMailSink({ port: opts.smtpPort ?? 0 });
   configureMailer({ host: '127.0.0.1', port: mail.port, secure: false, from: 'Twistlog <no-reply@twistlog.invalid>' });
   const app = createApp({
-    logger: pino({ level: 'silent' }),
+    logger: opts.logger ?? pino({ level: 'silent' }),
     clientDir: opts.clientDir,
     trustProxy: opts.trustProxy,
     extraRouters: [createMailboxRouter(mail)],
