@@ -118,6 +118,11 @@ export async function startCluster({ dataDir, port, fresh = false }) {
   return { dir, port, bin, stop, url: (db) => `postgres://postgres@127.0.0.1:${port}/${db}` };
 }
 
+/** Stop a cluster the hard way (as a crash would), for fault tests. */
+export function stopClusterNow(cluster) {
+  pgRun(path.join(cluster.bin, 'pg_ctl'), ['-D', cluster.dir, '-m', 'immediate', '-w', 'stop'], { quiet: true, allowFail: true });
+}
+
 /** Create the database if it does not exist yet. */
 export function ensureDatabase(cluster, name) {
   const psql = path.join(cluster.bin, 'psql');
