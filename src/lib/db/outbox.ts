@@ -23,12 +23,14 @@ export async function formBatch(maxChanges: number, db: FieldDb = fieldDb): Prom
     const changes: SyncChange[] = [];
     const seqs: number[] = [];
     for (const entity of syncEntities) {
-      for (const p of picked.values()) {
-        if (p.entity !== entity) continue;
-        const record = await tableOf(db, entity).get(p.recordId);
+      const mine = [...picked.values()].filter((p) => p.entity === entity);
+      if (!mine.length) continue;
+      const records = await tableOf(db, entity).bulkGet(mine.map((p) => p.recordId));
+      mine.forEach((p, i) => {
         seqs.push(...p.seqs);
+        const record = records[i];
         if (record) changes.push({ entity, record: stripLocal(record) } as SyncChange);
-      }
+      });
     }
     const key = crypto.randomUUID();
     await db.outbox.where('seq').anyOf(seqs).modify({ batchKey: key });
@@ -57,7 +59,13 @@ export async function completeBatch(key: string, response: PushResponse, db: Fie
   await db.transaction('rw', [db.outbox, db.batches, db.conflicts, ...tables], async () => {
     const batch = await db.batches.get(key);
     if (!batch) return;
-    for (const a of response.accepted) await tableOf(db, a.entity).update(a.id, { version: a.version });
+    for (const entity of syncEntities) {
+      const accepted = response.accepted.filter((a) => a.entity === entity);
+      if (!accepted.length) continue;
+      const table = tableOf(db, entity);
+      const rows = await table.bulkGet(accepted.map((a) => a.id));
+      await table.bulkPut(rows.flatMap((row, i) => (row ? [{ ...row, version: accepted[i].version }] : [])));
+    }
     for (const c of response.conflicts) {
       await tableOf(db, c.entity).put(c.serverRecord as { id: string; version: number });
       await db.conflicts.put(c);

@@ -45,15 +45,10 @@ export async function saveRecords<T extends { id: string }>(entity: SyncEntity, 
   try {
     await db.transaction('rw', table, db.outbox, async () => {
       await table.bulkPut(valid as never[]);
-      for (const r of valid) {
-        // One waiting entry per record is enough: the batch reads the latest content when it forms.
-        const waiting = await db.outbox
-          .where('[entity+recordId]')
-          .equals([entity, r.id])
-          .filter((e) => e.batchKey === '')
-          .count();
-        if (!waiting) await db.outbox.add({ entity, recordId: r.id, batchKey: '', queuedAt: new Date().toISOString() });
-      }
+      // One waiting entry per record is enough: the batch reads the latest content when it forms.
+      const waiting = new Set((await db.outbox.where('batchKey').equals('').toArray()).filter((e) => e.entity === entity).map((e) => e.recordId));
+      const queuedAt = new Date().toISOString();
+      await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
     });
     for (const r of valid) results.push({ id: r.id, ok: true });
     announceSaved();
