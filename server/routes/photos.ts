@@ -22,7 +22,9 @@ const parsePhoto: RequestHandler = (req, res, next) =>
       const fieldName = err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT' ? 'photo' : (err.field ?? 'body');
       return next(new Invalid(`upload refused: ${err.message}`, [{ field: fieldName, message: err.message }]));
     }
-    next(err);
+    // Anything else the multipart parser throws (e.g. "Malformed part header") is a bad request.
+    const message = err instanceof Error ? err.message : 'malformed upload';
+    next(new Invalid(`upload refused: the multipart body is malformed (${message})`, [{ field: 'body', message }]));
   });
 
 const byId = z.object({ id });

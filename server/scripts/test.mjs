@@ -26,7 +26,7 @@ try {
     PHOTO_DIR: path.join(repoRoot, '.data', `photos-test-${pgPort}`),
     CLIENT_DIR: clientDir,
     SMTP_PORT: String(pgPort + 1),
-    LOG_LEVEL: 'silent',
+    LOG_LEVEL: process.env.LOG_LEVEL ?? "silent",
     CHROMIUM_PATH: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
   };
   const { done } = spawnChild('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...extraArgs], { cwd: repoRoot, env });
