@@ -8,7 +8,7 @@
 // draft revision with the same parameters; only when that draft is signed does the old one become
 // 'superseded'. A snapshot is never written again after sign-off.
 // Roles without 'envelope.read' (viewers) see signed revisions only; anything else is a 404 to them.
-import { Op, type Transaction } from 'sequelize';
+import { Op, Transaction } from 'sequelize';
 import { EnvelopeModel, EnvelopeSendModel, HistoryEventModel, TestSessionModel, UserModel, VehicleModel } from '../models';
 import { can } from '../auth/permissions';
 import type { AuthContext } from '../auth/context';
@@ -170,7 +170,8 @@ export async function saveDraft(auth: Signer, id: string, input: { version: numb
  */
 export async function signOff(auth: Signer, id: string, input: { version: number }, now = new Date()): Promise<EnvelopeRecord> {
   const sequelize = EnvelopeModel.sequelize!;
-  await sequelize.transaction(async (transaction) => {
+  // One snapshot of the database for every read: an edit committing mid-way cannot mix in.
+  await sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (transaction) => {
     const row = await envelopeRow(auth.teamId, id, transaction);
     if (row.status !== 'draft') throw new Conflict(`revision ${row.revision} is already ${row.status}`);
     if (row.version !== input.version) throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);

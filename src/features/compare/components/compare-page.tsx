@@ -6,7 +6,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { useSessions } from '@/features/sessions/api/get-sessions';
 import { useComparison } from '../api/get-comparison';
 
-const CompareChart = lazy(() => import('./compare-chart'));
+const CompareChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.CompareChart })));
 const AXES = ['foreAft', 'lateral', 'vertical'] as const;
 
 /** Sessions side by side: twist reached, worst per axis and slope per degree, so different twists compare fairly. */

@@ -12,7 +12,7 @@ import { HistoryList } from '@/features/review/components/history-list';
 import { OpeningPlot } from '@/features/review/components/opening-plot';
 import { EnvelopePanel } from '@/features/envelope/components/envelope-panel';
 
-const TwistChart = lazy(() => import('@/features/envelope/components/twist-chart'));
+const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
 
 const SECTIONS = [
   { id: 'readings', label: 'Readings' },

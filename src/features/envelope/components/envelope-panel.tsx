@@ -14,7 +14,7 @@ import { useLiveEnvelope } from '../hooks/use-live-envelope';
 import { EnvelopeResults } from './envelope-results';
 import { ParamsForm, fromFormState, toFormState, type ParamsFormState } from './params-form';
 
-const TwistChart = lazy(() => import('./twist-chart'));
+const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
 
 interface Props {
   data: DeskSessionData;
