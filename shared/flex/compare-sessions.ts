@@ -59,22 +59,24 @@ export function compareSessions(sessions: readonly SessionForComparison[]): Sess
     if (session === null || typeof session !== 'object' || typeof session.sessionId !== 'string') {
       throw new FlexInputError(FN, `sessions[${s}].sessionId`, 'must be a string');
     }
-    if (!Array.isArray(session.poses) || session.poses.length === 0) {
+    // Typed before the check: Array.isArray would widen a typed array to any[].
+    const poses: SessionPoseSummary[] = session.poses;
+    if (!Array.isArray(poses) || poses.length === 0) {
       throw new FlexInputError(FN, `sessions[${s}].poses`, 'must be a non-empty array');
     }
-    session.poses.forEach((pose, i) => {
+    poses.forEach((pose, i) => {
       requireFinite(FN, `sessions[${s}].poses[${i}].twistDeg`, pose.twistDeg);
       if (Math.abs(pose.twistDeg) > 90) throw new FlexInputError(FN, `sessions[${s}].poses[${i}].twistDeg`, `must be within ±90°, got ${pose.twistDeg}`);
       for (const axis of AXES) requireLength(FN, `sessions[${s}].poses[${i}].worstMm.${axis}`, pose.worstMm?.[axis]);
     });
-    const twists = session.poses.map((pose) => Math.abs(pose.twistDeg));
+    const twists = poses.map((pose) => Math.abs(pose.twistDeg));
     const sxx = twists.reduce((sum, x) => sum + x * x, 0);
     const worstMm = {} as Record<Axis, number>;
     const slopeMmPerDeg = {} as Record<Axis, number | null>;
     for (const axis of AXES) {
       let worst = 0;
       let sxy = 0;
-      session.poses.forEach((pose, i) => {
+      poses.forEach((pose, i) => {
         const value = pose.worstMm[axis];
         if (Math.abs(value) > Math.abs(worst)) worst = value;
         sxy += twists[i] * Math.abs(value);
