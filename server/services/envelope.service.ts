@@ -104,7 +104,8 @@ export async function getEnvelope(auth: Reader, id: string): Promise<EnvelopeRec
   const row = await envelopeRow(auth.teamId, id);
   if (!seesDrafts(auth) && row.status !== 'signed') throw new NotFound('envelope');
   const [record] = await toRecords(auth.teamId, [row]);
-  return record;
+  // A viewer may be an outside fabricator: the addresses others were sent to are not theirs to see.
+  return seesDrafts(auth) ? record : { ...record, sends: [] };
 }
 
 /** An envelope whose sheet can be printed: it has a snapshot (signed, or superseded for the record). */

@@ -133,9 +133,12 @@ describe('sign-off', () => {
     expect((await viewer.get(`/api/sessions/${s.sessionId}/envelopes`)).status).toBe(403);
     expect((await viewer.get(`/api/envelopes/signed`)).body).toEqual([]);
     await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version }).expect(200);
+    await engineer.post(`/api/envelopes/${d.id}/send`).send({ to: 'first-cutter@bootmakers.test' }).expect(201);
     const seen = await viewer.get(`/api/envelopes/${d.id}`);
     expect(seen.status).toBe(200);
     expect(seen.body.status).toBe('signed');
+    expect(seen.body.sends).toEqual([]);
+    expect((await engineer.get(`/api/envelopes/${d.id}`)).body.sends).toHaveLength(1);
     const listed = (await viewer.get('/api/envelopes/signed')).body;
     expect(listed.map((e: { id: string }) => e.id)).toEqual([d.id]);
   });

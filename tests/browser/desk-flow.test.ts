@@ -47,6 +47,7 @@ describe('the engineer desk', () => {
     await editor.getByRole('button', { name: 'Save review' }).click();
     await editor.waitFor({ state: 'detached' });
     await page.getByText(/1 reading\(s\) excluded/).waitFor();
+    await page.screenshot({ path: path.join(screenshotDir(), 'desk-review.png') });
     await page.getByRole('button', { name: 'History' }).click();
     await page.getByText(/excluded a reading .*Dial gauge touched by the spotter/).waitFor();
 
