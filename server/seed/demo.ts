@@ -189,8 +189,8 @@ async function seedWorkshop(): Promise<boolean> {
 }
 
 export const DEMO_ENVELOPE_ID = id(1, '006');
-/** The reading of the Mossback ramp pose at gauge point D, fore-aft, that the crew flagged. */
-const DEMO_FLAGGED_READING_ID = id(6 * 100 + 3 * 3 + 0 + 1, '005');
+/** The reading of the Mossback ramp pose at gauge point D, vertical, that the crew noted. */
+const DEMO_FLAGGED_READING_ID = id(6 * 100 + 3 * 3 + 2 + 1, '005');
 
 /**
  * The Mossback session's envelope, signed off by the engineer Mara Venn through the same service
@@ -200,10 +200,12 @@ async function seedDemoEnvelope(): Promise<boolean> {
   if (await EnvelopeModel.findByPk(DEMO_ENVELOPE_ID)) return false;
   const engineer = DEMO_PEOPLE[1];
   const vehicle = DEMO_VEHICLES[0];
-  await ReadingModel.update(
-    { flagNote: 'Dial gauge base shifted on the ramp; re-seated and read again, same value' },
-    { where: { id: DEMO_FLAGGED_READING_ID, flagNote: null } },
-  );
+  // The ramp pose's vertical reading at D is 8 mm beyond what the motion explains: the fit flags it
+  // on the desk, and the crew noted that they had re-read it.
+  const flagged = await ReadingModel.findByPk(DEMO_FLAGGED_READING_ID);
+  if (flagged && flagged.flagNote === null) {
+    await flagged.update({ valueMm: flagged.valueMm + 8, version: flagged.version + 1, flagNote: 'Dial gauge bracket may have flexed on the ramp; re-seated and read again, same value' });
+  }
   const params: EnvelopeParams = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
   await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
   await signOff({ teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name }, DEMO_ENVELOPE_ID, { version: 1 }, new Date('2026-11-20T15:30:00Z'));

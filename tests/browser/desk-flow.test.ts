@@ -38,6 +38,7 @@ describe('the engineer desk', () => {
     await page.getByRole('link', { name: /Yard flex test before boot order/ }).click();
     await page.getByRole('table').waitFor();
     expect(await page.getByLabel('has a note').count()).toBe(1);
+    expect(await page.getByLabel('far from the fit').count()).toBeGreaterThan(0);
     await page.getByRole('button', { name: 'Reading Diagonal FL + RR 300 B lateral' }).click();
     const editor = page.getByRole('dialog', { name: 'Review reading' });
     await editor.getByLabel('Exclude from the computation').check();
