@@ -19,7 +19,7 @@ export function Layout() {
           <span className="mr-2 text-xl font-bold tracking-tight">Twistlog</span>
           <nav aria-label="Main" className="flex flex-wrap gap-1">
             {role && role !== 'viewer' && <NavLink to="/field" className={navClass}>Field</NavLink>}
-            {role && <NavLink to="/desk" end className={navClass}>Desk</NavLink>}
+            {role && <NavLink to="/desk" className={navClass}>Desk</NavLink>}
             {role && role !== 'viewer' && <NavLink to="/desk/compare" className={navClass}>Compare</NavLink>}
             {role === 'admin' && <NavLink to="/team" className={navClass}>Team</NavLink>}
             {role && <NavLink to="/account" className={navClass}>Account</NavLink>}
