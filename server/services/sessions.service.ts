@@ -21,10 +21,11 @@ export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: st
   // One after another: queries of one transaction share its connection.
   const v = await VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId }, transaction });
   const points = await GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']], transaction });
-  const poses = await PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction });
+  // Plain rows for the many: building a model instance per reading costs more than the query.
+  const poses = await PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction, raw: true, attributes: { exclude: ['createdAt', 'updatedAt'] } });
   if (!v) throw new NotFound('vehicle');
   const readings = poses.length
-    ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction })
+    ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction, raw: true, attributes: { exclude: ['createdAt', 'updatedAt'] } })
     : [];
   return {
     session: testSessionOut(s),

@@ -4,6 +4,9 @@ import { fileURLToPath } from 'node:url';
 import { renderReport, writeReport, type BenchRow } from './report';
 import { measureInitialJs } from './bundle';
 import { runFlexBench } from '../bench-flex';
+import { startBenchServer } from './fixture';
+import { runIngestBench } from './ingest';
+import { runLoadBench } from './load';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
@@ -11,15 +14,27 @@ async function main() {
   const rows: BenchRow[] = [];
   const clientDir = process.env.CLIENT_DIR ?? path.join(repoRoot, 'dist');
 
-  rows.push(...measureInitialJs(clientDir));
+  // BENCH_ONLY=ingest,load (say) runs a part; every part runs by default.
+  const only = process.env.BENCH_ONLY?.split(',');
+  const wants = (part: string) => !only || only.includes(part);
 
-  const flex = await runFlexBench();
+  if (wants('client')) rows.push(...measureInitialJs(clientDir));
+
+  const flex = wants('envelope') ? await runFlexBench() : { rows: [] };
   for (const r of flex.rows) {
     rows.push({
       section: 'envelope computation',
       measure: `${r.poses} poses × ${r.gaugePoints} points × 3 axes (${r.readings} readings)`,
       value: `${r.ms.toFixed(0)} ms (${r.usPerReading.toFixed(2)} µs/reading)`,
     });
+  }
+
+  const server = await startBenchServer(process.env.DATABASE_URL!);
+  try {
+    if (wants('ingest')) rows.push(...(await runIngestBench(server)));
+    if (wants('load')) rows.push(...(await runLoadBench(server)));
+  } finally {
+    await server.close();
   }
 
   const text = renderReport(rows);

@@ -54,7 +54,7 @@ export function PoseRecorderPage() {
   return (
     <section className="space-y-4">
       <nav>
-        <Link to={`/field/sessions/${session.id}`} className="font-bold underline">
+        <Link to={`/field/sessions/${session.id}`} className="inline-flex min-h-touch items-center font-bold underline">
           ← {vehicle.name}, all poses
         </Link>
       </nav>
