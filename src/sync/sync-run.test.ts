@@ -4,7 +4,7 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { FieldDb } from '@/lib/db/field-db';
-import { saveRecord, saveRecords } from '@/lib/db/records';
+import { saveRecord, saveRecords, setReadingValue } from '@/lib/db/records';
 import { getMeta } from '@/lib/db/meta';
 import { addPhoto } from '@/lib/db/photos';
 import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
@@ -70,6 +70,16 @@ describe('local writes', () => {
     expect(await saveRecord('testSession', s, db)).toEqual({ id: s.id, ok: true });
     expect(await saveRecord('testSession', { ...s, title: 'Edited' }, db)).toEqual({ id: s.id, ok: true });
     expect((await db.sessions.get(s.id))?.title).toBe('Edited');
+    expect(await db.outbox.count()).toBe(1);
+  });
+
+  it('keeps one reading per slot when keystrokes arrive faster than the writes', async () => {
+    const slot = { poseId: uuid(), gaugePointId: uuid(), axis: 'lateral' as const };
+    const results = await Promise.all(['1', '12', '123', '12'].map((typed) => setReadingValue(slot, Number(typed), db)));
+    expect(results.every((r) => r.ok)).toBe(true);
+    const stored = await db.readings.toArray();
+    expect(stored).toHaveLength(1);
+    expect(stored[0].valueMm).toBe(12);
     expect(await db.outbox.count()).toBe(1);
   });
 

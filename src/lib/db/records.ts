@@ -91,15 +91,30 @@ export function storageMessage(err: unknown): string {
   return `could not save on this device: ${e?.message ?? String(err)}`;
 }
 
+// Keystrokes arrive faster than IndexedDB answers: writes to one slot run one after another, or
+// two quick keystrokes could both find no reading and create two records for the same slot.
+const slotWrites = new Map<string, Promise<ItemResult>>();
+
 /**
  * Sets (or clears, with null) the reading at one gauge point and axis of a pose. The same record
  * is reused for its slot, even after a clear, since the server holds one reading per slot.
  */
-export async function setReadingValue(
+export function setReadingValue(
   slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] },
   valueMm: number | null,
   db: FieldDb = fieldDb,
 ): Promise<ItemResult> {
+  const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
+  const previous = slotWrites.get(key);
+  const write = (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db));
+  slotWrites.set(key, write);
+  void write.finally(() => {
+    if (slotWrites.get(key) === write) slotWrites.delete(key);
+  });
+  return write;
+}
+
+async function writeReadingValue(slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] }, valueMm: number | null, db: FieldDb): Promise<ItemResult> {
   const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
   if (valueMm === null) {
     if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
