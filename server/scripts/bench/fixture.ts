@@ -14,7 +14,7 @@ export async function startBenchServer(databaseUrl: string) {
   const sequelize = createSequelize(databaseUrl, 10);
   initModels(sequelize);
   await migrate(sequelize);
-  const app = createApp({ logger: pino({ level: 'silent' }) });
+  const app = createApp({ logger: pino({ level: 'silent' }), clientDir: process.env.CLIENT_DIR });
   const server = http.createServer(app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;

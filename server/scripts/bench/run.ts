@@ -7,6 +7,7 @@ import { runFlexBench } from '../bench-flex';
 import { startBenchServer } from './fixture';
 import { runIngestBench } from './ingest';
 import { runLoadBench } from './load';
+import { runTapBench } from './tap-to-commit';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
@@ -33,6 +34,7 @@ async function main() {
   try {
     if (wants('ingest')) rows.push(...(await runIngestBench(server)));
     if (wants('load')) rows.push(...(await runLoadBench(server)));
+    if (wants('tap')) rows.push(...(await runTapBench(server)));
   } finally {
     await server.close();
   }

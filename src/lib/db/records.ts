@@ -46,7 +46,9 @@ export async function saveRecords<T extends { id: string }>(entity: SyncEntity, 
     await db.transaction('rw', table, db.outbox, async () => {
       await table.bulkPut(valid as never[]);
       // One waiting entry per record is enough: the batch reads the latest content when it forms.
-      const waiting = new Set((await db.outbox.where('batchKey').equals('').toArray()).filter((e) => e.entity === entity).map((e) => e.recordId));
+      const waiting = new Set(
+        (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '').map((e) => e.recordId),
+      );
       const queuedAt = new Date().toISOString();
       await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
     });

@@ -1,0 +1,63 @@
+// Time from a keystroke in a reading's box on the pose recorder to that reading committed in
+// IndexedDB (the store's 'twistlog:saved' event fires after the strict-durability transaction
+// completes), in Debian's Chromium on a phone-sized screen. 60 keystrokes, median and p95.
+import { randomUUID } from 'node:crypto';
+import { chromium } from 'playwright-core';
+import type { BenchRow } from './report';
+import { sessionChanges, type BenchServer } from './fixture';
+
+const KEYSTROKES = 60;
+
+export async function runTapBench(s: BenchServer): Promise<BenchRow[]> {
+  const workshop = await s.newWorkshop();
+  const { sessionId, parents } = sessionChanges(36 * 3);
+  await s.post('/api/sync/push', { idempotencyKey: randomUUID(), changes: parents }, workshop.headers);
+  const pose = parents.find((c) => c.entity === 'pose' && (c.record as { seq: number }).seq === 1)!.record as { id: string };
+
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  });
+  try {
+    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+    const [name, value] = workshop.headers.Cookie.split('=');
+    await context.addCookies([{ name, value, url: s.baseUrl }]);
+    const page = await context.newPage();
+    await page.goto(`${s.baseUrl}/field`);
+    // The first sync brings the session to the phone; then open the pose.
+    await page.waitForFunction(() => document.body.innerText.includes('Bench'), undefined, { timeout: 60_000 });
+    await page.goto(`${s.baseUrl}/field/sessions/${sessionId}/poses/${pose.id}`);
+    const box = page.getByLabel('P1 lateral');
+    await box.waitFor({ timeout: 60_000 });
+    await box.click();
+    await page.evaluate(() => {
+      const w = window as unknown as { __t0: number[]; __dt: number[] };
+      w.__t0 = [];
+      w.__dt = [];
+      document.addEventListener('keydown', () => w.__t0.push(performance.now()), true);
+      window.addEventListener('twistlog:saved', () => {
+        const t0 = w.__t0.shift();
+        if (t0 !== undefined) w.__dt.push(performance.now() - t0);
+      });
+    });
+    for (let i = 0; i < KEYSTROKES; i++) {
+      // Alternate typing a digit and deleting it, each a committed change of the reading.
+      await page.keyboard.press(i % 2 === 0 ? String((i / 2) % 10) : 'Backspace');
+      await page.waitForFunction((n) => (window as unknown as { __dt: number[] }).__dt.length >= n, i + 1, { timeout: 10_000 });
+    }
+    const dt = await page.evaluate(() => (window as unknown as { __dt: number[] }).__dt);
+    dt.sort((a, b) => a - b);
+    const median = dt[Math.floor(dt.length / 2)];
+    const p95 = dt[Math.floor(dt.length * 0.95)];
+    return [
+      {
+        section: 'client',
+        measure: `keystroke → reading committed in IndexedDB (Chromium, ${dt.length} keystrokes)`,
+        value: `median ${median.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms`,
+        goal: 'median < 16 ms',
+      },
+    ];
+  } finally {
+    await browser.close();
+  }
+}
