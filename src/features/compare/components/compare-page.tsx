@@ -45,7 +45,7 @@ export function ComparePage() {
         <QueryState query={comparison}>
           {(rows) => (
             <>
-              <div className="overflow-x-auto">
+              <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Comparison, scrollable">
                 <table className="min-w-full border-collapse bg-white text-right" aria-label="Comparison">
                   <caption className="p-2 text-left font-bold">Worst perimeter displacement ({unit}) and slope ({unit}/°)</caption>
                   <thead>

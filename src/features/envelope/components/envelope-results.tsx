@@ -16,7 +16,8 @@ interface Props {
 export function EnvelopeResults({ result, boot, bootNote, unit }: Props) {
   return (
     <div className="space-y-4">
-      <div className="overflow-x-auto">
+      {/* Focusable so a keyboard can scroll a table wider than a phone. */}
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Design envelope, scrollable">
         <table className="min-w-full border-collapse bg-white text-right" aria-label="Design envelope">
           <caption className="p-2 text-left font-bold">Design envelope per axis ({unit})</caption>
           <thead>
@@ -67,7 +68,7 @@ export function EnvelopeResults({ result, boot, bootNote, unit }: Props) {
       {boot === null ? (
         <p>{bootNote}</p>
       ) : (
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Boot spans, scrollable">
           <table className="min-w-full border-collapse bg-white text-right" aria-label="Boot spans">
             <caption className="p-2 text-left font-bold">Boot spans and seal check per side ({unit})</caption>
             <thead>

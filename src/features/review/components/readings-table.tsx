@@ -52,14 +52,14 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Pro
                         <button
                           type="button"
                           className="block min-h-touch w-full px-2 text-right tabular-nums"
-                          aria-label={`Reading ${label}`}
+                          aria-label={`Reading ${label}: ${formatLengthValue(r.valueMm, unit)}${flag ? ', far from the fit' : ''}${r.flagNote ? ', has a note' : ''}${r.excluded ? ', excluded' : ''}`}
                           disabled={!onSelect}
                           onClick={() => onSelect?.(r.id)}
                           title={[flag && `far from the fit (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`, r.flagNote, r.excluded && `excluded: ${r.excludeReason}`].filter(Boolean).join(' · ')}
                         >
                           <span className={r.excluded ? 'text-slate line-through' : ''}>{formatLengthValue(r.valueMm, unit)}</span>
-                          {flag && <span className="ml-1 text-signal-dark" aria-label="far from the fit">⚑</span>}
-                          {r.flagNote && <span className="ml-1" aria-label="has a note">✎</span>}
+                          {flag && <span className="ml-1 text-signal-dark" aria-hidden="true">⚑</span>}
+                          {r.flagNote && <span className="ml-1" aria-hidden="true">✎</span>}
                         </button>
                       </td>
                     );
