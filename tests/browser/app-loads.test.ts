@@ -27,7 +27,7 @@ describe('the built app', () => {
     await page.getByLabel('Password').fill(DEMO_SIGN_IN.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL('**/desk');
-    await page.getByRole('link', { name: 'TC-14 "Mossback"' }).waitFor();
+    await page.getByRole('link', { name: 'TC-14 "Mossback"', exact: true }).first().waitFor();
     await page.getByRole('link', { name: /Yard flex test before boot order/ }).click();
     await page.getByRole('table').waitFor();
     expect(await page.getByRole('row').count()).toBeGreaterThan(7);
