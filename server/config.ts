@@ -1,5 +1,5 @@
 // Settings from the environment, validated once at start-up so a typo fails loudly.
-import { z } from 'zod';
+import * as z from 'zod';
 
 const env = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),

@@ -1,7 +1,7 @@
 // Sign-in and out, sign-up (confirmed by e-mail), password reset and change, the invitee's side
 // of an invitation, and the person's own settings. Every session change goes through
 // auth/lucia.ts; every answer anyone may ask for is the same whether or not an account exists.
-import { z } from 'zod';
+import * as z from 'zod';
 import { publicRoute, route } from './route';
 import { signInInput } from '../../shared/schemas';
 import {

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { createDraftInput, saveDraftInput, sendSheetInput, signOffInput } from '../../shared/schemas/envelope';

@@ -1,6 +1,6 @@
 // Downloads: the readings of a session and a signed envelope as CSV, the fabrication sheet as PDF.
 // `?unit=mm|in` overrides the person's unit for one file.
-import { z } from 'zod';
+import * as z from 'zod';
 import { route } from './route';
 import { id, unitSystem } from '../../shared/schemas';
 import { readingsCsv, envelopeCsv } from '../services/csv.service';

@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
+import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { photoUploadFields } from '../../shared/schemas/sync';

@@ -1,6 +1,6 @@
 // The workshop's members and invitations. Reading needs team.read; everything that changes who
 // is in the workshop, or with which role, needs team.manage (admins).
-import { z } from 'zod';
+import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { inviteInput, roleChangeInput } from '../../shared/schemas/account';

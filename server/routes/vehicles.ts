@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { route } from './route';
 import { gaugePoint, id, vehicle } from '../../shared/schemas';
 import { createVehicle, getVehicle, listVehicles, setGaugePoints, updateVehicle } from '../services/vehicles.service';

@@ -1,6 +1,6 @@
 // Accounts, sign-up, password reset and invitations: the inputs of the auth and team routes and
 // the records they answer with. Shared by the server's routes and the client's forms.
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, role, unitSystem } from './common';
 
 export const emailAddress = z.string().trim().toLowerCase().pipe(z.email('enter a valid e-mail address').max(254));

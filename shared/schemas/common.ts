@@ -1,5 +1,5 @@
 // Building blocks of every record schema: the one place for ids, roles, axes and limits.
-import { z } from 'zod';
+import * as z from 'zod';
 
 export const id = z.uuid();
 export const roles = ['admin', 'engineer', 'tester', 'viewer'] as const;

@@ -1,7 +1,7 @@
 // The desk's records: design parameters of an envelope, the envelope revision as the API returns
 // it, the frozen snapshot a sign-off stores, the review edits of a reading, and the fabrication
 // sheet's e-mail. One schema each: the server validates with them, the client's forms too.
-import { z } from 'zod';
+import * as z from 'zod';
 import { axis, id, isoDate, isoDateTime } from './common';
 import type { BootSpanResult, EnvelopeResult } from '../flex';
 

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, mm, syncedFields } from './common';
 
 /** A marked spot on the opening where the gap is read, at (y, z) mm on the body's front wall. */

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, isoDateTime, syncedFields } from './common';
 
 /** A photo as the server describes it after upload (the file itself travels separately). */

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { axis, id, mm, syncedFields } from './common';
 
 /** One value at one gauge point on one axis in one pose, in millimetres. */

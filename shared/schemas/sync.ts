@@ -1,7 +1,7 @@
 // The sync contract between the field client and the server: what a pushed batch carries, what
 // the server answers, and what a pull returns. A pushed record's `version` is its base version
 // (the server version it was edited from; 1 for a record the server has never seen).
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, isoDateTime } from './common';
 import { vehicle } from './vehicle';
 import { gaugePoint } from './gauge-point';

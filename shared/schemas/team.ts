@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, role, unitSystem } from './common';
 
 export const team = z.object({ id, name: z.string().trim().min(1).max(120), unitSystem });

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { id, isoDate, isoDateTime, shortText, syncedFields } from './common';
 
 /** One test outing of one vehicle. `readingMode` says whether readings are raw gaps or displacements. */
