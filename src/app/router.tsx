@@ -1,6 +1,9 @@
 import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/get-me';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
+import { ConfirmSignUpPage, SignUpPage } from '@/features/auth/components/sign-up-page';
+import { ForgotPasswordPage, ResetPasswordPage } from '@/features/auth/components/password-pages';
+import { AcceptInvitationPage } from '@/features/auth/components/accept-invitation-page';
 
 /** Pages behind sign-in. Offline with a cached identity, the app still opens. */
 function RequireSignIn() {
@@ -15,15 +18,16 @@ function Home() {
   return <Navigate to={me.data?.role === 'tester' ? '/field' : '/desk'} replace />;
 }
 
-// Every page loads on demand, so the first load stays small; all but the charts are precached by
-// the service worker (vite.config.ts), so each page opens offline too.
+// The signed-out pages come with the app (a link between them must not wait on a chunk while the
+// old page still takes typing); the signed-in shell and its pages load on demand, precached by the
+// service worker (vite.config.ts) except the charts, so each opens offline too.
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
-  { path: '/sign-up', lazy: async () => ({ Component: (await import('@/features/auth/components/sign-up-page')).SignUpPage }) },
-  { path: '/sign-up/confirm/:token', lazy: async () => ({ Component: (await import('@/features/auth/components/sign-up-page')).ConfirmSignUpPage }) },
-  { path: '/forgot-password', lazy: async () => ({ Component: (await import('@/features/auth/components/password-pages')).ForgotPasswordPage }) },
-  { path: '/reset-password/:token', lazy: async () => ({ Component: (await import('@/features/auth/components/password-pages')).ResetPasswordPage }) },
-  { path: '/invite/:token', lazy: async () => ({ Component: (await import('@/features/auth/components/accept-invitation-page')).AcceptInvitationPage }) },
+  { path: '/sign-up', element: <SignUpPage /> },
+  { path: '/sign-up/confirm/:token', element: <ConfirmSignUpPage /> },
+  { path: '/forgot-password', element: <ForgotPasswordPage /> },
+  { path: '/reset-password/:token', element: <ResetPasswordPage /> },
+  { path: '/invite/:token', element: <AcceptInvitationPage /> },
   {
     element: <RequireSignIn />,
     children: [

@@ -108,6 +108,8 @@ async function unreachableByKeyboard(page: Page): Promise<string[]> {
 async function check(page: Page, path: string, ready: (p: Page) => Promise<unknown>) {
   await page.goto(ts.baseUrl + path);
   await ready(page);
+  // Let the first sync finish: its button is disabled while it runs, and skipped by Tab.
+  await page.waitForLoadState('networkidle');
   const findings = await axeFindings(page);
   const small = await smallTargets(page);
   const unreachable = await unreachableByKeyboard(page);

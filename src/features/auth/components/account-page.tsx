@@ -30,8 +30,10 @@ export function AccountPage() {
 
 function UnitsSection({ current, teamDefault }: { current: UnitSystem | null; teamDefault: UnitSystem }) {
   const update = useUpdateMe();
-  // Show the choice at once; the server's answer follows.
-  const shown = update.isPending ? (update.variables?.unitSystem ?? null) : current;
+  // Show the choice in the same render as the tap (a controlled radio would otherwise spring back
+  // until the mutation reports pending); the server's answer follows, and a failure undoes it.
+  const [choice, setChoice] = useState<UnitSystem | null | undefined>(undefined);
+  const shown = choice !== undefined ? choice : current;
   const options: { value: UnitSystem | null; label: string }[] = [
     { value: 'mm', label: 'Millimetres (mm)' },
     { value: 'in', label: 'Inches (in)' },
@@ -51,7 +53,10 @@ function UnitsSection({ current, teamDefault }: { current: UnitSystem | null; te
                 className="h-6 w-6"
                 checked={shown === o.value}
                 disabled={update.isPending}
-                onChange={() => update.mutate({ unitSystem: o.value })}
+                onChange={() => {
+                  setChoice(o.value);
+                  update.mutate({ unitSystem: o.value }, { onError: () => setChoice(undefined) });
+                }}
               />
               <span className="font-bold">{o.label}</span>
             </label>
