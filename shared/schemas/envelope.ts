@@ -2,6 +2,7 @@
 // it, the frozen snapshot a sign-off stores, the review edits of a reading, and the fabrication
 // sheet's e-mail. One schema each: the server validates with them, the client's forms too.
 import * as z from 'zod';
+import { DEFAULT_ENVELOPE_PARAMETERS } from '../flex/envelope';
 import { axis, id, isoDate, isoDateTime } from './common';
 import type { BootSpanResult, EnvelopeResult } from '../flex';
 
@@ -38,13 +39,7 @@ export type EnvelopeParams = z.infer<typeof envelopeParams>;
  */
 export const DEFAULT_DRAFT_PARAMS: EnvelopeParams = {
   designTwistDeg: 12,
-  method: 'prediction',
-  confidence: 0.95,
-  coverage: 0.9,
-  margin: 0.15,
-  allowanceMm: 10,
-  incrementMm: 5,
-  throughOrigin: true,
+  ...DEFAULT_ENVELOPE_PARAMETERS,
   seal: null,
 };
 
