@@ -7,9 +7,8 @@ import { getMeta, setMeta } from '@/lib/db/meta';
 import { applyPull } from '@/lib/db/server-changes';
 import { markPhotoFailed, markPhotoUploaded, nextPendingPhotos, notePhotoError } from '@/lib/db/photos';
 import type { SyncTransport } from './transport';
+import { CLIENT_BATCH_CHANGES } from '@shared/schemas/sync';
 
-/** Changes per pushed batch: small enough for a weak signal, large enough for few round trips. */
-export const BATCH_SIZE = 500;
 
 export interface Progress {
   photoId: string;
@@ -38,7 +37,7 @@ export async function runSync(db: FieldDb, transport: SyncTransport, onProgress:
 
 export async function pushAll(db: FieldDb, transport: SyncTransport) {
   for (;;) {
-    const batch = await formBatch(BATCH_SIZE, db);
+    const batch = await formBatch(CLIENT_BATCH_CHANGES, db);
     if (!batch) return;
     try {
       const response = await transport.push({ idempotencyKey: batch.key, changes: batch.changes });

@@ -96,7 +96,7 @@ const newDb = async () => {
 describe('PostgreSQL stopped in the middle of a sync', () => {
   it('keeps the outbox, resumes after the restart and ends with every record once', async () => {
     const db = await newDb();
-    const records = sessionRecords(100); // 1,800 readings: four batches of 500 changes
+    const records = sessionRecords(100); // 1,800 readings: two batches
     await storeLocally(db, records);
     const queued = await db.outbox.count();
 
@@ -189,7 +189,7 @@ describe('many clients at once on a small connection pool', () => {
     const clients = await Promise.all(
       Array.from({ length: 20 }, async (_, i) => {
         const db = await newDb();
-        const records = sessionRecords(30); // 540 readings each: two batches
+        const records = sessionRecords(30); // 540 readings each
         await storeLocally(db, records);
         const t = await createTeam(`Workshop ${i}`);
         const cookie = (await startSession(t.members.tester.userId, t.teamId)).split(';')[0];

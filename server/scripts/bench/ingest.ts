@@ -3,11 +3,12 @@
 // INSERT of the same rows into the same table, in the same run. Median of three rounds each.
 import { randomUUID } from 'node:crypto';
 import type { BenchRow } from './report';
+import { CLIENT_BATCH_CHANGES } from '../../../shared/schemas/sync';
 import { sessionChanges, type BenchServer } from './fixture';
 
 const READINGS = 10_000;
-/** The field client's batch size (src/sync/sync-run.ts BATCH_SIZE). */
-const CLIENT_BATCH = 500;
+/** The field client's batch size. */
+const CLIENT_BATCH = CLIENT_BATCH_CHANGES;
 const ROUNDS = 3;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];

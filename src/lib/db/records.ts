@@ -28,30 +28,38 @@ export interface Checked<T> {
   corrupt: { id: string; message: string }[];
 }
 
-/** Validates records, then writes the valid ones and their outbox entries in one transaction. */
-export async function saveRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb = fieldDb): Promise<ItemResult[]> {
-  const results: ItemResult[] = [];
+/** Splits records into those the shared schema accepts and a refusal per other one, naming the field. */
+function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]): { valid: T[]; refused: ItemResult[] } {
   const valid: T[] = [];
+  const refused: ItemResult[] = [];
   for (const r of records) {
     const parsed = recordSchemas[entity].safeParse(r);
     if (parsed.success) valid.push(parsed.data as T);
     else {
       const fields = parsed.error.issues.map((i) => ({ field: i.path.join('.') || 'record', message: i.message }));
-      results.push({ id: r.id, ok: false, message: `${fields[0].field}: ${fields[0].message}`, fields });
+      refused.push({ id: r.id, ok: false, message: `${fields[0].field}: ${fields[0].message}`, fields });
     }
   }
+  return { valid, refused };
+}
+
+/** Puts records and queues them; call inside a transaction over their table and the outbox. */
+async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], db: FieldDb) {
+  await tableOf(db, entity).bulkPut(valid as never[]);
+  // One waiting entry per record is enough: the batch reads the latest content when it forms.
+  const waiting = new Set(
+    (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '').map((e) => e.recordId),
+  );
+  const queuedAt = new Date().toISOString();
+  await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
+}
+
+/** Validates records, then writes the valid ones and their outbox entries in one transaction. */
+export async function saveRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb = fieldDb): Promise<ItemResult[]> {
+  const { valid, refused: results } = checkRecords(entity, records);
   if (!valid.length) return results;
-  const table = tableOf(db, entity);
   try {
-    await db.transaction('rw', table, db.outbox, async () => {
-      await table.bulkPut(valid as never[]);
-      // One waiting entry per record is enough: the batch reads the latest content when it forms.
-      const waiting = new Set(
-        (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '').map((e) => e.recordId),
-      );
-      const queuedAt = new Date().toISOString();
-      await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
-    });
+    await db.transaction('rw', tableOf(db, entity), db.outbox, () => putQueued(entity, valid, db));
     for (const r of valid) results.push({ id: r.id, ok: true });
     announceSaved();
   } catch (err) {
@@ -116,12 +124,29 @@ export function setReadingValue(
   return write;
 }
 
+// The look-up and the write share one transaction: a keystroke costs one commit, not two.
 async function writeReadingValue(slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] }, valueMm: number | null, db: FieldDb): Promise<ItemResult> {
-  const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
-  if (valueMm === null) {
-    if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
-    return saveRecord('reading', { ...existing, deletedAt: new Date().toISOString() }, db);
+  let wrote = false;
+  try {
+    const result = await db.transaction('rw', db.readings, db.outbox, async (): Promise<ItemResult> => {
+      const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
+      let record: Reading;
+      if (valueMm === null) {
+        if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
+        record = { ...existing, deletedAt: new Date().toISOString() };
+      } else {
+        const base: Reading = existing ?? { id: crypto.randomUUID(), version: 1, ...slot, valueMm, excluded: false, excludeReason: null, flagNote: null };
+        record = { ...base, valueMm, deletedAt: null };
+      }
+      const { valid, refused } = checkRecords('reading', [record]);
+      if (!valid.length) return refused[0];
+      await putQueued('reading', valid, db);
+      wrote = true;
+      return { id: record.id, ok: true };
+    });
+    if (wrote) announceSaved();
+    return result;
+  } catch (err) {
+    return { id: '', ok: false, message: storageMessage(err), fields: [] };
   }
-  const base: Reading = existing ?? { id: crypto.randomUUID(), version: 1, ...slot, valueMm, excluded: false, excludeReason: null, flagNote: null };
-  return saveRecord('reading', { ...base, valueMm, deletedAt: null }, db);
 }
