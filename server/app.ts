@@ -24,6 +24,9 @@ export interface AppOptions {
 export function createApp(opts: AppOptions) {
   const app = express();
   app.disable('x-powered-by');
+  // No ETags: hashing every large JSON answer (a session's readings) costs CPU on each request,
+  // and the client's query cache already decides when to ask again.
+  app.set('etag', false);
   // Set explicitly: behind a proxy, rate limits and Origin checks must see the client, not the proxy.
   app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
   app.use(

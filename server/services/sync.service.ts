@@ -338,8 +338,13 @@ function conflictOut(r: Row): SyncConflict {
 export async function pullChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction, 'read');
+    // Only the columns a record carries: parsing timestamps nobody reads costs more than the query.
+    const columns = (table: string) => {
+      const spec = Object.values(syncTables).find((t) => t.table === table);
+      return spec ? ['id', 'version', 'change_seq', ...spec.columns.map((c) => c.column)].join(', ') : '*';
+    };
     const page = (table: string) =>
-      select(`SELECT * FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
+      select(`SELECT ${columns(table)} FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
     const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'] as const;
     const pages: (readonly [(typeof tables)[number], Row[]])[] = [];
     for (const t of tables) pages.push([t, await page(t)] as const);
