@@ -2,6 +2,7 @@ import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { SyncStatusBar } from '@/features/sync/components/sync-status-bar';
+import { StoreGuard } from '@/features/sync/components/store-guard';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `flex min-h-touch items-center rounded-lg px-3 font-bold ${isActive ? 'bg-paper text-slate' : 'text-paper'}`;
@@ -38,10 +39,19 @@ export function Layout() {
           )}
         </div>
       </header>
-      {role && role !== 'viewer' && <SyncStatusBar />}
-      <main className="mx-auto max-w-6xl px-3 py-4">
-        <Outlet />
-      </main>
+      {role && role !== 'viewer' ? (
+        // Members who record keep a field store on the phone: it must be theirs before use.
+        <StoreGuard>
+          <SyncStatusBar />
+          <main className="mx-auto max-w-6xl px-3 py-4">
+            <Outlet />
+          </main>
+        </StoreGuard>
+      ) : (
+        <main className="mx-auto max-w-6xl px-3 py-4">
+          <Outlet />
+        </main>
+      )}
     </div>
   );
 }

@@ -32,8 +32,12 @@ export const syncState = {
 let current: Promise<void> | null = null;
 let again = false;
 
+/** Off until the store is claimed by the signed-in person (StoreGuard), and again at sign-out. */
+let enabled = false;
+
 /** Starts a run now, or right after the current one. */
 export function syncNow(): Promise<void> {
+  if (!enabled) return Promise.resolve();
   if (current) {
     again = true;
     return current;
@@ -66,8 +70,17 @@ export function syncSoon() {
 
 let started = false;
 
+/** Stops further runs (a run under way finishes): the store may not be this session's any more. */
+export function stopSyncEngine(): void {
+  enabled = false;
+}
+
 export function startSyncEngine(): void {
-  if (started) return;
+  enabled = true;
+  if (started) {
+    if (navigator.onLine) void syncNow();
+    return;
+  }
   started = true;
   window.addEventListener('online', () => {
     set({ online: true });

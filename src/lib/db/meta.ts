@@ -1,5 +1,6 @@
 // Small values in table meta of field-db.ts: the pull cursor, the last sync and its error, the
-// display unit chosen on this phone, and whether persistent storage was granted.
+// display unit chosen on this phone, whether persistent storage was granted, and whose records
+// the store holds (owner.ts).
 import type { UnitSystem } from '@shared/schemas';
 import { fieldDb, type FieldDb } from './field-db';
 
@@ -15,9 +16,17 @@ export interface MetaValues {
   lastError: SyncProblem | null;
   unit: UnitSystem | null;
   persisted: boolean | null;
+  owner: StoreOwner | null;
 }
 
-const defaults: MetaValues = { pullCursor: 0, lastSyncAt: null, lastError: null, unit: null, persisted: null };
+/** The person and workshop whose records the store holds. */
+export interface StoreOwner {
+  userId: string;
+  teamId: string;
+  email: string;
+}
+
+const defaults: MetaValues = { pullCursor: 0, lastSyncAt: null, lastError: null, unit: null, persisted: null, owner: null };
 
 export async function getMeta<K extends keyof MetaValues>(key: K, db: FieldDb = fieldDb): Promise<MetaValues[K]> {
   const row = await db.meta.get(key);

@@ -1,7 +1,7 @@
-import { useEffect, useSyncExternalStore } from 'react';
+import { useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { usePendingCounts, useMetaValue } from '@/lib/db/live';
-import { startSyncEngine, syncNow, syncState } from '@/sync/sync-engine';
+import { syncNow, syncState } from '@/sync/sync-engine';
 import { usePersistentStorage } from '../hooks/use-persistent-storage';
 
 const ago = (iso: string | null | undefined) => {
@@ -15,8 +15,6 @@ const ago = (iso: string | null | undefined) => {
 /** Always on screen: connection, what waits to be sent, the last sync, any error, upload progress. */
 export function SyncStatusBar() {
   const engine = useSyncExternalStore(syncState.subscribe, syncState.get);
-  // Mounted only for a signed-in member who records: that is when syncing makes sense.
-  useEffect(startSyncEngine, []);
   const counts = usePendingCounts();
   const lastSyncAt = useMetaValue('lastSyncAt');
   const lastError = useMetaValue('lastError');
