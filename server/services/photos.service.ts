@@ -7,6 +7,7 @@ import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
 import { PhotoModel, PoseModel, TestSessionModel } from '../models';
 import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-store';
 import type { AuthContext } from '../auth/context';
+import { withTeamChanges } from './team-changes';
 import type { Photo } from '../../shared/schemas';
 import type { PhotoUploadFields } from '../../shared/schemas/sync';
 
@@ -146,7 +147,7 @@ export async function savePhoto(auth: AuthContext, fields: { id: string; session
   const { stored, thumb } = await reencode(file);
   const files = await writePhotoFiles(stored.data, thumb);
   try {
-    const row = await PhotoModel.create({
+    const row = await withTeamChanges(auth.teamId, (transaction) => PhotoModel.create({
       id: fields.id,
       teamId: auth.teamId,
       sessionId: fields.sessionId,
@@ -159,7 +160,7 @@ export async function savePhoto(auth: AuthContext, fields: { id: string; session
       bytes: stored.data.length,
       ...meta,
       createdBy: auth.userId,
-    });
+    }, { transaction }));
     return { photo: photoOut(row), created: true };
   } catch (err) {
     await removePhotoFiles(files);

@@ -8,6 +8,7 @@ import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
 import { getSessionDetail } from './sessions.service';
 import { readingOut } from './serialize';
+import { withTeamChanges } from './team-changes';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
@@ -39,8 +40,7 @@ export async function getReview(auth: Reviewer, sessionId: string) {
 }
 
 export async function reviewReading(auth: Reviewer, readingId: string, input: ReadingReviewInput) {
-  const sequelize = ReadingModel.sequelize!;
-  return sequelize.transaction(async (transaction) => {
+  return withTeamChanges(auth.teamId, async (transaction) => {
     const reading = await ReadingModel.findOne({ where: { id: readingId, teamId: auth.teamId, deletedAt: null }, transaction, lock: transaction.LOCK.UPDATE });
     if (!reading) throw new NotFound('reading');
     const pose = await PoseModel.findOne({ where: { id: reading.poseId, teamId: auth.teamId }, transaction });

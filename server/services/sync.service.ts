@@ -13,13 +13,14 @@
 // yet would be skipped by a cursor that already moved past it. Pushes therefore hold the team's
 // change lock until they commit and pulls wait on it (shared), so a pull never sees a later
 // number before an earlier one of the same team. Other writers of synced rows should take the
-// same lock (lockTeamChanges).
+// same lock (team-changes.ts).
 import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { photoRecordFromRow } from './photos.service';
+import { lockTeamChanges } from './team-changes';
 import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
 import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
 
@@ -29,12 +30,6 @@ const db = (): Sequelize => VehicleModel.sequelize!;
 
 async function select<T = Row>(sql: string, bind: unknown[], transaction: Transaction): Promise<T[]> {
   return db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
-}
-
-/** Serialises writers of one team's synced rows against pulls (see the header). */
-export async function lockTeamChanges(teamId: string, transaction: Transaction, mode: 'write' | 'read' = 'write') {
-  const fn = mode === 'write' ? 'pg_advisory_xact_lock' : 'pg_advisory_xact_lock_shared';
-  await db().query(`SELECT ${fn}(hashtextextended('twistlog-sync:' || $1, 0))`, { bind: [teamId], transaction, type: QueryTypes.SELECT });
 }
 
 const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');

@@ -3,6 +3,7 @@ import type { GaugePoint, Vehicle } from '../../shared/schemas';
 import { GaugePointModel, VehicleModel } from '../models';
 import { Conflict, NotFound } from '../http/errors';
 import { gaugePointOut, vehicleOut } from './serialize';
+import { withTeamChanges } from './team-changes';
 import type { AuthContext } from '../auth/context';
 
 export async function listVehicles(auth: AuthContext) {
@@ -25,7 +26,7 @@ export async function createVehicle(auth: AuthContext, input: VehicleInput) {
     if (existing.teamId !== auth.teamId) throw new Conflict('that id is taken');
     return vehicleOut(existing);
   }
-  const v = await VehicleModel.create({ ...input, teamId: auth.teamId });
+  const v = await withTeamChanges(auth.teamId, (transaction) => VehicleModel.create({ ...input, teamId: auth.teamId }, { transaction }));
   return vehicleOut(v);
 }
 
@@ -35,7 +36,7 @@ export async function updateVehicle(auth: AuthContext, id: string, input: Omit<V
   if (!v) throw new NotFound('vehicle');
   if (v.version !== input.version) throw new Conflict(`vehicle was changed by someone else (yours: version ${input.version}, now: ${v.version})`);
   const { version, ...fields } = input;
-  await v.update({ ...fields, version: version + 1 });
+  await withTeamChanges(auth.teamId, (transaction) => v.update({ ...fields, version: version + 1 }, { transaction }));
   return vehicleOut(v);
 }
 
@@ -45,7 +46,7 @@ type PointInput = Omit<GaugePoint, 'version' | 'deletedAt' | 'vehicleId'>;
 export async function setGaugePoints(auth: AuthContext, vehicleId: string, points: PointInput[]) {
   const v = await VehicleModel.findOne({ where: { id: vehicleId, teamId: auth.teamId, deletedAt: null } });
   if (!v) throw new NotFound('vehicle');
-  await VehicleModel.sequelize!.transaction(async (transaction) => {
+  await withTeamChanges(auth.teamId, async (transaction) => {
     const keep = points.map((p) => p.id);
     await GaugePointModel.update(
       { deletedAt: new Date() },
