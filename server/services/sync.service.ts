@@ -228,7 +228,42 @@ async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction
     }
   }
   const conflicts = await keepConflicts(auth, plan.conflicts, transaction);
+  await recordFieldHistory(auth, plan, transaction);
   return { accepted, conflicts };
+}
+
+type Tally = { added: Partial<Record<SyncEntity, number>>; changed: Partial<Record<SyncEntity, number>>; conflicts: number };
+
+/** One history event per session a batch touched: what arrived from the field, and who sent it. */
+async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Transaction) {
+  const items = (m: Map<SyncEntity, Item[]>, e: SyncEntity) => m.get(e) ?? [];
+  const poseSession = new Map<string, string>();
+  for (const p of [...items(plan.inserts, 'pose'), ...items(plan.updates, 'pose')]) poseSession.set(p.record.id, p.record.sessionId as string);
+  const readings = [...items(plan.inserts, 'reading'), ...items(plan.updates, 'reading'), ...plan.conflicts.filter((c) => c.item.entity === 'reading').map((c) => c.item)];
+  const unknownPoses = [...new Set(readings.map((r) => r.record.poseId as string))].filter((id) => !poseSession.has(id));
+  if (unknownPoses.length) {
+    const rows = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE id = ANY($1::uuid[])', [unknownPoses], transaction);
+    for (const r of rows) poseSession.set(r.id, r.session_id);
+  }
+  const sessionOf = (item: Item): string | undefined =>
+    item.entity === 'testSession' ? item.record.id : item.entity === 'pose' ? (item.record.sessionId as string) : item.entity === 'reading' ? poseSession.get(item.record.poseId as string) : undefined;
+  const bySession = new Map<string, Tally>();
+  const tally = (item: Item, bump: (t: Tally) => void) => {
+    const sessionId = sessionOf(item);
+    if (!sessionId) return;
+    if (!bySession.has(sessionId)) bySession.set(sessionId, { added: {}, changed: {}, conflicts: 0 });
+    bump(bySession.get(sessionId)!);
+  };
+  for (const list of plan.inserts.values()) for (const i of list) tally(i, (t) => (t.added[i.entity] = (t.added[i.entity] ?? 0) + 1));
+  for (const list of plan.updates.values()) for (const i of list) tally(i, (t) => (t.changed[i.entity] = (t.changed[i.entity] ?? 0) + 1));
+  for (const c of plan.conflicts) tally(c.item, (t) => (t.conflicts += 1));
+  if (!bySession.size) return;
+  const ids = [...bySession.keys()];
+  await db().query(
+    `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+     SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $2::uuid, u.detail FROM unnest($3::uuid[], $4::jsonb[]) AS u(id, detail)`,
+    { bind: [auth.teamId, auth.userId, ids, ids.map((id) => JSON.stringify(bySession.get(id)))], transaction },
+  );
 }
 
 /** unnest($n::type[], …) AS u(id, cols…): one typed array per column, so the row count never meets the parameter limit. */

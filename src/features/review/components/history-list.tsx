@@ -2,6 +2,7 @@ import type { HistoryEventRecord } from '@shared/schemas/envelope';
 import { formatTimestamp } from '@shared/format';
 
 const ACTION_WORDS: Record<string, string> = {
+  'field.sync': 'sent records from the field',
   'reading.exclude': 'excluded a reading',
   'reading.include': 'included a reading again',
   'reading.flag': 'noted a reading',
@@ -24,6 +25,12 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
       if (key === 'excluded') continue;
       parts.push(`${key === 'excludeReason' ? 'reason' : key === 'flagNote' ? 'note' : key === 'valueMm' ? 'value (mm)' : key}: ${String(c.before ?? '—')} → ${String(c.after ?? '—')}`);
     }
+  } else if (event.action === 'field.sync') {
+    const words: Record<string, string> = { testSession: 'session', pose: 'pose', reading: 'reading', gaugePoint: 'gauge point', vehicle: 'vehicle' };
+    const count = (m: unknown, verb: string) =>
+      Object.entries((m ?? {}) as Record<string, number>).map(([k, n]) => `${n} ${words[k] ?? k}${n > 1 ? 's' : ''} ${verb}`);
+    parts.push(...count(d.added, 'added'), ...count(d.changed, 'changed'));
+    if (Number(d.conflicts) > 0) parts.push(`${String(d.conflicts)} kept as conflict${Number(d.conflicts) > 1 ? 's' : ''}`);
   } else if ('revision' in d) {
     parts.push(`revision ${String(d.revision)}`);
     if ('to' in d) parts.push(`to ${String(d.to)}`);
@@ -31,7 +38,7 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
   return parts.join(' · ');
 }
 
-/** The session's history: every change a person made, newest first. */
+/** The session's history: every change a person made, from the field or the desk, newest first. */
 export function HistoryList({ events, labelOf }: { events: HistoryEventRecord[]; labelOf: (readingId: string) => string | null }) {
   if (events.length === 0) return <p className="text-sm">No changes yet: readings are as the crew entered them.</p>;
   return (
