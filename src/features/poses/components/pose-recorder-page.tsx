@@ -41,7 +41,8 @@ export function PoseRecorderPage() {
 
   const report = (r: ItemResult) => setProblems((prev) => [...prev.filter((p) => p.id !== r.id), r]);
   const savePose = async (patch: Partial<Pose>) => {
-    const next = { ...pose, ...patch };
+    // Two edits within one render (a lift, then a note) must both land: build on the latest.
+    const next = { ...(latest.current?.id === pose.id ? latest.current : pose), ...patch };
     latest.current = next;
     report(await saveRecord('pose', next));
   };
