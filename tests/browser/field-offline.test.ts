@@ -89,20 +89,9 @@ describe('field recorder offline', () => {
     await page.getByText('waiting to upload').waitFor();
     await page.getByText('Waiting to send:').waitFor();
 
-    // Writes queue behind one another on the outbox: let the last one (the note) commit, as a
-    // tester's phone would in the moment before it is put away, then reload.
-    await expect
-      .poll(() =>
-        page.evaluate(async () => {
-          const open = indexedDB.open('twistlog-field');
-          await new Promise((ok) => (open.onsuccess = ok));
-          const get = open.result.transaction('poses').objectStore('poses').getAll();
-          await new Promise((ok) => (get.onsuccess = ok));
-          open.result.close();
-          return (get.result as { seq: number; notes: string }[]).find((p) => p.seq === 1)?.notes;
-        }),
-      )
-      .toBe('Front left on the 300 block, spotter at the rear');
+    // Writes queue behind one another on the outbox: the screen says when the last one (the note)
+    // is committed, the moment a tester can put the phone away; then reload.
+    await page.getByTestId('local-save-state').getByText('Everything typed is saved on this phone.').waitFor();
     // Reload while offline: the service worker serves the app and every value is still there.
     await page.reload();
     await page.getByLabel('A lateral').waitFor();

@@ -7,6 +7,7 @@ import type { ZodType } from 'zod';
 import { gaugePoint, pose, reading, testSession, vehicle, type Reading } from '@shared/schemas';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
+import { tracked } from './writes-in-flight';
 
 export const recordSchemas: Record<SyncEntity, ZodType> = {
   vehicle,
@@ -55,7 +56,11 @@ async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[
 }
 
 /** Validates records, then writes the valid ones and their outbox entries in one transaction. */
-export async function saveRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb = fieldDb): Promise<ItemResult[]> {
+export function saveRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb = fieldDb): Promise<ItemResult[]> {
+  return tracked(() => writeRecords(entity, records, db));
+}
+
+async function writeRecords<T extends { id: string }>(entity: SyncEntity, records: T[], db: FieldDb): Promise<ItemResult[]> {
   const { valid, refused: results } = checkRecords(entity, records);
   if (!valid.length) return results;
   try {
@@ -116,7 +121,7 @@ export function setReadingValue(
 ): Promise<ItemResult> {
   const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
   const previous = slotWrites.get(key);
-  const write = (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db));
+  const write = tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db)));
   slotWrites.set(key, write);
   void write.finally(() => {
     if (slotWrites.get(key) === write) slotWrites.delete(key);

@@ -3,6 +3,7 @@ import { Link, useParams } from 'react-router-dom';
 import { axes, type Axis, type Pose } from '@shared/schemas';
 import { useLocalSession } from '@/lib/db/live';
 import { saveRecord, setReadingValue, type ItemResult } from '@/lib/db/records';
+import { useWritesInFlight } from '@/lib/db/writes-in-flight';
 import { LengthInput } from '@/features/field/components/length-input';
 import { UnitToggle } from '@/features/field/components/unit-toggle';
 import { SaveProblems } from '@/features/field/components/save-problems';
@@ -23,6 +24,7 @@ export function PoseRecorderPage() {
   const { id: sessionId, poseId } = useParams();
   const data = useLocalSession(sessionId);
   const [unit, setUnit] = useFieldUnit();
+  const saving = useWritesInFlight();
   const [wheel, setWheel] = useState<Wheel | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   const liftInputs = useRef<Record<Wheel, HTMLDivElement | null>>({ fl: null, fr: null, rl: null, rr: null });
@@ -157,7 +159,9 @@ export function PoseRecorderPage() {
       </div>
       <PhotoCapture sessionId={session.id} poseId={pose.id} />
       <SaveProblems results={problems} />
-      <p className="text-sm">Everything is saved on this phone as you type.</p>
+      <p className="text-sm" role="status" data-testid="local-save-state">
+        {saving > 0 ? 'Saving on this phone…' : 'Everything typed is saved on this phone.'}
+      </p>
     </section>
   );
 }
