@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
 import type { Browser, Page } from 'playwright-core';
 import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
+import { launchBrowser, signInAs } from '../support/browser';
 import { seedDemo, DEMO_PASSWORD, DEMO_PEOPLE } from '../../server/seed/demo';
 
 const axePath = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
@@ -28,12 +28,7 @@ afterAll(async () => {
 async function signedInPage(role: 'admin' | 'engineer' | 'tester'): Promise<Page> {
   const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
   const page = await context.newPage();
-  await page.goto(`${ts.baseUrl}/sign-in`);
-  const person = DEMO_PEOPLE.find((p) => p.role === role)!;
-  await page.getByLabel('E-mail').fill(person.email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  await signInAs(page, ts.baseUrl, DEMO_PEOPLE.find((p) => p.role === role)!.email, DEMO_PASSWORD);
   return page;
 }
 

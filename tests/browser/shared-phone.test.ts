@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
+import { launchBrowser, signInAs } from '../support/browser';
 import { vehicleWithPoints } from '../support/sync';
 import { TestSessionModel } from '../../server/models';
 
@@ -26,13 +26,7 @@ describe('a phone shared by two accounts', () => {
 
     const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
     const page = await context.newPage();
-    const signIn = async (email: string) => {
-      await page.goto(ts.baseUrl + '/sign-in');
-      await page.getByLabel('E-mail').fill(email);
-      await page.getByLabel('Password').fill(TEST_PASSWORD);
-      await page.getByRole('button', { name: 'Sign in' }).click();
-      await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-    };
+    const signIn = (email: string) => signInAs(page, ts.baseUrl, email, TEST_PASSWORD);
 
     // The first tester records a session while pushes fail: it stays on the phone, unsent.
     await signIn(first.members.tester.email);

@@ -1,6 +1,6 @@
 // Debian's Chromium driven by playwright-core (no browser download), with the flags this
 // closed network needs.
-import { chromium, type Browser } from 'playwright-core';
+import { chromium, type Browser, type Page } from 'playwright-core';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -29,3 +29,12 @@ export const screenshotDir = () => {
   fs.mkdirSync(dir, { recursive: true });
   return dir;
 };
+
+/** Signs in through the sign-in page, as a person would, and waits to leave it. */
+export async function signInAs(page: Page, baseUrl: string, email: string, password: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
