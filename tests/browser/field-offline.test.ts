@@ -125,7 +125,7 @@ describe('field recorder offline', () => {
     expect(fs.statSync(photoPath(photos[0].storedName)).size).toBeGreaterThan(0);
     expect(fs.existsSync(photoPath(photos[0].thumbName))).toBe(true);
     await page.goto(poseUrl);
-    await page.getByText('on the server').waitFor();
+    await page.getByTestId('pose-photos').getByText('on the server', { exact: true }).waitFor();
     await context.close();
   });
 });
