@@ -1,10 +1,8 @@
 // Typed errors, turned into HTTP in one place (error-handler.ts).
 import type { ZodError } from 'zod';
+import type { FieldError } from '../../shared/schemas/common';
 
-export interface FieldError {
-  field: string;
-  message: string;
-}
+export type { FieldError };
 
 export class AppError extends Error {
   constructor(

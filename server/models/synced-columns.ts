@@ -10,13 +10,3 @@ export const syncedColumns = {
   createdAt: DataTypes.DATE,
   updatedAt: DataTypes.DATE,
 };
-
-export interface SyncedAttributes {
-  id: string;
-  teamId: string;
-  version: number;
-  changeSeq: number;
-  deletedAt: Date | null;
-  createdAt: Date;
-  updatedAt: Date;
-}

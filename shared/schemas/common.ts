@@ -26,3 +26,9 @@ export const syncedFields = {
   version: z.number().int().min(1),
   deletedAt: isoDateTime.nullable().optional(),
 };
+
+/** One bad field in an error answer: the path (`body.changes.3.record.poseId`) and what was wrong. */
+export interface FieldError {
+  field: string;
+  message: string;
+}

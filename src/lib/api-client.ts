@@ -1,10 +1,8 @@
 // The one HTTP client: JSON in and out, same-origin cookies, and failures as a typed ApiError
 // carrying the server's message and field errors.
+import type { FieldError } from '@shared/schemas/common';
 
-export interface FieldError {
-  field: string;
-  message: string;
-}
+export type { FieldError };
 
 export class ApiError extends Error {
   constructor(
