@@ -11,6 +11,8 @@ export default defineConfig({
     },
   },
   test: {
+    // One fixed seed for every fast-check property (FC_SEED overrides it to explore).
+    setupFiles: ['tests/support/fast-check-seed.ts'],
     projects: [
       {
         extends: true,

@@ -7,10 +7,10 @@ import { linearRegression, rSquared } from 'simple-statistics';
 import { linearFit } from './linear-fit';
 import { studentTQuantile } from './student-t';
 import { FlexInputError } from './errors';
+import { expectClose } from './expect-close';
 
-// CI copies shared/ beside the repo, so the data sheet lives at <repo>/../shared/data.
-const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
-const norrisPath = path.resolve(repoRoot, '../shared/data/nist-strd-norris.csv');
+// NIST StRD 'Norris' (public domain), copied into the repository with its source in the header.
+const norrisPath = path.join(path.dirname(fileURLToPath(import.meta.url)), 'testdata', 'nist-strd-norris.csv');
 
 function readNorris(): { xs: number[]; ys: number[] } {
   const rows = readFileSync(norrisPath, 'utf8')
@@ -50,10 +50,10 @@ describe('linearFit', () => {
           const fit = linearFit(xs, ys, { throughOrigin: false });
           // simple-statistics linearRegression / rSquared (independent implementation)
           const reference = linearRegression(pairs);
-          expect(fit.slope).toBeCloseTo(reference.m, 6);
-          expect(fit.intercept).toBeCloseTo(reference.b, 5);
+          expectClose(fit.slope, reference.m, 1e-6);
+          expectClose(fit.intercept, reference.b, 1e-6);
           const r2 = rSquared(pairs, (x) => reference.b + reference.m * x);
-          if (Number.isFinite(r2)) expect(fit.rSquared).toBeCloseTo(Math.max(0, r2), 6);
+          if (Number.isFinite(r2)) expectClose(fit.rSquared, Math.max(0, r2), 1e-6);
         },
       ),
     );

@@ -76,7 +76,8 @@ describe('perimeterWorst', () => {
           vertical: Math.max(...samples.map((d) => Math.abs(d.dz))),
         };
         for (const axis of ['foreAft', 'lateral', 'vertical'] as const) {
-          expect(Math.abs(worst[axis].valueMm)).toBeGreaterThanOrEqual(sampled[axis] - 1e-9);
+          // rounding grows with the displacement, so the slack is relative to it
+          expect(Math.abs(worst[axis].valueMm)).toBeGreaterThanOrEqual(sampled[axis] - 1e-9 * Math.max(1, sampled[axis]));
           // 1 mm samples on an 80 mm arc miss the peak by at most r(1 − cos(θ/2)), far below 0.01 mm here
           expect(Math.abs(worst[axis].valueMm) - sampled[axis]).toBeLessThan(0.01);
           expect(Number.isFinite(worst[axis].y) && Number.isFinite(worst[axis].z)).toBe(true);

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { crossAxleTwistDeg } from './twist';
+import { expectClose } from './expect-close';
 import { FlexInputError } from './errors';
 
 const lift = fc.double({ min: -800, max: 800, noNaN: true });
@@ -33,7 +34,7 @@ describe('crossAxleTwistDeg', () => {
       fc.property(lift, lift, lift, lift, track, track, (fl, fr, rl, rr, tf, tr) => {
         const twist = crossAxleTwistDeg({ fl, fr, rl, rr }, tf, tr);
         const mirrored = crossAxleTwistDeg({ fl: fr, fr: fl, rl: rr, rr: rl }, tf, tr);
-        expect(mirrored).toBeCloseTo(-twist, 9);
+        expectClose(mirrored, -twist, 1e-9);
         expect(Number.isFinite(twist)).toBe(true);
       }),
     );

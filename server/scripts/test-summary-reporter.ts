@@ -1,0 +1,34 @@
+// A Vitest reporter that counts what `npm test` prints in its last line: tests passed, failed and
+// skipped, and how many passed only on a retry (a flake made visible, not hidden by the retry).
+// It writes the counts as JSON to the file named by TWISTLOG_TEST_SUMMARY; test.mjs reads them.
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Reporter, TestCase, TestModule } from 'vitest/node';
+
+export interface TestSummary {
+  passed: number;
+  failed: number;
+  skipped: number;
+  passedOnRetry: string[];
+  failedModules: number;
+}
+
+export default class TestSummaryReporter implements Reporter {
+  private summary: TestSummary = { passed: 0, failed: 0, skipped: 0, passedOnRetry: [], failedModules: 0 };
+
+  onTestCaseResult(testCase: TestCase): void {
+    const state = testCase.result().state;
+    if (state === 'passed') {
+      this.summary.passed += 1;
+      if (testCase.diagnostic()?.flaky) this.summary.passedOnRetry.push(`${path.relative(process.cwd(), testCase.module.moduleId)}: ${testCase.fullName}`);
+    } else if (state === 'failed') this.summary.failed += 1;
+    else if (state === 'skipped') this.summary.skipped += 1;
+  }
+
+  onTestRunEnd(testModules: ReadonlyArray<TestModule>, unhandledErrors: ReadonlyArray<unknown>): void {
+    // A module that fails to load runs no test case; count it so the run cannot look green.
+    this.summary.failedModules = testModules.filter((m) => m.state() === 'failed').length + unhandledErrors.length;
+    const out = process.env.TWISTLOG_TEST_SUMMARY;
+    if (out) fs.writeFileSync(out, JSON.stringify(this.summary));
+  }
+}
