@@ -35,7 +35,7 @@ async function main() {
   if (process.argv.includes('--mail-sink')) {
     mailSink = await startMailSink({ port: config.SMTP_PORT, host: '127.0.0.1' });
     configureMailer({ host: '127.0.0.1', port: mailSink.port, secure: false, from: config.MAIL_FROM });
-    if (config.NODE_ENV !== 'production') extraRouters.push(createMailboxRouter(mailSink));
+    if (config.NODE_ENV === 'development') extraRouters.push(createMailboxRouter(mailSink, config.NODE_ENV));
   } else {
     configureMailer({
       host: config.SMTP_HOST,
@@ -46,7 +46,13 @@ async function main() {
       from: config.MAIL_FROM,
     });
   }
-  const app = createApp({ logger, clientDir: path.join(root, 'dist'), trustProxy: config.TRUST_PROXY, extraRouters });
+  const app = createApp({
+    logger,
+    clientDir: path.join(root, 'dist'),
+    trustProxy: config.TRUST_PROXY,
+    extraRouters,
+    production: config.NODE_ENV === 'production',
+  });
   const server = app.listen(config.PORT, config.HOST, () => {
     const url = config.publicUrl;
     process.stdout.write(`\nTwistlog is running at ${url}\n`);
