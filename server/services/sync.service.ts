@@ -21,6 +21,7 @@ import { Conflict, Invalid, NotFound, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { photoRecordFromRow } from './photos.service';
 import { lockTeamChanges } from './team-changes';
+import { enforceSyncAccess } from './sync-access';
 import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
 import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
 
@@ -63,6 +64,7 @@ export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<Pu
       return earlier.response;
     }
     const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
+    await enforceSyncAccess(auth, items, transaction);
     const plan = await checkBatch(auth, items, transaction);
     const response = await applyPlan(auth, plan, transaction);
     await db().query(
@@ -415,6 +417,7 @@ export async function resolveConflict(auth: AuthContext, id: string, keep: 'clie
       const [current] = await select(`SELECT version FROM ${spec.table} WHERE id = $1 AND team_id = $2 FOR UPDATE`, [row.entity_id, auth.teamId], transaction);
       if (!current) throw new NotFound(entity);
       const record = { ...(parsed.data.record as Item['record']), version: current.version as number };
+      await enforceSyncAccess(auth, [{ index: 0, entity, record }], transaction, (_i, key) => `clientRecord.${key}`);
       await bulkUpdate(auth, spec, [{ index: 0, entity, record }], transaction);
     }
     const [done] = await select(
