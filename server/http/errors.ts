@@ -74,8 +74,9 @@ export class Unavailable extends AppError {
   }
 }
 
-/** In minutes and seconds for people: "12 min", "40 s". */
+/** In hours, minutes or seconds for people: "21 h", "12 min", "40 s". */
 export function waitText(seconds: number): string {
   const s = Math.max(1, Math.ceil(seconds));
+  if (s >= 2 * 3600) return `${Math.ceil(s / 3600)} h`;
   return s >= 90 ? `${Math.ceil(s / 60)} min` : `${s} s`;
 }

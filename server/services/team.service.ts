@@ -7,7 +7,7 @@ import type { AuthContext } from '../auth/context';
 import { endTeamSessions, hashPassword, verifyPassword } from '../auth/lucia';
 import { hashToken, LinkInvalid, newToken, TOKEN_TTL } from '../auth/tokens';
 import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
-import { sendMail } from '../mail/mailer';
+import { sendWithinQuota } from '../mail/quotas';
 import { invitationMail } from '../mail/templates';
 import type { Member, Role, Team } from '../../shared/schemas';
 import type { AcceptInvitationInput, Invitation, InvitationPreview, InviteInput } from '../../shared/schemas/account';
@@ -67,9 +67,11 @@ export async function invite(auth: AuthContext, input: InviteInput): Promise<Inv
     );
   });
   try {
-    await sendMail(invitationMail({ to: input.email, teamName: team.name, role: input.role, invitedBy: auth.name, token, expiresAt }));
-  } catch {
+    const mail = invitationMail({ to: input.email, teamName: team.name, role: input.role, invitedBy: auth.name, token, expiresAt });
+    await sendWithinQuota(auth, 'invitation', mail, async () => mail);
+  } catch (err) {
     await row.destroy();
+    if (err instanceof AppError) throw err;
     throw new AppError(502, 'mail_failed', 'the invitation e-mail could not be sent; nothing was saved, try again');
   }
   return invitationOut(row);
@@ -170,6 +172,8 @@ export async function acceptInvitation(input: AcceptInvitationInput): Promise<{ 
       await UserModel.create({ id: newUser.id, email: used.email, name: newUser.name, passwordHash: newUser.passwordHash }, { transaction });
       userId = newUser.id;
     }
+    // Someone has now confirmed an e-mail address of this workshop (mail quotas count on it).
+    await TeamModel.update({ emailConfirmedAt: new Date() }, { where: { id: used.teamId, emailConfirmedAt: null }, transaction });
     const already = await MembershipModel.findOne({ where: { teamId: used.teamId, userId: userId! }, transaction });
     if (!already) await MembershipModel.create({ id: randomUUID(), teamId: used.teamId, userId: userId!, role: used.role }, { transaction });
     return { userId: userId!, teamId: used.teamId };
