@@ -169,6 +169,34 @@ function window(opts: {
   };
 }
 
+/**
+ * At most `limit` requests of a person on their way at once (e.g. photo uploads, each buffered in
+ * memory): a place is taken before the body is read and given back when the answer is sent or
+ * the connection drops. A place held by an instance that died frees itself after `holdS`.
+ */
+export function inFlightPerPerson(name: string, limit: number, holdS: number, what: string): RequestHandler {
+  return async (req, res, next) => {
+    const key = req.auth?.userId;
+    if (!key) return next();
+    const limiter = limiterFor(name, { limit, windowMs: holdS * 1000 });
+    try {
+      await limiter.consume(key);
+    } catch (err) {
+      if (!(err instanceof RateLimiterRes)) return next(err);
+      return next(new TooManyRequests(`you have ${limit} ${what} on their way already, the most at a time: the next one goes when one is in`, 5));
+    }
+    let given = false;
+    const giveBack = () => {
+      if (given) return;
+      given = true;
+      limiter.reward(key, 1).catch((err) => req.log?.error({ err }, `${name}: place not given back`));
+    };
+    res.on('finish', giveBack);
+    res.on('close', giveBack);
+    next();
+  };
+}
+
 /** The limits, in one place (the README's security paragraph names them). */
 export const throttleLimits = {
   resetPerAccount: { windowMs: 60 * MINUTE, limit: 3 },

@@ -33,6 +33,9 @@ const env = {
   PORT: String(appPort),
   SMTP_PORT: String(smtpPort),
   PHOTO_DIR: process.env.PHOTO_DIR ?? path.join(repoRoot, '.data', 'photos'),
+  // Fewer glibc malloc arenas: memory freed after a photo decode is reused instead of piling up
+  // (sharp's advice for glibc systems; tests/api/photo-memory.test.ts measures it).
+  MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2',
 };
 const { child, done } = spawnChild(process.execPath, ['--import', 'tsx', 'server/main.ts', '--seed-demo', '--mail-sink'], { cwd: repoRoot, env });
 for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => child.kill('SIGTERM'));

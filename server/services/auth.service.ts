@@ -44,7 +44,7 @@ export async function describeMe(auth: AuthContext): Promise<Me> {
   if (!user || !team) throw new Unauthenticated();
   return {
     user: { id: user.id, name: user.name, email: user.email, unitSystem: user.unitSystem ?? null },
-    team: { id: team.id, name: team.name, unitSystem: team.unitSystem },
+    team: { id: team.id, name: team.name, unitSystem: team.unitSystem, photoGps: team.photoGps },
     role: auth.role,
   };
 }
