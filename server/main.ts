@@ -13,6 +13,7 @@ import { configureMailer } from './mail/mailer';
 import { startMailSink } from './mail/sink';
 import { createMailboxRouter } from './mail/mailbox';
 import { setAppUrl } from './mail/templates';
+import { schedulePruning } from './services/prune';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -46,6 +47,7 @@ async function main() {
       from: config.MAIL_FROM,
     });
   }
+  const stopPruning = schedulePruning((err) => logger.error({ err }, 'pruning old rows failed'));
   const app = createApp({
     logger,
     clientDir: path.join(root, 'dist'),
@@ -60,6 +62,7 @@ async function main() {
     process.stdout.write(`Demo sign-in: ${DEMO_SIGN_IN.email} / ${DEMO_SIGN_IN.password} (engineer; more in the README)\n\n`);
   });
   const stop = () => {
+    stopPruning();
     void mailSink?.close();
     server.close(() => sequelize.close().finally(() => process.exit(0)));
     setTimeout(() => process.exit(0), 3000).unref();
