@@ -69,6 +69,11 @@ async function main() {
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
+  // Started by another process (npm start, a test): if it is gone, killed outright, stop too.
+  const parent = process.ppid;
+  setInterval(() => {
+    if (process.ppid !== parent) stop();
+  }, 1000).unref();
 }
 
 main().catch((err) => {
