@@ -58,7 +58,7 @@ describe('/api/compare', () => {
     const other = await createDeskSession(team, { seed: 9 });
     const engineer = await signedInAgent(ts, team.members.engineer.email);
     const res = await engineer.get(`/api/compare?sessionIds=${s.sessionId},${other.sessionId}`);
-    expect(res.status).toBe(400);
+    expect(res.status, JSON.stringify(res.body)).toBe(400);
     expect(res.body.error.fields.map((f: { field: string }) => f.field)).toEqual(['query.sessionIds']);
     expect(res.body.error.message).toMatch(/compare fewer sessions/);
   }, 60_000);
