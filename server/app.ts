@@ -1,12 +1,13 @@
-// Express wiring: logging, body limits, who-is-asking, CSRF guard, the route table, the built
-// client, and the one error handler.
+// Express wiring: security headers, logging, CSRF guard, the route table (each route loads the
+// session, checks access, then parses its body within its limit), the built client, and the one
+// error handler.
 import express, { Router } from 'express';
 import fs from 'node:fs';
 import path from 'node:path';
 import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
-import { loadAuth } from './auth/context';
 import { checkOrigin } from './auth/origin';
+import { noStore, securityHeaders } from './http/security-headers';
 import { mountRoutes } from './routes/route';
 import { allRoutes } from './routes';
 import { errorHandler } from './http/error-handler';
@@ -19,6 +20,8 @@ export interface AppOptions {
   trustProxy?: string;
   /** Extra routers mounted after the API (e.g. the development mailbox). */
   extraRouters?: Router[];
+  /** Production: HSTS and upgrade-insecure-requests (the app is served over HTTPS there). */
+  production?: boolean;
 }
 
 export function createApp(opts: AppOptions) {
@@ -29,6 +32,7 @@ export function createApp(opts: AppOptions) {
   app.set('etag', false);
   // Set explicitly: behind a proxy, rate limits and Origin checks must see the client, not the proxy.
   app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
+  app.use(securityHeaders(opts.production ?? false));
   app.use(
     pinoHttp({
       logger: opts.logger,
@@ -39,9 +43,8 @@ export function createApp(opts: AppOptions) {
   );
 
   const api = Router();
-  // Sync batches are the largest JSON bodies (a whole session of readings); photos go through multer.
-  api.use(express.json({ limit: '4mb' }));
-  api.use(loadAuth);
+  api.use('/api', noStore);
+  // Nothing reads a body here: each route parses its own after its access check (routes/route.ts).
   api.use(checkOrigin);
   mountRoutes(api, allRoutes);
   api.use('/api', (_req, _res, next) => next(new NotFound('API route')));

@@ -13,6 +13,7 @@ import { configureMailer } from './mail/mailer';
 import { startMailSink } from './mail/sink';
 import { createMailboxRouter } from './mail/mailbox';
 import { setAppUrl } from './mail/templates';
+import { schedulePruning } from './services/prune';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -35,7 +36,7 @@ async function main() {
   if (process.argv.includes('--mail-sink')) {
     mailSink = await startMailSink({ port: config.SMTP_PORT, host: '127.0.0.1' });
     configureMailer({ host: '127.0.0.1', port: mailSink.port, secure: false, from: config.MAIL_FROM });
-    if (config.NODE_ENV !== 'production') extraRouters.push(createMailboxRouter(mailSink));
+    if (config.NODE_ENV === 'development') extraRouters.push(createMailboxRouter(mailSink, config.NODE_ENV));
   } else {
     configureMailer({
       host: config.SMTP_HOST,
@@ -46,7 +47,14 @@ async function main() {
       from: config.MAIL_FROM,
     });
   }
-  const app = createApp({ logger, clientDir: path.join(root, 'dist'), trustProxy: config.TRUST_PROXY, extraRouters });
+  const stopPruning = schedulePruning((err) => logger.error({ err }, 'pruning old rows failed'));
+  const app = createApp({
+    logger,
+    clientDir: path.join(root, 'dist'),
+    trustProxy: config.TRUST_PROXY,
+    extraRouters,
+    production: config.NODE_ENV === 'production',
+  });
   const server = app.listen(config.PORT, config.HOST, () => {
     const url = config.publicUrl;
     process.stdout.write(`\nTwistlog is running at ${url}\n`);
@@ -54,12 +62,18 @@ async function main() {
     process.stdout.write(`Demo sign-in: ${DEMO_SIGN_IN.email} / ${DEMO_SIGN_IN.password} (engineer; more in the README)\n\n`);
   });
   const stop = () => {
+    stopPruning();
     void mailSink?.close();
     server.close(() => sequelize.close().finally(() => process.exit(0)));
     setTimeout(() => process.exit(0), 3000).unref();
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
+  // Started by another process (npm start, a test): if it is gone, killed outright, stop too.
+  const parent = process.ppid;
+  setInterval(() => {
+    if (process.ppid !== parent) stop();
+  }, 1000).unref();
 }
 
 main().catch((err) => {

@@ -1,6 +1,9 @@
 // All session code lives here so the session library can be swapped later (lucia v3 is in
 // maintenance mode). Sessions are stored in PostgreSQL through a small Sequelize adapter of our
-// own; lucia ships none for Sequelize.
+// own; lucia ships none for Sequelize. The table holds only the SHA-256 of each session id (the
+// cookie's value), so a copy of the database signs nobody in: the adapter hashes every id it is
+// given before it looks up, writes or deletes.
+import { createHash } from 'node:crypto';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Argon2id } from 'oslo/password';
 import { Op } from 'sequelize';
@@ -13,8 +16,12 @@ const argon2id = new Argon2id(ARGON2_PARAMS);
 export const hashPassword = (password: string) => argon2id.hash(password);
 export const verifyPassword = (hash: string, password: string) => argon2id.verify(hash, password);
 
-const toSession = (s: UserSessionModel): DatabaseSession => ({
-  id: s.id,
+/** What the table keeps for a session id. */
+export const storedSessionId = (id: string) => createHash('sha256').update(id, 'utf8').digest('hex');
+
+/** A stored row as lucia's session, under the id the browser holds (lucia writes it back into the cookie). */
+const toSession = (s: UserSessionModel, id: string): DatabaseSession => ({
+  id,
   userId: s.userId,
   expiresAt: s.expiresAt,
   attributes: { teamId: s.teamId },
@@ -22,29 +29,30 @@ const toSession = (s: UserSessionModel): DatabaseSession => ({
 
 const sequelizeAdapter: Adapter = {
   async getSessionAndUser(sessionId) {
-    const s = await UserSessionModel.findByPk(sessionId);
+    const s = await UserSessionModel.findByPk(storedSessionId(sessionId));
     if (!s) return [null, null];
     const u = await UserModel.findByPk(s.userId);
     if (!u) return [null, null];
     const user: DatabaseUser = { id: u.id, attributes: { email: u.email, name: u.name } };
-    return [toSession(s), user];
+    return [toSession(s, sessionId), user];
   },
   async getUserSessions(userId) {
-    return (await UserSessionModel.findAll({ where: { userId } })).map(toSession);
+    // Only hashes are stored: these sessions can be counted and ended, never resumed.
+    return (await UserSessionModel.findAll({ where: { userId } })).map((s) => toSession(s, s.id));
   },
   async setSession(session) {
     await UserSessionModel.create({
-      id: session.id,
+      id: storedSessionId(session.id),
       userId: session.userId,
       teamId: (session.attributes as { teamId: string }).teamId,
       expiresAt: session.expiresAt,
     });
   },
   async updateSessionExpiration(sessionId, expiresAt) {
-    await UserSessionModel.update({ expiresAt }, { where: { id: sessionId } });
+    await UserSessionModel.update({ expiresAt }, { where: { id: storedSessionId(sessionId) } });
   },
   async deleteSession(sessionId) {
-    await UserSessionModel.destroy({ where: { id: sessionId } });
+    await UserSessionModel.destroy({ where: { id: storedSessionId(sessionId) } });
   },
   async deleteUserSessions(userId) {
     await UserSessionModel.destroy({ where: { userId } });

@@ -1,10 +1,29 @@
 import type { ErrorRequestHandler } from 'express';
-import { AppError } from './errors';
+import { BaseError, ConnectionError } from 'sequelize';
+import { AppError, Unavailable } from './errors';
+
+// PostgreSQL codes that mean "not now" rather than "wrong": lock_timeout, statement_timeout or a
+// cancel, a shutting-down or starting server, no free connection slot.
+const BUSY_CODES = new Set(['55P03', '57014', '57P01', '57P02', '57P03', '53300']);
+
+/** A database failure a retry may cure becomes a 503 with Retry-After, never a 500. */
+function asUnavailable(err: unknown): Unavailable | null {
+  if (err instanceof ConnectionError) return new Unavailable('the database cannot be reached just now; try again shortly');
+  const code = err instanceof BaseError ? (err as BaseError & { parent?: { code?: string } }).parent?.code : undefined;
+  if (code === '55P03') return new Unavailable('the record is being changed by someone else just now; try again shortly');
+  if (code === '57014') return new Unavailable('the database took too long to answer; try again shortly');
+  if (code && BUSY_CODES.has(code)) return new Unavailable('the database is busy just now; try again shortly');
+  return null;
+}
 
 /** The one JSON error handler: typed errors keep their status; anything else is a 500 with no details. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  if (err instanceof AppError) {
-    res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+  const known = err instanceof AppError ? err : asUnavailable(err);
+  if (known) {
+    const retryAfterS = (known as { retryAfterS?: number }).retryAfterS;
+    if (retryAfterS !== undefined) res.setHeader('Retry-After', String(Math.max(1, Math.ceil(retryAfterS))));
+    if (!(err instanceof AppError)) req.log?.warn({ err }, 'database unavailable');
+    res.status(known.status).json({ error: { code: known.code, message: known.message, fields: known.fields } });
     return;
   }
   // Errors raised by body parsers and multer carry an HTTP status of their own.

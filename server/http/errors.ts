@@ -53,3 +53,30 @@ export class Conflict extends AppError {
     super(409, 'conflict', message);
   }
 }
+
+/** Over a limit (throttle or quota): the answer says when to try again, also as Retry-After. */
+export class TooManyRequests extends AppError {
+  constructor(
+    message: string,
+    readonly retryAfterS: number,
+  ) {
+    super(429, 'too_many_requests', message);
+  }
+}
+
+/** The database cannot answer now (down, a lock held too long, a statement over its time). */
+export class Unavailable extends AppError {
+  constructor(
+    message: string,
+    readonly retryAfterS = 5,
+  ) {
+    super(503, 'unavailable', message);
+  }
+}
+
+/** In hours, minutes or seconds for people: "21 h", "12 min", "40 s". */
+export function waitText(seconds: number): string {
+  const s = Math.max(1, Math.ceil(seconds));
+  if (s >= 2 * 3600) return `${Math.ceil(s / 3600)} h`;
+  return s >= 90 ? `${Math.ceil(s / 60)} min` : `${s} s`;
+}

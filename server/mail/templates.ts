@@ -12,6 +12,8 @@ export function setAppUrl(url: string) {
   appUrl = url.replace(/\/$/, '');
 }
 export const link = (path: string) => `${appUrl}${path}`;
+/** The app's public URL as set now. */
+export const publicAppUrl = () => appUrl;
 
 const sign = '\n\n— Twistlog\n';
 const article = (role: Role) => (role === 'admin' || role === 'engineer' ? 'an' : 'a');

@@ -4,6 +4,10 @@ export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAt
   declare id: string;
   declare name: string;
   declare unitSystem: CreationOptional<'mm' | 'in'>;
+  /** When the workshop's first e-mail address was confirmed (sign-up link, or a member joining by invitation). */
+  declare emailConfirmedAt: CreationOptional<Date | null>;
+  /** Whether photos keep the GPS position read from their EXIF ('keep') or lose it at upload ('drop'). */
+  declare photoGps: CreationOptional<'keep' | 'drop'>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -14,6 +18,8 @@ export function initTeam(sequelize: Sequelize) {
       id: { type: DataTypes.UUID, primaryKey: true },
       name: { type: DataTypes.TEXT, allowNull: false },
       unitSystem: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'mm' },
+      emailConfirmedAt: { type: DataTypes.DATE, allowNull: true },
+      photoGps: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'drop' },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

@@ -5,7 +5,8 @@ import { route } from './route';
 import { id } from '../../shared/schemas';
 import { photoUploadFields } from '../../shared/schemas/sync';
 import { Invalid } from '../http/errors';
-import { MAX_PHOTO_BYTES, photoFile, savePhoto, tooLarge } from '../services/photos.service';
+import { MAX_PHOTO_BYTES, photoFile, photoLimits, savePhoto, tooLarge } from '../services/photos.service';
+import { inFlightPerPerson } from '../auth/throttle';
 
 // Limits on everything multer accepts: one file, a few short fields, nothing else.
 const upload = multer({
@@ -51,7 +52,8 @@ export const photoRoutes = [
     method: 'post',
     path: '/api/photos',
     access: 'session.record',
-    before: [parsePhoto],
+    // The place in flight is taken before multer buffers the file.
+    before: [inFlightPerPerson('photo-uploads', photoLimits.inFlightPerPerson, 600, 'photo uploads'), parsePhoto],
     body: photoUploadFields,
     handler: async ({ auth, body, req, res }) => {
       const { photo, created } = await savePhoto(auth, body, req.file?.buffer);

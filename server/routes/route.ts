@@ -6,6 +6,8 @@ import type { ZodType } from 'zod';
 import { can, type Action } from '../auth/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
+import { loadAuth } from '../auth/context';
+import { DEFAULT_BODY_LIMIT, jsonBody } from '../http/json-body';
 
 export type Access = 'public' | 'signedIn' | Action;
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -28,6 +30,10 @@ export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
   query?: ZodType<Q>;
   /** Middleware that must run before validation (e.g. a multipart parser). */
   before?: RequestHandler[];
+  /** Largest JSON body in bytes (default 64 kB, DEFAULT_BODY_LIMIT); only bulk routes raise it. */
+  bodyLimit?: number;
+  /** false: the route never looks at the session (health must answer even when sessions cannot be read). */
+  session?: false;
   /** Returns the JSON body to send; a handler that writes the response itself returns undefined. */
   handler: (input: HandlerInput<B, P, Q, AuthContext>) => Promise<unknown>;
 }
@@ -72,12 +78,14 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
       const result = await (def.handler as (i: typeof input) => Promise<unknown>)(input);
       if (result !== undefined && !res.headersSent) res.json(result);
     };
-    // The access check runs before any body parser a route adds (e.g. an upload), so a caller
-    // without the right never gets a file written.
+    // The access check runs before any body is read (JSON or an upload), so a caller without the
+    // right never costs a parse and never gets a file written.
     const guard: RequestHandler = (req, _res, next) => {
       accessCheck(def.access, req.auth);
       next();
     };
-    router[def.method](def.path, guard, ...(def.before ?? []), run);
+    const session = def.session === false ? [] : [loadAuth];
+    const body = def.method === 'get' ? [] : [jsonBody(def.bodyLimit ?? DEFAULT_BODY_LIMIT)];
+    router[def.method](def.path, ...session, guard, ...body, ...(def.before ?? []), run);
   }
 }

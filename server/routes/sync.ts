@@ -9,6 +9,8 @@ export const syncRoutes = [
     method: 'post',
     path: '/api/sync/push',
     access: 'session.record',
+    // The one bulk route: a long session's readings in one batch (every other route takes 64 kB).
+    bodyLimit: 4 * 1024 * 1024,
     body: pushRequest,
     handler: async ({ auth, body }) => pushBatch(auth, body),
   }),

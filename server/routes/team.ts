@@ -4,12 +4,20 @@ import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { inviteInput, roleChangeInput } from '../../shared/schemas/account';
-import { changeRole, getTeam, invite, listInvitations, removeMember, revokeInvitation } from '../services/team.service';
+import { teamSettingsInput } from '../../shared/schemas/team';
+import { changeRole, getTeam, invite, listInvitations, removeMember, revokeInvitation, updateTeamSettings } from '../services/team.service';
 
 const byId = z.object({ id });
 
 export const teamRoutes = [
   route({ method: 'get', path: '/api/team', access: 'team.read', handler: async ({ auth }) => getTeam(auth) }),
+  route({
+    method: 'patch',
+    path: '/api/team',
+    access: 'team.manage',
+    body: teamSettingsInput,
+    handler: async ({ auth, body }) => updateTeamSettings(auth, body),
+  }),
   route({
     method: 'get',
     path: '/api/team/invitations',

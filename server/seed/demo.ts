@@ -91,7 +91,7 @@ async function seedWorkshop(): Promise<boolean> {
   const sequelize = TeamModel.sequelize!;
   const hash = await hashPassword(DEMO_PASSWORD);
   await sequelize.transaction(async (transaction) => {
-    await TeamModel.create({ id: DEMO_TEAM_ID, name: 'Tarnwell Camper Works', unitSystem: 'mm' }, { transaction });
+    await TeamModel.create({ id: DEMO_TEAM_ID, name: 'Tarnwell Camper Works', unitSystem: 'mm', emailConfirmedAt: new Date() }, { transaction });
     for (const [i, p] of DEMO_PEOPLE.entries()) {
       await UserModel.create({ id: p.id, email: p.email, name: p.name, passwordHash: hash }, { transaction });
       await MembershipModel.create({ id: id(i + 1, '001'), teamId: DEMO_TEAM_ID, userId: p.id, role: p.role }, { transaction });

@@ -44,7 +44,7 @@ export async function describeMe(auth: AuthContext): Promise<Me> {
   if (!user || !team) throw new Unauthenticated();
   return {
     user: { id: user.id, name: user.name, email: user.email, unitSystem: user.unitSystem ?? null },
-    team: { id: team.id, name: team.name, unitSystem: team.unitSystem },
+    team: { id: team.id, name: team.name, unitSystem: team.unitSystem, photoGps: team.photoGps },
     role: auth.role,
   };
 }
@@ -61,7 +61,7 @@ export async function requestSignUp(input: SignUpInput, log?: Log): Promise<void
   const passwordHash = await hashPassword(input.password);
   const existing = await UserModel.findOne({ where: { email: input.email } });
   if (existing) {
-    sendInBackground(accountExistsMail({ to: existing.email, name: existing.name }), log);
+    sendInBackground(accountExistsMail({ to: existing.email, name: existing.name }), { kind: 'account-exists', userId: existing.id }, log);
     return;
   }
   const { token, hash } = newToken();
@@ -80,7 +80,7 @@ export async function requestSignUp(input: SignUpInput, log?: Log): Promise<void
       },
     },
   );
-  sendInBackground(signUpConfirmMail({ to: input.email, name: input.name, teamName: input.teamName, token }), log);
+  sendInBackground(signUpConfirmMail({ to: input.email, name: input.name, teamName: input.teamName, token }), { kind: 'sign-up' }, log);
 }
 
 interface SignUpRow {
@@ -107,7 +107,7 @@ export async function confirmSignUp(token: string): Promise<{ userId: string; te
     }
     const teamId = randomUUID();
     const userId = randomUUID();
-    await TeamModel.create({ id: teamId, name: r.team_name }, { transaction });
+    await TeamModel.create({ id: teamId, name: r.team_name, emailConfirmedAt: new Date() }, { transaction });
     await UserModel.create({ id: userId, email: r.email, name: r.name, passwordHash: r.password_hash }, { transaction });
     await MembershipModel.create({ id: randomUUID(), teamId, userId, role: 'admin' }, { transaction });
     // Other pending sign-ups for the same address are void now.
@@ -135,7 +135,7 @@ export async function requestPasswordReset(email: string, log?: Log): Promise<vo
       { transaction },
     );
   });
-  sendInBackground(passwordResetMail({ to: user.email, name: user.name, token }), log);
+  sendInBackground(passwordResetMail({ to: user.email, name: user.name, token }), { kind: 'password-reset', userId: user.id }, log);
 }
 
 /**
@@ -157,7 +157,7 @@ export async function resetPassword(token: string, password: string, log?: Log):
   });
   await endAllSessions(userId);
   const user = await UserModel.findByPk(userId);
-  if (user) sendInBackground(passwordChangedMail({ to: user.email, name: user.name }), log);
+  if (user) sendInBackground(passwordChangedMail({ to: user.email, name: user.name }), { kind: 'password-changed', userId: user.id }, log);
   return { userId, teamId: await homeTeamOf(userId) };
 }
 
@@ -174,5 +174,5 @@ export async function changePassword(auth: AuthContext, currentPassword: string,
   await user.update({ passwordHash: await hashPassword(newPassword) });
   await PasswordResetModel.update({ usedAt: new Date() }, { where: { userId: user.id, usedAt: null } });
   await endAllSessions(user.id);
-  sendInBackground(passwordChangedMail({ to: user.email, name: user.name }), log);
+  sendInBackground(passwordChangedMail({ to: user.email, name: user.name }), { kind: 'password-changed', userId: user.id }, log);
 }

@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import { EnvelopeSendModel, HistoryEventModel, TeamModel, UserModel } from '../models';
 import type { AuthContext } from '../auth/context';
 import { Conflict } from '../http/errors';
-import { sendMail } from '../mail/mailer';
+import { sendWithinQuota } from '../mail/quotas';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { SendSheetInput } from '../../shared/schemas/envelope';
 import { AXES } from '../../shared/flex';
@@ -28,25 +28,30 @@ export function sheetFileName(vehicleName: string, revision: number) {
 export async function sendSheet(auth: AuthContext, envelopeId: string, input: SendSheetInput) {
   const envelope = await getSignedEnvelope(auth, envelopeId);
   if (envelope.status !== 'signed') throw new Conflict(`revision ${envelope.revision} is superseded by a later sign-off: send the current revision`);
-  const unit = await unitFor(auth);
   const s = envelope.snapshot;
-  const pdf = await buildSheetPdf({ snapshot: s, contentHash: envelope.contentHash, status: 'signed', unit });
-  const lines = [
-    `${auth.name} sends you the fabrication sheet for the cab-to-body boot or seal of ${s.vehicle.name} (envelope revision ${s.revision}, signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}).`,
-    '',
-    ...(input.note ? [input.note, ''] : []),
-    'Design envelope per axis:',
-    ...AXES.map((axis) => `  ${AXIS_NAMES[axis]}: ±${formatLength(s.result.axes[axis].envelopeMm, unit)}`),
-    '',
-    `Content hash: ${envelope.contentHash}`,
-    '',
-    PLANNING_AID_NOTICE,
-  ];
-  const { messageId } = await sendMail({
-    to: input.to,
-    subject: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`,
-    text: lines.join('\n'),
-    attachments: [{ filename: sheetFileName(s.vehicle.name, s.revision), content: pdf, contentType: 'application/pdf' }],
+  const subject = `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`;
+  // Counted against the sheet quotas (mail/quotas.ts) before the PDF is made, and logged like
+  // every e-mail the app sends.
+  const { messageId } = await sendWithinQuota(auth, 'sheet', { to: input.to, subject }, async () => {
+    const unit = await unitFor(auth);
+    const pdf = await buildSheetPdf({ snapshot: s, contentHash: envelope.contentHash, status: 'signed', unit });
+    const lines = [
+      `${auth.name} sends you the fabrication sheet for the cab-to-body boot or seal of ${s.vehicle.name} (envelope revision ${s.revision}, signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}).`,
+      '',
+      ...(input.note ? [input.note, ''] : []),
+      'Design envelope per axis:',
+      ...AXES.map((axis) => `  ${AXIS_NAMES[axis]}: ±${formatLength(s.result.axes[axis].envelopeMm, unit)}`),
+      '',
+      `Content hash: ${envelope.contentHash}`,
+      '',
+      PLANNING_AID_NOTICE,
+    ];
+    return {
+      to: input.to,
+      subject,
+      text: lines.join('\n'),
+      attachments: [{ filename: sheetFileName(s.vehicle.name, s.revision), content: pdf, contentType: 'application/pdf' }],
+    };
   });
   const sequelize = EnvelopeSendModel.sequelize!;
   const sendId = randomUUID();

@@ -1,10 +1,18 @@
-// Photos: checked, read for capture time and GPS (exifr), re-encoded without any metadata and
-// thumbnailed (sharp), then stored under server-made names and recorded against the session.
+// Photos: checked, read for capture time and GPS (exifr; GPS kept only where the workshop says so),
+// re-encoded without any metadata and thumbnailed (sharp), then stored under server-made names and
+// recorded against the session.
+//
+// Memory: sharp decodes the whole image, and a 48 MP progressive JPEG takes a few hundred MB while
+// it does. Decodes therefore run one at a time per process (a queue, with libvips' own thread pool
+// and cache kept small), a short queue beyond which the upload is asked to come back later, at most
+// two uploads in flight per person (routes/photos.ts), and a storage ceiling per workshop. Phones
+// shrink photos before storing them (src/lib/photo-shrink.ts), so large originals are the exception.
 import exifr from 'exifr';
+import pLimit from 'p-limit';
 import sharp, { type Metadata as ImageMetadata } from 'sharp';
-import { UniqueConstraintError } from 'sequelize';
-import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
-import { PhotoModel, PoseModel, TestSessionModel } from '../models';
+import { QueryTypes, UniqueConstraintError } from 'sequelize';
+import { AppError, Conflict, Invalid, NotFound, Unavailable } from '../http/errors';
+import { PhotoModel, PoseModel, TeamModel, TestSessionModel } from '../models';
 import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-store';
 import type { AuthContext } from '../auth/context';
 import { withTeamChanges } from './team-changes';
@@ -18,6 +26,24 @@ export const MAX_PHOTO_PIXELS = 50_000_000;
 /** The stored copy's longest side; plenty to read a gauge mark, far smaller than the original. */
 const STORED_MAX_SIDE = 2560;
 const THUMB_MAX_SIDE = 320;
+
+/** The bounds (the README's security paragraph states them). */
+export const photoLimits = {
+  /** Decodes at once per process, and uploads that may wait for one. */
+  concurrentDecodes: 1,
+  queuedDecodes: 4,
+  /** Uploads one person may have on their way at once (counted in PostgreSQL, throttle.ts). */
+  inFlightPerPerson: 2,
+  /** Stored photos per workshop (re-encoded copies), in MB. */
+  storagePerWorkshopMb: 5 * 1024,
+  /** What four simultaneous 48 MP uploads may add to a server's resident memory (tests/api/photo-memory.test.ts). */
+  memoryBudgetMb: 400,
+} as const;
+
+// One libvips worker thread per image and no operation cache: memory follows the decode queue.
+sharp.concurrency(1);
+sharp.cache(false);
+const decodeQueue = pLimit(photoLimits.concurrentDecodes);
 
 type ImageKind = 'jpeg' | 'png' | 'webp';
 
@@ -142,9 +168,15 @@ export async function savePhoto(auth: AuthContext, fields: { id: string; session
     const pose = await PoseModel.findOne({ where: { id: fields.poseId, teamId: auth.teamId, sessionId: fields.sessionId } });
     if (!pose) throw new Invalid('body.poseId: pose not found in that session', [{ field: 'body.poseId', message: 'no such pose in that session' }]);
   }
-  // Metadata first: the re-encoded copy no longer has it.
-  const meta = await readMetadata(file);
-  const { stored, thumb } = await reencode(file);
+  const team = await TeamModel.findByPk(auth.teamId, { attributes: ['photoGps'] });
+  await checkStorage(auth.teamId, file.length);
+  if (decodeQueue.pendingCount >= photoLimits.queuedDecodes) {
+    throw new Unavailable('the server is busy with other photos: the phone sends this one again shortly', 15);
+  }
+  // Metadata first: the re-encoded copy no longer has it. GPS stays only if the workshop keeps it.
+  const read = await readMetadata(file);
+  const meta = team?.photoGps === 'keep' ? read : { ...read, gpsLat: null, gpsLon: null };
+  const { stored, thumb } = await decodeQueue(() => reencode(file));
   const files = await writePhotoFiles(stored.data, thumb);
   try {
     const row = await withTeamChanges(auth.teamId, (transaction) => PhotoModel.create({
@@ -168,6 +200,18 @@ export async function savePhoto(auth: AuthContext, fields: { id: string; session
     const winner = err instanceof UniqueConstraintError ? await PhotoModel.findOne({ where: { id: fields.id, teamId: auth.teamId } }) : null;
     if (winner) return { photo: photoOut(winner), created: false };
     throw err;
+  }
+}
+
+/** A workshop's stored photos have a ceiling: past it the upload waits on the phone (507), nothing is lost. */
+async function checkStorage(teamId: string, incoming: number) {
+  const [{ used }] = await PhotoModel.sequelize!.query<{ used: number }>(
+    'SELECT coalesce(sum(bytes), 0)::float8 AS used FROM photos WHERE team_id = $1 AND deleted_at IS NULL',
+    { bind: [teamId], type: QueryTypes.SELECT },
+  );
+  const limit = photoLimits.storagePerWorkshopMb * 1024 * 1024;
+  if (used + incoming > limit) {
+    throw new AppError(507, 'storage_full', `the workshop's photo storage is full (${Math.round(used / 1024 / 1024)} of ${photoLimits.storagePerWorkshopMb} MB): the photo stays on the phone until there is room`);
   }
 }
 

@@ -39,6 +39,14 @@ export async function getReview(auth: Reviewer, sessionId: string) {
   return { ...detail, people: names, history };
 }
 
+/** The history action of a change to a reading, at the desk or through sync. */
+export function readingEditAction(changes: Record<string, unknown>, excludedAfter: boolean): string {
+  if ('excluded' in changes) return excludedAfter ? 'reading.exclude' : 'reading.include';
+  if ('valueMm' in changes) return 'reading.correct';
+  if ('flagNote' in changes) return 'reading.flag';
+  return 'reading.edit';
+}
+
 export async function reviewReading(auth: Reviewer, readingId: string, input: ReadingReviewInput) {
   return withTeamChanges(auth.teamId, async (transaction) => {
     const reading = await ReadingModel.findOne({ where: { id: readingId, teamId: auth.teamId, deletedAt: null }, transaction, lock: transaction.LOCK.UPDATE });
@@ -65,10 +73,8 @@ export async function reviewReading(auth: Reviewer, readingId: string, input: Re
     }
     if (Object.keys(changes).length === 0) return readingOut(reading);
     await reading.update({ ...next, version: reading.version + 1 }, { transaction });
-    const action =
-      'excluded' in changes ? (next.excluded ? 'reading.exclude' : 'reading.include') : 'valueMm' in changes ? 'reading.correct' : 'flagNote' in changes ? 'reading.flag' : 'reading.edit';
     await HistoryEventModel.create(
-      { teamId: auth.teamId, sessionId: session.id, entity: 'reading', entityId: reading.id, action, userId: auth.userId, detail: changes },
+      { teamId: auth.teamId, sessionId: session.id, entity: 'reading', entityId: reading.id, action: readingEditAction(changes, next.excluded), userId: auth.userId, detail: changes },
       { transaction },
     );
     return readingOut(reading);

@@ -21,6 +21,7 @@ import { Conflict, Invalid, NotFound, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { photoRecordFromRow } from './photos.service';
 import { lockTeamChanges } from './team-changes';
+import { enforceSyncAccess } from './sync-access';
 import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
 import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
 
@@ -63,6 +64,7 @@ export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<Pu
       return earlier.response;
     }
     const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
+    await enforceSyncAccess(auth, items, transaction);
     const plan = await checkBatch(auth, items, transaction);
     const response = await applyPlan(auth, plan, transaction);
     await db().query(
@@ -118,8 +120,8 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
   }
 
   await checkReferences(auth, byEntity, known, errors, transaction);
-  await checkReadingsUnique(byEntity.get('reading')!, errors, transaction);
-  await checkGaugeLabelsUnique(byEntity.get('gaugePoint')!, errors, transaction);
+  await checkReadingsUnique(auth, byEntity.get('reading')!, errors, transaction);
+  await checkGaugeLabelsUnique(auth, byEntity.get('gaugePoint')!, errors, transaction);
 
   if (errors.length) {
     errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
@@ -169,14 +171,15 @@ async function checkReferences(
 }
 
 /** One reading per pose, gauge point and axis (the table's unique key), within the batch and against the server. */
-async function checkReadingsUnique(readings: Item[], errors: FieldError[], transaction: Transaction) {
+async function checkReadingsUnique(auth: AuthContext, readings: Item[], errors: FieldError[], transaction: Transaction) {
   if (!readings.length) return;
   const slot = (r: Record<string, unknown>) => `${r.poseId}|${r.gaugePointId}|${r.axis}`;
   const claimed = new Map<string, string>();
   const poseIds = [...new Set(readings.map((i) => i.record.poseId as string))];
   const rows = await select<{ id: string; pose_id: string; gauge_point_id: string; axis: string }>(
-    'SELECT id, pose_id, gauge_point_id, axis FROM readings WHERE pose_id = ANY($1::uuid[])',
-    [poseIds],
+    // Only the team's rows: another workshop's (refused as a reference anyway) is never named back.
+    'SELECT id, pose_id, gauge_point_id, axis FROM readings WHERE pose_id = ANY($1::uuid[]) AND team_id = $2',
+    [poseIds, auth.teamId],
     transaction,
   );
   const batchIds = new Set(readings.map((i) => i.record.id));
@@ -191,13 +194,13 @@ async function checkReadingsUnique(readings: Item[], errors: FieldError[], trans
 }
 
 /** Live gauge point labels are unique per vehicle. */
-async function checkGaugeLabelsUnique(points: Item[], errors: FieldError[], transaction: Transaction) {
+async function checkGaugeLabelsUnique(auth: AuthContext, points: Item[], errors: FieldError[], transaction: Transaction) {
   const live = points.filter((p) => !p.record.deletedAt);
   if (!live.length) return;
   const vehicleIds = [...new Set(live.map((p) => p.record.vehicleId as string))];
   const rows = await select<{ id: string; vehicle_id: string; label: string }>(
-    'SELECT id, vehicle_id, label FROM gauge_points WHERE vehicle_id = ANY($1::uuid[]) AND deleted_at IS NULL',
-    [vehicleIds],
+    'SELECT id, vehicle_id, label FROM gauge_points WHERE vehicle_id = ANY($1::uuid[]) AND deleted_at IS NULL AND team_id = $2',
+    [vehicleIds, auth.teamId],
     transaction,
   );
   const batchIds = new Set(points.map((p) => p.record.id));
@@ -415,6 +418,7 @@ export async function resolveConflict(auth: AuthContext, id: string, keep: 'clie
       const [current] = await select(`SELECT version FROM ${spec.table} WHERE id = $1 AND team_id = $2 FOR UPDATE`, [row.entity_id, auth.teamId], transaction);
       if (!current) throw new NotFound(entity);
       const record = { ...(parsed.data.record as Item['record']), version: current.version as number };
+      await enforceSyncAccess(auth, [{ index: 0, entity, record }], transaction, (_i, key) => `clientRecord.${key}`);
       await bulkUpdate(auth, spec, [{ index: 0, entity, record }], transaction);
     }
     const [done] = await select(

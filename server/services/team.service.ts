@@ -2,14 +2,16 @@
 // by the team of the session (auth.teamId); a workshop always keeps at least one admin.
 import { randomUUID } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
-import { InvitationModel, MembershipModel, TeamModel, UserModel } from '../models';
+import { InvitationModel, MembershipModel, PhotoModel, TeamModel, UserModel } from '../models';
+import { withTeamChanges } from './team-changes';
 import type { AuthContext } from '../auth/context';
 import { endTeamSessions, hashPassword, verifyPassword } from '../auth/lucia';
 import { hashToken, LinkInvalid, newToken, TOKEN_TTL } from '../auth/tokens';
 import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
-import { sendMail } from '../mail/mailer';
+import { sendWithinQuota } from '../mail/quotas';
 import { invitationMail } from '../mail/templates';
 import type { Member, Role, Team } from '../../shared/schemas';
+import type { TeamSettingsInput } from '../../shared/schemas/team';
 import type { AcceptInvitationInput, Invitation, InvitationPreview, InviteInput } from '../../shared/schemas/account';
 
 const roleOrder: Record<Role, number> = { admin: 0, engineer: 1, tester: 2, viewer: 3 };
@@ -27,7 +29,24 @@ export async function getTeam(auth: AuthContext): Promise<{ team: Team; members:
       return { userId: u.id, name: u.name, email: u.email, role: m.role };
     })
     .sort((a, b) => roleOrder[a.role] - roleOrder[b.role] || a.name.localeCompare(b.name));
-  return { team: { id: team.id, name: team.name, unitSystem: team.unitSystem }, members };
+  return { team: { id: team.id, name: team.name, unitSystem: team.unitSystem, photoGps: team.photoGps }, members };
+}
+
+/**
+ * Change the workshop's settings. Dropping GPS also erases the positions photos already keep (their
+ * records change, so phones learn it on their next pull); keeping it applies to photos from now on.
+ */
+export async function updateTeamSettings(auth: AuthContext, input: TeamSettingsInput) {
+  await withTeamChanges(auth.teamId, async (transaction) => {
+    await TeamModel.update({ photoGps: input.photoGps }, { where: { id: auth.teamId }, transaction });
+    if (input.photoGps === 'drop') {
+      await PhotoModel.sequelize!.query(
+        'UPDATE photos SET gps_lat = NULL, gps_lon = NULL, version = version + 1 WHERE team_id = $1 AND (gps_lat IS NOT NULL OR gps_lon IS NOT NULL)',
+        { bind: [auth.teamId], transaction },
+      );
+    }
+  });
+  return getTeam(auth);
 }
 
 const pending = () => ({ usedAt: null, expiresAt: { [Op.gt]: new Date() } });
@@ -67,9 +86,11 @@ export async function invite(auth: AuthContext, input: InviteInput): Promise<Inv
     );
   });
   try {
-    await sendMail(invitationMail({ to: input.email, teamName: team.name, role: input.role, invitedBy: auth.name, token, expiresAt }));
-  } catch {
+    const mail = invitationMail({ to: input.email, teamName: team.name, role: input.role, invitedBy: auth.name, token, expiresAt });
+    await sendWithinQuota(auth, 'invitation', mail, async () => mail);
+  } catch (err) {
     await row.destroy();
+    if (err instanceof AppError) throw err;
     throw new AppError(502, 'mail_failed', 'the invitation e-mail could not be sent; nothing was saved, try again');
   }
   return invitationOut(row);
@@ -170,6 +191,8 @@ export async function acceptInvitation(input: AcceptInvitationInput): Promise<{ 
       await UserModel.create({ id: newUser.id, email: used.email, name: newUser.name, passwordHash: newUser.passwordHash }, { transaction });
       userId = newUser.id;
     }
+    // Someone has now confirmed an e-mail address of this workshop (mail quotas count on it).
+    await TeamModel.update({ emailConfirmedAt: new Date() }, { where: { id: used.teamId, emailConfirmedAt: null }, transaction });
     const already = await MembershipModel.findOne({ where: { teamId: used.teamId, userId: userId! }, transaction });
     if (!already) await MembershipModel.create({ id: randomUUID(), teamId: used.teamId, userId: userId!, role: used.role }, { transaction });
     return { userId: userId!, teamId: used.teamId };

@@ -1,8 +1,16 @@
 import * as z from 'zod';
 import { id, role, unitSystem } from './common';
 
-export const team = z.object({ id, name: z.string().trim().min(1).max(120), unitSystem });
+/** Whether photos keep the GPS position read from their EXIF, or lose it at upload. */
+export const photoGps = z.enum(['keep', 'drop']);
+export type PhotoGps = z.infer<typeof photoGps>;
+
+export const team = z.object({ id, name: z.string().trim().min(1).max(120), unitSystem, photoGps });
 export type Team = z.infer<typeof team>;
+
+/** The workshop's settings an admin changes on the Team page. */
+export const teamSettingsInput = z.object({ photoGps }).strict();
+export type TeamSettingsInput = z.infer<typeof teamSettingsInput>;
 
 export const member = z.object({
   userId: id,

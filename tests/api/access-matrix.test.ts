@@ -12,12 +12,12 @@
 // matrix checks access, the feature tests check behaviour.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomBytes, randomUUID } from 'node:crypto';
-import { QueryTypes } from 'sequelize';
 import { allRoutes } from '../../server/routes';
 import type { AnyRoute } from '../../server/routes/route';
 import { allRoles, can, isAction } from '../../server/auth/permissions';
 import { createTeam, sessionAgent, agentFor, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { resetThrottles } from '../../server/auth/throttle';
+import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } from '../support/db-snapshot';
 import type { Role } from '../../shared/schemas';
 
 let ts: TestServer;
@@ -48,13 +48,7 @@ interface Fixture {
   agents: Record<Caller, Agent>;
 }
 
-async function insert(table: string, row: Record<string, unknown>) {
-  const cols = Object.keys(row);
-  await ts.sequelize.query(
-    `INSERT INTO ${table} (${cols.join(', ')}) VALUES (${cols.map((c) => `:${c}`).join(', ')})`,
-    { replacements: Object.fromEntries(Object.entries(row).map(([k, v]) => [k, v !== null && typeof v === 'object' && !(v instanceof Date) ? JSON.stringify(v) : v])) },
-  );
-}
+const insert = (table: string, row: Record<string, unknown>) => insertRow(ts.sequelize, table, row);
 
 async function buildFixture(): Promise<Fixture> {
   const team = await createTeam('Matrix workshop');
@@ -143,53 +137,22 @@ export function fillPath(path: string, ids: Record<string, string>): string {
 }
 
 // ---------------------------------------------------------------------------------------------
-// "Nothing was written": every row of both workshops, of their people, and of the tables keyed
-// by them, hashed.
+// "Nothing was written": every row of both workshops and their people, hashed (support/db-snapshot.ts).
 
-let scopedTables: { table: string; where: string }[] = [];
+let tables: ScopedTable[] = [];
 
 async function loadTables() {
-  const cols = await ts.sequelize.query<{ table_name: string; column_name: string }>(
-    `SELECT c.table_name, c.column_name FROM information_schema.columns c
-     JOIN information_schema.tables t ON t.table_schema = c.table_schema AND t.table_name = c.table_name
-     WHERE c.table_schema = 'public' AND t.table_type = 'BASE TABLE'`,
-    { type: QueryTypes.SELECT },
-  );
-  const byTable = new Map<string, Set<string>>();
-  for (const c of cols) {
-    if (!byTable.has(c.table_name)) byTable.set(c.table_name, new Set());
-    byTable.get(c.table_name)!.add(c.column_name);
-  }
-  scopedTables = [];
-  for (const [table, names] of byTable) {
-    if (table === 'teams') scopedTables.push({ table, where: 'id IN (:teams)' });
-    else if (table === 'users') scopedTables.push({ table, where: 'id IN (:users)' });
-    else if (names.has('team_id')) scopedTables.push({ table, where: 'team_id IN (:teams)' });
-    else if (names.has('user_id')) scopedTables.push({ table, where: 'user_id IN (:users)' });
-    // Tables keyed by neither (migration bookkeeping, pending sign-ups) hold nothing of a workshop.
-  }
-  expect(scopedTables.map((s) => s.table)).toEqual(expect.arrayContaining(['teams', 'users', 'memberships', 'vehicles', 'user_sessions']));
+  tables = await scopedTables(ts.sequelize);
+  expect(tables.map((s) => s.table)).toEqual(expect.arrayContaining(['teams', 'users', 'memberships', 'vehicles', 'user_sessions']));
 }
 
 /** Hashes of the rows of the given workshops and people (both workshops unless `onlyThis`). */
-async function snapshot(f: Fixture, onlyThis = false): Promise<Record<string, string>> {
+async function teamSnapshot(f: Fixture, onlyThis = false): Promise<Record<string, string>> {
   const teamsOf = onlyThis ? [f.team] : [f.team, f.other];
-  const teams = teamsOf.map((t) => t.teamId);
-  const users = teamsOf.flatMap((t) => Object.values(t.members).map((m) => m.userId));
-  const out: Record<string, string> = {};
-  for (const { table, where } of scopedTables) {
-    const [row] = await ts.sequelize.query<{ n: number; h: string }>(
-      `SELECT count(*)::int AS n, coalesce(md5(string_agg(t::text, '|' ORDER BY t::text)), '') AS h FROM "${table}" t WHERE ${where}`,
-      { replacements: { teams, users }, type: QueryTypes.SELECT },
-    );
-    out[table] = `${row.n}:${row.h}`;
-  }
-  return out;
+  return snapshot(ts.sequelize, tables, teamsOf.map((t) => t.teamId), teamsOf.flatMap((t) => Object.values(t.members).map((m) => m.userId)));
 }
 
-function changed(before: Record<string, string>, after: Record<string, string>) {
-  return Object.keys(before).filter((t) => before[t] !== after[t]);
-}
+const changed = changedTables;
 
 // ---------------------------------------------------------------------------------------------
 
@@ -237,9 +200,9 @@ describe('role × route matrix', () => {
 
     for (const caller of callers) {
       const want = expectedFor(r.access, caller);
-      const before = await snapshot(f, caller === 'otherTeam');
+      const before = await teamSnapshot(f, caller === 'otherTeam');
       const res = await call(f.agents[caller], r, caller === 'otherTeam' ? outsiderPath : path);
-      const after = await snapshot(f, caller === 'otherTeam');
+      const after = await teamSnapshot(f, caller === 'otherTeam');
       const where = `${label(r)} as ${caller}: ${res.status} ${bodyText(res).slice(0, 200)}`;
 
       // A route of the table is mounted: never the catch-all "API route not found".

@@ -10,7 +10,8 @@ import type { AddressInfo } from 'node:net';
 import { createApp } from '../../server/app';
 import { agentFor, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
 import { UserModel, UserSessionModel } from '../../server/models';
-import { ARGON2_PARAMS } from '../../server/auth/lucia';
+import { ARGON2_PARAMS, storedSessionId } from '../../server/auth/lucia';
+import { createHash } from 'node:crypto';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -65,8 +66,8 @@ describe('session rotation', () => {
     expect(a).not.toBe('');
     expect(b).not.toBe('');
     expect(b).not.toBe(a);
-    expect(await UserSessionModel.findByPk(a)).toBeNull();
-    expect(await UserSessionModel.findByPk(b)).not.toBeNull();
+    expect(await UserSessionModel.findByPk(storedSessionId(a))).toBeNull();
+    expect(await UserSessionModel.findByPk(storedSessionId(b))).not.toBeNull();
     // The old id no longer works anywhere.
     const replay = await request(ts.server).get('/api/me').set('Cookie', `twistlog_session=${a}`);
     expect(replay.status).toBe(401);
@@ -83,7 +84,27 @@ describe('session rotation', () => {
       .send({ email: team.members.tester.email, password: TEST_PASSWORD });
     expect(res.status).toBe(200);
     expect(idOf(sessionCookie(res))).not.toBe(planted);
-    expect(await UserSessionModel.findByPk(planted)).toBeNull();
+    expect(await UserSessionModel.findByPk(storedSessionId(planted))).toBeNull();
+  });
+});
+
+describe('stored session ids', () => {
+  it('are the SHA-256 of the cookie\'s id: a copy of the table opens no session', async () => {
+    const team = await createTeam();
+    const res = await agentFor(ts).post('/api/auth/sign-in').send({ email: team.members.engineer.email, password: TEST_PASSWORD });
+    const id = idOf(sessionCookie(res));
+    expect(id).not.toBe('');
+    const rows = await UserSessionModel.findAll({ where: { userId: team.members.engineer.userId } });
+    expect(rows.map((r) => r.id)).toEqual([createHash('sha256').update(id).digest('hex')]);
+    // The stored value, sent as a cookie, is no session.
+    const stolen = await request(ts.server).get('/api/me').set('Cookie', `twistlog_session=${rows[0].id}`);
+    expect(stolen.status).toBe(401);
+    // The real cookie still works, and signing out removes the stored row.
+    const agent = request.agent(ts.server);
+    const me = await agent.get('/api/me').set('Cookie', `twistlog_session=${id}`);
+    expect(me.status).toBe(200);
+    expect((await agent.post('/api/auth/sign-out').set('Origin', ts.origin).set('Cookie', `twistlog_session=${id}`).send({})).status).toBe(200);
+    expect(await UserSessionModel.count({ where: { userId: team.members.engineer.userId } })).toBe(0);
   });
 });
 

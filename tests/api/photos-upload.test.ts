@@ -28,14 +28,17 @@ async function jpegWithGps() {
     .toBuffer();
 }
 
-async function setup() {
+async function setup(photoGps: 'keep' | 'drop' = 'keep') {
   const team = await createTeam();
+  // The workshop's admin chooses whether photos keep their GPS position (Team page).
+  const admin = await signedInAgent(ts, team.members.admin.email);
+  expect((await admin.patch('/api/team').send({ photoGps })).status).toBe(200);
   const tester = await signedInAgent(ts, team.members.tester.email);
   const { vehicleId } = await vehicleWithPoints(tester);
   const session = sessionRecord(vehicleId);
   const pushed = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session)] });
   expect(pushed.status).toBe(200);
-  return { team, tester, sessionId: session.id };
+  return { team, admin, tester, sessionId: session.id };
 }
 
 const upload = (agent: Awaited<ReturnType<typeof signedInAgent>>, fields: Record<string, string>, file: Buffer, name = 'IMG_0001.jpg') => {
@@ -43,6 +46,36 @@ const upload = (agent: Awaited<ReturnType<typeof signedInAgent>>, fields: Record
   for (const [k, v] of Object.entries(fields)) req = req.field(k, v);
   return req.attach('photo', file, { filename: name, contentType: 'image/jpeg' });
 };
+
+describe('GPS in photos follows the workshop setting', () => {
+  it('drops the position when the workshop drops it (the capture time stays)', async () => {
+    const { tester, sessionId } = await setup('drop');
+    const id = randomUUID();
+    const res = await upload(tester, { id, sessionId }, await jpegWithGps());
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ hasGps: false });
+    expect(res.body.capturedAt).toMatch(/^2026-03-14T/);
+    const row = await PhotoModel.findByPk(id);
+    expect([row?.gpsLat, row?.gpsLon]).toEqual([null, null]);
+  });
+
+  it('is the admin\'s to change; switching to drop erases positions already kept', async () => {
+    const { team, admin, tester, sessionId } = await setup('keep');
+    const id = randomUUID();
+    expect((await upload(tester, { id, sessionId }, await jpegWithGps())).body).toMatchObject({ hasGps: true });
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    expect((await engineer.patch('/api/team').send({ photoGps: 'drop' })).status).toBe(403);
+    expect((await admin.patch('/api/team').send({ photoGps: 'nowhere' })).status).toBe(400);
+    const changed = await admin.patch('/api/team').send({ photoGps: 'drop' });
+    expect(changed.status).toBe(200);
+    expect(changed.body.team).toMatchObject({ photoGps: 'drop' });
+    expect((await tester.get('/api/team')).body.team.photoGps).toBe('drop');
+    const row = await PhotoModel.findByPk(id);
+    expect([row?.gpsLat, row?.gpsLon]).toEqual([null, null]);
+    // The phone learns it on its next pull: the photo's record changed.
+    expect((await tester.get('/api/sync/pull?since=0')).body.photos.find((p: { id: string }) => p.id === id)).toMatchObject({ hasGps: false });
+  });
+});
 
 describe('photo upload', () => {
   it('reads capture time and GPS, then stores a copy without location metadata, and a thumbnail', async () => {

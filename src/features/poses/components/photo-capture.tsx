@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useState } from 'react';
 import { useSessionPhotos } from '@/lib/db/live';
 import { addPhoto } from '@/lib/db/photos';
+import { shrinkPhoto } from '@/lib/photo-shrink';
 import type { ItemResult } from '@/lib/db/records';
 import { SaveProblems } from '@/features/field/components/save-problems';
 import type { StoredPhoto } from '@/lib/db/field-db';
@@ -32,7 +33,7 @@ export function PhotoCapture({ sessionId, poseId }: { sessionId: string; poseId:
           onChange={async (e) => {
             const files = [...(e.target.files ?? [])];
             e.target.value = '';
-            setProblems(await Promise.all(files.map((file) => addPhoto({ id: crypto.randomUUID(), sessionId, poseId, caption: '', file }))));
+            setProblems(await Promise.all(files.map(async (file) => addPhoto({ id: crypto.randomUUID(), sessionId, poseId, caption: '', file: await shrinkPhoto(file) }))));
           }}
         />
       </label>

@@ -2,6 +2,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Member, Role, Team } from '@shared/schemas';
 import type { Invitation, InviteInput } from '@shared/schemas/account';
+import type { TeamSettingsInput } from '@shared/schemas/team';
 import { api } from '@/lib/api-client';
 
 export const teamKeys = {
@@ -26,3 +27,5 @@ export const useRevokeInvitation = () => useTeamMutation((id: string) => api<{ o
 export const useChangeRole = () =>
   useTeamMutation(({ userId, role }: { userId: string; role: Role }) => api<Member>(`/api/team/members/${userId}`, { method: 'PATCH', body: { role } }));
 export const useRemoveMember = () => useTeamMutation((userId: string) => api<{ ok: true }>(`/api/team/members/${userId}`, { method: 'DELETE' }));
+export const useUpdateTeamSettings = () =>
+  useTeamMutation((input: TeamSettingsInput) => api<{ team: Team; members: Member[] }>('/api/team', { method: 'PATCH', body: input }));

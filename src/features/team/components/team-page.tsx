@@ -5,7 +5,8 @@ import { QueryState } from '@/components/query-state';
 import { useMe } from '@/features/auth/api/get-me';
 import { can } from '@/features/auth/can';
 import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/features/auth/components/form-bits';
-import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam } from '../api/team';
+import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam, useUpdateTeamSettings } from '../api/team';
+import type { PhotoGps } from '@shared/schemas/team';
 import { roleOptions, roleSummary } from '../roles';
 
 /** /team: the members and their roles; admins invite, change roles, remove, revoke. */
@@ -30,6 +31,7 @@ export function TeamPage() {
         </QueryState>
       </section>
       {manage && <PendingInvitations />}
+      {manage && team.data && <PhotoLocationSetting value={team.data.team.photoGps} />}
       <section aria-labelledby="roles" className="card">
         <h2 id="roles" className="mb-2 text-lg font-bold">Roles</h2>
         <dl className="space-y-1">
@@ -170,6 +172,35 @@ function PendingInvitations() {
         }
       </QueryState>
       <ErrorBanner>{revoke.error?.message}</ErrorBanner>
+    </section>
+  );
+}
+
+/** Whether photos keep where they were taken (GPS from the camera) or lose it at upload. */
+function PhotoLocationSetting({ value }: { value: PhotoGps }) {
+  const update = useUpdateTeamSettings();
+  const choose = (photoGps: PhotoGps) => {
+    if (photoGps !== value) update.mutate({ photoGps });
+  };
+  return (
+    <section className="card space-y-2" aria-labelledby="photo-gps">
+      <h2 id="photo-gps" className="text-xl font-bold">Photo locations</h2>
+      <p className="text-sm">
+        Phone cameras record where a photo was taken. Twistlog never keeps it in the photo files it stores; this decides whether
+        the position is kept beside the photo for the workshop to see.
+      </p>
+      <fieldset className="space-y-2" disabled={update.isPending}>
+        <legend className="sr-only">Photo locations</legend>
+        <label className="flex min-h-12 items-center gap-3">
+          <input type="radio" name="photo-gps" checked={value === 'drop'} onChange={() => choose('drop')} className="h-6 w-6" />
+          <span>Drop the location of every photo (also erases locations kept so far)</span>
+        </label>
+        <label className="flex min-h-12 items-center gap-3">
+          <input type="radio" name="photo-gps" checked={value === 'keep'} onChange={() => choose('keep')} className="h-6 w-6" />
+          <span>Keep the location of photos uploaded from now on</span>
+        </label>
+      </fieldset>
+      <ErrorBanner>{update.error?.message}</ErrorBanner>
     </section>
   );
 }

@@ -1,0 +1,247 @@
+// Who may change what through sync push, field by field: the same actions the REST routes check
+// (auth/permissions.ts), so a phone can do nothing the desk would refuse the same person.
+//
+// The rules are data (`syncAccess`, one entry per entity): the action that creates a record, the
+// action each field needs to change, and the defaults a new record must carry in every field its
+// author may not set. On top of that, a session whose envelope is signed is closed to the field:
+// any change to it, its poses or its readings (new, changed or deleted) needs `session.review`.
+//
+// A change is what differs from the server's row (for a new record: from the defaults), so a phone
+// sending back a whole record with an engineer's exclusion in it, untouched, changes nothing it
+// may not. A refused change rejects the batch with a 400 naming each refused field; nothing of it
+// is written. Every accepted change to a record the server had leaves a history event with the
+// before and after value of each field, in the same transaction as the write.
+import type { Transaction } from 'sequelize';
+import canonicalize from 'canonicalize';
+import { QueryTypes } from 'sequelize';
+import type { AuthContext } from '../auth/context';
+import { allRoles, can, type Action } from '../auth/permissions';
+import { Invalid, type FieldError } from '../http/errors';
+import { VehicleModel } from '../models';
+import { syncTables, type SyncColumn } from './sync-tables';
+import { readingEditAction } from './review.service';
+import type { SyncEntity } from '../../shared/schemas/sync';
+
+interface EntityAccess {
+  /** Creating the record. */
+  create: Action;
+  /** The action that changes each field (every column of sync-tables.ts has one). */
+  fields: Record<string, Action>;
+  /** What a new record must hold in each field its author may not set (absent: any value). */
+  defaults: Record<string, unknown>;
+  /** Part of a session: closed once the session has a signed envelope, except to this action. */
+  signedSession?: Action;
+}
+
+const all = (keys: string[], action: Action) => Object.fromEntries(keys.map((k) => [k, action]));
+
+/** The rules, per entity and field (README "Roles and permissions" states them in words). */
+export const syncAccess: Record<SyncEntity, EntityAccess> = {
+  vehicle: {
+    create: 'vehicle.write',
+    fields: {
+      ...all(['name', 'chassis', 'body', 'wheelbaseMm', 'trackFrontMm', 'trackRearMm', 'opening', 'nominalGapMm', 'notes'], 'vehicle.write'),
+      deletedAt: 'vehicle.delete',
+    },
+    defaults: { deletedAt: null },
+  },
+  gaugePoint: {
+    create: 'vehicle.write',
+    // The desk's gauge point editor (vehicle.write) also removes points.
+    fields: all(['vehicleId', 'label', 'yMm', 'zMm', 'deletedAt'], 'vehicle.write'),
+    defaults: { deletedAt: null },
+  },
+  testSession: {
+    create: 'session.record',
+    fields: {
+      ...all(['vehicleId', 'title', 'testedOn', 'conditions', 'loadState', 'tyrePressures', 'crew', 'readingMode', 'safetyAckAt', 'notes'], 'session.record'),
+      deletedAt: 'session.delete',
+    },
+    defaults: { deletedAt: null },
+    signedSession: 'session.review',
+  },
+  pose: {
+    create: 'session.record',
+    fields: all(
+      ['sessionId', 'seq', 'label', 'kind', 'liftFlMm', 'liftFrMm', 'liftRlMm', 'liftRrMm', 'rampAngleDeg', 'rampDistanceMm', 'notes', 'recordedAt', 'deletedAt'],
+      'session.record',
+    ),
+    defaults: { deletedAt: null },
+    signedSession: 'session.review',
+  },
+  reading: {
+    create: 'session.record',
+    fields: {
+      ...all(['poseId', 'gaugePointId', 'axis', 'valueMm', 'deletedAt'], 'session.record'),
+      // Review at the desk: PATCH /api/readings/:id/review needs the same action.
+      ...all(['excluded', 'excludeReason', 'flagNote'], 'session.review'),
+    },
+    defaults: { excluded: false, excludeReason: null, flagNote: null, deletedAt: null },
+    signedSession: 'session.review',
+  },
+};
+
+export interface AccessItem {
+  index: number;
+  entity: SyncEntity;
+  record: Record<string, unknown> & { id: string; version: number };
+}
+
+type Row = Record<string, unknown>;
+const db = () => VehicleModel.sequelize!;
+const select = <T = Row>(sql: string, bind: unknown[], transaction: Transaction) =>
+  db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
+
+/** One value in a form that compares equal when it means the same (an instant, a JSON value, a uuid). */
+function comparable(col: SyncColumn, v: unknown): unknown {
+  if (v === undefined || v === null) return null;
+  if (col.type === 'timestamptz') return new Date(v as string | Date).getTime();
+  if (col.type === 'jsonb') return canonicalize(v);
+  if (col.type === 'uuid') return String(v).toLowerCase();
+  return v;
+}
+
+/** The value as a person reads it in the history (ISO times, plain JSON). */
+function shown(col: SyncColumn, v: unknown): unknown {
+  if (v === undefined || v === null) return null;
+  if (col.type === 'timestamptz') return new Date(v as string | Date).toISOString();
+  return v;
+}
+
+const who = (action: Action) => allRoles.filter((r) => can(r, action)).join(', ');
+const fieldPath = (index: number, key: string) => `body.changes.${index}.record.${key}`;
+
+const WORDS: Record<SyncEntity, string> = { vehicle: 'a vehicle', gaugePoint: 'a gauge point', testSession: 'a session', pose: 'a pose', reading: 'a reading' };
+
+/**
+ * Checks every change of a push (or a conflict resolved with the phone's version) against the
+ * signed-in person's role, and records the accepted changes' before and after values. Items the
+ * server will keep as conflicts (stale version) or refuse anyway (another workshop's id, a bad
+ * version) are left to the batch check. Throws Invalid naming each refused field.
+ */
+export async function enforceSyncAccess(
+  auth: AuthContext,
+  items: AccessItem[],
+  transaction: Transaction,
+  where: (index: number, key: string) => string = fieldPath,
+): Promise<void> {
+  const rows = new Map<string, Row>();
+  for (const entity of Object.keys(syncTables) as SyncEntity[]) {
+    const ids = items.filter((i) => i.entity === entity).map((i) => i.record.id);
+    if (!ids.length) continue;
+    const found = await select(`SELECT * FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($2::uuid[])`, [auth.teamId, ids], transaction);
+    for (const r of found) rows.set(`${entity}:${r.id as string}`, r);
+  }
+  const applied = items.filter((item) => {
+    const row = rows.get(`${item.entity}:${item.record.id}`);
+    return row ? row.version === item.record.version : item.record.version === 1;
+  });
+
+  const sessionsOf = await sessionResolver(auth, applied, rows, transaction);
+  const sessionIds = [...new Set(applied.flatMap((i) => sessionsOf(i)))];
+  const signed = new Set(
+    sessionIds.length
+      ? (
+          await select<{ session_id: string }>(
+            `SELECT DISTINCT session_id FROM envelopes WHERE team_id = $1 AND session_id = ANY($2::uuid[]) AND status = 'signed' AND deleted_at IS NULL`,
+            [auth.teamId, sessionIds],
+            transaction,
+          )
+        ).map((r) => r.session_id)
+      : [],
+  );
+
+  const errors: FieldError[] = [];
+  const history: { item: AccessItem; sessionId: string | null; changes: Record<string, { before: unknown; after: unknown }> }[] = [];
+  for (const item of applied) {
+    const rules = syncAccess[item.entity];
+    const spec = syncTables[item.entity];
+    const row = rows.get(`${item.entity}:${item.record.id}`);
+    const refuse = (key: string, action: Action, what: string) =>
+      errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that needs ${action} (${who(action)})` });
+
+    const changed: SyncColumn[] = [];
+    for (const col of spec.columns) {
+      const after = comparable(col, item.record[col.key]);
+      if (row) {
+        if (after !== comparable(col, row[col.column])) changed.push(col);
+      } else if (col.key in rules.defaults && after !== comparable(col, rules.defaults[col.key])) changed.push(col);
+    }
+    if (row && !changed.length) continue;
+
+    if (!row && !can(auth.role, rules.create)) refuse('id', rules.create, `add ${WORDS[item.entity]}`);
+    for (const col of changed) {
+      const action = rules.fields[col.key];
+      if (!can(auth.role, action)) refuse(col.key, action, `${row ? 'change' : 'set'} ${col.key} of ${WORDS[item.entity]}`);
+    }
+    const closed = rules.signedSession && sessionsOf(item).some((s) => signed.has(s));
+    if (closed && !can(auth.role, rules.signedSession!)) {
+      refuse(row ? changed[0].key : 'id', rules.signedSession!, `${row ? 'change' : 'add'} ${WORDS[item.entity]} of a session whose envelope is signed`);
+    }
+    if (row) {
+      const changes = Object.fromEntries(changed.map((col) => [col.key, { before: shown(col, row[col.column]), after: shown(col, item.record[col.key]) }]));
+      history.push({ item, sessionId: sessionsOf(item)[0] ?? null, changes });
+    }
+  }
+  if (errors.length) {
+    throw new Invalid(
+      `batch rejected, nothing was written: ${errors.length} change${errors.length > 1 ? 's' : ''} your role may not make, first ${errors[0].field}: ${errors[0].message}`,
+      errors,
+    );
+  }
+  await recordChanges(auth, history, transaction);
+}
+
+/** The session(s) each item belongs to, before and after the change (a pose or reading can move). */
+async function sessionResolver(auth: AuthContext, items: AccessItem[], rows: Map<string, Row>, transaction: Transaction) {
+  const poseSession = new Map<string, string>();
+  for (const i of items) if (i.entity === 'pose') poseSession.set(i.record.id, i.record.sessionId as string);
+  const poseIds = new Set<string>();
+  for (const i of items) {
+    if (i.entity !== 'reading') continue;
+    poseIds.add(i.record.poseId as string);
+    const row = rows.get(`reading:${i.record.id}`);
+    if (row) poseIds.add(row.pose_id as string);
+  }
+  const unknown = [...poseIds].filter((id) => !poseSession.has(id));
+  if (unknown.length) {
+    const found = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])', [auth.teamId, unknown], transaction);
+    for (const p of found) poseSession.set(p.id, p.session_id);
+  }
+  return (item: AccessItem): string[] => {
+    const row = rows.get(`${item.entity}:${item.record.id}`);
+    const ids =
+      item.entity === 'testSession'
+        ? [item.record.id]
+        : item.entity === 'pose'
+          ? [item.record.sessionId as string, row?.session_id as string | undefined]
+          : item.entity === 'reading'
+            ? [poseSession.get(item.record.poseId as string), row ? poseSession.get(row.pose_id as string) : undefined]
+            : [];
+    return [...new Set(ids.filter((x): x is string => !!x))];
+  };
+}
+
+/** One history event per changed record, with each field's before and after (as the desk's review leaves them). */
+async function recordChanges(auth: AuthContext, history: { item: AccessItem; sessionId: string | null; changes: Record<string, { before: unknown; after: unknown }> }[], transaction: Transaction) {
+  if (!history.length) return;
+  const action = (h: (typeof history)[number]) =>
+    h.item.entity === 'reading' ? readingEditAction(h.changes, h.item.record.excluded as boolean) : `${h.item.entity}.edit`;
+  await db().query(
+    `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+     SELECT $1::uuid, u.session_id, u.entity, u.entity_id, u.action, $2::uuid, u.detail
+     FROM unnest($3::uuid[], $4::text[], $5::uuid[], $6::text[], $7::jsonb[]) AS u(session_id, entity, entity_id, action, detail)`,
+    {
+      bind: [
+        auth.teamId,
+        auth.userId,
+        history.map((h) => h.sessionId),
+        history.map((h) => h.item.entity),
+        history.map((h) => h.item.record.id),
+        history.map(action),
+        history.map((h) => JSON.stringify(h.changes)),
+      ],
+      transaction,
+    },
+  );
+}
