@@ -54,7 +54,7 @@ export function FieldSessionPage() {
       {data.corrupt.length > 0 && <p role="alert" className="text-alert">Some stored records could not be read: {data.corrupt[0].message}</p>}
       {!session.safetyAckAt ? (
         <div className="space-y-2">
-          <SafetyChecklist onAllTicked={setSafe} />
+          <SafetyChecklist onLeftChange={(left) => setSafe(left === 0)} />
           <button type="button" className="btn-primary w-full" disabled={!safe} onClick={() => void saveRecord('testSession', { ...session, safetyAckAt: new Date().toISOString() }).then((r) => setProblems([r]))}>
             Checklist done
           </button>
