@@ -3,10 +3,10 @@
 // something else; the ± key types the minus a decimal keypad lacks; Enter walks the readings in
 // order; focus selects; an implausible value waits for the tester to confirm it.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type Agent, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
-import { batchKey, change, poseRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
+import type { Browser } from 'playwright-core';
+import { clientDir, startTestServer, type TestServer } from '../support/test-app';
+import { launchBrowser } from '../support/browser';
+import { settled, testerOnPose, typeInto } from '../support/field-entry';
 import { PoseModel, ReadingModel } from '../../server/models';
 
 let ts: TestServer;
@@ -20,41 +20,9 @@ afterAll(async () => {
   await ts?.close();
 });
 
-/** A session with a level pose and one pose with wheels, pushed as a phone would, for the browser to pull. */
-async function sessionWithPoses(agent: Agent, readingMode: 'gap' | 'displacement' = 'gap') {
-  const { vehicleId, pointIds } = await vehicleWithPoints(agent, ['A', 'B', 'C', 'D']);
-  const session = sessionRecord(vehicleId, { readingMode });
-  const level = poseRecord(session.id, 0);
-  const pose = poseRecord(session.id, 1, { liftFlMm: 0 });
-  const res = await agent.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session), change('pose', level), change('pose', pose)] });
-  if (res.status !== 200) throw new Error(`push: ${res.status} ${JSON.stringify(res.body)}`);
-  return { sessionId: session.id, poseId: pose.id, pointIds };
-}
-
-/** A tester of a new team on a phone, on the second pose of a session the phone pulls at once. */
-async function testerOnPose(teamName: string) {
-  const team = await createTeam(teamName);
-  const agent = await signedInAgent(ts, team.members.tester.email);
-  const ids = await sessionWithPoses(agent);
-  const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-  const page = await context.newPage();
-  await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
-  await page.goto(`${ts.baseUrl}/field/sessions/${ids.sessionId}/poses/${ids.poseId}`);
-  await page.getByLabel('Pose name').waitFor();
-  return { ...ids, context, page };
-}
-
-/** As a thumb does it: tap the field (which selects what is in it), then type at a human pace. */
-async function typeInto(page: Page, label: string, text: string) {
-  await page.getByLabel(label).tap();
-  await page.keyboard.type(text, { delay: 40 });
-}
-
-const settled = (page: Page) => page.getByTestId('local-save-state').getByText('Everything typed is saved on this phone.').waitFor();
-
 describe('typing readings', () => {
   it('stores what the trade writes exactly and refuses the rest beside the field, never a prefix of it', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose('Typing workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Typing workshop');
 
     // Millimetres: a comma decimal is a decimal; letters are refused, whatever came before them.
     await typeInto(page, 'A fore-aft', '92,5');
@@ -96,7 +64,7 @@ describe('typing readings', () => {
   });
 
   it('types a minus with the ± key on a phone, and walks the readings with Enter', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose('Sign workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Sign workshop');
 
     // The ± key of A lateral: big enough for a gloved thumb, and it keeps the field's focus.
     const lateral = page.getByLabel('A lateral');
@@ -148,7 +116,7 @@ describe('typing readings', () => {
   });
 
   it('holds an implausible value back until the tester keeps it', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose('Doubt workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Doubt workshop');
 
     // The test truck's nominal gap is 90 mm: a raw gap of 900 is a slipped digit, or it is real.
     await typeInto(page, 'B fore-aft', '900');
