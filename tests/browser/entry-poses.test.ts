@@ -3,10 +3,10 @@
 // can be changed after the start. Everything ends up in PostgreSQL as the screens showed it.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
-import { settled, testerOnPose, typeInto } from '../support/field-entry';
-import { PoseModel, TestSessionModel } from '../../server/models';
+import { clientDir, createTeam, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
+import { launchBrowser, signInAs } from '../support/browser';
+import { PHONE, settled, testerOnPose, typeInto } from '../support/field-entry';
+import { GaugePointModel, PoseModel, TestSessionModel, VehicleModel } from '../../server/models';
 
 let ts: TestServer;
 let browser: Browser;
@@ -126,6 +126,37 @@ describe('poses', () => {
       notes: 'Rear right chock slipped once; re-set before pose 2.',
       version: 2,
     });
+    await context.close();
+  });
+
+  it('sets up a vehicle with the same entry: refused text is named, a minus comes from ±, and later edits are saved', async () => {
+    const team = await createTeam('Vehicle workshop');
+    const context = await browser.newContext(PHONE);
+    const page = await context.newPage();
+    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
+    await page.goto(`${ts.baseUrl}/field/vehicles/new`);
+    await page.getByLabel('Name').fill('Alder rig');
+    await typeInto(page, 'Wheelbase', '4200');
+    await typeInto(page, 'Nominal gap', '3 5/8');
+    await page.getByText(/fractions are inch readings/).waitFor();
+    // Tapping into the field already being typed in places the caret, as on a phone: clear it first.
+    await page.getByLabel('Nominal gap').fill('95');
+    await page.getByRole('button', { name: 'Save vehicle' }).tap();
+    await page.waitForURL(/vehicles\/[0-9a-f-]{36}$/);
+    const vehicleId = page.url().split('/').pop()!;
+
+    // A gauge point tapped onto the drawing, then moved to the right of the centreline with ±.
+    await page.getByRole('img', { name: /Opening drawing/ }).tap();
+    await page.getByLabel('A y').waitFor();
+    await typeInto(page, 'A y', '250');
+    await page.getByRole('button', { name: 'Change sign' }).and(page.locator(`[aria-describedby="${await page.getByLabel('A y').getAttribute('id')}-label"]`)).tap();
+    expect(await page.getByLabel('A y').inputValue()).toBe('-250');
+    await typeInto(page, 'Track front', '1950');
+    await page.getByRole('button', { name: 'Save vehicle' }).tap();
+    await page.getByText(/Waiting to send/).waitFor();
+    await page.getByText('All saved on the server').waitFor({ timeout: 30_000 });
+    expect(await VehicleModel.findByPk(vehicleId)).toMatchObject({ name: 'Alder rig', wheelbaseMm: 4200, nominalGapMm: 95, trackFrontMm: 1950 });
+    expect((await GaugePointModel.findAll({ where: { vehicleId } })).map((g) => [g.label, g.yMm])).toEqual([['A', -250]]);
     await context.close();
   });
 });

@@ -69,7 +69,10 @@ export function VehicleSetupPage() {
     if (isNew) {
       const r = await saveRecord('vehicle', draft);
       setProblems([r]);
-      if (r.ok) navigate(`/field/vehicles/${draft.id}`, { replace: true });
+      if (r.ok) {
+        setLoaded(draft);
+        navigate(`/field/vehicles/${draft.id}`, { replace: true });
+      }
       return;
     }
     const r = await patchRecord('vehicle', draft.id, changedFields(loaded ?? draft, draft));
