@@ -58,4 +58,33 @@ describe('start a session', () => {
     await page.getByRole('heading', { name: 'Test truck' }).waitFor();
     await context.close();
   });
+
+  it('keeps a choice made in the phone’s picker while the first sync re-draws the page', async () => {
+    const team = await createTeam('Picker workshop');
+    const desk = await signedInAgent(ts, team.members.tester.email);
+    await vehicleWithPoints(desk);
+    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+    const page = await context.newPage();
+    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
+    await page.goto(`${ts.baseUrl}/field/sessions/new`);
+    const vehicle = page.getByLabel('Vehicle', { exact: true });
+    await vehicle.locator('option', { hasText: 'Test truck' }).waitFor({ state: 'attached' });
+
+    // A phone's picker shows the choice in the select at once and reports it (the change event)
+    // only when it closes. Meanwhile a sync brings a vehicle added at the desk and the page re-draws.
+    await vehicle.evaluate((el: HTMLSelectElement) => {
+      el.value = [...el.options].find((o) => o.text === 'Test truck')!.value;
+    });
+    expect((await desk.post('/api/vehicles').send(vehicleBody({ name: 'Alder test rig' }))).status).toBe(201);
+    await page.evaluate(() => window.dispatchEvent(new Event('online')));
+    await vehicle.locator('option', { hasText: 'Alder test rig' }).waitFor({ state: 'attached' });
+    await vehicle.evaluate((el: HTMLSelectElement) => el.dispatchEvent(new Event('change', { bubbles: true })));
+
+    expect(await vehicle.locator('option:checked').textContent()).toBe('Test truck');
+    for (const box of await page.getByRole('checkbox').all()) await box.check();
+    await page.getByRole('button', { name: 'Start session' }).click();
+    await page.waitForURL(/\/field\/sessions\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { name: 'Test truck' }).waitFor();
+    await context.close();
+  });
 });

@@ -60,7 +60,10 @@ export function StartSessionPage() {
         <label htmlFor="session-vehicle" className="field-label">
           Vehicle
         </label>
-        <select id="session-vehicle" className="input" required value={chosenGone ? '' : form.vehicleId} onChange={(e) => update({ vehicleId: e.target.value })}>
+        {/* Uncontrolled on purpose: a phone's picker shows a choice before it reports it, and a
+            controlled select re-drawn in between (the first sync bringing vehicles) was put back
+            to "Choose…". The select holds the choice; the draft follows its change events. */}
+        <select id="session-vehicle" className="input" required defaultValue="" onChange={(e) => update({ vehicleId: e.target.value })}>
           <option value="">Choose…</option>
           {vehicles.vehicles.map((v) => (
             <option key={v.id} value={v.id}>
