@@ -117,7 +117,8 @@ export function LengthInput(props: LengthInputProps) {
   };
 
   const refusedNow = state.kind === 'refused' && !(state.parse.unfinished && focused);
-  const held = props.valueMm == null ? 'nothing' : `${showLength(props.valueMm, props.unit)} ${props.unit}`;
+  // What the phone keeps while the field's text is not saved: the value from before this edit.
+  const held = editBase.current == null ? 'nothing' : `${showLength(editBase.current, props.unit)} ${props.unit}`;
   const messageId = `${id}-message`;
   const keyClass = 'btn min-h-touch min-w-touch shrink-0 px-0 text-2xl';
   const entry = (
@@ -183,7 +184,7 @@ export function LengthInput(props: LengthInputProps) {
       )}
       {state.kind === 'refused' && (
         <p id={messageId} role={refusedNow ? 'alert' : 'status'} className={`col-span-2 mt-1 text-sm ${refusedNow ? 'font-bold text-alert' : 'text-slate'}`}>
-          {state.parse.reason} {refusedNow && `Not saved: the phone keeps ${editBase.current == null ? 'nothing' : `${showLength(editBase.current, props.unit)} ${props.unit}`} here.`}
+          {state.parse.reason} {refusedNow && `Not saved: the phone keeps ${held} here.`}
         </p>
       )}
       {state.kind === 'doubtful' && (
