@@ -65,7 +65,8 @@ const poses = [
   { label: 'RL on 300 block', kind: 'wheels', fl: 0, fr: 0, rl: 300, rr: 0 },
   { label: 'Diagonal FL + RR 300', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 300 },
   { label: 'Diagonal FR + RL 300', kind: 'wheels', fl: 0, fr: 300, rl: 300, rr: 0 },
-  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500 },
+  // Front left 1500 mm up a 20° ramp: its lift is 1500 × sin 20° = 513.03 mm (shared/flex/ramp-lift.ts).
+  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500, rampWheel: 'fl' },
 ] as const;
 
 const id = (n: number, kind: string) => `0d3c5a10-0000-4000-8${kind}-${n.toString(16).padStart(12, '0')}`;
@@ -144,6 +145,7 @@ async function seedWorkshop(): Promise<boolean> {
             liftRrMm: p.rr,
             rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
             rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
+            rampWheel: 'rampWheel' in p ? p.rampWheel : null,
             recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000),
             createdBy: tester,
           },

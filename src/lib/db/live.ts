@@ -26,15 +26,37 @@ export function useLocalVehicle(id: string | undefined) {
   }, [id]);
 }
 
+/**
+ * The sessions on this phone, newest first, each with how many poses it has and how many of its
+ * records (the session, its poses and readings) and photos still wait to be sent.
+ */
 export function useLocalSessions() {
   return useLiveQuery(async () => {
     const checked = checkRows<TestSession>('testSession', await fieldDb.sessions.toArray());
     const vehicles = new Map((await fieldDb.vehicles.toArray()).map((v) => [v.id, v.name]));
-    const pending = new Set((await fieldDb.outbox.where('entity').equals('testSession').toArray()).map((e) => e.recordId));
+    const allPoses = await fieldDb.poses.toArray();
+    const poses = live(allPoses);
+    const sessionOfPose = new Map(allPoses.map((p) => [p.id, p.sessionId]));
+    const waiting = new Set((await fieldDb.outbox.toArray()).map((e) => `${e.entity}:${e.recordId}`));
+    const waitingReadings = await fieldDb.readings.bulkGet([...waiting].filter((k) => k.startsWith('reading:')).map((k) => k.slice('reading:'.length)));
+    const unsent = new Map<string, number>();
+    const count = (sessionId: string | undefined) => sessionId && unsent.set(sessionId, (unsent.get(sessionId) ?? 0) + 1);
+    for (const key of waiting) {
+      const [entity, id] = key.split(':');
+      if (entity === 'testSession') count(id);
+      else if (entity === 'pose') count(sessionOfPose.get(id));
+    }
+    for (const r of waitingReadings) if (r) count(sessionOfPose.get(r.poseId));
+    for (const p of await fieldDb.photos.where('status').equals('pending').toArray()) count(p.sessionId);
     return {
       sessions: live(checked.records)
         .sort((a, b) => b.testedOn.localeCompare(a.testedOn))
-        .map((s) => ({ ...s, vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)', pending: pending.has(s.id) })),
+        .map((s) => ({
+          ...s,
+          vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)',
+          poseCount: poses.filter((p) => p.sessionId === s.id).length,
+          unsent: unsent.get(s.id) ?? 0,
+        })),
       corrupt: checked.corrupt,
     };
   });

@@ -80,6 +80,33 @@ export async function saveRecord<T extends { id: string }>(entity: SyncEntity, r
   return result;
 }
 
+/**
+ * Merges `patch` into the stored record and queues it, read and written in one transaction over
+ * the record's table and the outbox: an edit never carries stale fields (or a stale version) from
+ * a screen's copy, so a phone does not conflict with its own accepted edits. The merged record is
+ * checked with the shared schema; a missing record or a bad value is a refusal naming the field.
+ */
+export function patchRecord(entity: SyncEntity, id: string, patch: Record<string, unknown>, db: FieldDb = fieldDb): Promise<ItemResult> {
+  return tracked(async () => {
+    let wrote = false;
+    try {
+      const result = await db.transaction('rw', tableOf(db, entity), db.outbox, async (): Promise<ItemResult> => {
+        const stored = await tableOf(db, entity).get(id);
+        if (!stored) return { id, ok: false, message: `${entity} ${id} is not on this phone`, fields: [{ field: 'id', message: 'not on this phone' }] };
+        const { valid, refused } = checkRecords(entity, [{ ...stored, ...patch, id }]);
+        if (!valid.length) return refused[0];
+        await putQueued(entity, valid, db);
+        wrote = true;
+        return { id, ok: true };
+      });
+      if (wrote) announceSaved();
+      return result;
+    } catch (err) {
+      return { id, ok: false, message: storageMessage(err), fields: [] };
+    }
+  });
+}
+
 /** Rows read back from storage, checked against the shared schema; corrupt ones are reported, not trusted. */
 export function checkRows<T extends { id: string }>(entity: SyncEntity, rows: unknown[]): Checked<T> {
   const out: Checked<T> = { records: [], corrupt: [] };
