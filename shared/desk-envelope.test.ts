@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { buildSyntheticSession } from './flex';
-import { computeDeskEnvelope, poseKeys, toEnvelopeInput, type DeskSessionData } from './desk-envelope';
-import { DEFAULT_DRAFT_PARAMS } from './schemas/envelope';
+import { buildSnapshot, computeDeskEnvelope, deskFlags, poseKeys, toEnvelopeInput, type DeskSessionData } from './desk-envelope';
+import { envelopeRows } from './envelope-rows';
+import { DEFAULT_DRAFT_PARAMS, type LegacyEnvelopeResult } from './schemas/envelope';
 
 function session(): DeskSessionData {
   const s = buildSyntheticSession({ poses: 4, gaugePoints: 6, mode: 'gap', nominalGapMm: 90, seed: 3 });
@@ -38,6 +39,61 @@ describe('desk envelope input', () => {
     const { boot, bootNote, result } = computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS);
     expect(boot).toBeNull();
     expect(bootNote).toMatch(/nominal fore-aft gap/);
-    expect(result.axes.lateral.envelopeMm).toBeGreaterThan(0);
+    expect(result.measures.lateral.envelopeMm).toBeGreaterThan(0);
+  });
+
+  it('names each flagged reading by its id, pose label and gauge point label', () => {
+    const data = session();
+    const bad = data.readings.findIndex((r) => r.poseId === 'pose-id-2' && r.gaugePointId === 'gp-P03' && r.axis === 'lateral');
+    data.readings[bad] = { ...data.readings[bad], valueMm: data.readings[bad].valueMm + 20 };
+    const flags = deskFlags(data, computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS).result);
+    expect(flags.map((f) => [f.readingId, f.poseLabel, f.pointLabel, f.flag.axis, f.flag.kind])).toEqual([[data.readings[bad].id, 'Diagonal', 'P03', 'lateral', 'outlier']]);
+    expect(f0(flags).enteredMm).toBe(data.readings[bad].valueMm);
+    // excluded, it is no longer in the computation, so no longer flagged
+    data.readings[bad] = { ...data.readings[bad], excluded: true, excludeReason: 'misread' };
+    expect(deskFlags(data, computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS).result)).toEqual([]);
+  });
+
+  it('freezes each flagged reading kept, with its acknowledgement, and refuses to freeze one without', () => {
+    const data = session();
+    const bad = data.readings.findIndex((r) => r.poseId === 'pose-id-3' && r.gaugePointId === 'gp-P05' && r.axis === 'vertical');
+    data.readings[bad] = { ...data.readings[bad], valueMm: data.readings[bad].valueMm - 18 };
+    const envelope = computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS);
+    const signature = { signedBy: { id: 'u', name: 'Engineer' }, signedAt: '2026-11-20T15:30:00.000Z', revision: 1 };
+    expect(() => buildSnapshot(data, DEFAULT_DRAFT_PARAMS, signature, envelope, new Map())).toThrowError(/has no acknowledgement/);
+    const snapshot = buildSnapshot(data, DEFAULT_DRAFT_PARAMS, signature, envelope, new Map([[data.readings[bad].id, 'checked twice']]));
+    expect(snapshot.format).toBe(2);
+    expect(snapshot.acknowledgedFlags).toEqual([
+      expect.objectContaining({ readingId: data.readings[bad].id, poseLabel: 'Diagonal', pointLabel: 'P05', axis: 'vertical', kind: 'outlier', note: 'checked twice' }),
+    ]);
+  });
+
+  it('prints the same rows for a format-1 snapshot (one fore-aft envelope) and a format-2 one (opening and closing apart)', () => {
+    const legacy: LegacyEnvelopeResult = {
+      axes: {
+        foreAft: { measuredWorstMm: -12, upperBoundMm: 14, governing: 'upperBound', envelopeMm: 30, reasons: ['a'] },
+        lateral: { measuredWorstMm: 80, upperBoundMm: null, governing: 'measured', envelopeMm: 105, reasons: ['b'] },
+        vertical: { measuredWorstMm: 9, upperBoundMm: 8, governing: 'measured', envelopeMm: 25, reasons: ['c'] },
+      },
+      notes: [],
+    };
+    expect(envelopeRows(legacy).map((r) => [r.key, r.sign, r.measuredWorstMm, r.governs, r.envelopeMm])).toEqual([
+      ['foreAft', '±', 12, 'upper bound', 30],
+      ['lateral', '±', 80, 'measured', 105],
+      ['vertical', '±', 9, 'measured', 25],
+    ]);
+    const rows = envelopeRows(computeDeskEnvelope(session(), { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 }).result);
+    expect(rows.map((r) => [r.key, r.sign])).toEqual([
+      ['foreAftOpening', '+'],
+      ['foreAftClosing', '−'],
+      ['lateral', '±'],
+      ['vertical', '±'],
+    ]);
+    expect(rows[2].governs).toMatch(/^upper bound, F[LR]–R[LR] twist/);
   });
 });
+
+function f0<T>(list: T[]): T {
+  expect(list.length).toBeGreaterThan(0);
+  return list[0];
+}

@@ -60,7 +60,7 @@ export function EnvelopePage() {
                     {formatLength(s.params.incrementMm, unit)} · {s.readings.length} readings used, {s.excludedReadings.length} excluded
                   </p>
                 </section>
-                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} />
+                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} acknowledgedFlags={s.format === 2 ? s.acknowledgedFlags : []} />
                 <p className="flex flex-wrap gap-2">
                   <a className="btn" href={`/api/envelopes/${e.id}/sheet.pdf?unit=${unit}`} download>
                     Fabrication sheet (PDF)
