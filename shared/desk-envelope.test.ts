@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildSyntheticSession } from './flex';
 import { buildSnapshot, computeDeskEnvelope, deskFlags, poseKeys, toEnvelopeInput, type DeskSessionData } from './desk-envelope';
-import { envelopeRows } from './envelope-rows';
-import { DEFAULT_DRAFT_PARAMS, type LegacyEnvelopeResult } from './schemas/envelope';
+import { DEFAULT_DRAFT_PARAMS } from './schemas/envelope';
 
 function session(): DeskSessionData {
   const s = buildSyntheticSession({ poses: 4, gaugePoints: 6, mode: 'gap', nominalGapMm: 90, seed: 3 });
@@ -66,30 +65,6 @@ describe('desk envelope input', () => {
     expect(snapshot.acknowledgedFlags).toEqual([
       expect.objectContaining({ readingId: data.readings[bad].id, poseLabel: 'Diagonal', pointLabel: 'P05', axis: 'vertical', kind: 'outlier', note: 'checked twice' }),
     ]);
-  });
-
-  it('prints the same rows for a format-1 snapshot (one fore-aft envelope) and a format-2 one (opening and closing apart)', () => {
-    const legacy: LegacyEnvelopeResult = {
-      axes: {
-        foreAft: { measuredWorstMm: -12, upperBoundMm: 14, governing: 'upperBound', envelopeMm: 30, reasons: ['a'] },
-        lateral: { measuredWorstMm: 80, upperBoundMm: null, governing: 'measured', envelopeMm: 105, reasons: ['b'] },
-        vertical: { measuredWorstMm: 9, upperBoundMm: 8, governing: 'measured', envelopeMm: 25, reasons: ['c'] },
-      },
-      notes: [],
-    };
-    expect(envelopeRows(legacy).map((r) => [r.key, r.sign, r.measuredWorstMm, r.governs, r.envelopeMm])).toEqual([
-      ['foreAft', '±', 12, 'upper bound', 30],
-      ['lateral', '±', 80, 'measured', 105],
-      ['vertical', '±', 9, 'measured', 25],
-    ]);
-    const rows = envelopeRows(computeDeskEnvelope(session(), { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 }).result);
-    expect(rows.map((r) => [r.key, r.sign])).toEqual([
-      ['foreAftOpening', '+'],
-      ['foreAftClosing', '−'],
-      ['lateral', '±'],
-      ['vertical', '±'],
-    ]);
-    expect(rows[2].governs).toMatch(/^upper bound, F[LR]–R[LR] twist/);
   });
 });
 

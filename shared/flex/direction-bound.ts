@@ -64,6 +64,12 @@ export interface BoundSettings {
 /** Poses twisted less than this (degrees) carry no usable slope: the reading resolution dominates. */
 export const MIN_FIT_TWIST_DEG = 1;
 
+function largest(xs: readonly number[]): number {
+  let most = 0;
+  for (const x of xs) if (x > most) most = x;
+  return most;
+}
+
 /**
  * The prediction method's bound for one direction.
  * @param direction which way the poses are twisted. @param xs twist magnitudes (degrees, ≥ MIN_FIT_TWIST_DEG).
@@ -72,7 +78,7 @@ export const MIN_FIT_TWIST_DEG = 1;
  * @example predictionDirectionBound('positive', [5, 10, 15], [45, 91, 134], settings).upperBoundMm // => about 185 at 20°
  */
 export function predictionDirectionBound(direction: TwistDirection, xs: number[], ys: number[], s: BoundSettings): DirectionBound {
-  const twistReachedDeg = xs.length === 0 ? 0 : Math.max(...xs);
+  const twistReachedDeg = largest(xs);
   const base = { direction, poseCount: xs.length, twistReachedDeg, fit: null, tolerance: null, projectedMm: null, upperBoundMm: null };
   const needed = s.throughOrigin ? 2 : 3;
   if (xs.length < needed) {
@@ -100,7 +106,7 @@ export function predictionDirectionBound(direction: TwistDirection, xs: number[]
  * @example toleranceDirectionBound('positive', [10, 10, 10.2], [90, 92, 91], 10, settings).tolerance?.n // => 3
  */
 export function toleranceDirectionBound(direction: TwistDirection, xs: number[], ys: number[], medianTwistDeg: number, s: BoundSettings): DirectionBound {
-  const twistReachedDeg = xs.length === 0 ? 0 : Math.max(...xs);
+  const twistReachedDeg = largest(xs);
   const base = { direction, poseCount: xs.length, twistReachedDeg, fit: null, tolerance: null, projectedMm: null, upperBoundMm: null };
   const n = xs.length;
   if (n < 2) return { ...base, unavailable: `needs at least 2 runs twisted this way by ${MIN_FIT_TWIST_DEG}° or more, has ${n}` };

@@ -120,6 +120,10 @@ export function requireDesignProbability(fn: string, field: string, value: numbe
   return value;
 }
 
+function isSmallRotation(w: unknown): boolean {
+  return typeof w === 'number' && Math.abs(w) <= MAX_ROTATION_RAD;
+}
+
 /**
  * A small-angle rigid motion: translations are lengths, rotations finite and within
  * ±MAX_ROTATION_RAD.
@@ -133,8 +137,7 @@ export function requireMotion(fn: string, field: string, motion: RigidMotion): R
   }
   const { t, omega } = motion;
   // The common case passes without building a field name; a failure is named below.
-  const small = (w: unknown): boolean => typeof w === 'number' && Math.abs(w) <= MAX_ROTATION_RAD;
-  if (isLength(t.x) && isLength(t.y) && isLength(t.z) && small(omega.x) && small(omega.y) && small(omega.z)) return motion;
+  if (isLength(t.x) && isLength(t.y) && isLength(t.z) && isSmallRotation(omega.x) && isSmallRotation(omega.y) && isSmallRotation(omega.z)) return motion;
   for (const k of ['x', 'y', 'z'] as const) {
     requireLength(fn, `${field}.t.${k}`, motion.t[k]);
     requireFinite(fn, `${field}.omega.${k}`, motion.omega[k]);

@@ -80,6 +80,7 @@ function partReason(kind: 'outOfPlane' | 'inPlane', core: PartCore, counts: { la
         return null;
     }
   }
+  if (core.limitation === null) return null;
   const missing: string[] = [];
   if (counts.lateral === 0) missing.push('no lateral readings: ty set to 0');
   if (counts.vertical === 0) missing.push('no vertical readings: tz set to 0');

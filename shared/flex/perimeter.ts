@@ -121,13 +121,6 @@ export function outlineCorners(outline: OpeningOutline): number[] {
   return [g.left, g.bottom, g.left, g.top, g.right, g.top, g.right, g.bottom];
 }
 
-/** Coefficients of one displacement component, value = c0 + cy·y + cz·z (see predictDisplacement). */
-function affine(motion: RigidMotion, axis: Axis): [number, number, number] {
-  const { t, omega } = motion;
-  if (axis === 'foreAft') return [t.x, -omega.z, omega.y];
-  if (axis === 'lateral') return [t.y, 0, -omega.x];
-  return [t.z, omega.x, 0];
-}
 
 /** The point of the outline that is farthest in the direction (dy, dz), with the value there. */
 function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz: number): OutlineValue {
@@ -174,12 +167,13 @@ export function perimeterWorst(motion: RigidMotion, outline: OpeningOutline): Pe
   validateOutline('perimeterWorst', outline);
   requireMotion('perimeterWorst', 'motion', motion);
   const g = geometry(outline);
-  const result = {} as PerimeterWorst;
-  for (const axis of ['foreAft', 'lateral', 'vertical'] as const) {
-    const [c0, cy, cz] = affine(motion, axis);
-    result[axis] = extremesOf(g, c0, cy, cz);
-  }
-  return result;
+  const { t, omega } = motion;
+  // Each component is c0 + cy·y + cz·z (see predictDisplacement).
+  return {
+    foreAft: extremesOf(g, t.x, -omega.z, omega.y),
+    lateral: extremesOf(g, t.y, 0, -omega.x),
+    vertical: extremesOf(g, t.z, omega.x, 0),
+  };
 }
 
 /** Most points sampleOutline will return; keeps a tiny step from exhausting memory. */
