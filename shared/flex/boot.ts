@@ -1,5 +1,5 @@
 /**
- * Boot and seal check per side of the opening (brief step 8).
+ * Boot and seal check per side of the opening (docs/method.md §7).
  *
  * For every state (the rest state plus each given motion) and every outline point of a side, the boot
  * spans the 3D distance between its cab and body attachment lines:

@@ -20,7 +20,7 @@ describe('predictionDirectionBound', () => {
     const mean = r.reduce((a, b) => a + b, 0) / 3;
     const sd = Math.sqrt(r.reduce((a, v) => a + (v - mean) ** 2, 0) / 2);
     expect(bound.projectedMm).toBeCloseTo(20 * mean, 10);
-    // Montgomery, Peck & Vining §5.5 (weights 1/x²): 20·(r̄ + t(0.95, 2)·s·√(1 + 1/3))
+    // Montgomery, Peck & Vining (5th ed.), ch. 5, weighted least squares (weights 1/x²): 20·(r̄ + t(0.95, 2)·s·√(1 + 1/3))
     expect(bound.upperBoundMm).toBeCloseTo(20 * (mean + studentTQuantile(0.95, 2) * sd * Math.sqrt(4 / 3)), 10);
     expect(bound.twistReachedDeg).toBe(15);
     expect(bound.fit?.scatter).toBe('proportional');

@@ -12,8 +12,9 @@
  *   runs' median twist (otherwise they are not repeats, and the caller refuses); each run is scaled
  *   to the design twist in proportion (y·D/x, the same no-twist-no-motion model) and the bound is
  *   the one-sided normal tolerance bound mean + k1·s (coverage p, confidence gamma).
- * Source: Montgomery, Peck & Vining, Introduction to Linear Regression Analysis (5th ed.), §2.11 and
- * §5.5; NIST/SEMATECH e-Handbook of Statistical Methods §4.4.5.2 and §7.2.6.3.
+ * Source: docs/method.md §5; Montgomery, Peck & Vining, Introduction to Linear Regression Analysis
+ * (5th ed.), ch. 2 (prediction of new observations; regression through the origin) and ch. 5
+ * (weighted least squares); NIST/SEMATECH e-Handbook of Statistical Methods §4.4.5.2 and §7.2.6.3.
  */
 import { linearFit } from './linear-fit';
 import { upperPredictionBoundAt, type LinearFitSummary } from './prediction-bound';

@@ -112,7 +112,7 @@ describe('designEnvelope', () => {
       const n = ratios.length;
       const mean = ratios.reduce((a, b) => a + b, 0) / n;
       const sd = Math.sqrt(ratios.reduce((a, r) => a + (r - mean) ** 2, 0) / (n - 1));
-      // Montgomery, Peck & Vining §5.5 with weights 1/x²: the one-sample prediction bound of the ratios, × D
+      // Montgomery, Peck & Vining (5th ed.), ch. 5, weighted least squares with weights 1/x²: the one-sample prediction bound of the ratios, × D
       expect(lateral.directions[direction].upperBoundMm).toBeCloseTo(25 * (mean + studentTQuantile(0.95, n - 1) * sd * Math.sqrt(1 + 1 / n)), 9);
       expect(lateral.directions[direction].projectedMm).toBeCloseTo(25 * mean, 9);
     }

@@ -20,7 +20,7 @@
  *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
  * 5. Envelope = max(measured worst, governing upper bound) × (1 + margin) + allowance, rounded up
  *    to the fabrication increment; `governing` and `reasons` say which term decided and why.
- * Source: docs/method.md; Montgomery, Peck & Vining (5th ed.) §4.2.1 and §5.5; NIST/SEMATECH
+ * Source: docs/method.md; Montgomery, Peck & Vining (5th ed.) §4.2.1 and ch. 5; NIST/SEMATECH
  * e-Handbook §4.4.5.2 and §7.2.6.3. Complexity O(poses × readings), on flat arrays.
  */
 import {

@@ -64,6 +64,7 @@ export function requireFinite(fn: string, field: string, value: number): number 
 
 /**
  * A length in mm: finite and within ±MAX_ABS_MM.
+ * @param fn function name for the error. @param field field path for the error. @param value the number to check.
  * @returns value. @example requireLength('f', 'gap', 60) // => 60
  */
 export function requireLength(fn: string, field: string, value: number): number {
@@ -76,6 +77,7 @@ export function requireLength(fn: string, field: string, value: number): number 
 
 /**
  * A length in mm greater than 0.
+ * @param fn function name for the error. @param field field path for the error. @param value the number to check.
  * @returns value. @example requirePositiveLength('f', 'track', 1900) // => 1900
  */
 export function requirePositiveLength(fn: string, field: string, value: number): number {
@@ -86,6 +88,7 @@ export function requirePositiveLength(fn: string, field: string, value: number):
 
 /**
  * A finite number ≥ 0.
+ * @param fn function name for the error. @param field field path for the error. @param value the number to check.
  * @returns value. @example requireNonNegative('f', 'margin', 0.15) // => 0.15
  */
 export function requireNonNegative(fn: string, field: string, value: number): number {
@@ -97,6 +100,7 @@ export function requireNonNegative(fn: string, field: string, value: number): nu
 /**
  * A probability for a quantile. Values closer than 1e-10 to 0 or 1 have no use in design and
  * would push the quantile searches towards infinity.
+ * @param fn function name for the error. @param field field path for the error. @param value the probability.
  * @returns value. @example requireProbability('f', 'p', 0.975) // => 0.975
  */
 export function requireProbability(fn: string, field: string, value: number): number {
@@ -110,6 +114,7 @@ export function requireProbability(fn: string, field: string, value: number): nu
 /**
  * A confidence or coverage of a design bound: at least 0.5 and below 1. Below 0.5 a "bound" would
  * sit under the expected value (a negative tolerance factor), which no design can use.
+ * @param fn function name for the error. @param field field path for the error. @param value the probability.
  * @returns value. @example requireDesignProbability('f', 'confidence', 0.95) // => 0.95
  */
 export function requireDesignProbability(fn: string, field: string, value: number): number {

@@ -9,7 +9,11 @@
  * where plain bisection takes about 45; without a derivative it bisects, which cannot diverge.
  * Source: Press et al., Numerical Recipes (3rd ed.), §9.1 (bracketing and bisection) and §9.4
  * (Newton–Raphson with bisection safeguard, "rtsafe").
- *
+ */
+const RELATIVE_TOLERANCE = 1e-13;
+const MAX_EVALUATIONS = 2000;
+
+/**
  * @param f the increasing function.
  * @param target the value f must reach.
  * @param start a first guess of the root.
@@ -18,9 +22,6 @@
  * @returns x with f(x) = target to about 1e-13 relative in x.
  * @example invertIncreasing((x) => x * x * x, 8, 1, 1, (x) => 3 * x * x) // => 2
  */
-const RELATIVE_TOLERANCE = 1e-13;
-const MAX_EVALUATIONS = 2000;
-
 export function invertIncreasing(
   f: (x: number) => number,
   target: number,

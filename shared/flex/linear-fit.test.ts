@@ -91,7 +91,7 @@ describe('linearFit', () => {
     const fit = linearFit(xs, ys, { scatter: 'proportional' });
     const r = ys.map((y, i) => y / xs[i]);
     const mean = r.reduce((a, b) => a + b, 0) / 5;
-    // Montgomery, Peck & Vining §5.5: dividing y = βx + ε, Var ε ∝ x², by x gives y/x = β + ε/x with constant variance
+    // Montgomery, Peck & Vining (5th ed.), ch. 5, weighted least squares: dividing y = βx + ε, Var ε ∝ x², by x gives y/x = β + ε/x with constant variance
     expect(fit.slope).toBeCloseTo(mean, 12);
     expect(fit.residualSd).toBeCloseTo(Math.sqrt(r.reduce((a, v) => a + (v - mean) ** 2, 0) / 4), 12);
     expect(fit.df).toBe(4);

@@ -15,8 +15,9 @@
  * With proportional scatter through the origin this is x·(r̄ + t·s_r·√(1 + 1/n)), the one-sample
  * prediction bound of the ratios rᵢ = yᵢ/xᵢ. R² = 1 − Σwe² / Σw(y − ȳ_w)² (uncentred, Σwy², without
  * intercept); 1 when the data have no spread at all.
- * Source: Montgomery, Peck & Vining, Introduction to Linear Regression Analysis (5th ed.), §2.5
- * (prediction interval), §2.11 (regression through the origin) and §5.5 (weighted least squares);
+ * Source: docs/method.md §5; Montgomery, Peck & Vining, Introduction to Linear Regression Analysis
+ * (5th ed.), ch. 2 (prediction of new observations; regression through the origin) and ch. 5
+ * (generalized and weighted least squares);
  * Draper & Smith, Applied Regression Analysis (3rd ed.), §1.4, §3.1 and ch. 9 (generalized and
  * weighted least squares); NIST/SEMATECH e-Handbook §4.4.5.2 (weighting for non-constant scatter).
  * Complexity O(n).

@@ -15,7 +15,7 @@
  * t ≈ delta + z_p·√(1 + delta²/(2·df)); 4–6 steps. Complexity: 128 normal CDF (and density)
  * evaluations per CDF value (288 with the graded panels).
  * Source: Johnson, Kotz & Balakrishnan, Continuous Univariate Distributions vol. 2 (2nd ed.), ch. 31
- * (definition, and the normal approximation §31.6); Gauss–Legendre nodes by Newton's method on the
+ * (definition, and its normal approximation); Gauss–Legendre nodes by Newton's method on the
  * Legendre polynomials, Numerical Recipes (3rd ed.), §4.6.
  */
 import { FlexInputError, requireFinite, requireProbability } from './errors';

@@ -30,7 +30,7 @@ describe('judgeOutliers', () => {
       expect(b.score[i]).toBeCloseTo(expected, 12);
     }
     expect(judgement.flagged).toEqual([0]);
-    // 6 readings judged: z(1 − 0.01/12) (Bonferroni, Montgomery, Peck & Vining §6.2)
+    // 6 readings judged: z(1 − 0.01/12) (Bonferroni outlier test, Kutner, Nachtsheim, Neter & Li §10.2)
     expect(judgement.outOfPlane.limit).toBeCloseTo(normalQuantile(1 - 0.01 / 12), 12);
     expect(judgement.outOfPlane.check).toBe('checked');
   });

@@ -16,8 +16,8 @@
  *   together: 'misfitOnly', with `misfit` when |e|/√(1 − h) > limit·σ_floor.
  * - ν = 0: nothing to judge ('skipped').
  * Source: Montgomery, Peck & Vining, Introduction to Linear Regression Analysis (5th ed.), §4.2.1
- * (R-student, s₍ᵢ₎) and §6.2 (outlier tests with a Bonferroni limit); Belsley, Kuh & Welsch,
- * Regression Diagnostics (1980), §2.1.
+ * (PRESS residuals, R-student, s₍ᵢ₎); Kutner, Nachtsheim, Neter & Li, Applied Linear Statistical
+ * Models (5th ed.), §10.2 (studentized deleted residuals, Bonferroni outlier test).
  */
 import type { PoseBuffer, PoseFitCore } from './pose-fit';
 

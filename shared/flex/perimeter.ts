@@ -76,6 +76,7 @@ interface Geometry {
 /**
  * Checks an opening outline.
  * @param fn the calling function's name, for the error. @param outline the outline to check.
+ * @returns nothing; throws FlexInputError naming the bad field.
  * @example validateOutline('designEnvelope', { width: 700, height: 900, cornerRadius: 80 }) // no error
  */
 export function validateOutline(fn: string, outline: OpeningOutline): void {

@@ -64,9 +64,9 @@ describe('fitPoseParts', () => {
         const n = points.length;
         const ssr = values.reduce((s, v, i) => s + (v - ref.beta.reduce((t, bj, j) => t + bj * rows[i][j], 0)) ** 2, 0);
         for (let i = 0; i < n; i++) {
-          // Montgomery, Peck & Vining §3.2: h_ii = x_iᵀ(XᵀX)⁻¹x_i
+          // Montgomery, Peck & Vining (5th ed.), ch. 3, the hat matrix: h_ii = x_iᵀ(XᵀX)⁻¹x_i
           expectClose(b.leverage[i], quad(ref.inverse, rows[i]), 1e-7);
-          // leave-one-out by brute force: refit without reading i (MPV §4.2.1: s₍ᵢ₎ is the SD of that refit)
+          // leave-one-out by brute force: refit without reading i (Montgomery, Peck & Vining §4.2.1: s₍ᵢ₎ is the SD of that refit)
           const others = rows.filter((_, k) => k !== i);
           const left = referenceFit(others, values.filter((_, k) => k !== i));
           const ssrLeft = others.reduce((s, r, k) => s + (values.filter((_, m) => m !== i)[k] - left.beta.reduce((t, bj, j) => t + bj * r[j], 0)) ** 2, 0);

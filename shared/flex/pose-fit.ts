@@ -20,9 +20,9 @@
  * s₍ᵢ₎² = (SSR − eᵢ²/(1 − hᵢ)) / (n − p − 1).
  * Per part: the unscaled covariance (XᵀX)⁻¹ of the motion parameters, so the fit's uncertainty can
  * be carried to any point of the outline: SD of the prediction = σ·√(gᵀ(XᵀX)⁻¹g).
- * Source: Montgomery, Peck & Vining, Introduction to Linear Regression Analysis (5th ed.), §3.2
- * (least squares, hat matrix), §3.5 (prediction variance) and §4.2.1 (scaled residuals, PRESS and
- * R-student, s₍ᵢ₎); Golub & Van Loan, Matrix Computations (4th ed.), §5.3. Complexity O(readings).
+ * Source: docs/method.md §2; Montgomery, Peck & Vining, Introduction to Linear Regression Analysis
+ * (5th ed.), ch. 3 (least squares, the hat matrix, prediction variance) and §4.2.1 (scaled residuals,
+ * PRESS and R-student, s₍ᵢ₎). Complexity O(readings).
  */
 import type { FitPartStatus } from './types';
 
@@ -47,7 +47,11 @@ export interface PoseBuffer {
   score: Float64Array;
 }
 
-/** A buffer for one pose of `count` readings, starting at 0. */
+/**
+ * A buffer for one pose of `count` readings, starting at 0.
+ * @param count the number of readings. @returns empty parallel arrays of that length.
+ * @example poseBuffer(18).value.length // => 18
+ */
 export function poseBuffer(count: number): PoseBuffer {
   return {
     start: 0,

@@ -10,7 +10,7 @@ describe('upperPredictionBoundAt', () => {
     const xs = [1, 2, 3, 4, 5];
     const mean = 3;
     const sxx = xs.reduce((s, x) => s + (x - mean) ** 2, 0);
-    // Montgomery, Peck & Vining §2.5: ŷ(x₀) ± t·s·√(1 + 1/n + (x₀ − x̄)²/Sxx)
+    // Montgomery, Peck & Vining (5th ed.), ch. 2, prediction of new observations: ŷ(x₀) ± t·s·√(1 + 1/n + (x₀ − x̄)²/Sxx)
     const expected = fit.intercept + fit.slope * 8 + studentTQuantile(0.95, 3) * fit.residualSd * Math.sqrt(1 + 1 / 5 + (8 - mean) ** 2 / sxx);
     expect(upperPredictionBoundAt(fit, 8, 0.95)).toBeCloseTo(expected, 12);
     expect(predictionLeverage(fit, 8)).toBeCloseTo(1 / 5 + 25 / sxx, 12);
@@ -23,7 +23,7 @@ describe('upperPredictionBoundAt', () => {
     const r = ys.map((y, i) => y / xs[i]);
     const mean = r.reduce((a, b) => a + b, 0) / 4;
     const sd = Math.sqrt(r.reduce((a, v) => a + (v - mean) ** 2, 0) / 3);
-    // MPV §5.5 with weights 1/x²: Var(new − ŷ) = σ²·(x₀² + x₀²/Σ(1/x²·x²)) = σ²x₀²(1 + 1/n)
+    // Montgomery, Peck & Vining (5th ed.), ch. 5, weighted least squares with weights 1/x²: Var(new − ŷ) = σ²·(x₀² + x₀²/Σ(1/x²·x²)) = σ²x₀²(1 + 1/n)
     expect(upperPredictionBoundAt(fit, 30, 0.95)).toBeCloseTo(30 * (mean + studentTQuantile(0.95, 3) * sd * Math.sqrt(1 + 1 / 4)), 10);
     expect(upperPredictionBoundAt(fit, 30, 0.95, 2)).toBeCloseTo(30 * (mean + 2 * sd * Math.sqrt(1 + 1 / 4)), 10);
   });

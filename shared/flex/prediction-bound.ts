@@ -5,8 +5,8 @@
  * Formula (see linearFit): q(x) = x² / Σwx² through the origin, 1/Σw + (x − x̄_w)² / S with an
  * intercept; bound(x) = ŷ(x) + t(confidence, df) · s · √(1/w(x) + q(x)), w(x) = 1 for constant
  * scatter and 1/x² for scatter proportional to x.
- * Source: Montgomery, Peck & Vining, Introduction to Linear Regression Analysis (5th ed.), §2.5 and
- * §5.5; Draper & Smith, Applied Regression Analysis (3rd ed.), §3.1 and ch. 9.
+ * Source: docs/method.md §5; Montgomery, Peck & Vining, Introduction to Linear Regression Analysis
+ * (5th ed.), ch. 2 (prediction of new observations) and ch. 5 (weighted least squares).
  */
 import { FlexInputError, requireFinite } from './errors';
 import { studentTQuantile } from './student-t';

@@ -156,7 +156,7 @@ describe('fitRelativeMotion', () => {
 
   it('carries the fit uncertainty to the outline: the covariance gives the textbook prediction variance', () => {
     const fit = fitRelativeMotion(six, readingsOf(motion, six, ['foreAft']), outline);
-    // Montgomery, Peck & Vining §3.5: Var ŷ(x₀) = σ²·x₀ᵀ(XᵀX)⁻¹x₀; at a gauge point that is its leverage,
+    // Montgomery, Peck & Vining (5th ed.), ch. 3, prediction of new observations: Var ŷ(x₀) = σ²·x₀ᵀ(XᵀX)⁻¹x₀; at a gauge point that is its leverage,
     // here 1/6 + (z − z̄)²/Σ(z − z̄)² + y²/Σy² = 7/12 at a (hand-checked)
     const c = fit.outOfPlane.covariance;
     const g = [1, 1470, -320];

@@ -15,8 +15,8 @@
  * Outliers: each reading's deleted residual judged against the reading SD (judgeOutliers), with a
  * Bonferroni limit z(1 − α/(2T)) over the T readings judged, α = 1 %. A part needs 2 more readings
  * than parameters to single out a misread; with 1 more it is judged as a whole ('misfitOnly').
- * Source: small-rotation rigid-body kinematics; least squares: Montgomery, Peck & Vining (5th ed.)
- * §3.2; outliers: the same, §4.2.1. Complexity O(readings).
+ * Source: docs/method.md §2–§3; small-rotation rigid-body kinematics; least squares: Montgomery,
+ * Peck & Vining (5th ed.), ch. 3; outliers: the same, §4.2.1. Complexity O(readings).
  */
 import { FlexInputError, requireFinite, requireLength } from './errors';
 import { packFit, type RelativeMotionFit } from './fit-summary';

@@ -22,7 +22,7 @@ function expectTableValue(p: number, df: number, printed: number): void {
 }
 
 describe('studentTQuantile', () => {
-  it('matches the NIST/SEMATECH t table given in the check sheet', () => {
+  it('matches the NIST/SEMATECH t table of upper critical values', () => {
     // NIST/SEMATECH e-Handbook, upper critical values of the t distribution: df 10 → 2.2281, 1.8125
     expect(studentTQuantile(0.975, 10)).toBeCloseTo(2.2281, 4);
     expect(studentTQuantile(0.95, 10)).toBeCloseTo(1.8125, 4);
@@ -34,7 +34,7 @@ describe('studentTQuantile', () => {
   it('matches further t table values, each checked by numerical integration of the density', () => {
     // Upper critical values as printed in t tables (NIST/SEMATECH e-Handbook §1.3.6.7.2), quoted from
     // memory; reproducible with scipy.stats.t.ppf(p, df) or R qt(p, df). df 1 and 2 have closed forms:
-    // tan(π(p − ½)) and (2p − 1)/√(2p(1 − p)) (A&S 26.7.2–26.7.3).
+    // tan(π(p − ½)) and (2p − 1)/√(2p(1 − p)).
     expect(studentTQuantile(0.95, 1)).toBeCloseTo(Math.tan(Math.PI * 0.45), 9);
     expect(studentTQuantile(0.995, 1)).toBeCloseTo(Math.tan(Math.PI * 0.495), 8);
     expect(studentTQuantile(0.95, 2)).toBeCloseTo(0.9 / Math.sqrt(2 * 0.95 * 0.05), 9);

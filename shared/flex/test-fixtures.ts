@@ -15,7 +15,12 @@ export const SIX_POINTS: GaugeLocation[] = [
   { id: 'f', y: 320, z: 1050 },
 ];
 
-/** The readings a rigid motion gives at the points, without noise, per point in axis order. */
+/**
+ * The readings a rigid motion gives at the points, without noise, per point in axis order.
+ * @param motion the motion. @param points where to read. @param axes which axes (default all three).
+ * @returns the readings.
+ * @example readingsAt(still, SIX_POINTS).length // => 18
+ */
 export function readingsAt(motion: RigidMotion, points: GaugeLocation[], axes: Axis[] = ['foreAft', 'lateral', 'vertical']): GaugeValue[] {
   const readings: GaugeValue[] = [];
   for (const p of points) {
@@ -29,6 +34,9 @@ export function readingsAt(motion: RigidMotion, points: GaugeLocation[], axes: A
 /**
  * Composite Simpson rule on [a, b] with `panels` (even) panels: the independent numerical integration
  * the distribution tests check published and library values with (Abramowitz & Stegun 25.4.5).
+ * @param f the integrand. @param a from. @param b to. @param panels an even number of panels (default 2000).
+ * @returns the integral's approximation.
+ * @example simpson((x) => x * x, 0, 3) // => 9
  */
 export function simpson(f: (x: number) => number, a: number, b: number, panels = 2000): number {
   const h = (b - a) / panels;
@@ -42,6 +50,9 @@ export function simpson(f: (x: number) => number, a: number, b: number, panels =
  * holds when Z ≤ −δ, or else when χ²_df ≥ df·((Z + δ)/t)², so
  *   P = Φ(−δ) + ∫_{−δ}^{∞} φ(z)·Q(df/2, df·(z + δ)²/(2t²)) dz,
  * integrated over z by Simpson (Johnson, Kotz & Balakrishnan vol. 2, ch. 31, definition).
+ * @param t > 0. @param df degrees of freedom. @param delta noncentrality.
+ * @returns P(T' ≤ t).
+ * @example noncentralTCdfByZ(2, 10, 0) // => 0.963306 (Student t)
  */
 export function noncentralTCdfByZ(t: number, df: number, delta: number): number {
   const phi = (z: number) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
