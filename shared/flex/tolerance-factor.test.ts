@@ -51,6 +51,13 @@ describe('oneSidedToleranceFactor', () => {
     }
   });
 
+  it('stays exact in the far corner: n = 2, p = 0.95, gamma = 0.99 (k1 about 131)', () => {
+    const n = 2;
+    const k1 = oneSidedToleranceFactor(n, 0.95, 0.99);
+    // its confidence by the independent integration over Z and the chi-square tail
+    expect(Math.abs(noncentralTCdfByZ(k1 * Math.sqrt(n), n - 1, normalQuantile(0.95) * Math.sqrt(n)) - 0.99)).toBeLessThan(1e-10);
+  });
+
   it('approaches z_p as n grows and exceeds it for every finite n', () => {
     // Natrella's approximation becomes exact as n grows (NBS Handbook 91); with a known mean and SD
     // the bound is m + z_p·s, z(0.90) = 1.2816 (normalQuantile, checked by integration in normal.test.ts)
