@@ -41,7 +41,7 @@ import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './out
 import { outlineCorners, perimeterWorst, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
 import { fitPoseParts, poseBuffer, type PoseBuffer, type PoseFitCore } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
-import { MAD_EFFICIENCY, residualScale } from './robust-scale';
+import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
 import { studentTQuantile } from './student-t';
 import { oneSidedToleranceFactor } from './tolerance-factor';
@@ -405,7 +405,7 @@ function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[], part: FitPart
     }
   }
   if (n < MIN_SCALE_RESIDUALS) return { scaleMm: null, df: 0 };
-  return { scaleMm: residualScale(values.subarray(0, n)), df: MAD_EFFICIENCY * redundancy };
+  return { scaleMm: residualScaleInPlace(values.subarray(0, n)), df: MAD_EFFICIENCY * redundancy };
 }
 
 /** The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if larger; null without readings. */
@@ -473,6 +473,7 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
   }
 
   const flags: EnvelopeFlag[] = [];
+  const limitFor = (tests: number, part: FitPartName): number => limits[part](tests);
   const poses = input.poses.map((pose, i): PoseResult => {
     const core = cores[i];
     const isBaseline = i === s.baselineIndex;
@@ -498,7 +499,7 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
     }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
-    const judgement = judgeOutliers(flat.buffer, core, scatterMm, (tests, part) => limits[part](tests));
+    const judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor);
     const readings = pose.readings;
     const fit = packFit(flat.buffer, core, judgement, (k) => {
       const index = flat.inputIndex[k];

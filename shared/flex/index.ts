@@ -28,7 +28,7 @@ export { studentTCdf, studentTQuantile } from './student-t';
 export { normalCdf, normalDensity, normalQuantile } from './normal';
 export { noncentralTCdf, noncentralTQuantile } from './noncentral-t';
 export { natrellaToleranceFactor, oneSidedToleranceFactor } from './tolerance-factor';
-export { residualScale } from './robust-scale';
+export { residualScale, residualScaleInPlace } from './robust-scale';
 export { roundUpToIncrement } from './round-up';
 export { MIN_FIT_TWIST_DEG } from './direction-bound';
 export type { DirectionBound, ToleranceSummary, TwistDirection } from './direction-bound';

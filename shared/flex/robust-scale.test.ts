@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { MAD_TO_SD, residualScale } from './robust-scale';
+import { MAD_TO_SD, residualScale, residualScaleInPlace } from './robust-scale';
 import { normalQuantile } from './normal';
 import { seededNormal } from './synthetic-session';
 import { FlexInputError } from './errors';
@@ -36,6 +36,12 @@ describe('residualScale', () => {
         expect(residualScale(values)).toBeCloseTo(MAD_TO_SD * sortedMedianAbs(values), 9);
       }),
     );
+  });
+
+  it('in place: the same value, on the caller\'s array', () => {
+    const values = Float64Array.of(4, -1, 3, -2, 9);
+    expect(residualScaleInPlace(values)).toBeCloseTo(residualScale([4, -1, 3, -2, 9]), 15);
+    expect(() => residualScaleInPlace(new Float64Array(0))).toThrowError(/residualScaleInPlace: values/);
   });
 
   it('throws FlexInputError for no residuals or a NaN', () => {
