@@ -243,7 +243,7 @@ describe('designEnvelope', () => {
     console.log(`designEnvelope, 6 poses × 6 points: 10 mm misread caught in ${((100 * caught) / sessions).toFixed(1)} % of ${sessions} sessions; ${((100 * falseFlags) / noisePoses).toFixed(2)} % of ${noisePoses} noise-only poses flagged`);
     expect(caught / sessions).toBeGreaterThanOrEqual(0.95);
     expect(falseFlags / noisePoses).toBeLessThanOrEqual(0.01);
-  });
+  }, 60_000);
 
   it('judges outliers against the session scatter when the readings scatter more than a tape is read to', () => {
     const input = sessionInput({ seed: 12, poses: 12, noiseSdMm: 2 }, { designTwistDeg: 20 });

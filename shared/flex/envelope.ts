@@ -196,7 +196,6 @@ const FAR_EXTRAPOLATION = 1.5;
 const BASELINE_TWIST_NOTE_DEG = 0.5;
 /** Fewest standardized residuals for a session scatter estimate (fewer: the reading SD alone). */
 const MIN_SCALE_RESIDUALS = 10;
-const AXIS_CODE: Record<Axis, number> = { foreAft: 0, lateral: 1, vertical: 2 };
 const AXIS_OF_CODE: readonly Axis[] = ['foreAft', 'lateral', 'vertical'];
 const PART_NAMES: Record<FitPartName, string> = { outOfPlane: 'fore-aft', inPlane: 'lateral and vertical' };
 
@@ -322,15 +321,19 @@ interface Flat {
  * Scratch arrays for the flat readings, kept between calls and grown when a session needs more:
  * allocating ten large typed arrays per call cost more than the arithmetic. Safe because
  * designEnvelope runs to completion synchronously, and nothing in its result points into them.
+ * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
+ * tens of megabytes alive in a long-running server or tab.
  */
-let scratch: { buffer: PoseBuffer; inputIndex: Int32Array; scatter: Float64Array } | null = null;
+type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; scatter: Float64Array };
+let scratch: Scratch | null = null;
+const KEPT_SCRATCH = 1 << 16;
 
-function scratchFor(total: number): NonNullable<typeof scratch> {
-  if (scratch === null || scratch.inputIndex.length < total) {
-    const size = Math.max(total, 1024);
-    scratch = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), scatter: new Float64Array(size) };
-  }
-  return scratch;
+function scratchFor(total: number): Scratch {
+  if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
+  const size = Math.max(total, 1024);
+  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), scatter: new Float64Array(size) };
+  if (size <= KEPT_SCRATCH) scratch = fresh;
+  return fresh;
 }
 
 function flatten(input: EnvelopeInput, s: Session): Flat {

@@ -134,7 +134,7 @@ describe('fitRelativeMotion', () => {
     expect(all / trials).toBeGreaterThanOrEqual(0.95);
     for (const axis of ['foreAft', 'lateral', 'vertical'] as const) expect(caught[axis][0] / caught[axis][1]).toBeGreaterThanOrEqual(0.95);
     expect(falseFlags / trials).toBeLessThanOrEqual(0.01);
-  });
+  }, 60_000);
 
   it('keeps only the translation when the points cover a 30 mm patch of the opening, and says why', () => {
     // A ±0.5 mm tape on a true 2 mm at three points 30 mm apart: fitting rotations would carry the
