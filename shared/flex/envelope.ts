@@ -470,7 +470,7 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
     };
     if (estimated) {
       notes.push(
-        `the ${PART_NAMES[part]} readings scatter about their fits by ${mm(scaleMm)} (robust SD), more than the ${READING_SD_MM} mm a gauge is read to: outliers are judged against ${mm(scaleMm)}`,
+        `the ${PART_NAMES[part]} readings scatter about their fits by ${scaleMm.toFixed(2)} mm (robust SD), more than the ${READING_SD_MM} mm a gauge is read to: outliers are judged against ${scaleMm.toFixed(2)} mm`,
       );
     }
   }
@@ -669,24 +669,24 @@ function measureEnvelope(
         : `measured worst ${mm(measured)} (${worstPose}) is at or above the ${from}`,
     );
   }
-  for (const direction of TWIST_DIRECTIONS) {
-    if (direction === governingDirection) continue;
-    const bound = directions[direction];
-    reasons.push(
-      bound.upperBoundMm === null
-        ? `${directionName(direction)}: no bound: ${bound.unavailable}`
-        : `${directionName(direction)}: bound ${mm(bound.upperBoundMm)}, lower`,
-    );
-  }
-  if (fitUncertaintyMm !== null && fitUncertaintyMm > 0) {
-    reasons.push(`the fit is uncertain by up to ±${mm(fitUncertaintyMm)} (1 SD) at the opening's edge in a pose; the bound's scatter includes it`);
-  }
   const withMarginMm = baseMm * (1 + p.margin);
   const withAllowanceMm = withMarginMm + p.allowanceMm;
   const envelopeMm = roundUpToIncrement(withAllowanceMm, p.incrementMm);
   reasons.push(`× (1 + margin ${p.margin}) = ${mm(withMarginMm)}`);
   reasons.push(`+ allowance ${mm(p.allowanceMm)} = ${mm(withAllowanceMm)}`);
-  reasons.push(`rounded up to the ${p.incrementMm} mm increment: ${envelopeMm} mm`);
+  reasons.push(`rounded up to the ${p.incrementMm} mm increment: ${envelopeMm} mm.`);
+  for (const direction of TWIST_DIRECTIONS) {
+    if (direction === governingDirection) continue;
+    const bound = directions[direction];
+    reasons.push(
+      bound.upperBoundMm === null
+        ? `${directionName(direction)}: no bound, ${bound.unavailable}.`
+        : `${directionName(direction)}: bound ${mm(bound.upperBoundMm)}, lower.`,
+    );
+  }
+  if (fitUncertaintyMm !== null && fitUncertaintyMm > 0) {
+    reasons.push(`The fit is uncertain by up to ±${mm(fitUncertaintyMm)} (1 SD) at the opening's edge in a pose; the bound's scatter includes it.`);
+  }
 
   return {
     measure,
