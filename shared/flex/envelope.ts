@@ -38,7 +38,7 @@ import { packFit, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
 import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
-import { outlineCorners, perimeterWorst, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
+import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
 import { fitPoseParts, poseBuffer, type PoseBuffer, type PoseFitCore } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
@@ -445,6 +445,7 @@ function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<Env
 function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
   const flat = flatten(input, s);
   const corners = outlineCorners(input.outline);
+  const worstOf = perimeterWorstOn(input.outline);
   const cores: (PoseFitCore | null)[] = input.poses.map((_, i) => {
     if (i === s.baselineIndex || flat.count[i] === 0) return null;
     flat.buffer.start = flat.start[i];
@@ -495,10 +496,9 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
       if (!isBaseline) result.note = 'no usable readings: left out of the envelope';
       return result;
     }
-    for (const w of [core.wx, core.wy, core.wz]) {
-      if (Math.abs(w) > MAX_ROTATION_RAD) {
-        throw new FlexInputError(FN, `poses[${i}].readings`, `give a fitted rotation of ${w.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`);
-      }
+    const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
+    if (!(rotation <= MAX_ROTATION_RAD)) {
+      throw new FlexInputError(FN, `poses[${i}].readings`, `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`);
     }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
@@ -509,7 +509,7 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
       return { pointId: readings[index].pointId, axis: readings[index].axis, index };
     });
     result.fit = fit;
-    result.worst = perimeterWorst(fit.motion, input.outline);
+    result.worst = worstOf(fit.motion);
     result.measures = poseMeasures(result.worst, fit);
     for (const o of fit.outliers) {
       flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });

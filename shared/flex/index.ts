@@ -18,7 +18,7 @@ export { MAX_EDGE_ERROR_RATIO } from './pose-fit';
 export { OUTLIER_FALSE_ALARM_RATE } from './outlier-rule';
 export type { OutlierCheck } from './outlier-rule';
 export { predictDisplacement, scaleMotion } from './predict-displacement';
-export { outlineCorners, perimeterWorst, sampleOutline } from './perimeter';
+export { outlineCorners, perimeterWorst, perimeterWorstOn, sampleOutline } from './perimeter';
 export type { AxisWorst, OpeningOutline, OutlinePoint, OutlineSide, OutlineValue, PerimeterWorst, StraightSide } from './perimeter';
 export { linearFit } from './linear-fit';
 export type { LinearFit, LinearFitOptions } from './linear-fit';

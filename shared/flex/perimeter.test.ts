@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { outlineCorners, perimeterWorst, sampleOutline, type OpeningOutline } from './perimeter';
+import { outlineCorners, perimeterWorst, perimeterWorstOn, sampleOutline, type OpeningOutline } from './perimeter';
 import { predictDisplacement } from './predict-displacement';
 import { FlexInputError } from './errors';
 import type { RigidMotion } from './types';
@@ -128,5 +128,15 @@ describe('perimeterWorst: highest and lowest apart', () => {
 describe('outlineCorners', () => {
   it('gives the bounding rectangle anticlockwise from the bottom left (+y)', () => {
     expect(outlineCorners(outline)).toEqual([350, 600, 350, 1500, -350, 1500, -350, 600]);
+  });
+});
+
+describe('perimeterWorstOn', () => {
+  it('gives what perimeterWorst gives, for motion after motion on one outline', () => {
+    const on = perimeterWorstOn(outline);
+    for (const motion of [still(), { t: { x: 1, y: -4, z: 2 }, omega: { x: 0.003, y: -0.001, z: 0.002 } }]) {
+      expect(on(motion)).toEqual(perimeterWorst(motion, outline));
+    }
+    expect(() => perimeterWorstOn({ ...outline, height: 0 })).toThrowError(/perimeterWorstOn: outline.height/);
   });
 });

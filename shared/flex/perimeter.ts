@@ -166,8 +166,10 @@ function extremesOf(g: Geometry, c0: number, cy: number, cz: number): AxisWorst 
  */
 export function perimeterWorst(motion: RigidMotion, outline: OpeningOutline): PerimeterWorst {
   validateOutline('perimeterWorst', outline);
-  requireMotion('perimeterWorst', 'motion', motion);
-  const g = geometry(outline);
+  return worstOn(geometry(outline), requireMotion('perimeterWorst', 'motion', motion));
+}
+
+function worstOn(g: Geometry, motion: RigidMotion): PerimeterWorst {
   const { t, omega } = motion;
   // Each component is c0 + cy·y + cz·z (see predictDisplacement).
   return {
@@ -175,6 +177,18 @@ export function perimeterWorst(motion: RigidMotion, outline: OpeningOutline): Pe
     lateral: extremesOf(g, t.y, 0, -omega.x),
     vertical: extremesOf(g, t.z, omega.x, 0),
   };
+}
+
+/**
+ * perimeterWorst for many motions on one outline: the outline is checked once, and each motion by
+ * the caller (designEnvelope checks its fitted rotations itself).
+ * @param outline the opening. @returns a function from a motion to its extremes on the outline.
+ * @example perimeterWorstOn(outline)(motion).lateral.valueMm // => the same as perimeterWorst(motion, outline)
+ */
+export function perimeterWorstOn(outline: OpeningOutline): (motion: RigidMotion) => PerimeterWorst {
+  validateOutline('perimeterWorstOn', outline);
+  const g = geometry(outline);
+  return (motion) => worstOn(g, motion);
 }
 
 /** Most points sampleOutline will return; keeps a tiny step from exhausting memory. */
