@@ -279,9 +279,19 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
     const readings = pose.readings;
     if (!Array.isArray(readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
     codeStart[i] = next;
+    // A point's readings usually come together (one per axis): look its id up once for the run.
+    let lastId: unknown = undefined;
+    let lastAt: number | undefined = undefined;
     for (let j = 0; j < readings.length; j++) {
       const reading = readings[j];
-      const at = reading !== null && typeof reading === 'object' ? points.get(reading.pointId) : undefined;
+      let at: number | undefined = undefined;
+      if (reading !== null && typeof reading === 'object') {
+        if (reading.pointId !== lastId) {
+          lastId = reading.pointId;
+          lastAt = points.get(reading.pointId);
+        }
+        at = lastAt;
+      }
       const axis = at === undefined ? -1 : reading.axis === 'foreAft' ? 0 : reading.axis === 'lateral' ? 1 : reading.axis === 'vertical' ? 2 : -1;
       if (at === undefined || axis < 0 || !isLength(reading.value)) readingProblem(i, j, reading, points);
       const key = at * 3 + axis;

@@ -15,6 +15,12 @@ import { logGamma, regularizedBeta } from './special-functions';
 
 /** Degrees of freedom beyond this make t indistinguishable from the normal for any use here. */
 const MAX_DF = 1e7;
+/**
+ * Quantiles already computed, by p and df: an envelope asks for the same few (0.95 at the same df)
+ * on every recomputation as the engineer types. Bounded, and emptied when full.
+ */
+const remembered = new Map<string, number>();
+const REMEMBER_AT_MOST = 512;
 
 function requireDf(fn: string, df: number): void {
   requireFinite(fn, 'df', df);
@@ -48,6 +54,16 @@ export function studentTQuantile(p: number, df: number): number {
   requireProbability('studentTQuantile', 'p', p);
   requireDf('studentTQuantile', df);
   if (p === 0.5) return 0;
+  const key = `${p}|${df}`;
+  const known = remembered.get(key);
+  if (known !== undefined) return known;
+  const value = quantile(p, df);
+  if (remembered.size >= REMEMBER_AT_MOST) remembered.clear();
+  remembered.set(key, value);
+  return value;
+}
+
+function quantile(p: number, df: number): number {
   const tail = Math.min(p, 1 - p);
   const z = -normalQuantile(tail);
   // Cornish–Fisher terms (A&S 26.7.5); for df ≤ 2 a poor start, which the safeguard absorbs.
