@@ -28,14 +28,15 @@ export function checkPose(vehicle: Vehicle, session: TestSession, points: GaugeP
   if (session.readingMode === 'gap') {
     if (pose.kind === 'level') return { ...result, note: 'Level pose: these gaps are the baseline for the other poses.' };
     if (!baseline) return { ...result, note: 'No level pose yet: record the baseline gaps first.' };
-    const d = computeDisplacements(
-      baseline.map((r) => ({ pointId: r.gaugePointId, axis: r.axis, value: r.valueMm })),
-      own,
-    );
-    values = d.displacements;
-    if (!values.length) return { ...result, note: 'No baseline reading at these points and axes yet.' };
   }
   try {
+    if (session.readingMode === 'gap' && baseline) {
+      values = computeDisplacements(
+        baseline.map((r) => ({ pointId: r.gaugePointId, axis: r.axis, value: r.valueMm })),
+        own,
+      ).displacements;
+      if (!values.length) return { ...result, note: 'No baseline reading at these points and axes yet.' };
+    }
     const fit = fitRelativeMotion(points.map((p) => ({ id: p.id, y: p.yMm, z: p.zMm })), values, outlineOf(vehicle.opening));
     for (const o of fit.outliers) result.suspect.add(`${o.pointId}|${o.axis}`);
     return { ...result, fit };
