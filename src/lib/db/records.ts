@@ -4,7 +4,7 @@
 // schemas on the way in and on the way out: a bad value or a corrupt row comes back as a per-item
 // result naming the record and the field, never as a thrown error.
 import type { ZodType } from 'zod';
-import { gaugePoint, pose, reading, testSession, vehicle, type Reading } from '@shared/schemas';
+import { gaugePoint, pose, reading, testSession, vehicle, type GaugePoint, type Pose, type Reading, type TestSession, type Vehicle } from '@shared/schemas';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
 import { tracked } from './writes-in-flight';
@@ -16,6 +16,18 @@ export const recordSchemas: Record<SyncEntity, ZodType> = {
   pose,
   reading,
 };
+
+/** The record type of each synced entity. */
+export interface RecordOf {
+  vehicle: Vehicle;
+  gaugePoint: GaugePoint;
+  testSession: TestSession;
+  pose: Pose;
+  reading: Reading;
+}
+
+/** What an edit may change: any field but the record's identity and the version it builds on. */
+export type Patch<E extends SyncEntity> = Partial<Omit<RecordOf[E], 'id' | 'version'>>;
 
 export interface ItemError {
   field: string;
@@ -78,6 +90,43 @@ async function writeRecords<T extends { id: string }>(entity: SyncEntity, record
 export async function saveRecord<T extends { id: string }>(entity: SyncEntity, record: T, db: FieldDb = fieldDb): Promise<ItemResult> {
   const [result] = await saveRecords(entity, [record], db);
   return result;
+}
+
+/**
+ * Edits a stored record: merges the patch into the record as it is stored NOW, inside the
+ * transaction that writes it and its outbox entry. Screens hand over only the fields a person
+ * changed, never a whole record from their own copy: a copy taken before a push was answered
+ * carries the old version, and writing it back would make the next push conflict with this
+ * phone's own accepted edit (and undo whatever a pull brought meanwhile).
+ */
+export function patchRecord<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>, db: FieldDb = fieldDb): Promise<ItemResult> {
+  return tracked(async () => {
+    let wrote = false;
+    try {
+      const result = await db.transaction('rw', tableOf(db, entity), db.outbox, async (): Promise<ItemResult> => {
+        const stored = await tableOf(db, entity).get(id);
+        if (!stored) return { id, ok: false, message: `this ${entity} is not on this phone any more`, fields: [] };
+        const { valid, refused } = checkRecords(entity, [{ ...stored, ...patch, id: stored.id, version: stored.version }]);
+        if (!valid.length) return refused[0];
+        await putQueued(entity, valid, db);
+        wrote = true;
+        return { id, ok: true };
+      });
+      if (wrote) announceSaved();
+      return result;
+    } catch (err) {
+      return { id, ok: false, message: storageMessage(err), fields: [] };
+    }
+  });
+}
+
+/** The fields of `after` that differ from `before`: what a form changed, as a patch. */
+export function changedFields<T extends Record<string, unknown>>(before: T, after: T): Partial<T> {
+  const patch: Partial<T> = {};
+  for (const key of Object.keys(after) as (keyof T)[]) {
+    if (JSON.stringify(before[key]) !== JSON.stringify(after[key])) patch[key] = after[key];
+  }
+  return patch;
 }
 
 /** Rows read back from storage, checked against the shared schema; corrupt ones are reported, not trusted. */

@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { axes, type Axis, type Pose } from '@shared/schemas';
 import { useLocalSession } from '@/lib/db/live';
-import { saveRecord, setReadingValue, type ItemResult } from '@/lib/db/records';
+import { patchRecord, setReadingValue, type ItemResult, type Patch } from '@/lib/db/records';
 import { useWritesInFlight } from '@/lib/db/writes-in-flight';
 import { LengthInput } from '@/features/field/components/length-input';
 import { UnitToggle } from '@/features/field/components/unit-toggle';
@@ -42,11 +42,10 @@ export function PoseRecorderPage() {
   if (!vehicle) return <p role="alert">The vehicle of this session is not on this phone: sync while online.</p>;
 
   const report = (r: ItemResult) => setProblems((prev) => [...prev.filter((p) => p.id !== r.id), r]);
-  const savePose = async (patch: Partial<Pose>) => {
-    // Two edits within one render (a lift, then a note) must both land: build on the latest.
-    const next = { ...(latest.current?.id === pose.id ? latest.current : pose), ...patch };
-    latest.current = next;
-    report(await saveRecord('pose', next));
+  const savePose = async (patch: Patch<'pose'>) => {
+    // The screen shows the edit at once; storage merges only the changed fields into the stored pose.
+    latest.current = { ...(latest.current?.id === pose.id ? latest.current : pose), ...patch };
+    report(await patchRecord('pose', pose.id, patch));
   };
   const own = readings.filter((r) => r.poseId === pose.id && !r.deletedAt);
   const baselinePose = poses.find((p) => p.kind === 'level' && p.id !== pose.id);

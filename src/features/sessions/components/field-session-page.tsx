@@ -3,7 +3,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { Pose } from '@shared/schemas';
 import { crossAxleTwistDeg } from '@shared/flex/twist';
 import { useLocalSession } from '@/lib/db/live';
-import { saveRecord, type ItemResult } from '@/lib/db/records';
+import { patchRecord, saveRecord, type ItemResult } from '@/lib/db/records';
 import { SaveProblems } from '@/features/field/components/save-problems';
 import { SafetyChecklist } from './safety-checklist';
 
@@ -55,7 +55,7 @@ export function FieldSessionPage() {
       {!session.safetyAckAt ? (
         <div className="space-y-2">
           <SafetyChecklist onAllTicked={setSafe} />
-          <button type="button" className="btn-primary w-full" disabled={!safe} onClick={() => void saveRecord('testSession', { ...session, safetyAckAt: new Date().toISOString() }).then((r) => setProblems([r]))}>
+          <button type="button" className="btn-primary w-full" disabled={!safe} onClick={() => void patchRecord('testSession', session.id, { safetyAckAt: new Date().toISOString() }).then((r) => setProblems([r]))}>
             Checklist done
           </button>
         </div>

@@ -2,7 +2,7 @@ import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import type { GaugePoint, Vehicle } from '@shared/schemas';
 import { useLocalVehicle } from '@/lib/db/live';
-import { saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
+import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult, type Patch } from '@/lib/db/records';
 import { LengthInput } from '@/features/field/components/length-input';
 import { UnitToggle } from '@/features/field/components/unit-toggle';
 import { SaveProblems } from '@/features/field/components/save-problems';
@@ -39,9 +39,14 @@ export function VehicleSetupPage() {
   const navigate = useNavigate();
   const [unit, setUnit] = useFieldUnit();
   const [draft, setDraft] = useState<Vehicle | null>(isNew ? blank() : null);
+  // The vehicle as the form last loaded or saved it: a save sends only what was changed since.
+  const [loaded, setLoaded] = useState<Vehicle | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   useEffect(() => {
-    if (!isNew && stored && !draft) setDraft(stored.vehicle);
+    if (!isNew && stored && !draft) {
+      setDraft(stored.vehicle);
+      setLoaded(stored.vehicle);
+    }
   }, [isNew, stored, draft]);
   if (!draft) return <p role="status">{stored === null ? 'This vehicle is not on this phone.' : 'Loading…'}</p>;
   const points = stored?.gaugePoints ?? [];
@@ -50,11 +55,13 @@ export function VehicleSetupPage() {
   );
   const open = (k: keyof Vehicle['opening']) => (v: Vehicle, mm: number) => ({ ...v, opening: { ...v.opening, [k]: mm } });
   const save = async () => {
-    const r = await saveRecord('vehicle', draft);
+    const r = loaded ? await patchRecord('vehicle', draft.id, changedFields(loaded, draft)) : await saveRecord('vehicle', draft);
     setProblems([r]);
+    if (r.ok) setLoaded(draft);
     if (r.ok && isNew) navigate(`/field/vehicles/${draft.id}`, { replace: true });
   };
-  const savePoints = async (list: GaugePoint[]) => setProblems(await saveRecords('gaugePoint', list));
+  const addPoint = async (point: GaugePoint) => setProblems(await saveRecords('gaugePoint', [point]));
+  const editPoint = async (id: string, patch: Patch<'gaugePoint'>) => setProblems([await patchRecord('gaugePoint', id, patch)]);
 
   return (
     <section className="space-y-4">
@@ -99,18 +106,18 @@ export function VehicleSetupPage() {
           <OpeningDrawing
             opening={draft.opening}
             points={points}
-            onPlace={(yMm, zMm) => void savePoints([{ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm }])}
+            onPlace={(yMm, zMm) => void addPoint({ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm })}
           />
           <ul className="space-y-2">
             {points.map((p) => (
               <li key={p.id} className="card grid grid-cols-[4rem_1fr_1fr_auto] items-end gap-2">
                 <label>
                   <span className="block text-sm font-bold">Label</span>
-                  <input className="input" defaultValue={p.label} onBlur={(e) => e.target.value !== p.label && void savePoints([{ ...p, label: e.target.value }])} />
+                  <input className="input" defaultValue={p.label} onBlur={(e) => e.target.value !== p.label && void editPoint(p.id, { label: e.target.value })} />
                 </label>
-                <LengthInput compact label={`${p.label} y`} unit={unit} valueMm={p.yMm} onChange={(mm) => mm != null && void savePoints([{ ...p, yMm: mm }])} />
-                <LengthInput compact label={`${p.label} z`} unit={unit} valueMm={p.zMm} onChange={(mm) => mm != null && void savePoints([{ ...p, zMm: mm }])} />
-                <button type="button" className="btn" aria-label={`Remove point ${p.label}`} onClick={() => void savePoints([{ ...p, deletedAt: new Date().toISOString() }])}>
+                <LengthInput compact label={`${p.label} y`} unit={unit} valueMm={p.yMm} onChange={(mm) => mm != null && void editPoint(p.id, { yMm: mm })} />
+                <LengthInput compact label={`${p.label} z`} unit={unit} valueMm={p.zMm} onChange={(mm) => mm != null && void editPoint(p.id, { zMm: mm })} />
+                <button type="button" className="btn" aria-label={`Remove point ${p.label}`} onClick={() => void editPoint(p.id, { deletedAt: new Date().toISOString() })}>
                   ✕
                 </button>
               </li>
