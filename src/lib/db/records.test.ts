@@ -4,7 +4,8 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Pose } from '@shared/schemas';
 import { FieldDb } from './field-db';
-import { changedFields, patchRecord, saveRecord } from './records';
+import { changedFields, patchRecord, replayTyping, saveRecord } from './records';
+import { journalEntries, noteTyping } from './typing-journal';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -81,5 +82,28 @@ describe('patchRecord', () => {
 describe('changedFields', () => {
   it('keeps only what differs, nested values compared by content', () => {
     expect(changedFields({ a: 1, o: { w: 1 }, s: 'x' }, { a: 1, o: { w: 2 }, s: 'x' })).toEqual({ o: { w: 2 } });
+  });
+});
+
+describe('typing a reload cut before it was stored', () => {
+  it('is replayed in the order it was typed when the store opens again, then forgotten', async () => {
+    const p = pose();
+    await saveRecord('pose', p, db);
+    const slot = { poseId: p.id, gaugePointId: crypto.randomUUID(), axis: 'lateral' as const };
+    // Noted as typed, but the page went away before the writes ran.
+    noteTyping(db.name, { op: 'reading', slot, valueMm: 4 });
+    noteTyping(db.name, { op: 'reading', slot, valueMm: 45 });
+    noteTyping(db.name, { op: 'patch', entity: 'pose', id: p.id, patch: { label: 'Front left up' } });
+    await replayTyping(db);
+    expect((await db.readings.toArray()).map((r) => r.valueMm)).toEqual([45]);
+    expect((await db.poses.get(p.id))?.label).toBe('Front left up');
+    expect(journalEntries(db.name)).toEqual([]);
+  });
+
+  it('forgets each edit once it is stored', async () => {
+    const p = pose();
+    await saveRecord('pose', p, db);
+    await patchRecord('pose', p.id, { notes: 'chocks in' }, db);
+    expect(journalEntries(db.name)).toEqual([]);
   });
 });

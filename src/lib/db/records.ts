@@ -8,6 +8,7 @@ import { gaugePoint, pose, reading, testSession, vehicle, type GaugePoint, type 
 import type { SyncEntity } from '@shared/schemas/sync';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
 import { tracked } from './writes-in-flight';
+import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
 
 export const recordSchemas: Record<SyncEntity, ZodType> = {
   vehicle,
@@ -60,9 +61,11 @@ function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]
 async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], db: FieldDb) {
   await tableOf(db, entity).bulkPut(valid as never[]);
   // One waiting entry per record is enough: the batch reads the latest content when it forms.
-  const waiting = new Set(
-    (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '').map((e) => e.recordId),
-  );
+  const unclaimed = (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '');
+  // The tester changed a record the server refused: every held record may go again (a fixed pose
+  // lets its held readings through too); what is still wrong is held again with the new answer.
+  if (unclaimed.some((e) => e.held)) await db.outbox.filter((e) => !!e.held).modify({ held: null });
+  const waiting = new Set(unclaimed.map((e) => e.recordId));
   const queuedAt = new Date().toISOString();
   await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
 }
@@ -100,6 +103,27 @@ export async function saveRecord<T extends { id: string }>(entity: SyncEntity, r
  * phone's own accepted edit (and undo whatever a pull brought meanwhile).
  */
 export function patchRecord<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>, db: FieldDb = fieldDb): Promise<ItemResult> {
+  return journaled(db, { op: 'patch', entity, id, patch }, () => writePatch(entity, id, patch, db));
+}
+
+/** Runs a typed edit's write, noted in the typing journal until it settles (typing-journal.ts). */
+function journaled(db: FieldDb, edit: TypedEdit, write: () => Promise<ItemResult>): Promise<ItemResult> {
+  const n = noteTyping(db.name, edit);
+  const done = write();
+  void done.finally(() => crossOff(db.name, n));
+  return done;
+}
+
+/** Replays edits a reload cut before they were stored, in the order they were typed. */
+export async function replayTyping(db: FieldDb = fieldDb): Promise<void> {
+  for (const entry of journalEntries(db.name)) {
+    if (entry.op === 'reading') await setReadingValue(entry.slot, entry.valueMm, db);
+    else await patchRecord(entry.entity, entry.id, entry.patch as Patch<SyncEntity>, db);
+    crossOff(db.name, entry.n);
+  }
+}
+
+function writePatch<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>, db: FieldDb): Promise<ItemResult> {
   return tracked(async () => {
     let wrote = false;
     try {
@@ -170,7 +194,9 @@ export function setReadingValue(
 ): Promise<ItemResult> {
   const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
   const previous = slotWrites.get(key);
-  const write = tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db)));
+  const write = journaled(db, { op: 'reading', slot, valueMm }, () =>
+    tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db))),
+  );
   slotWrites.set(key, write);
   void write.finally(() => {
     if (slotWrites.get(key) === write) slotWrites.delete(key);
