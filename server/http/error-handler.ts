@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { AppError } from './errors';
+import { isDatabaseUnavailable } from '../db';
 
 /** The one JSON error handler: typed errors keep their status; anything else is a 500 with no details. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
@@ -16,6 +17,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (status >= 400 && status < 500) {
     const message = err?.type === 'entity.parse.failed' ? 'request body is not valid JSON' : String(err?.message ?? 'bad request');
     res.status(status).json({ error: { code: 'bad_request', message, fields: [] } });
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    res.status(503).json({ error: { code: 'unavailable', message: 'the database cannot be reached right now; try again shortly', fields: [] } });
     return;
   }
   req.log?.error({ err }, 'unhandled error');

@@ -209,7 +209,9 @@ async function writeReadingValue(slot: { poseId: string; gaugePointId: string; a
   let wrote = false;
   try {
     const result = await db.transaction('rw', db.readings, db.outbox, async (): Promise<ItemResult> => {
-      const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
+      // A slot can hold a cleared reading pulled from another device beside the live one: edit the live one.
+      const inSlot = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray();
+      const existing = inSlot.find((r) => !r.deletedAt) ?? inSlot[0];
       let record: Reading;
       if (valueMm === null) {
         if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
