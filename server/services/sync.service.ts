@@ -205,8 +205,8 @@ const written = (plan: Plan, entity: SyncEntity) => [...plan.inserts.get(entity)
 /**
  * One live reading per pose, gauge point and axis, judged on the state after the batch: a reading
  * the batch writes takes its new slot and frees its old one; every other live reading (kept
- * conflicts included) stays where it is. A new reading typed into a slot another device filled
- * first is kept as a conflict with that reading; any other collision is refused, naming the field.
+ * conflicts included) stays where it is. A reading written into a slot another device filled
+ * first is kept as a conflict with that reading; two of the batch's own in one slot are refused.
  */
 async function checkReadingSlots(plan: Plan, errors: FieldError[], transaction: Transaction, fieldOf: FieldOf = field) {
   const writes = written(plan, 'reading');
@@ -227,11 +227,12 @@ async function checkReadingSlots(plan: Plan, errors: FieldError[], transaction: 
     const key = slot(item.record as Row as { poseId: unknown; gaugePointId: unknown; axis: unknown });
     const holder = holders.get(key);
     const where = `pose ${short(item.record.poseId as string)} already has a ${item.record.axis} reading at this gauge point (reading ${short(String(holder?.id ?? claimed.get(key)?.record.id))})`;
-    if (holder && inserts.includes(item)) {
-      inserts.splice(inserts.indexOf(item), 1);
+    if (holder) {
+      // Typed into (or brought back into) a slot another device filled meanwhile: both values
+      // are kept, as a conflict with the reading that holds the slot, for a person to decide.
+      const list = inserts.includes(item) ? inserts : plan.updates.get('reading')!;
+      list.splice(list.indexOf(item), 1);
       plan.conflicts.push({ item, targetId: holder.id as string, serverRow: holder });
-    } else if (holder) {
-      errors.push({ field: fieldOf(item, 'axis'), message: `reading ${short(item.record.id)}: ${where}` });
     } else if (claimed.has(key)) {
       errors.push({ field: fieldOf(item, 'axis'), message: `reading ${short(item.record.id)}: ${where}, in this same batch` });
     } else claimed.set(key, item);
@@ -520,6 +521,9 @@ async function writeClientSide(auth: AuthContext, conflict: Row, transaction: Tr
   const fieldOf: FieldOf = (_item, key) => `clientRecord.${key}`;
   await checkReadingSlots(plan, errors, transaction, fieldOf);
   await checkGaugeLabels(plan, errors, transaction, fieldOf);
+  for (const taken of plan.conflicts) {
+    errors.push({ field: 'clientRecord.axis', message: `its slot now holds another reading (${short(taken.targetId)}): keep the server's version, or clear one of them first` });
+  }
   if (errors.length) throw new Invalid(`this phone's version cannot be kept: ${errors[0].message}`, errors);
   await bulkUpdate(auth, spec, [item], transaction);
   await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
