@@ -5,6 +5,8 @@ import type { Browser } from 'playwright-core';
 import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
 import { launchBrowser } from '../support/browser';
 import { allSaved, barText, fieldSession, openConflicts, openPhone } from '../support/field-phone';
+import { signedInAgent } from '../support/test-app';
+import { batchKey, change } from '../support/sync';
 import { PoseModel } from '../../server/models';
 
 let ts: TestServer;
@@ -42,6 +44,40 @@ describe('one phone, online', () => {
     expect(await openConflicts(ts, team.teamId)).toBe(0);
     expect(await barText(page)).toBe('All saved on the server');
     expect(await page.getByText(/conflict/).count()).toBe(0);
+    await context.close();
+  });
+
+  it('shows a real conflict with another device in the trade\'s words, and keeps this phone\'s value once', async () => {
+    const team = await createTeam('Conflict workshop');
+    const f = await fieldSession(ts, team);
+    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
+    await page.goto(f.poseUrl(f.levelPoseId));
+    await page.getByLabel('Pose name').waitFor();
+
+    // Offline, the tester lifts the front right wheel 410 mm…
+    await context.setOffline(true);
+    await page.getByRole('button', { name: /wheel front right$/ }).click();
+    await page.keyboard.type('410', { delay: 60 });
+    // …while the engineer renames the same pose at the desk.
+    const desk = await signedInAgent(ts, team.members.engineer.email);
+    const p = (await PoseModel.findByPk(f.levelPoseId))!;
+    const deskRecord = {
+      id: p.id, version: p.version, sessionId: p.sessionId, seq: p.seq, label: 'Level (desk)', kind: p.kind, liftFlMm: p.liftFlMm, liftFrMm: p.liftFrMm, liftRlMm: p.liftRlMm,
+      liftRrMm: p.liftRrMm, rampAngleDeg: p.rampAngleDeg, rampDistanceMm: p.rampDistanceMm, notes: p.notes, recordedAt: new Date(p.recordedAt).toISOString(),
+    };
+    expect((await desk.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', deskRecord)] })).status).toBe(200);
+
+    await context.setOffline(false);
+    await page.getByRole('link', { name: '1 conflict to resolve' }).waitFor({ timeout: 30_000 });
+    expect(await barText(page)).not.toContain('All saved on the server');
+    await page.getByRole('link', { name: '1 conflict to resolve' }).click();
+    await page.getByText('Lift front right: 410 mm on this phone, 0 mm on the server').waitFor();
+    await page.getByText('Pose name: Pose 1 on this phone, Level (desk) on the server').waitFor();
+    await page.getByRole('button', { name: "Keep this phone's" }).click();
+    await page.getByText('No conflicts.').waitFor();
+    await allSaved(page);
+    expect(await PoseModel.findByPk(f.levelPoseId)).toMatchObject({ liftFrMm: 410, label: 'Pose 1', version: 3 });
+    expect(await openConflicts(ts, team.teamId)).toBe(0);
     await context.close();
   });
 });
