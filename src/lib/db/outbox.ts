@@ -106,9 +106,9 @@ export async function holdRecords(key: string, held: Map<string, { message: stri
 }
 
 /** Backing off after an answer that wrote nothing; how long the next try waits, by tries so far. */
-export const RETRY_DELAYS_MS = [5_000, 20_000];
+const RETRY_DELAYS_MS = [5_000, 20_000];
 /** After this many such answers a batch is narrowed down: halved, until the one record at fault is held. */
-export const TRIES_BEFORE_NARROWING = RETRY_DELAYS_MS.length + 1;
+const TRIES_BEFORE_NARROWING = RETRY_DELAYS_MS.length + 1;
 
 /**
  * The server answered this batch but wrote nothing: a refusal naming no record of it, or a failure
