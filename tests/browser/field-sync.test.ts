@@ -7,7 +7,7 @@ import { launchBrowser } from '../support/browser';
 import { allSaved, barText, fieldSession, openConflicts, openPhone } from '../support/field-phone';
 import { signedInAgent } from '../support/test-app';
 import { batchKey, change } from '../support/sync';
-import { PoseModel } from '../../server/models';
+import { GaugePointModel, PoseModel, ReadingModel } from '../../server/models';
 
 let ts: TestServer;
 let browser: Browser;
@@ -78,6 +78,50 @@ describe('one phone, online', () => {
     await allSaved(page);
     expect(await PoseModel.findByPk(f.levelPoseId)).toMatchObject({ liftFrMm: 410, label: 'Pose 1', version: 3 });
     expect(await openConflicts(ts, team.teamId)).toBe(0);
+    await context.close();
+  });
+
+  it('holds back a gauge point the server refuses, sends everything else, and sends the point once the tester renames it', async () => {
+    const team = await createTeam('Held workshop');
+    const f = await fieldSession(ts, team, ['A', 'B']);
+    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
+    await page.goto(`${ts.baseUrl}/field/vehicles/${f.vehicleId}`);
+    await page.getByLabel('Opening drawing: tap to place a gauge point').waitFor();
+
+    // Offline, the tester places a third point (it gets the next free label, C)…
+    await context.setOffline(true);
+    await page.getByLabel('Opening drawing: tap to place a gauge point').click({ position: { x: 60, y: 60 } });
+    await page.getByRole('button', { name: 'Remove point C' }).waitFor();
+    // …while the desk places its own point C on the same vehicle.
+    const desk = await signedInAgent(ts, team.members.engineer.email);
+    const points = await GaugePointModel.findAll({ where: { vehicleId: f.vehicleId, deletedAt: null } });
+    const put = await desk.put(`/api/vehicles/${f.vehicleId}/gauge-points`).send({
+      gaugePoints: [...points.map((p) => ({ id: p.id, label: p.label, yMm: p.yMm, zMm: p.zMm })), { id: crypto.randomUUID(), label: 'C', yMm: 0, zMm: 600 }],
+    });
+    expect(put.status).toBe(200);
+
+    await context.setOffline(false);
+    await page.getByRole('link', { name: 'See the held records' }).waitFor({ timeout: 30_000 });
+    expect(await barText(page)).toContain('1 record held back');
+
+    // The held point stops nothing else: a reading typed now reaches the server.
+    await page.goto(f.poseUrl(f.levelPoseId));
+    await page.getByLabel('A lateral').click();
+    await page.keyboard.type('93', { delay: 60 });
+    await expect.poll(async () => (await ReadingModel.findAll({ where: { poseId: f.levelPoseId } })).map((r) => r.valueMm), { timeout: 20_000 }).toEqual([93]);
+
+    await page.getByRole('link', { name: 'See the held records' }).click();
+    await page.getByText(/Gauge point C on Test truck/).waitFor();
+    await page.getByText(/Refused: .*label 'C' is already used on this vehicle/).waitFor();
+    // Renamed on the vehicle page (the desk's C sits at y = 0, this phone's elsewhere), it goes with the next sync.
+    await page.getByRole('link', { name: /Gauge point C on Test truck/ }).click();
+    const both = page.getByRole('listitem').filter({ has: page.getByRole('button', { name: 'Remove point C' }) });
+    await expect.poll(() => both.count()).toBe(2);
+    const [phonesPoint] = (await Promise.all((await both.all()).map(async (item) => ((await item.getByLabel('C y').inputValue()) === '0' ? [] : [item])))).flat();
+    await phonesPoint.getByLabel('Label').fill('D');
+    await phonesPoint.getByLabel('Label').blur();
+    await allSaved(page);
+    expect((await GaugePointModel.findAll({ where: { vehicleId: f.vehicleId, deletedAt: null } })).map((p) => p.label).sort()).toEqual(['A', 'B', 'C', 'D']);
     await context.close();
   });
 });
