@@ -1,9 +1,8 @@
 // One sync run: push the outbox batch by batch, upload waiting photos, then pull everything new.
 // Pure over its inputs (a database and a transport), so it runs the same in a test.
 import { ApiError } from '@/lib/api-client';
-import type { FieldDb } from '@/lib/db/field-db';
+import type { FieldDb, PendingBatch } from '@/lib/db/field-db';
 import { completeBatch, formBatch, holdRecords, noteBatchFailure, releaseHolds } from '@/lib/db/outbox';
-import type { PendingBatch } from '@/lib/db/field-db';
 import { getMeta, setMeta } from '@/lib/db/meta';
 import { applyPull } from '@/lib/db/server-changes';
 import { markPhotoFailed, markPhotoUploaded, nextPendingPhotos, notePhotoError } from '@/lib/db/photos';
