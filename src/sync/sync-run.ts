@@ -66,8 +66,13 @@ function namedRecords(batch: PendingBatch, error: ApiError) {
   return named;
 }
 
+/** A batch waiting before its next try, said in the tester's words (the server's own message in brackets). */
+const backingOff = (batch: PendingBatch) =>
+  new ApiError(0, 'backing_off', `the server could not take ${batch.changes.length === 1 ? 'a record' : `${batch.changes.length} records`} and wrote nothing (${batch.lastError ?? 'no reason given'}); trying again shortly`);
+
 export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<RunResult> {
   let refused: ApiError | null = null;
+  let held = 0;
   for (;;) {
     const limit = Math.min(CLIENT_BATCH_CHANGES, (await getMeta('pushLimit', db)) ?? CLIENT_BATCH_CHANGES);
     const batch = await formBatch(limit, db);
@@ -76,9 +81,7 @@ export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<Ru
       if (limit < CLIENT_BATCH_CHANGES) await setMeta('pushLimit', null, db);
       return refused ? { ok: false, error: refused } : { ok: true };
     }
-    if (batch.retryAt && Date.parse(batch.retryAt) > Date.now()) {
-      return { ok: false, error: new ApiError(0, 'backing_off', `${batch.lastError ?? 'the server could not take the last batch'}; trying again soon`), retryAt: batch.retryAt };
-    }
+    if (batch.retryAt && Date.parse(batch.retryAt) > Date.now()) return { ok: false, error: backingOff(batch), retryAt: batch.retryAt };
     let response: PushResponse;
     try {
       response = await transport.push({ idempotencyKey: batch.key, changes: batch.changes });
@@ -90,11 +93,12 @@ export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<Ru
       const named = error.status === 400 ? namedRecords(batch, error) : new Map();
       if (named.size) {
         await holdRecords(batch.key, named, db);
-        refused = error;
+        held += named.size;
+        refused = new ApiError(400, 'held', `the server refused ${held === 1 ? 'a record' : `${held} records`}: held back on this phone until changed (see Sync)`);
         continue;
       }
       const next = await noteBatchFailure(batch.key, error, db);
-      if (next.retryAt) return { ok: false, error, retryAt: next.retryAt };
+      if (next.retryAt) return { ok: false, error: backingOff({ ...batch, lastError: error.message }), retryAt: next.retryAt };
       continue;
     }
     await completeBatch(batch.key, response, db);
