@@ -27,7 +27,7 @@ import { createTeam, sessionAgent, startTestServer, type TestServer } from '../s
 import { batchKey, change, poseRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { nodeTransport } from '../faults/fault-rig';
 
-const RUNS = Number(process.env.MODEL_RUNS ?? 30);
+const RUNS = Number(process.env.MODEL_RUNS ?? 50);
 const PHONES = 3;
 const AXES = ['lateral', 'vertical'] as const;
 
