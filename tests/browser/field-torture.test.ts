@@ -8,7 +8,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
+import { readingDoubt, liftDoubt } from '@/features/poses/plausible';
+import { clientDir, createTeam, startTestServer, vehicleBody, type TestServer } from '../support/test-app';
 import { launchBrowser } from '../support/browser';
 import { barText, fieldSession, openConflicts, openPhone, type FieldSession } from '../support/field-phone';
 
@@ -66,6 +67,9 @@ interface TypedPose {
   readings: Map<string, number>;
 }
 
+/** The test truck (vehicleBody's sizes): what the recorder's plausibility check compares with. */
+const TRUCK = vehicleBody();
+
 /** How the app reads a length typed in mm: a comma or point decimal; anything else keeps the last good value. */
 const parseMm = (text: string): number | null | 'bad' => {
   const t = text.trim().replace(',', '.');
@@ -111,7 +115,7 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
       };
 
       /** Selects the field's text and types `text` key by key, as a thumb would; returns after each key's echo. */
-      const typeInto = async (label: string, text: string, onKey: (soFar: string) => void, exact = false) => {
+      const typeInto = async (label: string, text: string, onKey: (soFar: string, cut?: 'reloaded') => void, exact = false) => {
         const input = page.getByLabel(label, { exact });
         await input.click();
         await page.keyboard.press('ControlOrMeta+a');
@@ -128,16 +132,35 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
           if (rnd.chance(0.1)) await barTellsTruth();
           // A reload or a dropped signal can come between any two keys; after a reload the
           // tester starts on another value.
-          if (i < text.length - 1 && (await disturb(0.02)) === 'reloaded') return;
+          if (i < text.length - 1 && (await disturb(0.02)) === 'reloaded') {
+            onKey(text.slice(0, i + 1), 'reloaded');
+            return;
+          }
         }
       };
 
-      const typeLength = async (label: string, text: string, set: (mm: number | null) => void) => {
+      /**
+       * Types a length. A value the recorder finds implausible is kept back (the phone keeps the
+       * value from before the edit) until the tester confirms it: the model follows that key by
+       * key, and at the end the tester confirms the value, as one does after re-reading the tape.
+       */
+      const typeLength = async (label: string, text: string, was: number | null, doubt: (mm: number) => string | null, set: (mm: number | null) => void) => {
         say(`type ${label} "${text}"`);
-        await typeInto(label, text, (soFar) => {
+        let last: number | null = was;
+        let cut = false;
+        await typeInto(label, text, (soFar, final) => {
           const v = parseMm(soFar);
-          if (v !== 'bad') set(v);
+          last = v === 'bad' || (v !== null && doubt(v)) ? was : v;
+          set(last);
+          if (final === 'reloaded') cut = true;
         });
+        const v = parseMm(text);
+        if (cut || v === 'bad' || v === null || !doubt(v)) return;
+        say(`keep ${text}`);
+        const keep = page.getByRole('button', { name: /^Keep .* mm$/ });
+        await keep.click();
+        await keep.waitFor({ state: 'detached' });
+        set(v);
       };
 
       const randomLength = () => {
@@ -154,13 +177,20 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
         if (kind < 0.15) {
           const [key, name] = rnd.pick(WHEELS);
           await page.getByRole('button', { name: new RegExp(`wheel ${name}$`) }).click();
-          await typeLength(`Lift ${name}`, String(rnd.int(-80, 450)), (mm) => (pose.lifts[key] = mm ?? 0));
+          const track = key.startsWith('liftF') ? TRUCK.trackFrontMm : TRUCK.trackRearMm;
+          await typeLength(`Lift ${name}`, String(rnd.int(-80, 450)), pose.lifts[key], (mm) => liftDoubt(mm, track, 'mm'), (mm) => (pose.lifts[key] = mm ?? 0));
         } else if (kind < 0.8) {
           const point = rnd.int(0, f.labels.length - 1);
           const [axis, axisName] = rnd.pick(AXES);
           const slot = `${f.pointIds[point]}|${axis}`;
           const text = rnd.chance(0.08) ? '' : randomLength();
-          await typeLength(`${f.labels[point]} ${axisName}`, text, (mm) => (mm === null ? pose.readings.delete(slot) : pose.readings.set(slot, mm)));
+          await typeLength(
+            `${f.labels[point]} ${axisName}`,
+            text,
+            pose.readings.get(slot) ?? null,
+            (mm) => readingDoubt(mm, axis, 'gap', TRUCK, 'mm'),
+            (mm) => (mm === null ? pose.readings.delete(slot) : pose.readings.set(slot, mm)),
+          );
         } else if (kind < 0.9) {
           const text = `${rnd.pick(['Front left', 'Rear right', 'Cross-axle', 'Ramp'])} ${rnd.int(1, 99)}`;
           say(`type pose name "${text}"`);
