@@ -1,13 +1,13 @@
 // Accounts, sign-up, password reset and invitations: the inputs of the auth and team routes and
 // the records they answer with. Shared by the server's routes and the client's forms.
 import * as z from 'zod';
-import { id, role, unitSystem } from './common';
+import { id, role, text, unitSystem } from './common';
 
 export const emailAddress = z.string().trim().toLowerCase().pipe(z.email('enter a valid e-mail address').max(254));
 /** At least 10 characters; long passphrases welcome (Argon2id hashes any length up to the cap). */
 export const newPassword = z.string().min(10, 'use at least 10 characters').max(256, 'use at most 256 characters');
-export const personName = z.string().trim().min(1, 'enter a name').max(120);
-export const teamName = z.string().trim().min(1, 'enter the workshop name').max(120);
+export const personName = text(120, 1, 'enter a name');
+export const teamName = text(120, 1, 'enter the workshop name');
 /** A token from an e-mailed link (base64url of 32 random bytes). */
 export const linkToken = z.string().trim().min(20).max(128).regex(/^[A-Za-z0-9_-]+$/, 'not a valid link');
 

@@ -22,11 +22,11 @@ export const positiveMm = z.number().finite().gt(0).max(20_000);
 const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
 /** Text that PostgreSQL can store, trimmed, at most `max` characters. */
-export const text = (max: number, min = 0) =>
+export const text = (max: number, min = 0, tooShort?: string) =>
   z
     .string()
     .trim()
-    .min(min)
+    .min(min, tooShort)
     .max(max)
     .refine((s) => !s.includes('\u0000'), 'must not contain the NUL character (0x00), which cannot be stored')
     .refine((s) => !LONE_SURROGATE.test(s), 'contains a broken character (half of a surrogate pair), which cannot be stored');

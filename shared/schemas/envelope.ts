@@ -3,7 +3,7 @@
 // sheet's e-mail. One schema each: the server validates with them, the client's forms too.
 import * as z from 'zod';
 import { DEFAULT_ENVELOPE_PARAMETERS } from '../flex/envelope';
-import { axis, id, isoDate, isoDateTime } from './common';
+import { axis, id, isoDate, isoDateTime, text } from './common';
 import type { BootSpanResult, EnvelopeFlag, EnvelopeResult } from '../flex';
 
 /** Seal check inputs: free height and the allowed compression range (25–50 % is common practice). */
@@ -153,7 +153,7 @@ export interface EnvelopeRecord {
 
 export const saveDraftInput = z.object({ version: z.number().int().min(1), params: envelopeParams });
 /** One flagged reading kept in the computation, acknowledged by the engineer at sign-off. */
-export const flagAcknowledgement = z.object({ readingId: id, note: z.string().trim().max(500).default('') });
+export const flagAcknowledgement = z.object({ readingId: id, note: text(500).default('') });
 export const signOffInput = z.object({
   version: z.number().int().min(1),
   /** Every reading the outlier rule flags and the engineer keeps must be listed here. */
@@ -167,8 +167,8 @@ export const readingReviewInput = z
   .object({
     version: z.number().int().min(1),
     excluded: z.boolean().optional(),
-    excludeReason: z.string().trim().max(500).nullable().optional(),
-    flagNote: z.string().trim().max(500).nullable().optional(),
+    excludeReason: text(500).nullable().optional(),
+    flagNote: text(500).nullable().optional(),
     valueMm: z.number().finite().min(-20_000).max(20_000).optional(),
   })
   .refine((r) => r.excluded !== true || (r.excludeReason ?? '').length > 0, {
@@ -179,7 +179,7 @@ export type ReadingReviewInput = z.infer<typeof readingReviewInput>;
 
 export const sendSheetInput = z.object({
   to: z.email().max(254).transform((e) => e.toLowerCase()),
-  note: z.string().trim().max(2_000).optional(),
+  note: text(2_000).optional(),
 });
 export type SendSheetInput = z.infer<typeof sendSheetInput>;
 

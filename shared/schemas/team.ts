@@ -1,11 +1,11 @@
 import * as z from 'zod';
-import { id, role, unitSystem } from './common';
+import { id, role, text, unitSystem } from './common';
 
 /** Whether photos keep the GPS position read from their EXIF, or lose it at upload. */
 export const photoGps = z.enum(['keep', 'drop']);
 export type PhotoGps = z.infer<typeof photoGps>;
 
-export const team = z.object({ id, name: z.string().trim().min(1).max(120), unitSystem, photoGps });
+export const team = z.object({ id, name: text(120, 1), unitSystem, photoGps });
 export type Team = z.infer<typeof team>;
 
 /** The workshop's settings an admin changes on the Team page. */
