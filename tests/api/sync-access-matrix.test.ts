@@ -16,7 +16,8 @@ import { QueryTypes } from 'sequelize';
 import { createTeam, sessionAgent, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { batchKey } from '../support/sync';
 import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } from '../support/db-snapshot';
-import { rowToRecord, syncTables } from '../../server/services/sync-tables';
+import { syncTables } from '../../server/services/sync-tables';
+import { toRecord } from '../../server/services/to-record';
 import { syncAccess } from '../../server/services/sync-access';
 import type { SyncEntity } from '../../shared/schemas/sync';
 import type { Role } from '../../shared/schemas';
@@ -92,7 +93,7 @@ async function buildFixture(): Promise<Fixture> {
 async function current(entity: SyncEntity, id: string): Promise<Record<string, unknown> & { id: string; version: number }> {
   const spec = syncTables[entity];
   const [row] = await ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${spec.table} WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT });
-  const { changeSeq: _seq, ...record } = rowToRecord(spec, row);
+  const { changeSeq: _seq, ...record } = toRecord(entity, row);
   return record;
 }
 
