@@ -224,13 +224,8 @@ describe('a constraint PostgreSQL checks that the checks above missed', () => {
 
   it('the desk giving two gauge points one label is refused naming the point', async () => {
     const f = await twoPhones();
-    const res = await f.tester.put(`/api/vehicles/${f.vehicleId}/gauge-points`).send({
-      gaugePoints: [
-        { id: f.point(0).id, label: 'A', yMm: 1, zMm: 2 },
-        { id: f.point(1).id, label: 'A', yMm: 3, zMm: 4 },
-      ],
-    });
+    const res = await push(f.engineer, change('gaugePoint', { ...f.point(0), label: 'A', yMm: 1, zMm: 2 }), change('gaugePoint', { ...f.point(1), label: 'A', yMm: 3, zMm: 4 }));
     expect(res.status).toBe(400);
-    expect(fields(res.body)).toEqual(['body.gaugePoints.1.label']);
+    expect(fields(res.body)).toEqual(['body.changes.1.record.label']);
   });
 });
