@@ -78,7 +78,7 @@ describe('records made before a field existed', () => {
   });
 
   it('a field added without a default would fail here (the trap this test guards)', () => {
-    const withoutDefault = records.pose.schema.extend({ surface: records.pose.schema.shape.label });
+    const withoutDefault = records.pose.schema.extend({ addedWithoutDefault: records.pose.schema.shape.label });
     expect(withoutDefault.safeParse(oldShaped(current.pose, 'pose')).success).toBe(false);
   });
 });
