@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { syncedColumns } from './synced-columns';
+import { syncedColumns } from './synced-model';
 
 export class EnvelopeModel extends Model<InferAttributes<EnvelopeModel>, InferCreationAttributes<EnvelopeModel>> {
   declare id: string;

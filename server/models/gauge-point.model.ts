@@ -1,29 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { syncedColumns } from './synced-columns';
+// The gauge points table: its columns and typed fields come from shared/records/gauge-point.ts.
+import type { Sequelize } from 'sequelize';
+import { gaugePointRecord } from '../../shared/records/gauge-point';
+import { initSynced, syncedModel } from './synced-model';
 
-export class GaugePointModel extends Model<InferAttributes<GaugePointModel>, InferCreationAttributes<GaugePointModel>> {
-  declare id: string;
-  declare teamId: string;
-  declare vehicleId: string;
-  declare label: string;
-  declare yMm: number;
-  declare zMm: number;
-  declare version: CreationOptional<number>;
-  declare changeSeq: CreationOptional<number>;
-  declare deletedAt: CreationOptional<Date | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
-}
+export const GaugePointModel = syncedModel(gaugePointRecord);
+export type GaugePointModel = InstanceType<typeof GaugePointModel>;
 
-export function initGaugePoint(sequelize: Sequelize) {
-  GaugePointModel.init(
-    {
-      ...syncedColumns,
-      vehicleId: { type: DataTypes.UUID, allowNull: false },
-      label: { type: DataTypes.TEXT, allowNull: false },
-      yMm: { type: DataTypes.DOUBLE, allowNull: false },
-      zMm: { type: DataTypes.DOUBLE, allowNull: false },
-    },
-    { sequelize, tableName: 'gauge_points' },
-  );
-}
+export const initGaugePoint = (sequelize: Sequelize) => initSynced(GaugePointModel, gaugePointRecord, sequelize);

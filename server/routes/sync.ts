@@ -2,7 +2,9 @@ import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { pullQuery, pushRequest, resolveConflictInput } from '../../shared/schemas/sync';
-import { pullChanges, pushBatch, resolveConflict } from '../services/sync.service';
+import { pushBatch } from '../services/sync-push';
+import { pullChanges } from '../services/sync-pull';
+import { resolveConflict } from '../services/sync-conflicts';
 
 export const syncRoutes = [
   route({

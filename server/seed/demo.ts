@@ -4,6 +4,7 @@
 import { MembershipModel, TeamModel, UserModel, VehicleModel, GaugePointModel, TestSessionModel, PoseModel, ReadingModel } from '../models';
 import { hashPassword } from '../auth/lucia';
 import type { Axis } from '../../shared/schemas';
+import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
 import { EnvelopeModel } from '../models';
 import { signOff } from '../services/envelope.service';
 import { getSessionDetail } from '../services/sessions.service';
@@ -102,29 +103,29 @@ async function seedWorkshop(): Promise<boolean> {
     const tester = DEMO_PEOPLE[2].id;
     for (const [vi, v] of DEMO_VEHICLES.entries()) {
       const { shearPerDeg, rollPerDeg, ...vehicle } = v;
-      await VehicleModel.create({ ...vehicle, opening: { ...vehicle.opening }, teamId: DEMO_TEAM_ID, notes: '' }, { transaction });
+      await VehicleModel.create({ ...newVehicle({ ...vehicle, opening: { ...vehicle.opening } }), teamId: DEMO_TEAM_ID }, { transaction });
       const pointIds = points.map((_, pi) => id(vi * 100 + pi + 1, '002'));
       for (const [pi, p] of points.entries()) {
         const zScale = v.opening.heightMm / 500;
-        await GaugePointModel.create(
-          { id: pointIds[pi], teamId: DEMO_TEAM_ID, vehicleId: v.id, label: p.label, yMm: Math.round(p.y * (v.opening.widthMm / 700)), zMm: Math.round(v.opening.bottomZMm + (p.z - 350) * zScale) },
-          { transaction },
-        );
+        const point = newGaugePoint({ id: pointIds[pi], vehicleId: v.id, label: p.label, yMm: Math.round(p.y * (v.opening.widthMm / 700)), zMm: Math.round(v.opening.bottomZMm + (p.z - 350) * zScale) });
+        await GaugePointModel.create({ ...point, teamId: DEMO_TEAM_ID }, { transaction });
       }
       const sessionId = id(vi + 1, '003');
       await TestSessionModel.create(
         {
-          id: sessionId,
+          ...newTestSession({
+            id: sessionId,
+            vehicleId: v.id,
+            title: vi === 0 ? 'Yard flex test before boot order' : 'Flex test after subframe rebuild',
+            testedOn: vi === 0 ? '2026-11-18' : '2026-11-25',
+            conditions: 'Dry gravel yard, 8 °C, overcast',
+            loadState: 'Water and fuel full, no crew in body',
+            tyrePressures: '3.5 bar front, 4.0 bar rear',
+            crew: 'Joss Harl (driver), Ilse Darrow (spotter)',
+            readingMode: 'gap',
+            safetyAckAt: `${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:05:00.000Z`,
+          }),
           teamId: DEMO_TEAM_ID,
-          vehicleId: v.id,
-          title: vi === 0 ? 'Yard flex test before boot order' : 'Flex test after subframe rebuild',
-          testedOn: vi === 0 ? '2026-11-18' : '2026-11-25',
-          conditions: 'Dry gravel yard, 8 °C, overcast',
-          loadState: 'Water and fuel full, no crew in body',
-          tyrePressures: '3.5 bar front, 4.0 bar rear',
-          crew: 'Joss Harl (driver), Ilse Darrow (spotter)',
-          readingMode: 'gap',
-          safetyAckAt: new Date(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:05:00Z`),
           safetyAckBy: tester,
           createdBy: tester,
         },
@@ -135,20 +136,22 @@ async function seedWorkshop(): Promise<boolean> {
         const poseId = id(vi * 100 + si + 1, '004');
         await PoseModel.create(
           {
-            id: poseId,
+            ...newPose({
+              id: poseId,
+              sessionId,
+              seq: si,
+              label: p.label,
+              kind: p.kind,
+              liftFlMm: p.fl,
+              liftFrMm: p.fr,
+              liftRlMm: p.rl,
+              liftRrMm: p.rr,
+              rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
+              rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
+              rampWheel: 'rampWheel' in p ? p.rampWheel : null,
+              recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000).toISOString(),
+            }),
             teamId: DEMO_TEAM_ID,
-            sessionId,
-            seq: si,
-            label: p.label,
-            kind: p.kind,
-            liftFlMm: p.fl,
-            liftFrMm: p.fr,
-            liftRlMm: p.rl,
-            liftRrMm: p.rr,
-            rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
-            rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
-            rampWheel: 'rampWheel' in p ? p.rampWheel : null,
-            recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000),
             createdBy: tester,
           },
           { transaction },
@@ -172,18 +175,8 @@ async function seedWorkshop(): Promise<boolean> {
           };
           for (const [ai, axis] of (['foreAft', 'lateral', 'vertical'] as const).entries()) {
             const value = si === 0 ? baseline[axis] : baseline[axis] + d[axis] + rand();
-            await ReadingModel.create(
-              {
-                id: id(vi * 10000 + si * 100 + pi * 3 + ai + 1, '005'),
-                teamId: DEMO_TEAM_ID,
-                poseId,
-                gaugePointId: pointIds[pi],
-                axis,
-                valueMm: Math.round(value * 2) / 2,
-                enteredBy: tester,
-              },
-              { transaction },
-            );
+            const reading = newReading({ id: id(vi * 10000 + si * 100 + pi * 3 + ai + 1, '005'), poseId, gaugePointId: pointIds[pi], axis, valueMm: Math.round(value * 2) / 2 });
+            await ReadingModel.create({ ...reading, teamId: DEMO_TEAM_ID, enteredBy: tester }, { transaction });
           }
         }
       }

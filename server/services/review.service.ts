@@ -6,8 +6,7 @@ import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel, UserModel
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
-import { getSessionDetail } from './sessions.service';
-import { readingOut } from './serialize';
+import { getSessionDetail, readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;

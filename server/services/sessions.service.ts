@@ -1,6 +1,6 @@
 import { EnvelopeModel, GaugePointModel, PoseModel, ReadingModel, TestSessionModel, VehicleModel } from '../models';
 import { NotFound } from '../http/errors';
-import { gaugePointOut, poseOut, readingOut, testSessionOut, vehicleOut } from './serialize';
+import { toRecord } from './to-record';
 import type { AuthContext } from '../auth/context';
 import type { Transaction } from 'sequelize';
 
@@ -18,11 +18,14 @@ export async function listSessions(auth: AuthContext) {
   });
   const latestSigned = new Map(signed.map((e) => [e.sessionId, { revision: e.revision, signedAt: e.signedAt!.toISOString() }]));
   return rows.map((s) => ({
-    ...testSessionOut(s),
+    ...toRecord('testSession', s),
     vehicleName: (s as unknown as { vehicle?: { name: string } }).vehicle?.name ?? '',
     signed: latestSigned.get(s.id) ?? null,
   }));
 }
+
+/** A reading with who entered it: the desk shows the person beside each value. */
+export const readingOut = (r: ReadingModel) => ({ ...toRecord('reading', r), enteredBy: r.enteredBy });
 
 /** A whole session with its vehicle, gauge points, poses and readings: what review and the envelope need. */
 // `transaction` lets a sign-off read the readings it freezes inside its own transaction.
@@ -39,10 +42,10 @@ export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: st
     ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction, raw: true, attributes: { exclude: ['createdAt', 'updatedAt'] } })
     : [];
   return {
-    session: testSessionOut(s),
-    vehicle: vehicleOut(v),
-    gaugePoints: points.map(gaugePointOut),
-    poses: poses.map(poseOut),
+    session: toRecord('testSession', s),
+    vehicle: toRecord('vehicle', v),
+    gaugePoints: points.map((g) => toRecord('gaugePoint', g)),
+    poses: poses.map((p) => toRecord('pose', p)),
     readings: readings.map(readingOut),
   };
 }

@@ -18,14 +18,15 @@ import type { AuthContext } from '../auth/context';
 import { allRoles, can, type Action } from '../auth/permissions';
 import { Invalid, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
-import { syncTables, type SyncColumn } from './sync-tables';
+import { syncTables } from './sync-tables';
+import type { Column } from '../../shared/records/define';
 import { readingEditAction } from './review.service';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
 interface EntityAccess {
   /** Creating the record. */
   create: Action;
-  /** The action that changes each field (every column of sync-tables.ts has one). */
+  /** The action that changes each field (every column of the record has one). */
   fields: Record<string, Action>;
   /** What a new record must hold in each field its author may not set (absent: any value). */
   defaults: Record<string, unknown>;
@@ -33,49 +34,44 @@ interface EntityAccess {
   signedSession?: Action;
 }
 
-const all = (keys: string[], action: Action) => Object.fromEntries(keys.map((k) => [k, action]));
+/**
+ * Every field of the record (shared/records) needs `action` to change, but those named in
+ * `except`: a field added to a record is guarded like the record's other fields at once.
+ */
+const fieldsOf = (entity: SyncEntity, action: Action, except: Record<string, Action> = {}) => ({
+  ...Object.fromEntries(syncTables[entity].columns.map((c) => [c.key, action])),
+  ...except,
+});
 
 /** The rules, per entity and field (README "Roles and permissions" states them in words). */
 export const syncAccess: Record<SyncEntity, EntityAccess> = {
   vehicle: {
     create: 'vehicle.write',
-    fields: {
-      ...all(['name', 'chassis', 'body', 'wheelbaseMm', 'trackFrontMm', 'trackRearMm', 'opening', 'nominalGapMm', 'notes'], 'vehicle.write'),
-      deletedAt: 'vehicle.delete',
-    },
+    fields: fieldsOf('vehicle', 'vehicle.write', { deletedAt: 'vehicle.delete' }),
     defaults: { deletedAt: null },
   },
   gaugePoint: {
     create: 'vehicle.write',
     // The desk's gauge point editor (vehicle.write) also removes points.
-    fields: all(['vehicleId', 'label', 'yMm', 'zMm', 'deletedAt'], 'vehicle.write'),
+    fields: fieldsOf('gaugePoint', 'vehicle.write'),
     defaults: { deletedAt: null },
   },
   testSession: {
     create: 'session.record',
-    fields: {
-      ...all(['vehicleId', 'title', 'testedOn', 'conditions', 'loadState', 'tyrePressures', 'crew', 'readingMode', 'safetyAckAt', 'notes'], 'session.record'),
-      deletedAt: 'session.delete',
-    },
+    fields: fieldsOf('testSession', 'session.record', { deletedAt: 'session.delete' }),
     defaults: { deletedAt: null },
     signedSession: 'session.review',
   },
   pose: {
     create: 'session.record',
-    fields: all(
-      ['sessionId', 'seq', 'label', 'kind', 'liftFlMm', 'liftFrMm', 'liftRlMm', 'liftRrMm', 'rampAngleDeg', 'rampDistanceMm', 'rampWheel', 'notes', 'recordedAt', 'deletedAt'],
-      'session.record',
-    ),
+    fields: fieldsOf('pose', 'session.record'),
     defaults: { deletedAt: null },
     signedSession: 'session.review',
   },
   reading: {
     create: 'session.record',
-    fields: {
-      ...all(['poseId', 'gaugePointId', 'axis', 'valueMm', 'deletedAt'], 'session.record'),
-      // Review at the desk: PATCH /api/readings/:id/review needs the same action.
-      ...all(['excluded', 'excludeReason', 'flagNote'], 'session.review'),
-    },
+    // Review at the desk: PATCH /api/readings/:id/review needs the same action.
+    fields: fieldsOf('reading', 'session.record', { excluded: 'session.review', excludeReason: 'session.review', flagNote: 'session.review' }),
     defaults: { excluded: false, excludeReason: null, flagNote: null, deletedAt: null },
     signedSession: 'session.review',
   },
@@ -93,7 +89,7 @@ const select = <T = Row>(sql: string, bind: unknown[], transaction: Transaction)
   db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
 
 /** One value in a form that compares equal when it means the same (an instant, a JSON value, a uuid). */
-function comparable(col: SyncColumn, v: unknown): unknown {
+function comparable(col: Column, v: unknown): unknown {
   if (v === undefined || v === null) return null;
   if (col.type === 'timestamptz') return new Date(v as string | Date).getTime();
   if (col.type === 'jsonb') return canonicalize(v);
@@ -102,7 +98,7 @@ function comparable(col: SyncColumn, v: unknown): unknown {
 }
 
 /** The value as a person reads it in the history (ISO times, plain JSON). */
-function shown(col: SyncColumn, v: unknown): unknown {
+function shown(col: Column, v: unknown): unknown {
   if (v === undefined || v === null) return null;
   if (col.type === 'timestamptz') return new Date(v as string | Date).toISOString();
   return v;
@@ -160,7 +156,7 @@ export async function enforceSyncAccess(
     const refuse = (key: string, action: Action, what: string) =>
       errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that needs ${action} (${who(action)})` });
 
-    const changed: SyncColumn[] = [];
+    const changed: Column[] = [];
     for (const col of spec.columns) {
       const after = comparable(col, item.record[col.key]);
       if (row) {

@@ -3,26 +3,19 @@
 // (the server version it was edited from; 1 for a record the server has never seen).
 import * as z from 'zod';
 import { id, isoDateTime, text } from './common';
-import { vehicle } from './vehicle';
-import { gaugePoint } from './gauge-point';
-import { testSession } from './test-session';
-import { pose } from './pose';
-import { reading } from './reading';
 import { photo } from './photo';
+import { records, syncEntities, type PullKeyOf, type RecordInputOf, type RecordOf, type SyncEntity } from '../records';
 
-export const syncEntities = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'] as const;
-export const syncEntity = z.enum(syncEntities);
-export type SyncEntity = z.infer<typeof syncEntity>;
+export { syncEntities, type SyncEntity };
+export const syncEntity = z.enum(syncEntities as [SyncEntity, ...SyncEntity[]]);
 
 /** One change: the whole record as the client has it now. */
-export const syncChange = z.discriminatedUnion('entity', [
-  z.object({ entity: z.literal('vehicle'), record: vehicle }),
-  z.object({ entity: z.literal('gaugePoint'), record: gaugePoint }),
-  z.object({ entity: z.literal('testSession'), record: testSession }),
-  z.object({ entity: z.literal('pose'), record: pose }),
-  z.object({ entity: z.literal('reading'), record: reading }),
-]);
-export type SyncChange = z.infer<typeof syncChange>;
+export type SyncChange = { [E in SyncEntity]: { entity: E; record: RecordOf<E> } }[SyncEntity];
+type SyncChangeInput = { [E in SyncEntity]: { entity: E; record: RecordInputOf<E> } }[SyncEntity];
+export const syncChange = z.discriminatedUnion(
+  'entity',
+  syncEntities.map((entity) => z.object({ entity: z.literal(entity), record: records[entity].schema })) as unknown as [z.ZodObject, z.ZodObject],
+) as unknown as z.ZodType<SyncChange, SyncChangeInput>;
 
 /**
  * Changes per batch the field client sends: about 280 kB of JSON, fine on a phone's mobile data,
@@ -70,20 +63,23 @@ export const pullQuery = z.object({
 
 const withSeq = <T extends z.ZodTypeAny>(schema: T) => z.intersection(schema, z.object({ changeSeq: z.number().int() }));
 
-export const pullResponse = z.object({
+type Pulled<T> = T & { changeSeq: number };
+export type PullResponse = {
   /** Pass back as `since` next time. */
-  cursor: z.number().int(),
+  cursor: number;
   /** More changes wait beyond `cursor`: pull again at once. */
+  hasMore: boolean;
+  photos: Pulled<z.infer<typeof photo>>[];
+  conflicts: SyncConflict[];
+} & { [E in SyncEntity as PullKeyOf<E>]: Pulled<RecordOf<E>>[] };
+
+export const pullResponse = z.object({
+  cursor: z.number().int(),
   hasMore: z.boolean(),
-  vehicles: z.array(withSeq(vehicle)),
-  gaugePoints: z.array(withSeq(gaugePoint)),
-  testSessions: z.array(withSeq(testSession)),
-  poses: z.array(withSeq(pose)),
-  readings: z.array(withSeq(reading)),
+  ...Object.fromEntries(syncEntities.map((entity) => [records[entity].pullKey, z.array(withSeq(records[entity].schema))])),
   photos: z.array(withSeq(photo)),
   conflicts: z.array(syncConflict),
-});
-export type PullResponse = z.infer<typeof pullResponse>;
+}) as unknown as z.ZodType<PullResponse>;
 
 export const resolveConflictInput = z.object({ keep: z.enum(['client', 'server']) });
 export type ResolveConflictInput = z.infer<typeof resolveConflictInput>;

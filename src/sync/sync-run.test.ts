@@ -10,6 +10,7 @@ import { addPhoto } from '@/lib/db/photos';
 import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
 import { runSync } from './sync-run';
 import type { SyncTransport } from './transport';
+import { newReading, newTestSession } from '@shared/records';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -23,21 +24,10 @@ afterEach(async () => {
 
 const uuid = () => crypto.randomUUID();
 const session = (over: Record<string, unknown> = {}) => ({
-  id: uuid(),
-  version: 1,
-  vehicleId: uuid(),
-  title: 'Yard flex test',
-  testedOn: '2026-03-14',
-  conditions: '',
-  loadState: '',
-  tyrePressures: '',
-  crew: '',
-  readingMode: 'gap' as const,
-  safetyAckAt: '2026-03-14T09:00:00.000Z',
-  notes: '',
+  ...newTestSession({ vehicleId: uuid(), title: 'Yard flex test', testedOn: '2026-03-14', safetyAckAt: '2026-03-14T09:00:00.000Z' }),
   ...over,
 });
-const reading = (poseId: string, valueMm: number) => ({ id: uuid(), version: 1, poseId, gaugePointId: uuid(), axis: 'lateral' as const, valueMm, excluded: false, excludeReason: null, flagNote: null });
+const reading = (poseId: string, valueMm: number) => newReading({ poseId, gaugePointId: uuid(), axis: 'lateral', valueMm });
 
 const emptyPull = (cursor: number): PullResponse => ({ cursor, hasMore: false, vehicles: [], gaugePoints: [], testSessions: [], poses: [], readings: [], photos: [], conflicts: [] });
 

@@ -1,8 +1,9 @@
 // The foundation through HTTP on the real PostgreSQL: health, validation errors that name the
 // field, the JSON error handler, sign-in, team-scoped rows written and read back.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { agentFor, createTeam, signedInAgent, startTestServer, vehicleBody, type TestServer } from '../support/test-app';
-import { VehicleModel } from '../../server/models';
+import { agentFor, createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
+import { batchKey, change, gaugePointRecords, pushAccepted, vehicleRecord } from '../support/sync';
+import { GaugePointModel, VehicleModel } from '../../server/models';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -28,16 +29,16 @@ describe('errors', () => {
   it('names the bad field in a 400', async () => {
     const team = await createTeam();
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const res = await agent.post('/api/vehicles').send(vehicleBody({ wheelbaseMm: -5 }));
+    const res = await push(agent, [change('vehicle', vehicleRecord({ wheelbaseMm: -5 }))]);
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.map((f: { field: string }) => f.field)).toContain('body.wheelbaseMm');
+    expect(res.body.error.fields.map((f: { field: string }) => f.field)).toContain('body.changes.0.record.wheelbaseMm');
     expect(res.body.error.message).toMatch(/wheelbaseMm/);
   });
 
   it('answers malformed JSON with a 400, not a stack trace', async () => {
     const team = await createTeam();
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const res = await agent.post('/api/vehicles').set('Content-Type', 'application/json').send('{"name": ');
+    const res = await agent.post('/api/sync/push').set('Content-Type', 'application/json').send('{"changes": ');
     expect(res.status).toBe(400);
     expect(JSON.stringify(res.body)).not.toMatch(/at .*\.ts/);
   });
@@ -45,19 +46,20 @@ describe('errors', () => {
   it('refuses a body over the limit with 413', async () => {
     const team = await createTeam();
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const res = await agent.post('/api/vehicles').send(vehicleBody({ notes: 'x'.repeat(5 * 1024 * 1024) }));
+    const res = await push(agent, [change('vehicle', vehicleRecord({ notes: 'x'.repeat(5 * 1024 * 1024) }))]);
     expect(res.status).toBe(413);
   });
 });
+
+const push = (agent: Agent, changes: ReturnType<typeof change>[]) => agent.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes });
 
 describe('vehicles on the real database', () => {
   it('creates a row in PostgreSQL and reads it back, scoped to the team', async () => {
     const team = await createTeam();
     const other = await createTeam('Other workshop');
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const body = vehicleBody({ name: 'Unit 3' });
-    const created = await agent.post('/api/vehicles').send(body);
-    expect(created.status).toBe(201);
+    const body = vehicleRecord({ name: 'Unit 3' });
+    await pushAccepted(agent, [change('vehicle', body)]);
 
     const row = await VehicleModel.findByPk(body.id);
     expect(row?.teamId).toBe(team.teamId);
@@ -68,36 +70,33 @@ describe('vehicles on the real database', () => {
     expect(list.body.map((v: { id: string }) => v.id)).toContain(body.id);
 
     const outsider = await signedInAgent(ts, other.members.engineer.email);
-    expect((await outsider.get(`/api/vehicles/${body.id}`)).status).toBe(404);
     expect((await outsider.get('/api/vehicles')).body).toEqual([]);
   });
 
-  it('refuses a stale edit with 409 and keeps what was saved', async () => {
+  it('keeps a stale edit as a conflict beside what was saved, overwriting nothing', async () => {
     const team = await createTeam();
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const body = vehicleBody();
-    await agent.post('/api/vehicles').send(body);
-    const { id, ...rest } = body;
-    const first = await agent.put(`/api/vehicles/${id}`).send({ ...rest, version: 1, name: 'First edit' });
-    expect(first.status).toBe(200);
-    expect(first.body.version).toBe(2);
-    const stale = await agent.put(`/api/vehicles/${id}`).send({ ...rest, version: 1, name: 'Stale edit' });
-    expect(stale.status).toBe(409);
-    expect((await VehicleModel.findByPk(id))?.name).toBe('First edit');
+    const body = vehicleRecord();
+    await pushAccepted(agent, [change('vehicle', body)]);
+    const first = await pushAccepted(agent, [change('vehicle', { ...body, name: 'First edit' })]);
+    expect(first.accepted[0].version).toBe(2);
+    const stale = await push(agent, [change('vehicle', { ...body, name: 'Stale edit' })]);
+    expect(stale.status).toBe(200);
+    expect(stale.body.accepted).toEqual([]);
+    expect(stale.body.conflicts.map((c: { clientRecord: { name: string }; serverRecord: { name: string } }) => [c.clientRecord.name, c.serverRecord.name])).toEqual([['Stale edit', 'First edit']]);
+    expect((await VehicleModel.findByPk(body.id))?.name).toBe('First edit');
   });
 
-  it('replaces gauge points and soft-deletes the ones left out', async () => {
+  it('adds, moves and removes gauge points through push', async () => {
     const team = await createTeam();
     const agent = await signedInAgent(ts, team.members.engineer.email);
-    const body = vehicleBody();
-    await agent.post('/api/vehicles').send(body);
-    const a = { id: crypto.randomUUID(), label: 'A', yMm: 300, zMm: 800 };
-    const b = { id: crypto.randomUUID(), label: 'B', yMm: -300, zMm: 800 };
-    let res = await agent.put(`/api/vehicles/${body.id}/gauge-points`).send({ gaugePoints: [a, b] });
-    expect(res.status).toBe(200);
-    expect(res.body.gaugePoints).toHaveLength(2);
-    res = await agent.put(`/api/vehicles/${body.id}/gauge-points`).send({ gaugePoints: [{ ...a, zMm: 820 }] });
-    expect(res.body.gaugePoints.map((p: { label: string; zMm: number }) => [p.label, p.zMm])).toEqual([['A', 820]]);
+    const body = vehicleRecord();
+    const [a, b] = gaugePointRecords(body.id, ['A', 'B']);
+    const live = async () => (await GaugePointModel.findAll({ where: { vehicleId: body.id, deletedAt: null } })).map((p) => [p.label, p.zMm]);
+    await pushAccepted(agent, [change('vehicle', body), change('gaugePoint', a), change('gaugePoint', b)]);
+    expect(await live()).toHaveLength(2);
+    await pushAccepted(agent, [change('gaugePoint', { ...a, zMm: 820 }), change('gaugePoint', { ...b, deletedAt: new Date().toISOString() })]);
+    expect(await live()).toEqual([['A', 820]]);
   });
 });
 

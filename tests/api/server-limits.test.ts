@@ -11,6 +11,7 @@ import { insertRow } from '../support/db-snapshot';
 import { batchKey } from '../support/sync';
 import { createSequelize, DB_TIMEOUTS } from '../../server/db';
 import { pruneExpired, SYNC_BATCH_RETENTION_DAYS } from '../../server/services/prune';
+import { newGaugePoint, newReading } from '../../shared/records';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -120,8 +121,8 @@ describe('push errors', () => {
       idempotencyKey: batchKey(),
       changes: [
         // Their vehicle, with their label; a reading into the slot their reading holds.
-        { entity: 'gaugePoint', record: { id: randomUUID(), version: 1, vehicleId: ids.v, label: 'SECRET7', yMm: 1, zMm: 2 } },
-        { entity: 'reading', record: { id: randomUUID(), version: 1, poseId: ids.p, gaugePointId: ids.g, axis: 'lateral', valueMm: 5, excluded: false, excludeReason: null, flagNote: null } },
+        { entity: 'gaugePoint', record: newGaugePoint({ vehicleId: ids.v, label: 'SECRET7', yMm: 1, zMm: 2 }) },
+        { entity: 'reading', record: newReading({ poseId: ids.p, gaugePointId: ids.g, axis: 'lateral', valueMm: 5 }) },
       ],
     });
     expect(res.status).toBe(400);

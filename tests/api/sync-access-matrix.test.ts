@@ -16,10 +16,12 @@ import { QueryTypes } from 'sequelize';
 import { createTeam, sessionAgent, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { batchKey } from '../support/sync';
 import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } from '../support/db-snapshot';
-import { rowToRecord, syncTables } from '../../server/services/sync-tables';
+import { syncTables } from '../../server/services/sync-tables';
+import { toRecord } from '../../server/services/to-record';
 import { syncAccess } from '../../server/services/sync-access';
 import type { SyncEntity } from '../../shared/schemas/sync';
 import type { Role } from '../../shared/schemas';
+import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
 
 let ts: TestServer;
 let tables: ScopedTable[];
@@ -92,7 +94,7 @@ async function buildFixture(): Promise<Fixture> {
 async function current(entity: SyncEntity, id: string): Promise<Record<string, unknown> & { id: string; version: number }> {
   const spec = syncTables[entity];
   const [row] = await ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${spec.table} WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT });
-  const { changeSeq: _seq, ...record } = rowToRecord(spec, row);
+  const { changeSeq: _seq, ...record } = toRecord(entity, row);
   return record;
 }
 
@@ -104,48 +106,26 @@ const swap = (v: unknown, a: string, b: string) => (v === a ? b : a);
 function changeOf(entity: SyncEntity, field: string, r: Record<string, unknown>, f: Fixture): Patch {
   const more = (n: unknown) => (n as number) + 10;
   const text = (v: unknown) => `${String(v ?? '')} changed`.trim();
-  const common: Record<string, () => Patch> = { deletedAt: () => ({ deletedAt: later() }), notes: () => ({ notes: text(r.notes) }) };
   const by: Record<SyncEntity, Record<string, () => Patch>> = {
     vehicle: {
-      name: () => ({ name: text(r.name) }),
-      chassis: () => ({ chassis: text(r.chassis) }),
-      body: () => ({ body: text(r.body) }),
-      wheelbaseMm: () => ({ wheelbaseMm: more(r.wheelbaseMm) }),
-      trackFrontMm: () => ({ trackFrontMm: more(r.trackFrontMm) }),
-      trackRearMm: () => ({ trackRearMm: more(r.trackRearMm) }),
       opening: () => ({ opening: { ...(r.opening as object), widthMm: more((r.opening as { widthMm: number }).widthMm) } }),
-      nominalGapMm: () => ({ nominalGapMm: more(r.nominalGapMm) }),
     },
     gaugePoint: {
       vehicleId: () => ({ vehicleId: swap(r.vehicleId, f.ids.v1, f.ids.v2) }),
       label: () => ({ label: r.label === 'Z9' ? 'Z8' : 'Z9' }),
-      yMm: () => ({ yMm: more(r.yMm) }),
-      zMm: () => ({ zMm: more(r.zMm) }),
     },
     testSession: {
       vehicleId: () => ({ vehicleId: swap(r.vehicleId, f.ids.v1, f.ids.v2) }),
-      title: () => ({ title: text(r.title) }),
       testedOn: () => ({ testedOn: r.testedOn === '2026-04-01' ? '2026-04-02' : '2026-04-01' }),
-      conditions: () => ({ conditions: text(r.conditions) }),
-      loadState: () => ({ loadState: text(r.loadState) }),
-      tyrePressures: () => ({ tyrePressures: text(r.tyrePressures) }),
-      crew: () => ({ crew: text(r.crew) }),
       readingMode: () => ({ readingMode: swap(r.readingMode, 'gap', 'displacement') }),
-      safetyAckAt: () => ({ safetyAckAt: later() }),
     },
     pose: {
       sessionId: () => ({ sessionId: r.sessionId === f.ids.spareSession ? f.ids.openSession : f.ids.spareSession }),
-      seq: () => ({ seq: more(r.seq) }),
       label: () => ({ label: text(r.label).slice(-80) }),
       kind: () => ({ kind: swap(r.kind, 'wheels', 'level') }),
-      liftFlMm: () => ({ liftFlMm: more(r.liftFlMm) }),
-      liftFrMm: () => ({ liftFrMm: more(r.liftFrMm) }),
-      liftRlMm: () => ({ liftRlMm: more(r.liftRlMm) }),
-      liftRrMm: () => ({ liftRrMm: more(r.liftRrMm) }),
       rampAngleDeg: () => ({ rampAngleDeg: r.rampAngleDeg === 20 ? 15 : 20 }),
       rampDistanceMm: () => ({ rampDistanceMm: r.rampDistanceMm === 500 ? 600 : 500 }),
       rampWheel: () => ({ rampWheel: r.rampWheel === 'fl' ? 'fr' : 'fl' }),
-      recordedAt: () => ({ recordedAt: later() }),
     },
     reading: {
       poseId: () => ({ poseId: r.poseId === f.ids.p1 ? f.ids.p2 : r.poseId === f.ids.p2 ? f.ids.p1 : r.poseId === f.ids.q1 ? f.ids.q2 : f.ids.q1 }),
@@ -154,10 +134,19 @@ function changeOf(entity: SyncEntity, field: string, r: Record<string, unknown>,
       valueMm: () => ({ valueMm: (r.valueMm as number) + 905.5 }),
       excluded: () => (r.excluded ? { excluded: false } : { excluded: true, excludeReason: 'tape slipped' }),
       excludeReason: () => ({ excludeReason: r.excludeReason === 'checked twice' ? 'checked again' : 'checked twice' }),
-      flagNote: () => ({ flagNote: text(r.flagNote) }),
     },
   };
-  const make = by[entity][field] ?? common[field];
+  // A field with no entry of its own changes as its column type suggests (free text gets a word
+  // more, a number 10 more): a field whose values are a list needs an entry above.
+  const type = syncTables[entity].columns.find((c) => c.key === field)?.type;
+  const byType: Partial<Record<string, () => Patch>> = {
+    text: () => ({ [field]: text(r[field]) }),
+    float8: () => ({ [field]: more(r[field]) }),
+    int4: () => ({ [field]: more(r[field]) }),
+    bool: () => ({ [field]: !r[field] }),
+    timestamptz: () => ({ [field]: later() }),
+  };
+  const make = by[entity][field] ?? (type ? byType[type] : undefined);
   if (!make) throw new Error(`no test change for ${entity}.${field}: add one (every field of every record is in the matrix)`);
   return make();
 }
@@ -173,30 +162,30 @@ const targets = (f: Fixture): Record<SyncEntity, { open: string; signed?: string
 
 let slotsTaken = 0;
 const freeSlots = (f: Fixture) => [
-  { poseId: f.ids.p1, gaugePointId: f.ids.g1, axis: 'foreAft' },
-  { poseId: f.ids.p1, gaugePointId: f.ids.g1, axis: 'vertical' },
-  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'lateral' },
-  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'foreAft' },
-  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'vertical' },
+  { poseId: f.ids.p1, gaugePointId: f.ids.g1, axis: 'foreAft' as const },
+  { poseId: f.ids.p1, gaugePointId: f.ids.g1, axis: 'vertical' as const },
+  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'lateral' as const },
+  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'foreAft' as const },
+  { poseId: f.ids.p1, gaugePointId: f.ids.g2, axis: 'vertical' as const },
 ];
 
 /** A new record of each kind, with every field at its default (in an open session, or a signed one). */
 function newRecord(entity: SyncEntity, f: Fixture, inSigned: boolean): Record<string, unknown> & { id: string; version: number } {
   const id = randomUUID();
-  const base = { id, version: 1, deletedAt: null };
+  const base = { id, deletedAt: null };
   switch (entity) {
     case 'vehicle':
-      return { ...base, name: 'New truck', chassis: '', body: '', wheelbaseMm: 3600, trackFrontMm: 1800, trackRearMm: 1800, opening: { widthMm: 600, heightMm: 400, cornerRadiusMm: 50, centreYMm: 0, bottomZMm: 300 }, nominalGapMm: 80, notes: '' };
+      return newVehicle({ ...base, name: 'New truck', wheelbaseMm: 3600, trackFrontMm: 1800, trackRearMm: 1800, opening: { widthMm: 600, heightMm: 400, cornerRadiusMm: 50, centreYMm: 0, bottomZMm: 300 }, nominalGapMm: 80 });
     case 'gaugePoint':
-      return { ...base, vehicleId: f.ids.v2, label: `N${id.slice(0, 4)}`, yMm: 10, zMm: 20 };
+      return newGaugePoint({ ...base, vehicleId: f.ids.v2, label: `N${id.slice(0, 4)}`, yMm: 10, zMm: 20 });
     case 'testSession':
-      return { ...base, vehicleId: f.ids.v1, title: 'New', testedOn: '2026-06-01', conditions: '', loadState: '', tyrePressures: '', crew: '', readingMode: 'gap', safetyAckAt: null, notes: '' };
+      return newTestSession({ ...base, vehicleId: f.ids.v1, title: 'New', testedOn: '2026-06-01' });
     case 'pose':
-      return { ...base, sessionId: inSigned ? f.ids.signedSession : f.ids.openSession, seq: 7, label: 'New pose', kind: 'wheels', liftFlMm: 0, liftFrMm: 250, liftRlMm: 0, liftRrMm: 0, rampAngleDeg: null, rampDistanceMm: null, notes: '', recordedAt: new Date().toISOString() };
+      return newPose({ ...base, sessionId: inSigned ? f.ids.signedSession : f.ids.openSession, seq: 7, label: 'New pose', liftFrMm: 250 });
     case 'reading': {
       // Each new reading takes a slot of its own (the first updates move r1 off p1).
-      const slot = inSigned ? { poseId: f.ids.q2, gaugePointId: f.ids.g1, axis: 'foreAft' } : freeSlots(f)[slotsTaken++ % 5];
-      return { ...base, ...slot, valueMm: 4.5, excluded: false, excludeReason: null, flagNote: null };
+      const slot = inSigned ? { poseId: f.ids.q2, gaugePointId: f.ids.g1, axis: 'foreAft' as const } : freeSlots(f)[slotsTaken++ % 5];
+      return newReading({ ...base, ...slot, valueMm: 4.5 });
     }
   }
 }

@@ -6,6 +6,7 @@ import { randomUUID } from 'node:crypto';
 import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { GaugePointModel, PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
+import { newGaugePoint } from '../../shared/records';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -78,7 +79,7 @@ describe('text and dates PostgreSQL cannot store are refused by the shared schem
 describe('gauge point labels renamed and added on two phones', () => {
   it('renaming a point and giving its old label to a new one, in one batch, lands', async () => {
     const f = await twoPhones();
-    const added = { id: randomUUID(), version: 1, vehicleId: f.vehicleId, label: 'A', yMm: 0, zMm: 600 };
+    const added = newGaugePoint({ vehicleId: f.vehicleId, label: 'A', yMm: 0, zMm: 600 });
     const res = await push(f.tester, change('gaugePoint', { ...f.point(0), label: 'C' }), change('gaugePoint', added));
     expect(res.status).toBe(200);
     expect((await GaugePointModel.findAll({ where: { vehicleId: f.vehicleId, deletedAt: null } })).map((p) => p.label).sort()).toEqual(['A', 'B', 'C']);
@@ -105,7 +106,7 @@ describe('gauge point labels renamed and added on two phones', () => {
     const f = await twoPhones();
     expect((await push(f.tester, change('gaugePoint', { ...f.point(0), label: 'C' }))).status).toBe(200);
     // The second phone renamed A to D from version 1 and added a new point C.
-    const added = { id: randomUUID(), version: 1, vehicleId: f.vehicleId, label: 'C', yMm: 10, zMm: 600 };
+    const added = newGaugePoint({ vehicleId: f.vehicleId, label: 'C', yMm: 10, zMm: 600 });
     const res = await push(f.engineer, change('gaugePoint', { ...f.point(0), version: 1, label: 'D' }), change('gaugePoint', added));
     expect(res.status).toBe(400);
     expect(fields(res.body)).toEqual(['body.changes.1.record.label']);
@@ -169,7 +170,7 @@ describe('resolving a conflict with "keep this phone\'s"', () => {
     expect((await push(f.tester, change('gaugePoint', { ...f.point(0), yMm: 301 }))).status).toBe(200);
     const stale = await push(f.engineer, change('gaugePoint', { ...f.point(0), version: 1, label: 'E' }));
     const conflictId = stale.body.conflicts[0].id;
-    const added = { id: randomUUID(), version: 1, vehicleId: f.vehicleId, label: 'E', yMm: 0, zMm: 600 };
+    const added = newGaugePoint({ vehicleId: f.vehicleId, label: 'E', yMm: 0, zMm: 600 });
     expect((await push(f.tester, change('gaugePoint', added))).status).toBe(200);
     const res = await f.engineer.post(`/api/sync/conflicts/${conflictId}/resolve`).send({ keep: 'client' });
     expect(res.status).toBe(400);
@@ -224,13 +225,8 @@ describe('a constraint PostgreSQL checks that the checks above missed', () => {
 
   it('the desk giving two gauge points one label is refused naming the point', async () => {
     const f = await twoPhones();
-    const res = await f.tester.put(`/api/vehicles/${f.vehicleId}/gauge-points`).send({
-      gaugePoints: [
-        { id: f.point(0).id, label: 'A', yMm: 1, zMm: 2 },
-        { id: f.point(1).id, label: 'A', yMm: 3, zMm: 4 },
-      ],
-    });
+    const res = await push(f.engineer, change('gaugePoint', { ...f.point(0), label: 'A', yMm: 1, zMm: 2 }), change('gaugePoint', { ...f.point(1), label: 'A', yMm: 3, zMm: 4 }));
     expect(res.status).toBe(400);
-    expect(fields(res.body)).toEqual(['body.gaugePoints.1.label']);
+    expect(fields(res.body)).toEqual(['body.changes.1.record.label']);
   });
 });

@@ -3,9 +3,9 @@
 // sorts before the chosen one). The choice stays, and a disabled button says what is missing.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, vehicleBody, type TestServer } from '../support/test-app';
+import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
 import { launchBrowser, signInAs } from '../support/browser';
-import { vehicleWithPoints } from '../support/sync';
+import { change, pushAccepted, vehicleRecord, vehicleWithPoints } from '../support/sync';
 
 let ts: TestServer;
 let browser: Browser;
@@ -34,7 +34,7 @@ describe('start a session', () => {
     expect(chosen).not.toBe('');
 
     // Meanwhile the desk adds a vehicle; the next sync brings it down and it sorts first.
-    expect((await desk.post('/api/vehicles').send(vehicleBody({ name: 'Alder test rig' }))).status).toBe(201);
+    await pushAccepted(desk, [change('vehicle', vehicleRecord({ name: 'Alder test rig' }))]);
     await page.evaluate(() => window.dispatchEvent(new Event('online')));
     await vehicle.locator('option', { hasText: 'Alder test rig' }).waitFor({ state: 'attached' });
     expect(await vehicle.inputValue()).toBe(chosen);
@@ -75,7 +75,7 @@ describe('start a session', () => {
     await vehicle.evaluate((el: HTMLSelectElement) => {
       el.value = [...el.options].find((o) => o.text === 'Test truck')!.value;
     });
-    expect((await desk.post('/api/vehicles').send(vehicleBody({ name: 'Alder test rig' }))).status).toBe(201);
+    await pushAccepted(desk, [change('vehicle', vehicleRecord({ name: 'Alder test rig' }))]);
     await page.evaluate(() => window.dispatchEvent(new Event('online')));
     await vehicle.locator('option', { hasText: 'Alder test rig' }).waitFor({ state: 'attached' });
     await vehicle.evaluate((el: HTMLSelectElement) => el.dispatchEvent(new Event('change', { bubbles: true })));

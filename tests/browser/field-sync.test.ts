@@ -6,7 +6,8 @@ import { clientDir, createTeam, startTestServer, type TestServer } from '../supp
 import { launchBrowser } from '../support/browser';
 import { allSaved, barText, fieldSession, openConflicts, openPhone } from '../support/field-phone';
 import { signedInAgent } from '../support/test-app';
-import { batchKey, change } from '../support/sync';
+import { batchKey, change, pushAccepted } from '../support/sync';
+import { newGaugePoint } from '../../shared/records';
 import { GaugePointModel, PoseModel, ReadingModel } from '../../server/models';
 
 let ts: TestServer;
@@ -94,11 +95,7 @@ describe('one phone, online', () => {
     await page.getByRole('button', { name: 'Remove point C' }).waitFor();
     // …while the desk places its own point C on the same vehicle.
     const desk = await signedInAgent(ts, team.members.engineer.email);
-    const points = await GaugePointModel.findAll({ where: { vehicleId: f.vehicleId, deletedAt: null } });
-    const put = await desk.put(`/api/vehicles/${f.vehicleId}/gauge-points`).send({
-      gaugePoints: [...points.map((p) => ({ id: p.id, label: p.label, yMm: p.yMm, zMm: p.zMm })), { id: crypto.randomUUID(), label: 'C', yMm: 0, zMm: 600 }],
-    });
-    expect(put.status).toBe(200);
+    await pushAccepted(desk, [change('gaugePoint', newGaugePoint({ vehicleId: f.vehicleId, label: 'C', yMm: 0, zMm: 600 }))]);
 
     await context.setOffline(false);
     await page.getByRole('link', { name: 'See the held records' }).waitFor({ timeout: 30_000 });

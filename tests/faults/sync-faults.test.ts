@@ -14,6 +14,7 @@ import { migrate } from '../../server/migrate';
 import { startSession } from '../../server/auth/lucia';
 import { createTeam, TEST_PASSWORD, type TestTeam } from '../support/test-app';
 import { nodeTransport, signInCookie, startPrivateCluster, startServerProcess, waitForHealth, type ServerProcess } from './fault-rig';
+import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
 
 let pg: Awaited<ReturnType<typeof startPrivateCluster>>;
 let sequelize: Sequelize;
@@ -44,27 +45,14 @@ const uuid = () => randomUUID();
 function sessionRecords(poses: number) {
   const vehicleId = uuid();
   const sessionId = uuid();
-  const vehicle = {
-    id: vehicleId, version: 1, name: `Fault truck ${vehicleId.slice(0, 4)}`, chassis: '', body: '', wheelbaseMm: 3800, trackFrontMm: 1900, trackRearMm: 1880,
-    opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 }, nominalGapMm: 90, notes: '',
-  };
-  const points = [[330, 830], [0, 830], [-330, 830], [-330, 370], [0, 370], [330, 370]].map(([y, z], i) => ({
-    id: uuid(), version: 1, vehicleId, label: 'ABCDEF'[i], yMm: y, zMm: z,
-  }));
-  const session = {
-    id: sessionId, version: 1, vehicleId, title: 'Fault test', testedOn: '2026-11-30', conditions: '', loadState: '', tyrePressures: '', crew: '',
-    readingMode: 'gap', safetyAckAt: '2026-11-30T09:00:00.000Z', notes: '',
-  };
-  const poseRows = Array.from({ length: poses }, (_, seq) => ({
-    id: uuid(), version: 1, sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels',
-    liftFlMm: seq === 0 ? 0 : 100 + seq, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0, rampAngleDeg: null, rampDistanceMm: null, notes: '', recordedAt: '2026-11-30T09:10:00.000Z',
-  }));
+  const vehicle = newVehicle({ id: vehicleId, name: `Fault truck ${vehicleId.slice(0, 4)}`, trackRearMm: 1880 });
+  const points = [[330, 830], [0, 830], [-330, 830], [-330, 370], [0, 370], [330, 370]].map(([y, z], i) => newGaugePoint({ vehicleId, label: 'ABCDEF'[i], yMm: y, zMm: z }));
+  const session = newTestSession({ id: sessionId, vehicleId, title: 'Fault test', testedOn: '2026-11-30', safetyAckAt: '2026-11-30T09:00:00.000Z' });
+  const poseRows = Array.from({ length: poses }, (_, seq) =>
+    newPose({ sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels', liftFlMm: seq === 0 ? 0 : 100 + seq, recordedAt: '2026-11-30T09:10:00.000Z' }),
+  );
   const readings = poseRows.flatMap((p, pi) =>
-    points.flatMap((g) =>
-      (['foreAft', 'lateral', 'vertical'] as const).map((axis, ai) => ({
-        id: uuid(), version: 1, poseId: p.id, gaugePointId: g.id, axis, valueMm: 10 + pi + ai, excluded: false, excludeReason: null, flagNote: null,
-      })),
-    ),
+    points.flatMap((g) => (['foreAft', 'lateral', 'vertical'] as const).map((axis, ai) => newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: 10 + pi + ai }))),
   );
   return { vehicle, points, session, poses: poseRows, readings, sessionId };
 }

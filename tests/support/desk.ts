@@ -4,6 +4,7 @@
 import { randomUUID } from 'node:crypto';
 import { GaugePointModel, PoseModel, ReadingModel, TestSessionModel, VehicleModel } from '../../server/models';
 import { buildSyntheticSession } from '../../shared/flex';
+import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
 import type { TestTeam } from './test-app';
 
 export interface DeskSession {
@@ -31,32 +32,27 @@ export async function createDeskSession(team: TestTeam, opts: { name?: string; s
   const vehicleId = randomUUID();
   const o = synthetic.outline;
   await VehicleModel.create({
-    id: vehicleId,
+    ...newVehicle({
+      id: vehicleId,
+      name: opts.name ?? 'Test truck',
+      wheelbaseMm: 3800,
+      trackFrontMm: synthetic.tracks.frontMm,
+      trackRearMm: synthetic.tracks.rearMm,
+      opening: { widthMm: o.width, heightMm: o.height, cornerRadiusMm: o.cornerRadius, centreYMm: o.centreY ?? 0, bottomZMm: o.bottomZ ?? 0 },
+      nominalGapMm: 90,
+    }),
     teamId: team.teamId,
-    name: opts.name ?? 'Test truck',
-    chassis: '',
-    body: '',
-    wheelbaseMm: 3800,
-    trackFrontMm: synthetic.tracks.frontMm,
-    trackRearMm: synthetic.tracks.rearMm,
-    opening: { widthMm: o.width, heightMm: o.height, cornerRadiusMm: o.cornerRadius, centreYMm: o.centreY ?? 0, bottomZMm: o.bottomZ ?? 0 },
-    nominalGapMm: 90,
-    notes: '',
   });
   const pointIds = new Map<string, string>();
   for (const g of synthetic.gaugePoints) {
     const gid = randomUUID();
     pointIds.set(g.id, gid);
-    await GaugePointModel.create({ id: gid, teamId: team.teamId, vehicleId, label: g.id, yMm: g.y, zMm: g.z });
+    await GaugePointModel.create({ ...newGaugePoint({ id: gid, vehicleId, label: g.id, yMm: g.y, zMm: g.z }), teamId: team.teamId });
   }
   const sessionId = randomUUID();
   await TestSessionModel.create({
-    id: sessionId,
+    ...newTestSession({ id: sessionId, vehicleId, title: `Flex test ${opts.seed ?? 7}`, testedOn: '2026-11-18', readingMode: 'gap' }),
     teamId: team.teamId,
-    vehicleId,
-    title: `Flex test ${opts.seed ?? 7}`,
-    testedOn: '2026-11-18',
-    readingMode: 'gap',
     createdBy: tester,
   });
   const poseIds: string[] = [];
@@ -66,26 +62,24 @@ export async function createDeskSession(team: TestTeam, opts: { name?: string; s
     const poseId = randomUUID();
     poseIds.push(poseId);
     await PoseModel.create({
-      id: poseId,
+      ...newPose({
+        id: poseId,
+        sessionId,
+        seq: i,
+        label: i === 0 ? 'Level' : `Diagonal ${i}`,
+        kind: i === 0 ? 'level' : 'wheels',
+        liftFlMm: pose.lifts.fl,
+        liftFrMm: pose.lifts.fr,
+        liftRlMm: pose.lifts.rl,
+        liftRrMm: pose.lifts.rr,
+        recordedAt: new Date(Date.parse('2026-11-18T09:00:00Z') + i * 600_000).toISOString(),
+      }),
       teamId: team.teamId,
-      sessionId,
-      seq: i,
-      label: i === 0 ? 'Level' : `Diagonal ${i}`,
-      kind: i === 0 ? 'level' : 'wheels',
-      liftFlMm: pose.lifts.fl,
-      liftFrMm: pose.lifts.fr,
-      liftRlMm: pose.lifts.rl,
-      liftRrMm: pose.lifts.rr,
-      recordedAt: new Date(Date.parse('2026-11-18T09:00:00Z') + i * 600_000),
       createdBy: tester,
     });
     const rows = pose.readings.map((r) => ({
-      id: randomUUID(),
+      ...newReading({ poseId, gaugePointId: pointIds.get(r.pointId)!, axis: r.axis, valueMm: Math.round(r.value * 2) / 2 }),
       teamId: team.teamId,
-      poseId,
-      gaugePointId: pointIds.get(r.pointId)!,
-      axis: r.axis,
-      valueMm: Math.round(r.value * 2) / 2,
       enteredBy: tester,
     }));
     await ReadingModel.bulkCreate(rows);

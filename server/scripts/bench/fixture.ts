@@ -9,6 +9,7 @@ import { initModels, MembershipModel, TeamModel, UserModel } from '../../models'
 import { migrate } from '../../migrate';
 import { createApp } from '../../app';
 import { hashPassword, startSession } from '../../auth/lucia';
+import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../../shared/records';
 
 export async function startBenchServer(databaseUrl: string) {
   const sequelize = createSequelize(databaseUrl, 10);
@@ -56,31 +57,18 @@ export type BenchServer = Awaited<ReturnType<typeof startBenchServer>>;
 export function sessionChanges(readings: number) {
   const vehicleId = randomUUID();
   const sessionId = randomUUID();
-  const points = Array.from({ length: 12 }, (_, i) => ({
-    id: randomUUID(), version: 1, vehicleId, label: `P${i + 1}`, yMm: -330 + (i % 4) * 220, zMm: 370 + Math.floor(i / 4) * 230,
-  }));
+  const points = Array.from({ length: 12 }, (_, i) => newGaugePoint({ vehicleId, label: `P${i + 1}`, yMm: -330 + (i % 4) * 220, zMm: 370 + Math.floor(i / 4) * 230 }));
   const poseCount = Math.ceil(readings / 36);
-  const poses = Array.from({ length: poseCount }, (_, seq) => ({
-    id: randomUUID(), version: 1, sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels',
-    liftFlMm: seq === 0 ? 0 : 50 + (seq % 400), liftFrMm: 0, liftRlMm: 0, liftRrMm: 0, rampAngleDeg: null, rampDistanceMm: null, notes: '',
-    recordedAt: new Date().toISOString(),
-  }));
+  const poses = Array.from({ length: poseCount }, (_, seq) =>
+    newPose({ sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels', liftFlMm: seq === 0 ? 0 : 50 + (seq % 400) }),
+  );
   const readingRows = poses
-    .flatMap((p, pi) => points.flatMap((g) => (['foreAft', 'lateral', 'vertical'] as const).map((axis) => ({
-      id: randomUUID(), version: 1, poseId: p.id, gaugePointId: g.id, axis, valueMm: Math.round((10 + pi * 0.1) * 10) / 10,
-      excluded: false, excludeReason: null, flagNote: null,
-    }))))
+    .flatMap((p, pi) => points.flatMap((g) => (['foreAft', 'lateral', 'vertical'] as const).map((axis) => newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: Math.round((10 + pi * 0.1) * 10) / 10 }))))
     .slice(0, readings);
   const parents = [
-    { entity: 'vehicle', record: {
-      id: vehicleId, version: 1, name: 'Bench truck', chassis: '', body: '', wheelbaseMm: 3800, trackFrontMm: 1900, trackRearMm: 1880,
-      opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 }, nominalGapMm: 90, notes: '',
-    } },
+    { entity: 'vehicle', record: newVehicle({ id: vehicleId, name: 'Bench truck', trackRearMm: 1880 }) },
     ...points.map((record) => ({ entity: 'gaugePoint', record })),
-    { entity: 'testSession', record: {
-      id: sessionId, version: 1, vehicleId, title: 'Bench', testedOn: '2026-12-01', conditions: '', loadState: '', tyrePressures: '', crew: '',
-      readingMode: 'gap', safetyAckAt: new Date().toISOString(), notes: '',
-    } },
+    { entity: 'testSession', record: newTestSession({ id: sessionId, vehicleId, title: 'Bench', testedOn: '2026-12-01', safetyAckAt: new Date().toISOString() }) },
     ...poses.map((record) => ({ entity: 'pose', record })),
   ];
   return { sessionId, parents, readings: readingRows };

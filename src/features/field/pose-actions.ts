@@ -2,6 +2,7 @@
 // (soft, undoable) and restoring. New poses are whole records (saveRecord); every change to an
 // existing pose is a patch merged into the stored record (patchRecord), never a screen's copy.
 import type { Pose } from '@shared/schemas';
+import { newPose } from '@shared/records';
 import { patchRecord, saveRecord, type ItemResult } from '@/lib/db/records';
 
 const nextSeq = (poses: Pick<Pose, 'seq'>[]) => (poses.length ? Math.max(...poses.map((p) => p.seq)) + 1 : 0);
@@ -10,23 +11,7 @@ const nextSeq = (poses: Pick<Pose, 'seq'>[]) => (poses.length ? Math.max(...pose
 export function nextPose(sessionId: string, poses: Pose[], now = new Date()): Pose {
   const seq = nextSeq(poses);
   const first = !poses.some((p) => p.kind === 'level');
-  return {
-    id: crypto.randomUUID(),
-    version: 1,
-    sessionId,
-    seq,
-    label: first ? 'Level' : `Pose ${seq}`,
-    kind: first ? 'level' : 'wheels',
-    liftFlMm: 0,
-    liftFrMm: 0,
-    liftRlMm: 0,
-    liftRrMm: 0,
-    rampAngleDeg: null,
-    rampDistanceMm: null,
-    rampWheel: null,
-    notes: '',
-    recordedAt: now.toISOString(),
-  };
+  return newPose({ sessionId, seq, label: first ? 'Level' : `Pose ${seq}`, kind: first ? 'level' : 'wheels', recordedAt: now.toISOString() });
 }
 
 const RUN = / · run (\d+)$/;

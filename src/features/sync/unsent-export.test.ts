@@ -14,6 +14,7 @@ import { runSync } from '@/sync/sync-run';
 import type { SyncTransport } from '@/sync/transport';
 import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
 import { unsentAsCsv, unsentAsJson } from './unsent-export';
+import { newPose, newReading, newTestSession } from '@shared/records';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -30,9 +31,9 @@ afterEach(async () => {
 const uuid = () => crypto.randomUUID();
 const vehicleId = uuid();
 const gaugePointId = uuid();
-const session = { id: uuid(), version: 1, vehicleId, title: 'Yard flex test', testedOn: '2026-03-14', conditions: '', loadState: '', tyrePressures: '', crew: '', readingMode: 'gap' as const, safetyAckAt: null, notes: '' };
-const pose = { id: uuid(), version: 1, sessionId: session.id, seq: 1, label: 'Front left up', kind: 'wheels' as const, liftFlMm: 300, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0, rampAngleDeg: null, rampDistanceMm: null, notes: '', recordedAt: '2026-03-14T09:00:00.000Z' };
-const reading = (valueMm: number, axis: 'foreAft' | 'lateral' | 'vertical' = 'lateral') => ({ id: uuid(), version: 1, poseId: pose.id, gaugePointId, axis, valueMm, excluded: false, excludeReason: null, flagNote: null });
+const session = newTestSession({ vehicleId, title: 'Yard flex test', testedOn: '2026-03-14' });
+const pose = newPose({ sessionId: session.id, seq: 1, label: 'Front left up', liftFlMm: 300, recordedAt: '2026-03-14T09:00:00.000Z' });
+const reading = (valueMm: number, axis: 'foreAft' | 'lateral' | 'vertical' = 'lateral') => newReading({ poseId: pose.id, gaugePointId, axis, valueMm });
 const emptyPull = (cursor: number): PullResponse => ({ cursor, hasMore: false, vehicles: [], gaugePoints: [], testSessions: [], poses: [], readings: [], photos: [], conflicts: [] });
 const accept = (req: PushRequest): PushResponse => ({ accepted: req.changes.map((c) => ({ entity: c.entity, id: c.record.id, version: 1 })), conflicts: [] });
 const serverFailure = () => new ApiError(500, 'internal', 'something went wrong on the server');

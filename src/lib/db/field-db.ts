@@ -15,6 +15,7 @@ import Dexie, { type EntityTable } from 'dexie';
 import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
 import type { FieldError } from '@shared/schemas/common';
 import type { PushRequest, SyncConflict, SyncEntity } from '@shared/schemas/sync';
+import { records, syncEntities } from '@shared/records';
 
 export interface OutboxEntry {
   seq?: number;
@@ -67,6 +68,15 @@ export interface MetaEntry {
   value: unknown;
 }
 
+/**
+ * The record tables' Dexie stores, from the registry's indexes. Dexie upgrades a phone's database
+ * only when the version number rises: a changed index needs a new version() with these stores
+ * (field-db.test.ts pins version 1's), never an edit of an earlier one.
+ */
+export function recordStores(): Record<string, string> {
+  return Object.fromEntries(syncEntities.map((e) => [records[e].dexie.table, ['id', ...records[e].dexie.indexes].join(', ')]));
+}
+
 export class FieldDb extends Dexie {
   vehicles!: EntityTable<Vehicle, 'id'>;
   gaugePoints!: EntityTable<GaugePoint, 'id'>;
@@ -82,11 +92,7 @@ export class FieldDb extends Dexie {
   constructor(name = 'twistlog-field') {
     super(name, { chromeTransactionDurability: 'strict' });
     this.version(1).stores({
-      vehicles: 'id',
-      gaugePoints: 'id, vehicleId',
-      sessions: 'id, vehicleId, testedOn',
-      poses: 'id, sessionId',
-      readings: 'id, poseId, [poseId+gaugePointId+axis]',
+      ...recordStores(),
       outbox: '++seq, [entity+recordId], batchKey',
       batches: 'key',
       photos: 'id, sessionId, status',
@@ -106,13 +112,7 @@ fieldDb.on('versionchange', () => {
   return false;
 });
 
-/** Record tables by sync entity. */
+/** Record tables by sync entity (the table each record of shared/records names). */
 export function tableOf(db: FieldDb, entity: SyncEntity) {
-  return {
-    vehicle: db.vehicles,
-    gaugePoint: db.gaugePoints,
-    testSession: db.sessions,
-    pose: db.poses,
-    reading: db.readings,
-  }[entity] as EntityTable<{ id: string; version: number }, 'id'>;
+  return db.table(records[entity].dexie.table) as EntityTable<{ id: string; version: number }, 'id'>;
 }

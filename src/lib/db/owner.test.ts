@@ -6,6 +6,7 @@ import { FieldDb } from './field-db';
 import { saveRecord } from './records';
 import { getMeta, setMeta } from './meta';
 import { claimStore, discardForeignStore } from './owner';
+import { newVehicle } from '@shared/records';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -19,10 +20,7 @@ afterEach(async () => {
 
 const ada = { userId: crypto.randomUUID(), teamId: crypto.randomUUID(), email: 'ada@one.test' };
 const bo = { userId: crypto.randomUUID(), teamId: crypto.randomUUID(), email: 'bo@two.test' };
-const vehicle = () => ({
-  id: crypto.randomUUID(), version: 1, name: 'Unit 5', chassis: '', body: '', wheelbaseMm: 3800, trackFrontMm: 1900, trackRearMm: 1880,
-  opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 }, nominalGapMm: 90, notes: '',
-});
+const vehicle = () => newVehicle({ name: 'Unit 5', trackRearMm: 1880 });
 
 describe('claimStore', () => {
   it('takes a store nobody owns, and keeps it for the same person', async () => {

@@ -4,6 +4,7 @@ import 'fake-indexeddb/auto';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { FieldDb } from './field-db';
 import { patchRecord, saveRecord } from './records';
+import { newPose } from '@shared/records';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -15,22 +16,7 @@ afterEach(async () => {
   await db.delete();
 });
 
-const pose = () => ({
-  id: crypto.randomUUID(),
-  version: 1,
-  sessionId: crypto.randomUUID(),
-  seq: 1,
-  label: 'Pose 1',
-  kind: 'wheels' as const,
-  liftFlMm: 0,
-  liftFrMm: 0,
-  liftRlMm: 0,
-  liftRrMm: 0,
-  rampAngleDeg: null,
-  rampDistanceMm: null,
-  notes: '',
-  recordedAt: '2026-03-14T09:00:00.000Z',
-});
+const pose = () => newPose({ sessionId: crypto.randomUUID(), seq: 1, label: 'Pose 1', recordedAt: '2026-03-14T09:00:00.000Z' });
 
 describe('patchRecord', () => {
   it('merges into the stored record, keeping the version the store holds', async () => {

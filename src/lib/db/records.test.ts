@@ -6,6 +6,7 @@ import type { Pose } from '@shared/schemas';
 import { FieldDb } from './field-db';
 import { changedFields, patchRecord, replayTyping, saveRecord } from './records';
 import { journalEntries, noteTyping } from './typing-journal';
+import { newPose } from '@shared/records';
 
 let db: FieldDb;
 beforeEach(async () => {
@@ -17,23 +18,7 @@ afterEach(async () => {
   await db.delete();
 });
 
-const pose = (): Pose => ({
-  id: crypto.randomUUID(),
-  version: 1,
-  sessionId: crypto.randomUUID(),
-  seq: 0,
-  label: 'Pose 1',
-  kind: 'level',
-  liftFlMm: 0,
-  liftFrMm: 0,
-  liftRlMm: 0,
-  liftRrMm: 0,
-  rampAngleDeg: null,
-  rampDistanceMm: null,
-  rampWheel: null,
-  notes: '',
-  recordedAt: '2026-03-14T09:00:00.000Z',
-});
+const pose = (): Pose => newPose({ sessionId: crypto.randomUUID(), seq: 0, label: 'Pose 1', kind: 'level', recordedAt: '2026-03-14T09:00:00.000Z' });
 
 describe('patchRecord', () => {
   it('merges the changed fields into the stored record, keeping its version and the fields others changed', async () => {

@@ -4,31 +4,17 @@
 // schemas on the way in and on the way out: a bad value or a corrupt row comes back as a per-item
 // result naming the record and the field, never as a thrown error.
 import type { ZodType } from 'zod';
-import { gaugePoint, pose, reading, testSession, vehicle, type GaugePoint, type Pose, type Reading, type TestSession, type Vehicle } from '@shared/schemas';
-import type { SyncEntity } from '@shared/schemas/sync';
+import { newReading, records, type RecordOf, type SyncEntity } from '@shared/records';
+import type { Reading } from '@shared/schemas';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
 import { tracked } from './writes-in-flight';
 import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
 
-export const recordSchemas: Record<SyncEntity, ZodType> = {
-  vehicle,
-  gaugePoint,
-  testSession,
-  pose,
-  reading,
-};
-
-/** The record type of each synced entity. */
-export interface RecordOf {
-  vehicle: Vehicle;
-  gaugePoint: GaugePoint;
-  testSession: TestSession;
-  pose: Pose;
-  reading: Reading;
-}
+/** The shared schema a record of `entity` is checked with, on the way in and out. */
+const schemaOf = (entity: SyncEntity): ZodType => records[entity].schema;
 
 /** What an edit may change: any field but the record's identity and the version it builds on. */
-export type Patch<E extends SyncEntity> = Partial<Omit<RecordOf[E], 'id' | 'version'>>;
+export type Patch<E extends SyncEntity> = Partial<Omit<RecordOf<E>, 'id' | 'version'>>;
 
 export interface ItemError {
   field: string;
@@ -47,7 +33,7 @@ function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]
   const valid: T[] = [];
   const refused: ItemResult[] = [];
   for (const r of records) {
-    const parsed = recordSchemas[entity].safeParse(r);
+    const parsed = schemaOf(entity).safeParse(r);
     if (parsed.success) valid.push(parsed.data as T);
     else {
       const fields = parsed.error.issues.map((i) => ({ field: i.path.join('.') || 'record', message: i.message }));
@@ -157,7 +143,7 @@ export function changedFields<T extends Record<string, unknown>>(before: T, afte
 export function checkRows<T extends { id: string }>(entity: SyncEntity, rows: unknown[]): Checked<T> {
   const out: Checked<T> = { records: [], corrupt: [] };
   for (const row of rows) {
-    const parsed = recordSchemas[entity].safeParse(row);
+    const parsed = schemaOf(entity).safeParse(row);
     if (parsed.success) out.records.push(parsed.data as T);
     else {
       const issue = parsed.error.issues[0];
@@ -217,7 +203,7 @@ async function writeReadingValue(slot: { poseId: string; gaugePointId: string; a
         if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
         record = { ...existing, deletedAt: new Date().toISOString() };
       } else {
-        const base: Reading = existing ?? { id: crypto.randomUUID(), version: 1, ...slot, valueMm, excluded: false, excludeReason: null, flagNote: null };
+        const base: Reading = existing ?? newReading({ ...slot, valueMm });
         record = { ...base, valueMm, deletedAt: null };
       }
       const { valid, refused } = checkRecords('reading', [record]);

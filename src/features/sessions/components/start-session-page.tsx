@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import type { TestSession } from '@shared/schemas';
+import { newTestSession } from '@shared/records';
 import { useLocalVehicles } from '@/lib/db/live';
 import { saveRecord, type ItemResult } from '@/lib/db/records';
 import { SaveProblems } from '@/features/field/components/save-problems';
@@ -41,7 +42,7 @@ export function StartSessionPage() {
 
   const start = async () => {
     if (missing.length) return;
-    const session: TestSession = { id: crypto.randomUUID(), version: 1, ...form, safetyAckAt: new Date().toISOString() };
+    const session = newTestSession({ ...form, safetyAckAt: new Date().toISOString() });
     const result = await saveRecord('testSession', session);
     if (result.ok) navigate(`/field/sessions/${session.id}`, { replace: true });
     else setProblems([result]);

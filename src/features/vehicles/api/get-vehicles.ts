@@ -1,20 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
-import type { GaugePoint, Vehicle } from '@shared/schemas';
+import type { Vehicle } from '@shared/schemas';
 import { api } from '@/lib/api-client';
 
 export const vehicleKeys = {
   all: ['vehicles'] as const,
   list: () => [...vehicleKeys.all, 'list'] as const,
-  detail: (id: string) => [...vehicleKeys.all, 'detail', id] as const,
 };
 
 export const getVehicles = () => api<Vehicle[]>('/api/vehicles');
-export const getVehicle = (id: string) => api<Vehicle & { gaugePoints: GaugePoint[] }>(`/api/vehicles/${id}`);
 
 export function useVehicles() {
   return useQuery({ queryKey: vehicleKeys.list(), queryFn: getVehicles });
-}
-
-export function useVehicle(id: string) {
-  return useQuery({ queryKey: vehicleKeys.detail(id), queryFn: () => getVehicle(id) });
 }

@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { gaugePoint as gaugePointSchema, opening as openingSchema, vehicle as vehicleSchema, type GaugePoint, type Vehicle } from '@shared/schemas';
+import { newGaugePoint, newVehicle } from '@shared/records';
 import { useLocalVehicle } from '@/lib/db/live';
 import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
 import { LengthInput, limitsOf } from '@/features/field/components/length-input';
@@ -9,20 +10,6 @@ import { UnitToggle } from '@/features/field/components/unit-toggle';
 import { SaveProblems } from '@/features/field/components/save-problems';
 import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
 import { OpeningDrawing } from './opening-drawing';
-
-const blank = (): Vehicle => ({
-  id: crypto.randomUUID(),
-  version: 1,
-  name: '',
-  chassis: '',
-  body: '',
-  wheelbaseMm: 3800,
-  trackFrontMm: 1900,
-  trackRearMm: 1900,
-  opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
-  nominalGapMm: 90,
-  notes: '',
-});
 
 const v = vehicleSchema.shape;
 const o = openingSchema.shape;
@@ -43,7 +30,7 @@ export function VehicleSetupPage() {
   const stored = useLocalVehicle(isNew ? undefined : id);
   const navigate = useNavigate();
   const [unit, setUnit] = useFieldUnit();
-  const [draft, setDraft] = useState<Vehicle | null>(isNew ? blank() : null);
+  const [draft, setDraft] = useState<Vehicle | null>(isNew ? newVehicle() : null);
   // The vehicle as it was when the draft was taken: a save writes only what the tester changed.
   const [loaded, setLoaded] = useState<Vehicle | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
@@ -119,7 +106,7 @@ export function VehicleSetupPage() {
           <OpeningDrawing
             opening={draft.opening}
             points={points}
-            onPlace={(yMm, zMm) => void addPoint({ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm })}
+            onPlace={(yMm, zMm) => void addPoint(newGaugePoint({ vehicleId: draft.id, label: nextLabel(points), yMm, zMm }))}
           />
           <ul className="space-y-2">
             {points.map((p) => (

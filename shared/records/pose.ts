@@ -1,6 +1,8 @@
+// A pose: one wheel arrangement held still while readings are taken.
 import * as z from 'zod';
-import { id, isoDateTime, mm, shortText, syncedFields } from './common';
+import { id, isoDateTime, mm, shortText, syncedFields } from '../schemas/common';
 import { rampLiftMm } from '../flex/ramp-lift';
+import { defineRecord } from './define';
 
 export const wheels = ['fl', 'fr', 'rl', 'rr'] as const;
 export const wheel = z.enum(wheels);
@@ -49,3 +51,49 @@ export const pose = z
     }
   });
 export type Pose = z.infer<typeof pose>;
+
+export const poseRecord = defineRecord({
+  entity: 'pose',
+  schema: pose,
+  table: 'poses',
+  columns: {
+    sessionId: 'uuid',
+    seq: 'int4',
+    label: 'text',
+    kind: 'text',
+    liftFlMm: 'float8',
+    liftFrMm: 'float8',
+    liftRlMm: 'float8',
+    liftRrMm: 'float8',
+    rampAngleDeg: 'float8',
+    rampDistanceMm: 'float8',
+    rampWheel: 'text',
+    notes: 'text',
+    recordedAt: 'timestamptz',
+  },
+  references: { sessionId: 'testSession' },
+  createdBy: 'createdBy',
+  serverColumns: {},
+  dexie: { table: 'poses', indexes: ['sessionId'] },
+  pullKey: 'poses',
+});
+
+/** A new pose of a session with every wheel on the ground, recorded now. */
+export function newPose(fields: Pick<Pose, 'sessionId' | 'seq'> & Partial<Pose>): Pose {
+  return {
+    id: crypto.randomUUID(),
+    version: 1,
+    label: '',
+    kind: 'wheels',
+    liftFlMm: 0,
+    liftFrMm: 0,
+    liftRlMm: 0,
+    liftRrMm: 0,
+    rampAngleDeg: null,
+    rampDistanceMm: null,
+    rampWheel: null,
+    notes: '',
+    recordedAt: new Date().toISOString(),
+    ...fields,
+  };
+}

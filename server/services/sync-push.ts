@@ -1,0 +1,222 @@
+// Push for the field client.
+//
+// Push applies one batch in ONE transaction: every record is checked first (team ownership,
+// references, uniqueness, versions), and any problem rejects the whole batch with field errors
+// naming the record and the field; only then are rows written, with one array-based statement
+// per table and kind (insert / update), not one query per row. A stale base version is a
+// conflict: the server row stays as it is and both versions are kept in sync_conflicts
+// (sync-conflicts.ts). The answer is stored under the batch's idempotency key, so the same batch
+// twice writes once and answers the same. Pushes hold the team's change lock until they commit,
+// so a pull never sees a later change number before an earlier one (team-changes.ts).
+import { createHash } from 'node:crypto';
+import type { Transaction } from 'sequelize';
+import type { AuthContext } from '../auth/context';
+import { Conflict, Invalid, type FieldError } from '../http/errors';
+import { lockTeamChanges } from './team-changes';
+import { enforceSyncAccess } from './sync-access';
+import { translateDbError } from './sync-db-errors';
+import { syncOrder, syncTables } from './sync-tables';
+import { bulkInsert, bulkUpdate, checkGaugeLabels, checkReadingSlots, db, field, select, short, type Item, type Plan } from './sync-batch';
+import { keepConflicts } from './sync-conflicts';
+import type { PushRequest, PushResponse, SyncEntity } from '../../shared/schemas/sync';
+
+const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
+
+export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<PushResponse> {
+  const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
+  try {
+    return await writeBatch(auth, req, items);
+  } catch (err) {
+    translateDbError(err, (constraint, key) => nameConstraint(items, constraint, key));
+  }
+}
+
+/** The change of the batch a slot or label constraint's key points at, if one does. */
+function nameConstraint(items: Item[], constraint: string, key: Record<string, string>): FieldError | null {
+  const match = (entity: SyncEntity, test: (r: Item['record']) => boolean) => items.find((i) => i.entity === entity && !i.record.deletedAt && test(i.record));
+  if (constraint === 'readings_slot') {
+    const item = match('reading', (r) => r.poseId === key.pose_id && r.gaugePointId === key.gauge_point_id && r.axis === key.axis);
+    if (item) return { field: field(item, 'axis'), message: `pose ${short(key.pose_id)} already has a ${key.axis} reading at this gauge point` };
+  }
+  if (constraint === 'gauge_points_label') {
+    const item = match('gaugePoint', (r) => r.vehicleId === key.vehicle_id && r.label === key.label);
+    if (item) return { field: field(item, 'label'), message: `gauge point label '${key.label}' is already used on this vehicle` };
+  }
+  return null;
+}
+
+async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): Promise<PushResponse> {
+  const hash = requestHash(req);
+  return db().transaction(async (transaction) => {
+    await lockTeamChanges(auth.teamId, transaction);
+    const [earlier] = await select<{ request_hash: string; response: PushResponse }>(
+      'SELECT request_hash, response FROM sync_batches WHERE team_id = $1 AND idempotency_key = $2',
+      [auth.teamId, req.idempotencyKey],
+      transaction,
+    );
+    if (earlier) {
+      if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
+      return earlier.response;
+    }
+    await enforceSyncAccess(auth, items, transaction);
+    const plan = await checkBatch(auth, items, transaction);
+    const response = await applyPlan(auth, plan, transaction);
+    // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
+    // so a violation the checks above missed is named, not found at commit.
+    await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
+    await db().query(
+      'INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)',
+      { bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)], transaction },
+    );
+    return response;
+  });
+}
+
+/** Every check before any write; throws Invalid naming each bad record and field. */
+async function checkBatch(auth: AuthContext, items: Item[], transaction: Transaction): Promise<Plan> {
+  const errors: FieldError[] = [];
+  const byEntity = new Map<SyncEntity, Item[]>(syncOrder.map((e) => [e, []]));
+  const seen = new Map<string, Item>();
+  for (const item of items) {
+    const key = `${item.entity}:${item.record.id}`;
+    const first = seen.get(key);
+    if (first) errors.push({ field: field(item, 'id'), message: `${item.entity} ${item.record.id} appears twice in the batch (also change ${first.index})` });
+    else {
+      seen.set(key, item);
+      byEntity.get(item.entity)!.push(item);
+    }
+  }
+
+  const plan: Plan = { inserts: new Map(), updates: new Map(), conflicts: [] };
+  /** Ids each entity will have after this batch: the batch's records plus the team's rows. */
+  const known = new Map<SyncEntity, Set<string>>(syncOrder.map((e) => [e, new Set(byEntity.get(e)!.map((i) => i.record.id))]));
+
+  for (const entity of syncOrder) {
+    const spec = syncTables[entity];
+    const list = byEntity.get(entity)!;
+    const rows = list.length
+      ? await select(`SELECT id, team_id, version FROM ${spec.table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [list.map((i) => i.record.id)], transaction)
+      : [];
+    const rowMap = new Map(rows.map((r) => [r.id as string, r]));
+    const inserts: Item[] = [];
+    const updates: Item[] = [];
+    for (const item of list) {
+      const row = rowMap.get(item.record.id);
+      if (!row) {
+        if (item.record.version !== 1) {
+          errors.push({ field: field(item, 'version'), message: `${entity} ${short(item.record.id)} is not on the server, so its version must be 1, got ${item.record.version}` });
+        } else inserts.push(item);
+      } else if (row.team_id !== auth.teamId) {
+        errors.push({ field: field(item, 'id'), message: `${entity} id ${item.record.id} is already taken` });
+      } else if (row.version !== item.record.version) {
+        plan.conflicts.push({ item, targetId: item.record.id, serverRow: row });
+      } else updates.push(item);
+    }
+    plan.inserts.set(entity, inserts);
+    plan.updates.set(entity, updates);
+  }
+
+  await checkReferences(auth, byEntity, known, errors, transaction);
+  await checkReadingSlots(auth, plan, errors, transaction);
+  await checkGaugeLabels(auth, plan, errors, transaction);
+
+  if (errors.length) {
+    errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
+    throw new Invalid(`batch rejected, nothing was written: ${errors.length} problem${errors.length > 1 ? 's' : ''}, first ${errors[0].field}: ${errors[0].message}`, errors);
+  }
+  return plan;
+}
+
+async function checkReferences(
+  auth: AuthContext,
+  byEntity: Map<SyncEntity, Item[]>,
+  known: Map<SyncEntity, Set<string>>,
+  errors: FieldError[],
+  transaction: Transaction,
+) {
+  // Referenced ids not in this batch must be the team's rows; one query per referenced table.
+  const wanted = new Map<SyncEntity, Set<string>>();
+  for (const entity of syncOrder) {
+    for (const ref of syncTables[entity].references) {
+      for (const item of byEntity.get(entity)!) {
+        const target = item.record[ref.key] as string;
+        if (!known.get(ref.entity)!.has(target)) {
+          if (!wanted.has(ref.entity)) wanted.set(ref.entity, new Set());
+          wanted.get(ref.entity)!.add(target);
+        }
+      }
+    }
+  }
+  for (const [entity, ids] of wanted) {
+    const rows = await select<{ id: string }>(
+      `SELECT id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($2::uuid[])`,
+      [auth.teamId, [...ids]],
+      transaction,
+    );
+    for (const r of rows) known.get(entity)!.add(r.id);
+  }
+  for (const entity of syncOrder) {
+    for (const ref of syncTables[entity].references) {
+      for (const item of byEntity.get(entity)!) {
+        const target = item.record[ref.key] as string;
+        if (!known.get(ref.entity)!.has(target)) {
+          errors.push({ field: field(item, ref.key), message: `${entity} ${short(item.record.id)} refers to ${ref.entity} ${target}, which is neither in this batch nor on the server` });
+        }
+      }
+    }
+  }
+}
+
+async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction): Promise<PushResponse> {
+  const accepted: PushResponse['accepted'] = [];
+  for (const entity of syncOrder) {
+    const spec = syncTables[entity];
+    const inserts = plan.inserts.get(entity)!;
+    if (inserts.length) {
+      await bulkInsert(auth, spec, inserts, transaction);
+      for (const i of inserts) accepted.push({ entity, id: i.record.id, version: 1 });
+    }
+    const updates = plan.updates.get(entity)!;
+    if (updates.length) {
+      const rows = await bulkUpdate(auth, spec, updates, transaction);
+      for (const r of rows) accepted.push({ entity, id: r.id, version: r.version });
+    }
+  }
+  const conflicts = await keepConflicts(auth, plan.conflicts, transaction);
+  await recordFieldHistory(auth, plan, transaction);
+  return { accepted, conflicts };
+}
+
+type Tally = { added: Partial<Record<SyncEntity, number>>; changed: Partial<Record<SyncEntity, number>>; conflicts: number };
+
+/** One history event per session a batch touched: what arrived from the field, and who sent it. */
+async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Transaction) {
+  const items = (m: Map<SyncEntity, Item[]>, e: SyncEntity) => m.get(e) ?? [];
+  const poseSession = new Map<string, string>();
+  for (const p of [...items(plan.inserts, 'pose'), ...items(plan.updates, 'pose')]) poseSession.set(p.record.id, p.record.sessionId as string);
+  const readings = [...items(plan.inserts, 'reading'), ...items(plan.updates, 'reading'), ...plan.conflicts.filter((c) => c.item.entity === 'reading').map((c) => c.item)];
+  const unknownPoses = [...new Set(readings.map((r) => r.record.poseId as string))].filter((id) => !poseSession.has(id));
+  if (unknownPoses.length) {
+    const rows = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE id = ANY($1::uuid[])', [unknownPoses], transaction);
+    for (const r of rows) poseSession.set(r.id, r.session_id);
+  }
+  const sessionOf = (item: Item): string | undefined =>
+    item.entity === 'testSession' ? item.record.id : item.entity === 'pose' ? (item.record.sessionId as string) : item.entity === 'reading' ? poseSession.get(item.record.poseId as string) : undefined;
+  const bySession = new Map<string, Tally>();
+  const tally = (item: Item, bump: (t: Tally) => void) => {
+    const sessionId = sessionOf(item);
+    if (!sessionId) return;
+    if (!bySession.has(sessionId)) bySession.set(sessionId, { added: {}, changed: {}, conflicts: 0 });
+    bump(bySession.get(sessionId)!);
+  };
+  for (const list of plan.inserts.values()) for (const i of list) tally(i, (t) => (t.added[i.entity] = (t.added[i.entity] ?? 0) + 1));
+  for (const list of plan.updates.values()) for (const i of list) tally(i, (t) => (t.changed[i.entity] = (t.changed[i.entity] ?? 0) + 1));
+  for (const c of plan.conflicts) tally(c.item, (t) => (t.conflicts += 1));
+  if (!bySession.size) return;
+  const ids = [...bySession.keys()];
+  await db().query(
+    `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+     SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $2::uuid, u.detail FROM unnest($3::uuid[], $4::jsonb[]) AS u(id, detail)`,
+    { bind: [auth.teamId, auth.userId, ids, ids.map((id) => JSON.stringify(bySession.get(id)))], transaction },
+  );
+}

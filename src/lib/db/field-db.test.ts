@@ -1,0 +1,17 @@
+// The phone's record tables come from the registry (shared/records). Dexie only upgrades a phone's
+// database when the version number rises, so the stores of version 1 must never change under it:
+// an index added in the registry needs a new version() in field-db.ts, and this pin moves with it.
+import { describe, expect, it } from 'vitest';
+import { recordStores } from './field-db';
+
+describe('the phone database', () => {
+  it("keeps version 1's record stores as the registry declares them", () => {
+    expect(recordStores()).toEqual({
+      vehicles: 'id',
+      gaugePoints: 'id, vehicleId',
+      sessions: 'id, vehicleId, testedOn',
+      poses: 'id, sessionId',
+      readings: 'id, poseId, [poseId+gaugePointId+axis]',
+    });
+  });
+});
