@@ -9,7 +9,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
 import { readingDoubt, liftDoubt } from '@/features/poses/plausible';
-import { clientDir, createTeam, startTestServer, vehicleBody, type TestServer } from '../support/test-app';
+import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
+import { vehicleRecord } from '../support/sync';
 import { launchBrowser } from '../support/browser';
 import { barText, fieldSession, openConflicts, openPhone, type FieldSession } from '../support/field-phone';
 
@@ -67,8 +68,8 @@ interface TypedPose {
   readings: Map<string, number>;
 }
 
-/** The test truck (vehicleBody's sizes): what the recorder's plausibility check compares with. */
-const TRUCK = vehicleBody();
+/** The test truck (the sizes vehicleWithPoints pushes): what the recorder's plausibility check compares with. */
+const TRUCK = vehicleRecord();
 
 /** How the app reads a length typed in mm: a comma or point decimal; anything else keeps the last good value. */
 const parseMm = (text: string): number | null | 'bad' => {

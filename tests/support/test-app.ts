@@ -133,19 +133,3 @@ export async function sessionAgent(ts: TestServer, userId: string, teamId: strin
   agent.jar.setCookie(cookie.split(';')[0], '127.0.0.1', '/');
   return agent;
 }
-
-export function vehicleBody(overrides: Record<string, unknown> = {}) {
-  return {
-    id: randomUUID(),
-    name: 'Test truck',
-    chassis: 'Medium 4×4',
-    body: 'Box body',
-    wheelbaseMm: 3800,
-    trackFrontMm: 1900,
-    trackRearMm: 1880,
-    opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
-    nominalGapMm: 90,
-    notes: '',
-    ...overrides,
-  };
-}
