@@ -13,7 +13,7 @@ import sharp, { type Metadata as ImageMetadata } from 'sharp';
 import { QueryTypes, UniqueConstraintError } from 'sequelize';
 import { AppError, Conflict, Invalid, NotFound, Unavailable } from '../http/errors';
 import { PhotoModel, PoseModel, TeamModel, TestSessionModel } from '../models';
-import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-store';
+import { readPhotoFile, removePhotoFiles, writePhotoFiles, type StoredObject } from '../storage/photo-store';
 import type { AuthContext } from '../auth/context';
 import { withTeamChanges } from './team-changes';
 import type { Photo } from '../../shared/schemas';
@@ -215,11 +215,13 @@ async function checkStorage(teamId: string, incoming: number) {
   }
 }
 
-/** The file of a team's photo (full size or thumbnail). */
-export async function photoFile(auth: AuthContext, id: string, size: 'full' | 'thumb'): Promise<string> {
-  const p = await PhotoModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null } });
+/** The stored file of a team's photo (full size or thumbnail), read from the photo store. */
+export async function photoFile(auth: AuthContext, id: string, size: 'full' | 'thumb'): Promise<StoredObject> {
+  const p = await PhotoModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, attributes: ['storedName', 'thumbName'] });
   if (!p) throw new NotFound('photo');
-  return photoPath(size === 'thumb' ? p.thumbName : p.storedName);
+  const file = await readPhotoFile(size === 'thumb' ? p.thumbName : p.storedName);
+  if (!file) throw new NotFound('photo file');
+  return file;
 }
 
 export const tooLarge = () => new AppError(413, 'too_large', `photo is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB`, [{ field: 'photo', message: 'file too large' }]);
