@@ -43,7 +43,8 @@ export function createApp(opts: AppOptions) {
   app.use(
     pinoHttp({
       logger: opts.logger,
-      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      // Probes come every few seconds from a load balancer: not worth a line each.
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') || req.url === '/api/health' || req.url === '/api/ready' },
       // Session ids never reach the logs.
       serializers: { req: withoutCookies('cookie'), res: withoutCookies('set-cookie') },
     }),

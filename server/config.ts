@@ -24,7 +24,9 @@ const env = z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   /** The local mail sink's list of caught messages (development): serves /dev/mailbox. */
   MAIL_SINK_URL: z.string().url().optional(),
-  /** How long SIGTERM waits for requests in flight before it cuts them. */
+  /** After SIGTERM, how long the instance keeps serving while it answers 503 to readiness probes. */
+  DRAIN_DELAY_MS: z.coerce.number().int().min(0).default(0),
+  /** How long SIGTERM then waits for requests in flight before it cuts them. */
   DRAIN_TIMEOUT_MS: z.coerce.number().int().min(0).default(20_000),
   KEEP_ALIVE_TIMEOUT_MS: z.coerce.number().int().min(1000).default(65_000),
   TRUST_PROXY: z.string().default('false'),

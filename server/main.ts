@@ -76,7 +76,7 @@ async function main() {
     if (stopping) return;
     stopping = true;
     stopPruning();
-    const { cut } = await drain(server, config.DRAIN_TIMEOUT_MS);
+    const { cut } = await drain(server, { delayMs: config.DRAIN_DELAY_MS, timeoutMs: config.DRAIN_TIMEOUT_MS });
     if (cut) logger.warn({ cut }, 'requests still running when the drain time ran out were cut');
     await sequelize.close().catch(() => {});
     process.exit(0);

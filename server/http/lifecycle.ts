@@ -50,11 +50,13 @@ export async function readiness(): Promise<{ status: number; body: Record<string
 }
 
 /**
- * Drain: no longer ready, no new connections, idle keep-alive connections closed at once, and
- * the requests in flight finished (up to `timeoutMs`, then the rest are cut).
+ * Drain: no longer ready at once; after `delayMs` (time for a load balancer's next readiness
+ * probe to take the instance out, still serving meanwhile) no new connections, idle keep-alive
+ * connections closed, and the requests in flight finished (up to `timeoutMs`, then cut).
  */
-export async function drain(server: http.Server, timeoutMs: number): Promise<{ cut: number }> {
+export async function drain(server: http.Server, { delayMs, timeoutMs }: { delayMs: number; timeoutMs: number }): Promise<{ cut: number }> {
   state = 'draining';
+  if (delayMs > 0) await new Promise((resolve) => setTimeout(resolve, delayMs));
   const closed = new Promise<void>((resolve) => server.close(() => resolve()));
   server.closeIdleConnections();
   const idle = new Promise<void>((resolve) => {
