@@ -6,8 +6,9 @@
 import { createHash } from 'node:crypto';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Argon2id } from 'oslo/password';
-import { Op } from 'sequelize';
-import { UserModel, UserSessionModel } from '../models';
+import { Op, QueryTypes } from 'sequelize';
+import { UserSessionModel } from '../models';
+import type { Role } from '../../shared/schemas/common';
 
 /** OWASP Password Storage Cheat Sheet minimum for Argon2id: m = 19456 KiB, t = 2, p = 1. */
 export const ARGON2_PARAMS = { memorySize: 19456, iterations: 2, parallelism: 1, tagLength: 32 } as const;
@@ -24,17 +25,25 @@ const toSession = (s: UserSessionModel, id: string): DatabaseSession => ({
   id,
   userId: s.userId,
   expiresAt: s.expiresAt,
-  attributes: { teamId: s.teamId },
+  attributes: { teamId: s.teamId, role: null },
 });
 
 const sequelizeAdapter: Adapter = {
+  // One query per signed-in request: the session, its person and their role in the session's team
+  // (null once they are no longer a member), read afresh so a role change counts at once.
   async getSessionAndUser(sessionId) {
-    const s = await UserSessionModel.findByPk(storedSessionId(sessionId));
-    if (!s) return [null, null];
-    const u = await UserModel.findByPk(s.userId);
-    if (!u) return [null, null];
-    const user: DatabaseUser = { id: u.id, attributes: { email: u.email, name: u.name } };
-    return [toSession(s, sessionId), user];
+    const [row] = await UserSessionModel.sequelize!.query<{ user_id: string; team_id: string; expires_at: Date; email: string; name: string; role: Role | null }>(
+      `SELECT s.user_id, s.team_id, s.expires_at, u.email, u.name, m.role
+         FROM user_sessions s
+         JOIN users u ON u.id = s.user_id
+         LEFT JOIN memberships m ON m.user_id = s.user_id AND m.team_id = s.team_id
+        WHERE s.id = $1`,
+      { bind: [storedSessionId(sessionId)], type: QueryTypes.SELECT },
+    );
+    if (!row) return [null, null];
+    const session: DatabaseSession = { id: sessionId, userId: row.user_id, expiresAt: row.expires_at, attributes: { teamId: row.team_id, role: row.role } };
+    const user: DatabaseUser = { id: row.user_id, attributes: { email: row.email, name: row.name } };
+    return [session, user];
   },
   async getUserSessions(userId) {
     // Only hashes are stored: these sessions can be counted and ended, never resumed.
@@ -68,21 +77,22 @@ export const lucia = new Lucia(sequelizeAdapter, {
     name: 'twistlog_session',
     attributes: { secure: process.env.NODE_ENV === 'production', sameSite: 'lax' },
   },
-  getSessionAttributes: (a) => ({ teamId: a.teamId }),
+  getSessionAttributes: (a) => ({ teamId: a.teamId, role: a.role }),
   getUserAttributes: (a) => ({ email: a.email, name: a.name }),
 });
 
 declare module 'lucia' {
   interface Register {
     Lucia: typeof lucia;
-    DatabaseSessionAttributes: { teamId: string };
+    /** role: the person's role in the team, read with the session (not stored with it). */
+    DatabaseSessionAttributes: { teamId: string; role: Role | null };
     DatabaseUserAttributes: { email: string; name: string };
   }
 }
 
 /** Start a fresh session (a new id at every sign-in) and return its cookie header value. */
 export async function startSession(userId: string, teamId: string): Promise<string> {
-  const session = await lucia.createSession(userId, { teamId });
+  const session = await lucia.createSession(userId, { teamId, role: null });
   return lucia.createSessionCookie(session.id).serialize();
 }
 
@@ -126,6 +136,8 @@ export interface ValidatedSession {
   sessionId: string;
   userId: string;
   teamId: string;
+  /** The person's role in the team now; null when they are no longer a member. */
+  role: Role | null;
   email: string;
   name: string;
 }
@@ -142,7 +154,7 @@ export async function validateSessionCookie(cookieHeader: string | undefined): P
   if (!session) return { session: null, setCookies: [blankSessionCookie()] };
   const setCookies = session.fresh ? [lucia.createSessionCookie(session.id).serialize()] : [];
   return {
-    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, email: user.email, name: user.name },
+    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, role: session.role, email: user.email, name: user.name },
     setCookies,
   };
 }
