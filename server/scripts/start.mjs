@@ -22,6 +22,7 @@ const pgPort = Number(process.env.TWISTLOG_PG_PORT ?? 54329);
 const appPort = Number(process.env.PORT ?? 5180);
 const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
 const pgDir = path.resolve(repoRoot, process.env.TWISTLOG_PG_DIR ?? path.join('.data', 'pg'));
+const s3Dir = path.resolve(repoRoot, process.env.TWISTLOG_S3_DIR ?? path.join('.data', 's3'));
 
 let cluster;
 let services;
@@ -68,7 +69,7 @@ try {
   cluster = await startCluster({ dataDir: pgDir, port: pgPort });
   ensureDatabase(cluster, 'twistlog');
   // Photos in the local S3 fake (kept under .data/s3 between runs), e-mail in the local sink.
-  services = await startLocalServices(['--s3', path.join(repoRoot, '.data', 's3'), '--mail', String(smtpPort)]);
+  services = await startLocalServices(['--s3', s3Dir, '--mail', String(smtpPort)]);
 } catch (err) {
   console.error(err.message);
   await shutdown(1);

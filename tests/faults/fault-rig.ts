@@ -134,8 +134,15 @@ export function nodeTransport(baseUrl: string, cookie: string, hooks: { beforePu
     async pull(since: number) {
       return pullResponse.parse(await call(baseUrl, cookie, `/api/sync/pull?since=${since}`));
     },
-    async uploadPhoto() {
-      throw new Error('no photos in fault tests');
+    async uploadPhoto(form: FormData) {
+      let res: Response;
+      try {
+        res = await fetch(`${baseUrl}/api/photos`, { method: 'POST', headers: { Cookie: cookie, Origin: baseUrl, Accept: 'application/json' }, body: form });
+      } catch {
+        throw new ApiError(0, 'network', 'no connection to the server');
+      }
+      const data = await res.json().catch(() => undefined);
+      if (!res.ok) throw new ApiError(res.status, data?.error?.code ?? 'http', data?.error?.message ?? `HTTP ${res.status}`, data?.error?.fields ?? []);
     },
   };
   return t;
