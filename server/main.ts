@@ -4,7 +4,6 @@
 // `--migrate-only` migrates (and seeds, with `--seed-demo`) and exits: a release step.
 import path from 'node:path';
 import http from 'node:http';
-import { fileURLToPath } from 'node:url';
 import { pino } from 'pino';
 import type { Router } from 'express';
 import { loadConfig } from './config';
@@ -14,14 +13,12 @@ import { migrate } from './migrate';
 import { createApp } from './app';
 import { seedDemo, DEMO_SIGN_IN } from './seed/demo';
 import { configureMailer } from './mail/mailer';
-import { remoteMailbox } from './mail/sink';
-import { createMailboxRouter } from './mail/mailbox';
+import { createMailboxRouter, remoteMailbox } from './mail/mailbox';
 import { setAppUrl } from './mail/templates';
 import { schedulePruning } from './services/prune';
 import { drain, lifecycle } from './http/lifecycle';
 import { photoStore } from './storage/photo-store';
-
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+import { repoRoot } from './paths';
 
 async function main() {
   const started = performance.now();
@@ -55,7 +52,7 @@ async function main() {
   const stopPruning = schedulePruning((err) => logger.error({ err }, 'pruning old rows failed'));
   const app = createApp({
     logger,
-    clientDir: process.env.CLIENT_DIR ?? path.join(root, 'dist'),
+    clientDir: process.env.CLIENT_DIR ?? path.join(repoRoot, 'dist'),
     trustProxy: config.TRUST_PROXY,
     extraRouters,
     production: config.NODE_ENV === 'production',

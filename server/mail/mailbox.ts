@@ -4,7 +4,7 @@
 // so a page elsewhere cannot read it through DNS rebinding.
 import { createHash } from 'node:crypto';
 import { Router, type RequestHandler } from 'express';
-import type { MailboxSource } from './sink';
+import type { CaughtMessage, MailboxSource } from './sink';
 import { publicAppUrl } from './templates';
 
 const escapeHtml = (s: string) =>
@@ -89,4 +89,16 @@ ${items || '<li>No e-mail yet.</li>'}
 </html>`);
   });
   return r;
+}
+
+/** The messages of a sink running in another process (its `listUrl`). */
+export function remoteMailbox(listUrl: string): MailboxSource {
+  return {
+    async list() {
+      const res = await fetch(listUrl);
+      if (!res.ok) throw new Error(`the mail sink at ${listUrl} answered ${res.status}`);
+      const caught = (await res.json()) as (Omit<CaughtMessage, 'receivedAt'> & { receivedAt: string })[];
+      return caught.map((m) => ({ ...m, receivedAt: new Date(m.receivedAt) }));
+    },
+  };
 }

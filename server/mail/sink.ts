@@ -133,15 +133,3 @@ export async function startMailSink(opts: { port?: number; host?: string; httpPo
     },
   };
 }
-
-/** The messages of a sink running in another process (its `listUrl`). */
-export function remoteMailbox(listUrl: string): MailboxSource {
-  return {
-    async list() {
-      const res = await fetch(listUrl);
-      if (!res.ok) throw new Error(`the mail sink at ${listUrl} answered ${res.status}`);
-      const caught = (await res.json()) as (Omit<CaughtMessage, 'receivedAt'> & { receivedAt: string })[];
-      return caught.map((m) => ({ ...m, receivedAt: new Date(m.receivedAt) }));
-    },
-  };
-}

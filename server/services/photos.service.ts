@@ -7,9 +7,8 @@
 // and cache kept small), a short queue beyond which the upload is asked to come back later, at most
 // two uploads in flight per person (routes/photos.ts), and a storage ceiling per workshop. Phones
 // shrink photos before storing them (src/lib/photo-shrink.ts), so large originals are the exception.
-import exifr from 'exifr';
 import pLimit from 'p-limit';
-import sharp, { type Metadata as ImageMetadata } from 'sharp';
+import type { Metadata as ImageMetadata } from 'sharp';
 import { QueryTypes, UniqueConstraintError } from 'sequelize';
 import { AppError, Conflict, Invalid, NotFound, Unavailable } from '../http/errors';
 import { PhotoModel, PoseModel, TeamModel, TestSessionModel } from '../models';
@@ -40,9 +39,15 @@ export const photoLimits = {
   memoryBudgetMb: 400,
 } as const;
 
-// One libvips worker thread per image and no operation cache: memory follows the decode queue.
-sharp.concurrency(1);
-sharp.cache(false);
+// sharp and exifr are loaded with the first upload, not at start-up. One libvips worker thread per
+// image and no operation cache: memory follows the decode queue.
+let imaging: Promise<{ sharp: typeof import('sharp').default; exifr: typeof import('exifr').default }> | undefined;
+const loadImaging = () =>
+  (imaging ??= Promise.all([import('sharp'), import('exifr')]).then(([s, e]) => {
+    s.default.concurrency(1);
+    s.default.cache(false);
+    return { sharp: s.default, exifr: e.default };
+  }));
 const decodeQueue = pLimit(photoLimits.concurrentDecodes);
 
 type ImageKind = 'jpeg' | 'png' | 'webp';
@@ -63,6 +68,7 @@ interface Metadata {
 
 async function readMetadata(buf: Buffer): Promise<Metadata> {
   try {
+    const { exifr } = await loadImaging();
     const m = await exifr.parse(buf, { gps: true, exif: true, tiff: true, xmp: false, icc: false, iptc: false });
     const when = m?.DateTimeOriginal ?? m?.CreateDate;
     const lat = typeof m?.latitude === 'number' && Number.isFinite(m.latitude) ? m.latitude : null;
@@ -80,6 +86,7 @@ function tooManyPixels(size: string | null) {
 }
 
 async function reencode(buf: Buffer) {
+  const { sharp } = await loadImaging();
   const input = () => sharp(buf, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' });
   let meta: ImageMetadata;
   try {

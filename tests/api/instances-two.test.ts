@@ -2,7 +2,8 @@
 // instances behind a load balancer: a phone (the field client's sync run, over Node) and the desk
 // alternate between them request by request, and everything behaves as on one instance: sign-in,
 // push, pull, photo upload and download, review validators, throttling, sign-off and sending the
-// fabrication sheet (quotas and the mail log counted once).
+// fabrication sheet (quotas and the mail log counted once). The second instance runs the bundled
+// server (npm run build:server), so the bundle is proven on the same path as the sources.
 import 'fake-indexeddb/auto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
@@ -12,7 +13,9 @@ import { saveRecords } from '@/lib/db/records';
 import { addPhoto } from '@/lib/db/photos';
 import { runSync } from '@/sync/sync-run';
 import type { SyncTransport } from '@/sync/transport';
-import { createTeam, startTestServer, TEST_PASSWORD, type TestServer, type TestTeam } from '../support/test-app';
+import path from 'node:path';
+import { buildServer } from '../../server/scripts/build-server.mjs';
+import { createTeam, repoRoot, startTestServer, TEST_PASSWORD, type TestServer, type TestTeam } from '../support/test-app';
 import { nodeTransport, signInCookie, startServerProcess, type ServerProcess } from '../faults/fault-rig';
 import { startMailSink, type MailSink } from '../../server/mail/sink';
 import { buildSyntheticSession } from '../../shared/flex';
@@ -31,7 +34,8 @@ beforeAll(async () => {
   sink = await startMailSink();
   // Both instances send to the one sink and keep photos in the one bucket (S3_* from npm test).
   const shared = { SMTP_HOST: '127.0.0.1', SMTP_PORT: String(sink.port) };
-  [a, b] = await Promise.all([startServerProcess(process.env.DATABASE_URL!, shared), startServerProcess(process.env.DATABASE_URL!, shared)]);
+  const bundle = await buildServer(path.join(repoRoot, '.data', `server-build-${process.env.SMTP_PORT}`));
+  [a, b] = await Promise.all([startServerProcess(process.env.DATABASE_URL!, shared), startServerProcess(process.env.DATABASE_URL!, shared, bundle)]);
   team = await createTeam('Two instance workshop');
 }, 120_000);
 

@@ -43,10 +43,13 @@ export interface ServerProcess {
   stop(): Promise<void>;
 }
 
-/** The real server (server/main.ts) as a child process on a free port. */
-export async function startServerProcess(databaseUrl: string, env: Record<string, string> = {}): Promise<ServerProcess> {
+/**
+ * The real server as a child process on a free port: from its TypeScript sources, or from a bundle
+ * (`bundle`: a main.mjs built by server/scripts/build-server.mjs).
+ */
+export async function startServerProcess(databaseUrl: string, env: Record<string, string> = {}, bundle?: string): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+  const child = spawn(process.execPath, bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'], {
     cwd: repoRoot,
     env: { ...process.env, NODE_ENV: 'test', LOG_LEVEL: 'silent', DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(await freePort()), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
