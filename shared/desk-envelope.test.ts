@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildSyntheticSession } from './flex';
-import { computeDeskEnvelope, poseKeys, toEnvelopeInput, type DeskSessionData } from './desk-envelope';
+import { buildSnapshot, computeDeskEnvelope, deskFlags, poseKeys, toEnvelopeInput, type DeskSessionData } from './desk-envelope';
 import { DEFAULT_DRAFT_PARAMS } from './schemas/envelope';
 
 function session(): DeskSessionData {
@@ -38,6 +38,37 @@ describe('desk envelope input', () => {
     const { boot, bootNote, result } = computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS);
     expect(boot).toBeNull();
     expect(bootNote).toMatch(/nominal fore-aft gap/);
-    expect(result.axes.lateral.envelopeMm).toBeGreaterThan(0);
+    expect(result.measures.lateral.envelopeMm).toBeGreaterThan(0);
+  });
+
+  it('names each flagged reading by its id, pose label and gauge point label', () => {
+    const data = session();
+    const bad = data.readings.findIndex((r) => r.poseId === 'pose-id-2' && r.gaugePointId === 'gp-P03' && r.axis === 'lateral');
+    data.readings[bad] = { ...data.readings[bad], valueMm: data.readings[bad].valueMm + 20 };
+    const flags = deskFlags(data, computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS).result);
+    expect(flags.map((f) => [f.readingId, f.poseLabel, f.pointLabel, f.flag.axis, f.flag.kind])).toEqual([[data.readings[bad].id, 'Diagonal', 'P03', 'lateral', 'outlier']]);
+    expect(f0(flags).enteredMm).toBe(data.readings[bad].valueMm);
+    // excluded, it is no longer in the computation, so no longer flagged
+    data.readings[bad] = { ...data.readings[bad], excluded: true, excludeReason: 'misread' };
+    expect(deskFlags(data, computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS).result)).toEqual([]);
+  });
+
+  it('freezes each flagged reading kept, with its acknowledgement, and refuses to freeze one without', () => {
+    const data = session();
+    const bad = data.readings.findIndex((r) => r.poseId === 'pose-id-3' && r.gaugePointId === 'gp-P05' && r.axis === 'vertical');
+    data.readings[bad] = { ...data.readings[bad], valueMm: data.readings[bad].valueMm - 18 };
+    const envelope = computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS);
+    const signature = { signedBy: { id: 'u', name: 'Engineer' }, signedAt: '2026-11-20T15:30:00.000Z', revision: 1 };
+    expect(() => buildSnapshot(data, DEFAULT_DRAFT_PARAMS, signature, envelope, new Map())).toThrowError(/has no acknowledgement/);
+    const snapshot = buildSnapshot(data, DEFAULT_DRAFT_PARAMS, signature, envelope, new Map([[data.readings[bad].id, 'checked twice']]));
+    expect(snapshot.format).toBe(2);
+    expect(snapshot.acknowledgedFlags).toEqual([
+      expect.objectContaining({ readingId: data.readings[bad].id, poseLabel: 'Diagonal', pointLabel: 'P05', axis: 'vertical', kind: 'outlier', note: 'checked twice' }),
+    ]);
   });
 });
+
+function f0<T>(list: T[]): T {
+  expect(list.length).toBeGreaterThan(0);
+  return list[0];
+}

@@ -7,13 +7,14 @@ import {
   designEnvelope,
   scaleMotion,
   type BootSpanResult,
+  type EnvelopeFlag,
   type EnvelopeInput,
   type EnvelopeResult,
   type OpeningOutline,
   type RigidMotion,
 } from './flex';
 import type { GaugePoint, Opening, Pose, Reading, TestSession, Vehicle } from './schemas';
-import type { EnvelopeParams, EnvelopeSnapshot, SnapshotPose } from './schemas/envelope';
+import type { AcknowledgedFlag, EnvelopeParams, EnvelopeSnapshotV2, SnapshotPose } from './schemas/envelope';
 
 export interface DeskSessionData {
   session: Pick<TestSession, 'id' | 'title' | 'testedOn' | 'readingMode'>;
@@ -129,13 +130,54 @@ export function computeDeskEnvelope(data: DeskSessionData, params: EnvelopeParam
   };
 }
 
-/** The frozen record of a sign-off (hashed by the server). */
+/** A reading the outlier rule flags, named as the desk shows it. */
+export interface DeskFlag {
+  readingId: string;
+  poseLabel: string;
+  pointLabel: string;
+  /** The reading as entered (raw gap or displacement). */
+  enteredMm: number;
+  flag: EnvelopeFlag;
+}
+
+/**
+ * The flagged readings of a computed envelope, by reading id (the computation names poses by key and
+ * gauge points by label). Excluded and deleted readings are not in the computation, so never here.
+ */
+export function deskFlags(data: DeskSessionData, result: EnvelopeResult): DeskFlag[] {
+  const keyToPose = new Map([...poseKeys(data.poses)].map(([id, key]) => [key, id]));
+  const labelToPoint = new Map(data.gaugePoints.map((g) => [g.label, g.id]));
+  const readingAt = new Map(usedReadings(data).map((r) => [`${r.poseId}|${r.gaugePointId}|${r.axis}`, r]));
+  const poseLabel = new Map(data.poses.map((p) => [p.id, p.label || `Pose ${p.seq}`]));
+  const flags: DeskFlag[] = [];
+  for (const flag of result.flags) {
+    const poseId = keyToPose.get(flag.poseId);
+    const reading = readingAt.get(`${poseId}|${labelToPoint.get(flag.pointId)}|${flag.axis}`);
+    if (poseId === undefined || reading === undefined) continue;
+    flags.push({ readingId: reading.id, poseLabel: poseLabel.get(poseId) ?? '', pointLabel: flag.pointId, enteredMm: reading.valueMm, flag });
+  }
+  return flags;
+}
+
+/**
+ * The frozen record of a sign-off (hashed by the server): inputs, parameters, the computed envelope
+ * and boot check, and the flagged readings kept in it with the engineer's acknowledgement of each.
+ * Throws when a flagged reading has no acknowledgement: the caller asks for them first.
+ */
 export function buildSnapshot(
   data: DeskSessionData,
   params: EnvelopeParams,
   signature: { signedBy: { id: string; name: string }; signedAt: string; revision: number },
-): EnvelopeSnapshot {
-  const { result, boot, bootNote } = computeDeskEnvelope(data, params);
+  envelope: DeskEnvelope,
+  acknowledgements: ReadonlyMap<string, string>,
+): EnvelopeSnapshotV2 {
+  const { result, boot, bootNote } = envelope;
+  const acknowledgedFlags: AcknowledgedFlag[] = deskFlags(data, result).map((f) => {
+    const note = acknowledgements.get(f.readingId);
+    if (note === undefined) throw new Error(`buildSnapshot: flagged reading ${f.readingId} has no acknowledgement`);
+    const { poseId: _pose, pointId: _point, ...flag } = f.flag;
+    return { ...flag, readingId: f.readingId, poseLabel: f.poseLabel, pointLabel: f.pointLabel, enteredMm: f.enteredMm, note };
+  });
   const keys = poseKeys(data.poses);
   const poses: SnapshotPose[] = [...data.poses]
     .sort((a, b) => a.seq - b.seq)
@@ -149,7 +191,7 @@ export function buildSnapshot(
     }));
   const { vehicle, session } = data;
   return {
-    format: 1,
+    format: 2,
     ...signature,
     vehicle: {
       id: vehicle.id,
@@ -167,6 +209,7 @@ export function buildSnapshot(
     excludedReadings: data.readings.filter((r) => r.excluded && !r.deletedAt).map((r) => ({ id: r.id, reason: r.excludeReason ?? '' })),
     params,
     result,
+    acknowledgedFlags,
     boot,
     bootNote,
   };

@@ -59,3 +59,12 @@ export function formatTimestamp(iso: string): string {
 
 export const AXIS_NAMES = { foreAft: 'fore-aft', lateral: 'lateral', vertical: 'vertical' } as const;
 export const SIDE_NAMES = { top: 'top', bottom: 'bottom', left: 'left (+y)', right: 'right (−y)' } as const;
+/** The envelope's measures: the fore-aft gap's opening and closing apart, then shear and vertical. */
+export const MEASURE_NAMES = {
+  foreAftOpening: 'fore-aft, gap opening',
+  foreAftClosing: 'fore-aft, gap closing',
+  lateral: 'lateral',
+  vertical: 'vertical',
+} as const;
+/** How a measure's envelope reads: the gap opens by up to +x, closes by up to −x; shear goes either way. */
+export const MEASURE_SIGNS = { foreAftOpening: '+', foreAftClosing: '−', lateral: '±', vertical: '±' } as const;

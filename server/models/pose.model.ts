@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import { syncedColumns } from './synced-columns';
+import type { Wheel } from '../../shared/schemas';
 
 export class PoseModel extends Model<InferAttributes<PoseModel>, InferCreationAttributes<PoseModel>> {
   declare id: string;
@@ -14,6 +15,7 @@ export class PoseModel extends Model<InferAttributes<PoseModel>, InferCreationAt
   declare liftRrMm: number;
   declare rampAngleDeg: number | null;
   declare rampDistanceMm: number | null;
+  declare rampWheel: CreationOptional<Wheel | null>;
   declare notes: CreationOptional<string>;
   declare recordedAt: Date;
   declare createdBy: string;
@@ -38,6 +40,7 @@ export function initPose(sequelize: Sequelize) {
       liftRrMm: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
       rampAngleDeg: { type: DataTypes.DOUBLE, allowNull: true },
       rampDistanceMm: { type: DataTypes.DOUBLE, allowNull: true },
+      rampWheel: { type: DataTypes.TEXT, allowNull: true },
       notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
       recordedAt: { type: DataTypes.DATE, allowNull: false },
       createdBy: { type: DataTypes.UUID, allowNull: false },

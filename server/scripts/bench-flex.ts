@@ -1,63 +1,102 @@
 /**
  * Benchmark of the flex computation: designEnvelope on a synthetic session of 200 poses × 12 gauge
- * points × 3 axes, then 10× and 100× as many poses. The work per pose is constant (two small QR
- * fits and a closed-form perimeter worst), so time should grow linearly with the poses.
+ * points × 3 axes (prediction method), then 10× and 100× as many poses, and the tolerance method on
+ * 200 repeated runs of one pose. Each figure is the median of 20 warm runs (after 3 unmeasured
+ * ones, so the JIT has compiled the code), with the spread (fastest–slowest) beside it; the first,
+ * cold run of each size is printed apart.
  *
  * Run: npx tsx server/scripts/bench-flex.ts
  * A wider bench script imports runFlexBench() and prints or stores its rows.
  */
 import { pathToFileURL } from 'node:url';
-import { buildSyntheticSession, designEnvelope, type EnvelopeInput } from '../../shared/flex/index';
+import { buildSyntheticSession, designEnvelope, syntheticEnvelopeInput, type EnvelopeInput } from '../../shared/flex/index';
 
 export interface FlexBenchRow {
+  label: string;
   poses: number;
   gaugePoints: number;
   readings: number;
-  ms: number;
-  usPerReading: number;
+  coldMs: number;
+  medianMs: number;
+  minMs: number;
+  maxMs: number;
+  runs: number;
+  goalMs: number | null;
 }
 
-const BASE_POSES = 200;
 const GAUGE_POINTS = 12;
-const SCALES = [1, 10, 100];
+const WARM_UP = 3;
+const RUNS = 20;
 
-function benchInput(poses: number): EnvelopeInput {
-  const session = buildSyntheticSession({ poses, gaugePoints: GAUGE_POINTS, seed: 2026, mode: 'gap' });
+function predictionInput(poses: number): EnvelopeInput {
+  return syntheticEnvelopeInput(buildSyntheticSession({ poses, gaugePoints: GAUGE_POINTS, seed: 2026, mode: 'gap' }), { designTwistDeg: 20 }, 'gap');
+}
+
+/** Repeated runs of one diagonal pose (the same lifts each time, fresh reading noise). */
+function toleranceInput(runs: number): EnvelopeInput {
+  // The same twist every run (repeats of one pose), fresh reading noise and 5 % scatter of the response.
+  const session = buildSyntheticSession({ twistsDeg: Array.from({ length: runs }, () => 16), gaugePoints: GAUGE_POINTS, seed: 2027, mode: 'gap', proportionalScatter: 0.05 });
+  return syntheticEnvelopeInput(session, { designTwistDeg: 20, method: 'tolerance' }, 'gap');
+}
+
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 === 1 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+}
+
+async function measure(label: string, input: EnvelopeInput, goalMs: number | null, runs = RUNS): Promise<FlexBenchRow> {
+  const readings = input.poses.reduce((sum, pose) => sum + pose.readings.length, 0);
+  let started = performance.now();
+  designEnvelope(input);
+  const coldMs = performance.now() - started;
+  for (let i = 0; i < WARM_UP; i++) designEnvelope(input);
+  const times: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    started = performance.now();
+    designEnvelope(input);
+    times.push(performance.now() - started);
+    // Let other work (a wider bench, the event loop) run between runs.
+    await new Promise((resolve) => setImmediate(resolve));
+  }
   return {
-    tracks: session.tracks,
-    gaugePoints: session.gaugePoints,
-    outline: session.outline,
-    readingMode: 'gap',
-    baselinePoseId: session.baselinePoseId,
-    poses: session.poses,
-    parameters: { designTwistDeg: 20 },
+    label,
+    poses: input.poses.length - 1,
+    gaugePoints: GAUGE_POINTS,
+    readings,
+    coldMs,
+    medianMs: median(times),
+    minMs: Math.min(...times),
+    maxMs: Math.max(...times),
+    runs,
+    goalMs,
   };
 }
 
 export async function runFlexBench(): Promise<{ rows: FlexBenchRow[] }> {
   const rows: FlexBenchRow[] = [];
-  // One small warm-up run so the first row does not carry the JIT's start-up cost.
-  designEnvelope(benchInput(20));
-  for (const scale of SCALES) {
-    const poses = BASE_POSES * scale;
-    const input = benchInput(poses);
-    const readings = input.poses.reduce((sum, pose) => sum + pose.readings.length, 0);
-    const started = performance.now();
-    designEnvelope(input);
-    const ms = performance.now() - started;
-    rows.push({ poses, gaugePoints: GAUGE_POINTS, readings, ms, usPerReading: (ms * 1000) / readings });
-    // Let other work (a wider bench, the event loop) run between sizes.
-    await new Promise((resolve) => setImmediate(resolve));
-  }
+  rows.push(await measure('prediction', predictionInput(200), 2));
+  rows.push(await measure('tolerance (repeated runs)', toleranceInput(200), 5));
+  rows.push(await measure('prediction', predictionInput(2000), null));
+  rows.push(await measure('prediction', predictionInput(20000), null, 5));
   return { rows };
 }
 
 function printTable(rows: FlexBenchRow[]): void {
-  const header = ['poses', 'gauge points', 'readings', 'ms', 'µs/reading'];
-  const lines = rows.map((r) => [String(r.poses), String(r.gaugePoints), String(r.readings), r.ms.toFixed(1), r.usPerReading.toFixed(2)]);
+  const header = ['method', 'poses', 'readings', 'cold ms', 'warm median ms', 'fastest–slowest', 'runs', 'goal'];
+  const lines = rows.map((r) => [
+    r.label,
+    String(r.poses),
+    String(r.readings),
+    r.coldMs.toFixed(2),
+    r.medianMs.toFixed(2),
+    `${r.minMs.toFixed(2)}–${r.maxMs.toFixed(2)}`,
+    String(r.runs),
+    r.goalMs === null ? '' : `≤ ${r.goalMs} ms`,
+  ]);
   const widths = header.map((h, i) => Math.max(h.length, ...lines.map((l) => l[i].length)));
   const format = (cells: string[]): string => cells.map((c, i) => c.padStart(widths[i])).join('  ');
-  console.log('designEnvelope (prediction method, gap readings, 1 baseline pose included)');
+  console.log(`designEnvelope, gap readings, ${GAUGE_POINTS} gauge points × 3 axes, 1 baseline pose included`);
   console.log(format(header));
   for (const line of lines) console.log(format(line));
 }

@@ -6,6 +6,8 @@ import { hashPassword } from '../auth/lucia';
 import type { Axis } from '../../shared/schemas';
 import { EnvelopeModel } from '../models';
 import { signOff } from '../services/envelope.service';
+import { getSessionDetail } from '../services/sessions.service';
+import { computeDeskEnvelope, deskFlags } from '../../shared/desk-envelope';
 import { DEFAULT_DRAFT_PARAMS, type EnvelopeParams } from '../../shared/schemas/envelope';
 
 export const DEMO_TEAM_ID = '0d3c5a10-0000-4000-8000-000000000001';
@@ -65,7 +67,8 @@ const poses = [
   { label: 'RL on 300 block', kind: 'wheels', fl: 0, fr: 0, rl: 300, rr: 0 },
   { label: 'Diagonal FL + RR 300', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 300 },
   { label: 'Diagonal FR + RL 300', kind: 'wheels', fl: 0, fr: 300, rl: 300, rr: 0 },
-  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500 },
+  // Front left 1500 mm up a 20° ramp: its lift is 1500 × sin 20° = 513.03 mm (shared/flex/ramp-lift.ts).
+  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500, rampWheel: 'fl' },
 ] as const;
 
 const id = (n: number, kind: string) => `0d3c5a10-0000-4000-8${kind}-${n.toString(16).padStart(12, '0')}`;
@@ -144,6 +147,7 @@ async function seedWorkshop(): Promise<boolean> {
             liftRrMm: p.rr,
             rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
             rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
+            rampWheel: 'rampWheel' in p ? p.rampWheel : null,
             recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000),
             createdBy: tester,
           },
@@ -208,6 +212,13 @@ async function seedDemoEnvelope(): Promise<boolean> {
   }
   const params: EnvelopeParams = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
   await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
-  await signOff({ teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name }, DEMO_ENVELOPE_ID, { version: 1 }, new Date('2026-11-20T15:30:00Z'));
+  // The engineer kept the flagged reading after the crew's note, and said so at sign-off.
+  const auth = { teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name };
+  const detail = await getSessionDetail(auth, id(1, '003'));
+  const acknowledgements = deskFlags(detail, computeDeskEnvelope(detail, params).result).map((f) => ({
+    readingId: f.readingId,
+    note: 'Crew re-seated the dial gauge and read the same value; kept',
+  }));
+  await signOff(auth, DEMO_ENVELOPE_ID, { version: 1, acknowledgements }, new Date('2026-11-20T15:30:00Z'));
   return true;
 }

@@ -4,11 +4,14 @@
 // Written with papaparse's unparse (quotes fields with commas, quotes or line breaks). Free text
 // that a spreadsheet would run as a formula gets a leading apostrophe; negative numbers do not.
 const CSV_OPTIONS = { newline: '\r\n', escapeFormulae: /^(?:[=+@\t\r]|-(?!\d+(?:\.\d+)?$))/ };
+/** How an envelope reads, in words: a bare "+" would be taken for a formula by a spreadsheet. */
+const SIGN_WORDS = { '+': 'opens (+)', '−': 'closes (−)', '±': 'either way (±)' } as const;
 import Papa from 'papaparse';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
 import type { GaugePoint, Pose, Reading } from '../../shared/schemas';
 import { AXES } from '../../shared/flex';
+import { envelopeRows } from '../../shared/envelope-rows';
 import { AXIS_NAMES, SIDE_NAMES, formatDegValue, formatLengthValue, formatRatio } from '../../shared/format';
 
 export interface ReadingsCsvInput {
@@ -49,40 +52,62 @@ export function readingsCsv(data: ReadingsCsvInput, unit: UnitSystem): string {
   return Papa.unparse(rows, CSV_OPTIONS);
 }
 
-/** The signed envelope: one row per axis, then one per side of the boot check, with the sign-off. */
+/**
+ * The signed envelope: one row per measure (fore-aft opening and closing apart, with the sign the
+ * envelope reads with), then one per side of the boot check, then one per flagged reading the
+ * engineer acknowledged, each with the sign-off.
+ */
 export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: UnitSystem): string {
   const common = { revision: s.revision, signed_by: s.signedBy.name, signed_at: s.signedAt, content_hash: contentHash };
-  const rows: Record<string, string | number>[] = AXES.map((axis) => {
-    const a = s.result.axes[axis];
-    return {
-      kind: 'axis',
-      name: AXIS_NAMES[axis],
-      [`measured_worst_${unit}`]: formatLengthValue(Math.abs(a.measuredWorstMm), unit),
-      [`upper_bound_${unit}`]: a.upperBoundMm === null ? '' : formatLengthValue(a.upperBoundMm, unit),
-      governs: a.governing === 'upperBound' ? 'upper bound' : 'measured',
-      [`envelope_${unit}`]: formatLengthValue(a.envelopeMm, unit),
+  const blank = {
+    sign: '',
+    [`measured_worst_${unit}`]: '',
+    [`upper_bound_${unit}`]: '',
+    governs: '',
+    [`envelope_${unit}`]: '',
+    [`gap_min_${unit}`]: '',
+    [`gap_max_${unit}`]: '',
+    [`largest_shear_${unit}`]: '',
+    extension_ratio: '',
+    note: '',
+  };
+  const rows: Record<string, string | number>[] = envelopeRows(s.result).map((r) => ({
+      kind: 'envelope',
+      name: r.name,
+      sign: SIGN_WORDS[r.sign],
+      [`measured_worst_${unit}`]: formatLengthValue(r.measuredWorstMm, unit),
+      [`upper_bound_${unit}`]: r.upperBoundMm === null ? '' : formatLengthValue(r.upperBoundMm, unit),
+      governs: r.governs,
+      [`envelope_${unit}`]: formatLengthValue(r.envelopeMm, unit),
       [`gap_min_${unit}`]: '',
       [`gap_max_${unit}`]: '',
       [`largest_shear_${unit}`]: '',
       extension_ratio: '',
+      note: '',
       design_twist_deg: formatDegValue(s.params.designTwistDeg),
       ...common,
-    };
-  });
+  }));
   for (const side of ['top', 'bottom', 'left', 'right'] as const) {
     const b = s.boot?.[side];
     if (!b) continue;
     rows.push({
+      ...blank,
       kind: 'side',
       name: SIDE_NAMES[side],
-      [`measured_worst_${unit}`]: '',
-      [`upper_bound_${unit}`]: '',
-      governs: '',
-      [`envelope_${unit}`]: '',
       [`gap_min_${unit}`]: formatLengthValue(b.gapMinMm, unit),
       [`gap_max_${unit}`]: formatLengthValue(b.gapMaxMm, unit),
       [`largest_shear_${unit}`]: formatLengthValue(b.largestShearMm, unit),
       extension_ratio: formatRatio(b.extensionRatio),
+      design_twist_deg: formatDegValue(s.params.designTwistDeg),
+      ...common,
+    });
+  }
+  for (const f of s.format === 2 ? s.acknowledgedFlags : []) {
+    rows.push({
+      ...blank,
+      kind: 'acknowledged flag',
+      name: `${f.poseLabel} ${f.pointLabel} ${AXIS_NAMES[f.axis]}`,
+      note: `entered ${formatLengthValue(f.enteredMm, unit)} ${unit}, ${formatLengthValue(f.residualMm, unit)} ${unit} off the fit${f.note ? `; ${f.note}` : ''}`,
       design_twist_deg: formatDegValue(s.params.designTwistDeg),
       ...common,
     });

@@ -8,8 +8,8 @@ import { Conflict } from '../http/errors';
 import { sendWithinQuota } from '../mail/quotas';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { SendSheetInput } from '../../shared/schemas/envelope';
-import { AXES } from '../../shared/flex';
-import { AXIS_NAMES, formatLength, formatTimestamp } from '../../shared/format';
+import { envelopeRows } from '../../shared/envelope-rows';
+import { formatLength, formatTimestamp } from '../../shared/format';
 import { getSignedEnvelope } from './envelope.service';
 import { PLANNING_AID_NOTICE, buildSheetPdf } from './fabrication-sheet.service';
 
@@ -39,8 +39,8 @@ export async function sendSheet(auth: AuthContext, envelopeId: string, input: Se
       `${auth.name} sends you the fabrication sheet for the cab-to-body boot or seal of ${s.vehicle.name} (envelope revision ${s.revision}, signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}).`,
       '',
       ...(input.note ? [input.note, ''] : []),
-      'Design envelope per axis:',
-      ...AXES.map((axis) => `  ${AXIS_NAMES[axis]}: ±${formatLength(s.result.axes[axis].envelopeMm, unit)}`),
+      'Design envelope:',
+      ...envelopeRows(s.result).map((r) => `  ${r.name}: ${r.sign}${formatLength(r.envelopeMm, unit)}`),
       '',
       `Content hash: ${envelope.contentHash}`,
       '',

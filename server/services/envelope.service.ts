@@ -7,6 +7,9 @@
 // Re-opening a signed revision leaves it signed (its sheet stays valid and visible) and adds a new
 // draft revision with the same parameters; only when that draft is signed does the old one become
 // 'superseded'. A snapshot is never written again after sign-off.
+// A reading the outlier rule flags may stay in the computation only if the engineer acknowledges it
+// at sign-off (docs/method.md §3): the server computes the flags itself and refuses a sign-off that
+// leaves one unacknowledged, naming each; the acknowledgements are frozen in the snapshot.
 // Roles without 'envelope.read' (viewers) see signed revisions only; anything else is a 404 to them.
 import { Op, Transaction } from 'sequelize';
 import { EnvelopeModel, EnvelopeSendModel, HistoryEventModel, TestSessionModel, UserModel, VehicleModel } from '../models';
@@ -14,13 +17,15 @@ import { can } from '../auth/permissions';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import { FlexInputError } from '../../shared/flex';
-import { buildSnapshot } from '../../shared/desk-envelope';
+import { buildSnapshot, computeDeskEnvelope, deskFlags, type DeskEnvelope } from '../../shared/desk-envelope';
+import { formatLength } from '../../shared/format';
 import {
   DEFAULT_DRAFT_PARAMS,
   envelopeParams,
   type EnvelopeParams,
   type EnvelopeRecord,
   type EnvelopeSnapshot,
+  type SignOffInput,
   type SignedEnvelopeSummary,
 } from '../../shared/schemas/envelope';
 import { getSessionDetail } from './sessions.service';
@@ -65,7 +70,7 @@ async function toRecords(teamId: string, rows: EnvelopeModel[]): Promise<Envelop
     revision: r.revision,
     status: r.status,
     version: r.version,
-    params: r.params as EnvelopeParams,
+    params: envelopeParams.parse(r.params),
     snapshot: (r.snapshot as EnvelopeSnapshot | null) ?? null,
     contentHash: r.contentHash,
     hashVerifies: r.snapshot && r.contentHash ? contentHash(r.snapshot) === r.contentHash : null,
@@ -167,9 +172,10 @@ export async function saveDraft(auth: Signer, id: string, input: { version: numb
 
 /**
  * Signs a draft: reads the session from the database inside the transaction, computes envelope and
- * boot check with shared/flex, freezes the snapshot with its hash, supersedes earlier signed revisions.
+ * boot check with shared/flex, checks that every flagged reading kept in the computation is
+ * acknowledged, freezes the snapshot with its hash, supersedes earlier signed revisions.
  */
-export async function signOff(auth: Signer, id: string, input: { version: number }, now = new Date()): Promise<EnvelopeRecord> {
+export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput, 'version'> & Partial<SignOffInput>, now = new Date()): Promise<EnvelopeRecord> {
   const sequelize = EnvelopeModel.sequelize!;
   // One snapshot of the database for every read: an edit committing mid-way cannot mix in.
   await sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (transaction) => {
@@ -178,17 +184,29 @@ export async function signOff(auth: Signer, id: string, input: { version: number
     if (row.version !== input.version) throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);
     const params = envelopeParams.parse(row.params);
     const detail = await getSessionDetail(auth, row.sessionId, { transaction });
-    let snapshot: EnvelopeSnapshot;
+    let envelope: DeskEnvelope;
     try {
-      snapshot = buildSnapshot(detail, params, {
-        signedBy: { id: auth.userId, name: auth.name },
-        signedAt: now.toISOString(),
-        revision: row.revision,
-      });
+      envelope = computeDeskEnvelope(detail, params);
     } catch (error) {
       if (error instanceof FlexInputError) throw new Invalid(`the envelope cannot be computed from this session: ${error.message}`, [{ field: error.field, message: error.problem }]);
       throw error;
     }
+    const acknowledged = new Map((input.acknowledgements ?? []).map((a) => [a.readingId, a.note ?? '']));
+    const missing = deskFlags(detail, envelope.result).filter((f) => !acknowledged.has(f.readingId));
+    if (missing.length > 0) {
+      const named = missing.map((f) => `${f.poseLabel} ${f.pointLabel} ${f.flag.axis} (residual ${formatLength(f.flag.residualMm, 'mm')})`);
+      throw new Invalid(
+        `${missing.length} flagged reading(s) are still in the computation: acknowledge each one, or exclude it, before signing off: ${named.join('; ')}`,
+        missing.map((f, i) => ({ field: `acknowledgements.${f.readingId}`, message: `flagged reading ${named[i]} needs an acknowledgement` })),
+      );
+    }
+    const snapshot = buildSnapshot(
+      detail,
+      params,
+      { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision },
+      envelope,
+      acknowledged,
+    );
     // Stored exactly as hashed, so reading it back re-hashes to the same value.
     const frozen = JSON.parse(canonicalJson(snapshot)) as EnvelopeSnapshot;
     const hash = contentHash(frozen);
@@ -200,7 +218,15 @@ export async function signOff(auth: Signer, id: string, input: { version: number
       { status: 'signed', snapshot: frozen, contentHash: hash, signedBy: auth.userId, signedAt: now, version: row.version + 1 },
       { transaction },
     );
-    await history(auth.teamId, row.sessionId, row.id, 'envelope.sign', auth.userId, { revision: row.revision, contentHash: hash }, transaction);
+    await history(
+      auth.teamId,
+      row.sessionId,
+      row.id,
+      'envelope.sign',
+      auth.userId,
+      { revision: row.revision, contentHash: hash, acknowledgedReadings: snapshot.acknowledgedFlags.map((f) => f.readingId) },
+      transaction,
+    );
   });
   return getEnvelope({ teamId: auth.teamId, role: 'engineer' }, id);
 }

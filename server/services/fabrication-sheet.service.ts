@@ -7,7 +7,7 @@ import path from 'node:path';
 import { repoRoot } from '../paths';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
-import { AXES } from '../../shared/flex';
+import { envelopeRemarks, envelopeRows } from '../../shared/envelope-rows';
 import {
   AXIS_NAMES,
   SIDE_NAMES,
@@ -148,29 +148,28 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   heading(doc, 'Opening');
   openingDrawing(doc, s, unit);
 
-  heading(doc, 'Design envelope per axis');
+  heading(doc, 'Design envelope');
+  const rows = envelopeRows(s.result);
   table(
     doc,
     [
-      { title: 'axis', width: 70 },
-      { title: `measured worst (${unit})`, width: 90, align: 'right' },
-      { title: `upper bound (${unit})`, width: 90, align: 'right' },
-      { title: 'governs', width: 80 },
+      { title: 'movement', width: 110 },
+      { title: `measured worst (${unit})`, width: 80, align: 'right' },
+      { title: `upper bound (${unit})`, width: 80, align: 'right' },
+      { title: 'governs', width: 150 },
       { title: `envelope (${unit})`, width: 90, align: 'right' },
     ],
-    AXES.map((axis) => {
-      const a = s.result.axes[axis];
-      return [
-        AXIS_NAMES[axis],
-        formatLengthValue(Math.abs(a.measuredWorstMm), unit),
-        a.upperBoundMm === null ? '—' : formatLengthValue(a.upperBoundMm, unit),
-        a.governing === 'upperBound' ? 'upper bound' : 'measured',
-        `±${formatLengthValue(a.envelopeMm, unit)}`,
-      ];
-    }),
+    rows.map((r) => [
+      r.name,
+      formatLengthValue(r.measuredWorstMm, unit),
+      r.upperBoundMm === null ? '—' : formatLengthValue(r.upperBoundMm, unit),
+      r.governs,
+      `${r.sign}${formatLengthValue(r.envelopeMm, unit)}`,
+    ]),
   );
   doc.fontSize(8).fillColor(MUTED);
-  for (const axis of AXES) doc.text(`${AXIS_NAMES[axis]}: ${s.result.axes[axis].reasons.join(' ')}`, MARGIN);
+  doc.text('Fore-aft: + the gap opens by up to the envelope, − it closes by up to it. Lateral and vertical: ± either way.', MARGIN);
+  for (const r of rows) doc.text(`${r.name}: ${r.reasons.join(' ')}`, MARGIN);
   doc.fillColor(INK);
 
   heading(doc, 'Boot spans per side');
@@ -236,15 +235,41 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   const p = s.params;
   const method =
     p.method === 'prediction'
-      ? `one-sided prediction bound at ${formatPercent(p.confidence)} confidence, line ${p.throughOrigin ? 'through the origin' : 'with intercept'}`
-      : `one-sided tolerance bound, coverage ${formatPercent(p.coverage)} at ${formatPercent(p.confidence)} confidence`;
+      ? `one-sided prediction bound at ${formatPercent(p.confidence)} confidence per twist direction, line ${p.throughOrigin ? 'through the origin' : 'with intercept'}, scatter growing with twist`
+      : `one-sided tolerance bound, coverage ${formatPercent(p.coverage)} at ${formatPercent(p.confidence)} confidence, repeated runs within ±${formatDeg(p.repeatBandDeg ?? 1)}`;
   doc.text(`Design twist ${formatDeg(p.designTwistDeg)}; ${method}.`, MARGIN);
   doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatLength(p.incrementMm, unit)}.`);
   doc.text(`${s.poses.length} poses, ${s.readings.length} readings used, ${s.excludedReadings.length} excluded by the engineer.`);
-  if (s.result.notes.length > 0) {
+  const remarks = envelopeRemarks(s.result);
+  for (const [title, list] of [['Remarks on the readings and the fit', remarks.readings], ['Remarks on the bound', remarks.bound]] as const) {
+    if (list.length === 0) continue;
+    heading(doc, title);
     doc.fontSize(8).fillColor(MUTED);
-    for (const note of s.result.notes) doc.text(`• ${note}`);
+    for (const note of list) doc.text(`• ${note}`, MARGIN);
     doc.fontSize(9).fillColor(INK);
+  }
+  if (s.format === 2 && s.acknowledgedFlags.length > 0) {
+    heading(doc, 'Flagged readings kept in the computation');
+    doc.text(`The outlier rule flagged these readings; ${s.signedBy.name} checked each and kept it in the computation at sign-off.`, MARGIN);
+    table(
+      doc,
+      [
+        { title: 'pose', width: 120 },
+        { title: 'point', width: 40 },
+        { title: 'axis', width: 55 },
+        { title: `entered (${unit})`, width: 60, align: 'right' },
+        { title: `off the fit (${unit})`, width: 65, align: 'right' },
+        { title: 'acknowledged, note', width: 160 },
+      ],
+      s.acknowledgedFlags.map((f) => [
+        f.poseLabel,
+        f.pointLabel,
+        AXIS_NAMES[f.axis],
+        formatLengthValue(f.enteredMm, unit),
+        formatLengthValue(f.residualMm, unit),
+        `acknowledged${f.kind === 'misfit' ? ' (part of a set that does not fit)' : ''}${f.note ? `: ${f.note}` : ''}`,
+      ]),
+    );
   }
 
   heading(doc, 'Sign-off');

@@ -62,6 +62,7 @@ export const poseOut = (p: PoseModel): Pose & { changeSeq: number } => ({
   liftRrMm: p.liftRrMm,
   rampAngleDeg: p.rampAngleDeg,
   rampDistanceMm: p.rampDistanceMm,
+  rampWheel: p.rampWheel ?? null,
   notes: p.notes,
   recordedAt: iso(p.recordedAt)!,
   changeSeq: p.changeSeq,

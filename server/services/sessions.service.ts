@@ -1,16 +1,27 @@
-import { GaugePointModel, PoseModel, ReadingModel, TestSessionModel, VehicleModel } from '../models';
+import { EnvelopeModel, GaugePointModel, PoseModel, ReadingModel, TestSessionModel, VehicleModel } from '../models';
 import { NotFound } from '../http/errors';
 import { gaugePointOut, poseOut, readingOut, testSessionOut, vehicleOut } from './serialize';
 import type { AuthContext } from '../auth/context';
 import type { Transaction } from 'sequelize';
 
+/** The team's sessions, newest first, each with its vehicle's name and its latest signed-off envelope revision (or null). */
 export async function listSessions(auth: AuthContext) {
   const rows = await TestSessionModel.findAll({
     where: { teamId: auth.teamId, deletedAt: null },
     order: [['testedOn', 'DESC'], ['createdAt', 'DESC']],
     include: [{ model: VehicleModel, as: 'vehicle', attributes: ['name'] }],
   });
-  return rows.map((s) => ({ ...testSessionOut(s), vehicleName: (s as unknown as { vehicle?: { name: string } }).vehicle?.name ?? '' }));
+  const signed = await EnvelopeModel.findAll({
+    where: { teamId: auth.teamId, status: 'signed', deletedAt: null },
+    attributes: ['sessionId', 'revision', 'signedAt'],
+    order: [['revision', 'ASC']],
+  });
+  const latestSigned = new Map(signed.map((e) => [e.sessionId, { revision: e.revision, signedAt: e.signedAt!.toISOString() }]));
+  return rows.map((s) => ({
+    ...testSessionOut(s),
+    vehicleName: (s as unknown as { vehicle?: { name: string } }).vehicle?.name ?? '',
+    signed: latestSigned.get(s.id) ?? null,
+  }));
 }
 
 /** A whole session with its vehicle, gauge points, poses and readings: what review and the envelope need. */

@@ -63,7 +63,7 @@ export const syncAccess: Record<SyncEntity, EntityAccess> = {
   pose: {
     create: 'session.record',
     fields: all(
-      ['sessionId', 'seq', 'label', 'kind', 'liftFlMm', 'liftFrMm', 'liftRlMm', 'liftRrMm', 'rampAngleDeg', 'rampDistanceMm', 'notes', 'recordedAt', 'deletedAt'],
+      ['sessionId', 'seq', 'label', 'kind', 'liftFlMm', 'liftFrMm', 'liftRlMm', 'liftRrMm', 'rampAngleDeg', 'rampDistanceMm', 'rampWheel', 'notes', 'recordedAt', 'deletedAt'],
       'session.record',
     ),
     defaults: { deletedAt: null },

@@ -82,6 +82,7 @@ export const syncTables: Record<SyncEntity, SyncTable> = {
       c('liftRrMm', 'lift_rr_mm', 'float8'),
       c('rampAngleDeg', 'ramp_angle_deg', 'float8'),
       c('rampDistanceMm', 'ramp_distance_mm', 'float8'),
+      c('rampWheel', 'ramp_wheel', 'text'),
       c('notes', 'notes', 'text'),
       c('recordedAt', 'recorded_at', 'timestamptz'),
       deletedAt,

@@ -1,5 +1,5 @@
 /**
- * Boot and seal check per side of the opening (brief step 8).
+ * Boot and seal check per side of the opening (docs/method.md §7).
  *
  * For every state (the rest state plus each given motion) and every outline point of a side, the boot
  * spans the 3D distance between its cab and body attachment lines:
@@ -17,12 +17,9 @@
  * Boots take axial, lateral (shear), angular and torsional motion; large shear is better taken by two
  * in series (expansion-joint makers' guidance) — the extension ratio is the figure to give the maker.
  * Complexity O(states × outline samples).
- *
- * Example: sealCompressionPercent(20, 15) // => 25
  */
-import { FlexInputError, requireFinite, requireLength, requirePositiveLength } from './errors';
+import { FlexInputError, requireFinite, requireLength, requireMotion, requirePositiveLength } from './errors';
 import { sampleOutline, validateOutline, type OpeningOutline, type OutlineSide, type StraightSide } from './perimeter';
-import { predictDisplacement } from './predict-displacement';
 import type { RigidMotion } from './types';
 
 export interface SealSpec {
@@ -76,8 +73,6 @@ export interface SideSpan {
 export type BootSpanResult = Record<StraightSide, SideSpan>;
 
 const FN = 'bootSpan';
-/** Rotations beyond half a radian are far outside the small-angle model: input error. */
-const MAX_ROTATION_RAD = 0.5;
 
 const SIDES_OF: Record<OutlineSide, StraightSide[]> = {
   top: ['top'],
@@ -90,23 +85,16 @@ const SIDES_OF: Record<OutlineSide, StraightSide[]> = {
   bottomRight: ['bottom', 'right'],
 };
 
+/**
+ * Compression of a seal as a percentage of its free height.
+ * @param freeHeightMm the seal's uncompressed height (> 0). @param compressedHeightMm its height as installed.
+ * @returns (free − compressed) / free × 100.
+ * @example sealCompressionPercent(20, 15) // => 25
+ */
 export function sealCompressionPercent(freeHeightMm: number, compressedHeightMm: number): number {
   requirePositiveLength('sealCompressionPercent', 'freeHeightMm', freeHeightMm);
   requireLength('sealCompressionPercent', 'compressedHeightMm', compressedHeightMm);
   return ((freeHeightMm - compressedHeightMm) / freeHeightMm) * 100;
-}
-
-function validateMotion(index: number, motion: RigidMotion): void {
-  if (motion === null || typeof motion !== 'object' || motion.t == null || motion.omega == null) {
-    throw new FlexInputError(FN, `motions[${index}]`, 'must have t and omega');
-  }
-  for (const k of ['x', 'y', 'z'] as const) {
-    requireLength(FN, `motions[${index}].t.${k}`, motion.t[k]);
-    requireFinite(FN, `motions[${index}].omega.${k}`, motion.omega[k]);
-    if (Math.abs(motion.omega[k]) > MAX_ROTATION_RAD) {
-      throw new FlexInputError(FN, `motions[${index}].omega.${k}`, `must be within ±${MAX_ROTATION_RAD} rad (small angles), got ${motion.omega[k]}`);
-    }
-  }
 }
 
 function checkSeal(seal: SealSpec, gapMin: number, gapMax: number, nominal: number): SealCheck {
@@ -131,12 +119,20 @@ function checkSeal(seal: SealSpec, gapMin: number, gapMax: number, nominal: numb
   };
 }
 
+/**
+ * Boot spans, gap range and seal check per side of the opening.
+ * @param input the outline, the nominal fore-aft gap, the motions to cover and optionally a seal.
+ * @returns per straight side: shortest and longest span, extension ratio, gap range, largest shear,
+ *   the seal free heights that follow it and, with a seal, whether it does.
+ * @example bootSpan({ outline: { width: 700, height: 900, cornerRadius: 80 }, nominalGapMm: 90,
+ *   motions: [{ t: { x: 0, y: 40, z: 0 }, omega: { x: 0, y: 0, z: 0 } }] }).left.longestMm // => 98.49 (√(90² + 40²))
+ */
 export function bootSpan(input: BootSpanInput): BootSpanResult {
   if (input === null || typeof input !== 'object') throw new FlexInputError(FN, 'input', 'must be an object');
   validateOutline(FN, input.outline);
   const gap = requirePositiveLength(FN, 'nominalGapMm', input.nominalGapMm);
   if (!Array.isArray(input.motions)) throw new FlexInputError(FN, 'motions', 'must be an array');
-  input.motions.forEach((motion, i) => validateMotion(i, motion));
+  input.motions.forEach((motion, i) => requireMotion(FN, `motions[${i}]`, motion));
   if (input.seal !== undefined) {
     requirePositiveLength(FN, 'seal.freeHeightMm', input.seal.freeHeightMm);
     const minPct = requireFinite(FN, 'seal.minCompressionPercent', input.seal.minCompressionPercent ?? 25);
@@ -155,9 +151,10 @@ export function bootSpan(input: BootSpanInput): BootSpanResult {
   }
   for (const motion of states) {
     for (const point of samples) {
-      const d = predictDisplacement(motion, point.y, point.z);
-      const gapHere = gap + d.dx;
-      const shear = Math.hypot(d.dy, d.dz);
+      // predictDisplacement, inlined: the motions were checked above and this loop is the hot one.
+      const { t, omega } = motion;
+      const gapHere = gap + t.x + omega.y * point.z - omega.z * point.y;
+      const shear = Math.hypot(t.y - omega.x * point.z, t.z + omega.x * point.y);
       const span = Math.hypot(gapHere, shear);
       for (const side of SIDES_OF[point.side]) {
         const a = acc[side];

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { compareSessions, poseSummaries } from './compare-sessions';
 import { designEnvelope } from './envelope';
-import { buildSyntheticSession } from './synthetic-session';
+import { buildSyntheticSession, syntheticEnvelopeInput } from './synthetic-session';
 import { FlexInputError } from './errors';
 
 describe('compareSessions', () => {
@@ -27,16 +27,7 @@ describe('compareSessions', () => {
   });
 
   it('recovers the per-degree motion of a synthetic session', () => {
-    const session = buildSyntheticSession({ seed: 3, noiseSdMm: 0 });
-    const result = designEnvelope({
-      tracks: session.tracks,
-      gaugePoints: session.gaugePoints,
-      outline: session.outline,
-      readingMode: 'displacement',
-      baselinePoseId: session.baselinePoseId,
-      poses: session.poses,
-      parameters: { designTwistDeg: 20 },
-    });
+    const result = designEnvelope(syntheticEnvelopeInput(buildSyntheticSession({ seed: 3, noiseSdMm: 0 }), { designTwistDeg: 20 }));
     const [comparison] = compareSessions([{ sessionId: 'demo', poses: poseSummaries(result) }]);
     // demo motion per degree: dy = 9 − 0.0012·z, largest at the bottom edge z = 600 → 8.28 mm/deg
     expect(comparison.slopeMmPerDeg.lateral).toBeCloseTo(8.28, 9);

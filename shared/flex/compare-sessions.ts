@@ -1,15 +1,13 @@
 /**
- * Comparison across sessions and vehicles (brief step 9): the twist each session reached, its worst
+ * Comparison across sessions and vehicles (docs/method.md §8): the twist each session reached, its worst
  * perimeter displacement per axis, and the slope in mm per degree of twist, so trucks tested to
  * different twists compare fairly.
  *
  * Formula: twist reached = max |twist|; worst = the value of largest |worst| (sign kept);
  * slope through the origin = Σ|twist|·|worst| / Σ twist² (least squares with no intercept:
  * no twist, no motion); null when no pose is twisted.
- * Source: least squares through the origin, Draper & Smith, Applied Regression Analysis, §3.1.
- *
- * Example: compareSessions([{ sessionId: 's1', poses: [{ twistDeg: 10, worstMm: { foreAft: 5,
- *   lateral: 80, vertical: 20 } }] }])[0].slopeMmPerDeg.lateral // => 8
+ * Source: least squares through the origin, Montgomery, Peck & Vining, Introduction to Linear
+ * Regression Analysis (5th ed.), ch. 2 (regression through the origin).
  */
 import { FlexInputError, requireFinite, requireLength } from './errors';
 import type { EnvelopeResult } from './envelope';
@@ -40,7 +38,12 @@ export interface SessionComparison {
 
 const FN = 'compareSessions';
 
-/** The pose summaries of a computed envelope (baseline and unfitted poses left out). */
+/**
+ * The pose summaries of a computed envelope (baseline and unfitted poses left out).
+ * @param result a designEnvelope result.
+ * @returns per fitted pose its twist (relative to the baseline) and worst displacement per axis.
+ * @example poseSummaries(designEnvelope(input))[0].worstMm.lateral // => 41.2
+ */
 export function poseSummaries(result: EnvelopeResult): SessionPoseSummary[] {
   const summaries: SessionPoseSummary[] = [];
   for (const pose of result.poses) {
@@ -53,6 +56,13 @@ export function poseSummaries(result: EnvelopeResult): SessionPoseSummary[] {
   return summaries;
 }
 
+/**
+ * Compares sessions (and so vehicles) by twist reached, worst displacement and slope per degree.
+ * @param sessions each with an id, optional vehicle id and label, and its pose summaries.
+ * @returns per session: poses, twist reached, worst per axis (sign kept) and slope in mm per degree (null without twist).
+ * @example compareSessions([{ sessionId: 's1', poses: [{ twistDeg: 10, worstMm: { foreAft: 5,
+ *   lateral: 80, vertical: 20 } }] }])[0].slopeMmPerDeg.lateral // => 8
+ */
 export function compareSessions(sessions: readonly SessionForComparison[]): SessionComparison[] {
   if (!Array.isArray(sessions)) throw new FlexInputError(FN, 'sessions', 'must be an array');
   return sessions.map((session, s) => {

@@ -1,45 +1,70 @@
 /**
- * Design envelope of a session: per axis, the movement the boot or seals must absorb (brief steps 1–7).
+ * Design envelope of a session: the movement the boot or seals must absorb, per measure — the
+ * fore-aft gap's opening and its closing apart, lateral shear and vertical movement — each with its
+ * own envelope (see docs/method.md for the model, the fit, the outlier rule and the bound).
  *
- * Steps, per pose: displacements (pose − baseline in 'gap' mode, or as entered in 'displacement'
- * mode) → cross-axle twist from the lifts → relative-motion fit → worst perimeter displacement.
- * Then per axis (foreAft, lateral, vertical):
- * - measured worst = the largest |worst perimeter displacement| over the poses (sign kept);
- * - 'prediction' method: least-squares line of |worst| against |twist| (through the origin by default),
- *   projected to the design twist D, with the one-sided upper prediction bound
- *   ŷ(D) + t(confidence, df)·s·√(1 + h(D)) (see linearFit);
- * - 'tolerance' method, for repeated runs of one pose: each run's |worst| scaled to the design twist
- *   in proportion (|worst| × D / |twist|, the same no-twist-no-motion model), then the one-sided
- *   normal tolerance bound mean + k1·s (coverage p, confidence gamma; see oneSidedToleranceFactor);
- * - envelope = max(measured worst, upper bound) × (1 + margin) + allowance, rounded up to the
- *   fabrication increment; `governing` and `reasons` say which term decided and why.
- * The baseline pose is never a data point of the fit. Outlier flags are reported, never acted on:
- * the engineer decides and re-runs without the readings rejected.
- * Source: brief "The computation" steps 1–7; Draper & Smith §3.1 (prediction interval);
- * NIST/SEMATECH e-Handbook §7.2.6.3 (tolerance bound). Complexity O(poses × readings).
- *
- * Example: designEnvelope({ ...session, parameters: { designTwistDeg: 12 } }).axes.lateral.envelopeMm
+ * Steps:
+ * 1. Every input is checked first, and an error names the field as the caller gave it
+ *    (gaugePoints[2].y, poses[3].readings[7].value); a pose may hold one reading per point and axis.
+ * 2. Per pose: displacements (pose − baseline in 'gap' mode, as entered in 'displacement' mode);
+ *    cross-axle twist from the lifts, taken relative to the baseline pose's own twist (its readings
+ *    are the reference); the relative-motion fit (fitPoseParts), identifiability judged against the
+ *    opening; the extremes of each displacement on the opening's outline (perimeterWorst) with the
+ *    fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
+ * 3. Outliers: the session's robust residual scatter per fit part (1.4826·median |eᵢ/√(1 − hᵢ)|)
+ *    raises the reading SD the outlier rule judges against when the readings scatter more than a
+ *    tape is read to (then with a t limit on the scale's effective degrees of freedom, 0.37·Σν);
+ *    each pose is judged with judgeOutliers. Flags are reported, never acted on.
+ * 4. Per measure and twist direction (FL–RR +, FR–RL −), the bound at the design twist
+ *    (predictionDirectionBound or toleranceDirectionBound); the larger governs, and the reasons say
+ *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
+ * 5. Envelope = max(measured worst, governing upper bound) × (1 + margin) + allowance, rounded up
+ *    to the fabrication increment; `governing` and `reasons` say which term decided and why.
+ * Source: docs/method.md; Montgomery, Peck & Vining (5th ed.) §4.2.1 and ch. 5; NIST/SEMATECH
+ * e-Handbook §4.4.5.2 and §7.2.6.3. Complexity O(poses × readings), on flat arrays.
  */
-import { FlexInputError, requireFinite, requireLength, requireNonNegative, requirePositiveLength, requireProbability } from './errors';
-import { computeDisplacements } from './displacements';
-import { linearFit, type LinearFitSummary } from './linear-fit';
-import { perimeterWorst, validateOutline, type AxisWorst, type OpeningOutline, type PerimeterWorst } from './perimeter';
-import { fitRelativeMotion, type RelativeMotionFit } from './relative-motion';
+import {
+  FlexInputError,
+  MAX_ROTATION_RAD,
+  isLength,
+  requireDesignProbability,
+  requireFinite,
+  requireLength,
+  requireNonNegative,
+  requirePositiveLength,
+} from './errors';
+import { MIN_FIT_TWIST_DEG, predictionDirectionBound, toleranceDirectionBound, type BoundSettings, type DirectionBound, type TwistDirection } from './direction-bound';
+import { packFit, type RelativeMotionFit } from './fit-summary';
+import { indexGaugeLocations } from './gauge-index';
+import { normalQuantile } from './normal';
+import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
+import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
+import { fitPoseParts, poseBuffer, type PoseBuffer, type PoseFitCore } from './pose-fit';
+import { READING_SD_MM } from './relative-motion';
+import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
+import { studentTQuantile } from './student-t';
 import { oneSidedToleranceFactor } from './tolerance-factor';
 import { crossAxleTwistDeg } from './twist';
-import { AXES, type Axis, type GaugePoint, type Reading, type WheelLifts } from './types';
+import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type WheelLifts } from './types';
 
 export type EnvelopeMethod = 'prediction' | 'tolerance';
 export type ReadingMode = 'gap' | 'displacement';
+export type EnvelopeMeasure = 'foreAftOpening' | 'foreAftClosing' | 'lateral' | 'vertical';
+
+export const ENVELOPE_MEASURES: readonly EnvelopeMeasure[] = ['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical'];
+export const MEASURE_AXIS: Record<EnvelopeMeasure, Axis> = { foreAftOpening: 'foreAft', foreAftClosing: 'foreAft', lateral: 'lateral', vertical: 'vertical' };
+export const TWIST_DIRECTIONS: readonly TwistDirection[] = ['positive', 'negative'];
+/** The twist directions in the crew's words: which diagonal pair of wheels is up. */
+export const TWIST_DIRECTION_NAMES: Record<TwistDirection, string> = { positive: 'FL–RR twist (+)', negative: 'FR–RL twist (−)' };
 
 export interface EnvelopeParameters {
-  /** The most twist the vehicle is expected to see in service, degrees (> 0). */
+  /** The most twist the vehicle is expected to see in service, degrees (> 0), either way. */
   designTwistDeg: number;
   method: EnvelopeMethod;
-  /** One-sided confidence of the bound, e.g. 0.95. */
+  /** One-sided confidence of the bound, 0.5 ≤ confidence < 1, e.g. 0.95. */
   confidence: number;
-  /** Tolerance method only: fraction of the population the bound covers, e.g. 0.90. */
+  /** Tolerance method only: fraction of the population the bound covers, 0.5 ≤ p < 1, e.g. 0.90. */
   coverage: number;
   /** Fraction added on top of the bound, e.g. 0.15 for 15 %. */
   margin: number;
@@ -49,6 +74,8 @@ export interface EnvelopeParameters {
   incrementMm: number;
   /** Prediction method: fit the line through (0, 0), since no twist means no motion. */
   throughOrigin: boolean;
+  /** Tolerance method: runs count as repeats of one pose within ± this many degrees of their median twist. */
+  repeatBandDeg: number;
 }
 
 /** Defaults are common practice for a first envelope; the engineer sets the design twist. */
@@ -60,62 +87,68 @@ export const DEFAULT_ENVELOPE_PARAMETERS: Omit<EnvelopeParameters, 'designTwistD
   allowanceMm: 10,
   incrementMm: 5,
   throughOrigin: true,
+  repeatBandDeg: 1,
 };
 
 export interface EnvelopePose {
   id: string;
   lifts: WheelLifts;
-  readings: Reading[];
+  readings: GaugeValue[];
 }
 
 export interface EnvelopeInput {
   tracks: { frontMm: number; rearMm: number };
-  gaugePoints: GaugePoint[];
+  gaugePoints: GaugeLocation[];
   outline: OpeningOutline;
   readingMode: ReadingMode;
-  /** The level pose; required in 'gap' mode. Never a data point of the fit. */
+  /** The reference pose (usually level); required in 'gap' mode. Never a data point of the fit. */
   baselinePoseId?: string;
   poses: EnvelopePose[];
+  /** designTwistDeg is required; an absent or undefined field takes its default. */
   parameters: Partial<EnvelopeParameters> & { designTwistDeg: number };
+}
+
+/** One measure of one pose: its size (mm, ≥ 0), where on the outline, and the fit's 1-SD uncertainty there. */
+export interface PoseMeasure {
+  valueMm: number;
+  y: number;
+  z: number;
+  side: OutlineSide;
+  /** null where the fit part behind it had no readings. */
+  uncertaintyMm: number | null;
 }
 
 export interface PoseResult {
   poseId: string;
   isBaseline: boolean;
+  /** Cross-axle twist from the pose's own lifts (degrees). */
+  liftTwistDeg: number;
+  /** Twist relative to the baseline pose (degrees): the explanatory variable of the bound. */
   twistDeg: number;
-  /** Displacements the fit used (mm). */
-  displacements: Reading[];
   /** 'gap' mode: readings with no baseline reading at the same point and axis (not used). */
-  missingBaseline: Reading[];
+  missingBaselineCount: number;
   /** null for the baseline and for a pose with no usable readings. */
   fit: RelativeMotionFit | null;
   worst: PerimeterWorst | null;
+  measures: Record<EnvelopeMeasure, PoseMeasure> | null;
   note: string | null;
 }
 
-export interface ToleranceSummary {
-  n: number;
-  meanMm: number;
-  sdMm: number;
-  k1: number;
-  coverage: number;
-  confidence: number;
-}
-
-export interface AxisEnvelope {
+export interface MeasureEnvelope {
+  measure: EnvelopeMeasure;
   axis: Axis;
-  /** Largest |worst perimeter displacement| over the poses, sign kept (mm). */
+  /** Largest value of the measure over the poses (mm, ≥ 0). */
   measuredWorstMm: number;
   measuredWorstPoseId: string;
-  measuredWorstAt: Omit<AxisWorst, 'valueMm'>;
-  /** Prediction method: the line of |worst| on |twist|; null when too few poses. */
-  fit: LinearFitSummary | null;
-  /** Tolerance method: the statistics of the scaled runs; null otherwise or when too few runs. */
-  tolerance: ToleranceSummary | null;
-  /** Line value (prediction) or mean of scaled runs (tolerance) at the design twist; null if none. */
+  measuredWorstAt: { y: number; z: number; side: OutlineSide };
+  directions: Record<TwistDirection, DirectionBound>;
+  /** The direction whose upper bound is larger; null when neither has a bound. */
+  governingDirection: TwistDirection | null;
   projectedMm: number | null;
   upperBoundMm: number | null;
   governing: 'measured' | 'upperBound';
+  /** Largest 1-SD uncertainty of a pose's fit at its extreme point; null when unknown. */
+  fitUncertaintyMm: number | null;
   baseMm: number;
   withMarginMm: number;
   withAllowanceMm: number;
@@ -123,19 +156,48 @@ export interface AxisEnvelope {
   reasons: string[];
 }
 
+/** A reading the outlier rule flagged (or one of a set that does not fit, with `kind` 'misfit'). */
+export interface EnvelopeFlag {
+  poseId: string;
+  pointId: string;
+  axis: Axis;
+  /** The displacement the fit used (mm). */
+  valueMm: number;
+  residualMm: number;
+  /** The outlier rule's score (deleted residual / its SE); null for 'misfit'. */
+  score: number | null;
+  kind: 'outlier' | 'misfit';
+}
+
 export interface EnvelopeResult {
   parameters: EnvelopeParameters;
+  /** The baseline pose's own twist from its lifts (degrees); 0 without a baseline. */
+  baselineTwistDeg: number;
+  /** The reading SD the outlier rule judged each fit part against (mm). */
+  scatterMm: Record<FitPartName, number>;
   poses: PoseResult[];
-  axes: Record<Axis, AxisEnvelope>;
-  /** Session-wide remarks for the engineer (extrapolation distance, flagged readings, skipped poses). */
+  measures: Record<EnvelopeMeasure, MeasureEnvelope>;
+  flags: EnvelopeFlag[];
+  /** Remarks on the readings and the fit (flags, limits of the fit and of the outlier check); they do not depend on the design parameters. */
+  readingNotes: string[];
+  /** Remarks on the bound (twist directions tested, extrapolation to the design twist). */
   notes: string[];
 }
 
 const FN = 'designEnvelope';
-/** Poses twisted less than this carry no usable ratio for the tolerance method's scaling. */
-const MIN_TWIST_FOR_SCALING_DEG = 0.5;
-/** Beyond this the small-angle model and the straight line are stretched too far to trust quietly. */
+/** Vehicle tracks outside this range are typing errors (common practice: trucks 1.4–2.5 m). */
+const MIN_TRACK_MM = 500;
+const MAX_TRACK_MM = 4000;
+/** A vehicle on its wheels cannot twist further; beyond it the lifts or tracks are wrong. */
+const MAX_TWIST_DEG = 90;
+/** Beyond this the straight line is stretched too far to trust quietly. */
 const FAR_EXTRAPOLATION = 1.5;
+/** A baseline twisted more than this is said in the notes. */
+const BASELINE_TWIST_NOTE_DEG = 0.5;
+/** Fewest standardized residuals for a session scatter estimate (fewer: the reading SD alone). */
+const MIN_SCALE_RESIDUALS = 10;
+const AXIS_OF_CODE: readonly Axis[] = ['foreAft', 'lateral', 'vertical'];
+const PART_NAMES: Record<FitPartName, string> = { outOfPlane: 'fore-aft', inPlane: 'lateral and vertical' };
 
 function mm(value: number): string {
   return `${value.toFixed(1)} mm`;
@@ -143,230 +205,587 @@ function mm(value: number): string {
 
 function resolveParameters(raw: EnvelopeInput['parameters']): EnvelopeParameters {
   if (raw === null || typeof raw !== 'object') throw new FlexInputError(FN, 'parameters', 'must be an object');
-  const p: EnvelopeParameters = { ...DEFAULT_ENVELOPE_PARAMETERS, ...raw };
+  const p = { ...DEFAULT_ENVELOPE_PARAMETERS } as EnvelopeParameters;
+  for (const [key, value] of Object.entries(raw)) {
+    if (value !== undefined) (p as unknown as Record<string, unknown>)[key] = value;
+  }
   requireFinite(FN, 'parameters.designTwistDeg', p.designTwistDeg);
-  if (p.designTwistDeg <= 0 || p.designTwistDeg > 90) {
-    throw new FlexInputError(FN, 'parameters.designTwistDeg', `must be greater than 0 and at most 90 degrees, got ${p.designTwistDeg}`);
+  if (p.designTwistDeg <= 0 || p.designTwistDeg > MAX_TWIST_DEG) {
+    throw new FlexInputError(FN, 'parameters.designTwistDeg', `must be greater than 0 and at most ${MAX_TWIST_DEG} degrees, got ${p.designTwistDeg}`);
   }
   if (p.method !== 'prediction' && p.method !== 'tolerance') {
     throw new FlexInputError(FN, 'parameters.method', `must be 'prediction' or 'tolerance', got '${String(p.method)}'`);
   }
-  requireProbability(FN, 'parameters.confidence', p.confidence);
-  requireProbability(FN, 'parameters.coverage', p.coverage);
+  requireDesignProbability(FN, 'parameters.confidence', p.confidence);
+  requireDesignProbability(FN, 'parameters.coverage', p.coverage);
   requireNonNegative(FN, 'parameters.margin', p.margin);
   if (p.margin > 10) throw new FlexInputError(FN, 'parameters.margin', `is a fraction (0.15 = 15 %), got ${p.margin}`);
   requireLength(FN, 'parameters.allowanceMm', p.allowanceMm);
   requireNonNegative(FN, 'parameters.allowanceMm', p.allowanceMm);
   requirePositiveLength(FN, 'parameters.incrementMm', p.incrementMm);
   if (typeof p.throughOrigin !== 'boolean') throw new FlexInputError(FN, 'parameters.throughOrigin', 'must be true or false');
+  requireFinite(FN, 'parameters.repeatBandDeg', p.repeatBandDeg);
+  if (p.repeatBandDeg <= 0 || p.repeatBandDeg > 10) {
+    throw new FlexInputError(FN, 'parameters.repeatBandDeg', `must be greater than 0 and at most 10 degrees, got ${p.repeatBandDeg}`);
+  }
   return p;
 }
 
-/** Re-raises an inner function's input error under designEnvelope and the pose's field path. */
-function withinPose<T>(index: number, compute: () => T): T {
-  try {
-    return compute();
-  } catch (error) {
-    if (error instanceof FlexInputError) throw new FlexInputError(FN, `poses[${index}] (${error.fn} ${error.field})`, error.problem);
-    throw error;
+function requireTrack(field: string, value: number): void {
+  requireFinite(FN, field, value);
+  if (value < MIN_TRACK_MM || value > MAX_TRACK_MM) {
+    throw new FlexInputError(FN, field, `must be a vehicle's track, ${MIN_TRACK_MM}–${MAX_TRACK_MM} mm, got ${value}`);
   }
 }
 
-function evaluatePoses(input: EnvelopeInput): PoseResult[] {
-  const { poses, readingMode, baselinePoseId } = input;
+/** The first bad field of one reading, named as the caller gave it (only called once a reading fails the fast check). */
+function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<string, number>): never {
+  const field = `poses[${i}].readings[${j}]`;
+  if (reading === null || typeof reading !== 'object') throw new FlexInputError(FN, field, 'must be an object');
+  if (!points.has(reading.pointId)) throw new FlexInputError(FN, `${field}.pointId`, `names no gauge point of the vehicle: '${String(reading.pointId)}'`);
+  if (!isAxis(reading.axis)) throw new FlexInputError(FN, `${field}.axis`, `must be 'foreAft', 'lateral' or 'vertical', got '${String(reading.axis)}'`);
+  requireLength(FN, `${field}.value`, reading.value);
+  throw new FlexInputError(FN, field, `repeats the reading of point '${reading.pointId}' on axis ${reading.axis} in this pose`);
+}
+
+/**
+ * Checks every pose and reading, naming each field as the caller gave it. Returns each pose's lift
+ * twist and, per reading in input order, its point × 3 + axis code (so nothing is looked up twice).
+ */
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; codes: Int32Array; codeStart: Int32Array } {
+  const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
-  poses.forEach((pose, i) => {
+  const stamp = new Int32Array(points.size * 3);
+  let total = 0;
+  for (const pose of poses) if (pose !== null && typeof pose === 'object' && Array.isArray(pose.readings)) total += pose.readings.length;
+  const codes = new Int32Array(total);
+  const codeStart = new Int32Array(poses.length);
+  let next = 0;
+  const liftTwists = poses.map((pose, i) => {
     if (pose === null || typeof pose !== 'object' || typeof pose.id !== 'string') throw new FlexInputError(FN, `poses[${i}].id`, 'must be a string');
     if (ids.has(pose.id)) throw new FlexInputError(FN, `poses[${i}].id`, `repeats pose id '${pose.id}'`);
-    if (!Array.isArray(pose.readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
     ids.add(pose.id);
+    let twist: number;
+    try {
+      twist = crossAxleTwistDeg(pose.lifts, input.tracks.frontMm, input.tracks.rearMm);
+    } catch (error) {
+      if (error instanceof FlexInputError) throw new FlexInputError(FN, `poses[${i}].${error.field}`, error.problem);
+      throw error;
+    }
+    if (Math.abs(twist) > MAX_TWIST_DEG) {
+      throw new FlexInputError(FN, `poses[${i}].lifts`, `give a cross-axle twist of ${twist.toFixed(1)}°, beyond the ±${MAX_TWIST_DEG}° a vehicle on its wheels can reach: check the lifts and the tracks`);
+    }
+    const readings = pose.readings;
+    if (!Array.isArray(readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
+    codeStart[i] = next;
+    // A point's readings usually come together (one per axis): look its id up once for the run.
+    let lastId: unknown = undefined;
+    let lastAt: number | undefined = undefined;
+    for (let j = 0; j < readings.length; j++) {
+      const reading = readings[j];
+      let at: number | undefined = undefined;
+      if (reading !== null && typeof reading === 'object') {
+        if (reading.pointId !== lastId) {
+          lastId = reading.pointId;
+          lastAt = points.get(reading.pointId);
+        }
+        at = lastAt;
+      }
+      const axis = at === undefined ? -1 : reading.axis === 'foreAft' ? 0 : reading.axis === 'lateral' ? 1 : reading.axis === 'vertical' ? 2 : -1;
+      if (at === undefined || axis < 0 || !isLength(reading.value)) readingProblem(i, j, reading, points);
+      const key = at * 3 + axis;
+      if (stamp[key] === i + 1) readingProblem(i, j, reading, points);
+      stamp[key] = i + 1;
+      codes[next++] = key;
+    }
+    return twist;
   });
-  if (readingMode !== 'gap' && readingMode !== 'displacement') {
-    throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(readingMode)}'`);
-  }
-  if (baselinePoseId !== undefined && !ids.has(baselinePoseId)) {
-    throw new FlexInputError(FN, 'baselinePoseId', `names no pose of the session: '${String(baselinePoseId)}'`);
-  }
-  if (readingMode === 'gap' && baselinePoseId === undefined) {
-    throw new FlexInputError(FN, 'baselinePoseId', "is required when readings are raw gaps (readingMode 'gap')");
-  }
-  const baseline = poses.find((pose) => pose.id === baselinePoseId);
+  return { liftTwists, codes, codeStart };
+}
 
-  return poses.map((pose, i): PoseResult => {
-    const twistDeg = withinPose(i, () => crossAxleTwistDeg(pose.lifts, input.tracks.frontMm, input.tracks.rearMm));
-    const isBaseline = pose.id === baselinePoseId;
-    const { displacements, missingBaseline } =
-      readingMode === 'gap' && baseline !== undefined
-        ? withinPose(i, () => computeDisplacements(baseline.readings, pose.readings))
-        : { displacements: pose.readings, missingBaseline: [] };
-    const empty = { poseId: pose.id, isBaseline, twistDeg, displacements, missingBaseline, fit: null, worst: null };
-    if (isBaseline) return { ...empty, note: 'baseline (level pose)' };
-    if (displacements.length === 0) return { ...empty, note: 'no usable readings: left out of the envelope' };
-    const fit = withinPose(i, () => fitRelativeMotion(input.gaugePoints, displacements));
-    return { ...empty, fit, worst: perimeterWorst(fit.motion, input.outline), note: null };
+interface Session {
+  points: GaugeLocation[];
+  /** Per reading in input order, pose after pose from codeStart[pose]: point index × 3 + axis code. */
+  codes: Int32Array;
+  codeStart: Int32Array;
+  baselineIndex: number;
+  liftTwists: number[];
+  relativeTwists: number[];
+}
+
+/** All non-baseline readings of the session as flat arrays, one pose after another. */
+interface Flat {
+  buffer: PoseBuffer;
+  /** The reading's index in its pose's input array, per flat position. */
+  inputIndex: Int32Array;
+  /** Room for the standardized residuals the session scatter is taken from. */
+  scatter: Float64Array;
+  /** Per pose: first flat position and count (−1 for the baseline). */
+  start: Int32Array;
+  count: Int32Array;
+  missingBaseline: Int32Array;
+}
+
+/**
+ * Scratch arrays for the flat readings, kept between calls and grown when a session needs more:
+ * allocating ten large typed arrays per call cost more than the arithmetic. Safe because
+ * designEnvelope runs to completion synchronously, and nothing in its result points into them.
+ * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
+ * tens of megabytes alive in a long-running server or tab.
+ */
+type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; scatter: Float64Array };
+let scratch: Scratch | null = null;
+const KEPT_SCRATCH = 1 << 16;
+
+function scratchFor(total: number): Scratch {
+  if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
+  const size = Math.max(total, 1024);
+  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), scatter: new Float64Array(size) };
+  if (size <= KEPT_SCRATCH) scratch = fresh;
+  return fresh;
+}
+
+function flatten(input: EnvelopeInput, s: Session): Flat {
+  const { poses } = input;
+  let total = 0;
+  poses.forEach((pose, i) => {
+    if (i !== s.baselineIndex) total += pose.readings.length;
   });
-}
-
-function measuredCount(poses: readonly PoseResult[]): number {
-  return poses.filter((pose) => pose.fit !== null).length;
-}
-
-interface AxisBound {
-  fit: LinearFitSummary | null;
-  tolerance: ToleranceSummary | null;
-  projectedMm: number | null;
-  upperBoundMm: number | null;
-  label: string;
-  unavailable: string | null;
-}
-
-function predictionBound(twists: number[], worsts: number[], p: EnvelopeParameters): AxisBound {
-  const confidencePct = `${(p.confidence * 100).toFixed(0)} %`;
-  const label = `upper ${confidencePct} prediction bound at ${p.designTwistDeg}°`;
-  const needed = p.throughOrigin ? 2 : 3;
-  const usable = p.throughOrigin ? twists.some((x) => x !== 0) : new Set(twists).size >= 2;
-  if (twists.length < needed || !usable) {
-    return {
-      fit: null,
-      tolerance: null,
-      projectedMm: null,
-      upperBoundMm: null,
-      label,
-      unavailable: `no prediction bound: needs at least ${needed} poses with ${p.throughOrigin ? 'some twist' : 'two different twists'}`,
-    };
+  const { buffer, inputIndex, scatter } = scratchFor(total);
+  const start = new Int32Array(poses.length).fill(-1);
+  const count = new Int32Array(poses.length);
+  const missingBaseline = new Int32Array(poses.length);
+  const reference = new Float64Array(s.points.length * 3).fill(Number.NaN);
+  const gap = input.readingMode === 'gap';
+  if (gap) {
+    const baseline = poses[s.baselineIndex].readings;
+    const from = s.codeStart[s.baselineIndex];
+    for (let j = 0; j < baseline.length; j++) reference[s.codes[from + j]] = baseline[j].value;
   }
-  const line = linearFit(twists, worsts, { throughOrigin: p.throughOrigin });
-  const { slope, intercept, throughOrigin, n, df, residualSd, rSquared } = line;
+  const ys = new Float64Array(s.points.length);
+  const zs = new Float64Array(s.points.length);
+  s.points.forEach((point, i) => {
+    ys[i] = point.y;
+    zs[i] = point.z;
+  });
+  let k = 0;
+  for (let i = 0; i < poses.length; i++) {
+    if (i === s.baselineIndex) continue;
+    start[i] = k;
+    const readings = poses[i].readings;
+    const from = s.codeStart[i];
+    for (let j = 0; j < readings.length; j++) {
+      const code = s.codes[from + j];
+      let value = readings[j].value;
+      if (gap) {
+        const base = reference[code];
+        if (Number.isNaN(base)) {
+          missingBaseline[i]++;
+          continue;
+        }
+        value -= base;
+      }
+      const point = (code / 3) | 0;
+      buffer.axis[k] = code - 3 * point;
+      buffer.y[k] = ys[point];
+      buffer.z[k] = zs[point];
+      buffer.value[k] = value;
+      inputIndex[k] = j;
+      k++;
+    }
+    count[i] = k - start[i];
+  }
+  return { buffer, inputIndex, scatter, start, count, missingBaseline };
+}
+
+/** The session's robust residual scatter of one fit part, and its effective degrees of freedom. */
+function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[], part: FitPartName): { scaleMm: number | null; df: number } {
+  const values = flat.scatter;
+  const outOfPlane = part === 'outOfPlane';
+  let n = 0;
+  let redundancy = 0;
+  for (let i = 0; i < cores.length; i++) {
+    const core = cores[i];
+    if (core === null) continue;
+    const fitted = core[part];
+    const spare = fitted.readingCount - fitted.parameterCount;
+    if (spare < 1) continue;
+    redundancy += spare;
+    const end = flat.start[i] + flat.count[i];
+    for (let k = flat.start[i]; k < end; k++) {
+      if ((flat.buffer.axis[k] === 0) === outOfPlane && !Number.isNaN(flat.buffer.standardized[k])) values[n++] = flat.buffer.standardized[k];
+    }
+  }
+  if (n < MIN_SCALE_RESIDUALS) return { scaleMm: null, df: 0 };
+  return { scaleMm: residualScaleInPlace(values.subarray(0, n)), df: MAD_EFFICIENCY * redundancy };
+}
+
+/** The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if larger; null without readings. */
+function partSd(part: RelativeMotionFit['outOfPlane']): number | null {
+  return part.status === 'none' ? null : Math.max(part.scatterMm, part.residualSdMm ?? 0);
+}
+
+/** √(gᵀCg) for a symmetric 3×3 C (row-major). */
+function spread(c: number[], g0: number, g1: number, g2: number): number {
+  return Math.sqrt(Math.max(0, g0 * g0 * c[0] + g1 * g1 * c[4] + g2 * g2 * c[8] + 2 * (g0 * g1 * c[1] + g0 * g2 * c[2] + g1 * g2 * c[5])));
+}
+
+function poseMeasure(at: OutlineValue, valueMm: number, uncertaintyMm: number | null): PoseMeasure {
+  return { valueMm, y: at.y, z: at.z, side: at.side, uncertaintyMm };
+}
+
+/** The measures of one pose from its fit's extremes on the outline, with the fit's 1-SD uncertainty there. */
+function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<EnvelopeMeasure, PoseMeasure> {
+  const outSd = partSd(fit.outOfPlane);
+  const inSd = partSd(fit.inPlane);
+  const out = fit.outOfPlane.covariance;
+  const inPlane = fit.inPlane.covariance;
+  const { highest, lowest } = worst.foreAft;
+  const lateral = worst.lateral;
+  const vertical = worst.vertical;
   return {
-    fit: { slope, intercept, throughOrigin, n, df, residualSd, rSquared },
-    tolerance: null,
-    projectedMm: line.predict(p.designTwistDeg),
-    upperBoundMm: line.upperPredictionBound(p.designTwistDeg, p.confidence),
-    label,
-    unavailable: null,
+    foreAftOpening: poseMeasure(highest, Math.max(0, highest.valueMm), outSd === null ? null : outSd * spread(out, 1, highest.z, -highest.y)),
+    foreAftClosing: poseMeasure(lowest, Math.max(0, -lowest.valueMm), outSd === null ? null : outSd * spread(out, 1, lowest.z, -lowest.y)),
+    lateral: poseMeasure(lateral, Math.abs(lateral.valueMm), inSd === null ? null : inSd * spread(inPlane, 1, 0, -lateral.z)),
+    vertical: poseMeasure(vertical, Math.abs(vertical.valueMm), inSd === null ? null : inSd * spread(inPlane, 0, 1, vertical.y)),
   };
 }
 
-function toleranceBound(twists: number[], worsts: number[], p: EnvelopeParameters, k1For: (n: number) => number): AxisBound {
-  const label = `one-sided tolerance bound (coverage ${(p.coverage * 100).toFixed(0)} %, confidence ${(p.confidence * 100).toFixed(0)} %) at ${p.designTwistDeg}°`;
-  const scaled: number[] = [];
-  twists.forEach((twist, i) => {
-    if (twist >= MIN_TWIST_FOR_SCALING_DEG) scaled.push((worsts[i] * p.designTwistDeg) / twist);
+function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
+  const flat = flatten(input, s);
+  const corners = outlineCorners(input.outline);
+  const worstOf = perimeterWorstOn(input.outline);
+  const cores: (PoseFitCore | null)[] = input.poses.map((_, i) => {
+    if (i === s.baselineIndex || flat.count[i] === 0) return null;
+    flat.buffer.start = flat.start[i];
+    flat.buffer.count = flat.count[i];
+    return fitPoseParts(flat.buffer, corners);
   });
-  if (scaled.length < 2) {
-    return {
-      fit: null,
-      tolerance: null,
-      projectedMm: null,
-      upperBoundMm: null,
-      label,
-      unavailable: `no tolerance bound: needs at least 2 runs twisted ${MIN_TWIST_FOR_SCALING_DEG}° or more`,
+
+  const scatterMm = {} as Record<FitPartName, number>;
+  const limits = {} as Record<FitPartName, (tests: number) => number>;
+  for (const part of ['outOfPlane', 'inPlane'] as const) {
+    const { scaleMm, df } = sessionScatter(flat, cores, part);
+    const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
+    scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
+    const cache = new Map<number, number>();
+    limits[part] = (tests) => {
+      let limit = cache.get(tests);
+      if (limit === undefined) {
+        const p = 1 - OUTLIER_FALSE_ALARM_RATE / (2 * tests);
+        limit = estimated ? studentTQuantile(p, Math.max(1, df)) : normalQuantile(p);
+        cache.set(tests, limit);
+      }
+      return limit;
     };
+    if (estimated) {
+      notes.push(
+        `the ${PART_NAMES[part]} readings scatter about their fits by ${scaleMm.toFixed(2)} mm (robust SD), more than the ${READING_SD_MM} mm a gauge is read to: outliers are judged against ${scaleMm.toFixed(2)} mm`,
+      );
+    }
   }
-  const n = scaled.length;
-  const meanMm = scaled.reduce((a, b) => a + b, 0) / n;
-  const sdMm = Math.sqrt(scaled.reduce((sum, v) => sum + (v - meanMm) ** 2, 0) / (n - 1));
-  const k1 = k1For(n);
+
+  const flags: EnvelopeFlag[] = [];
+  const limitFor = (tests: number, part: FitPartName): number => limits[part](tests);
+  const poses = input.poses.map((pose, i): PoseResult => {
+    const core = cores[i];
+    const isBaseline = i === s.baselineIndex;
+    const result: PoseResult = {
+      poseId: pose.id,
+      isBaseline,
+      liftTwistDeg: s.liftTwists[i],
+      twistDeg: s.relativeTwists[i],
+      missingBaselineCount: flat.missingBaseline[i],
+      fit: null,
+      worst: null,
+      measures: null,
+      note: isBaseline ? 'baseline (reference pose)' : null,
+    };
+    if (core === null) {
+      if (!isBaseline) result.note = 'no usable readings: left out of the envelope';
+      return result;
+    }
+    const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
+    if (!(rotation <= MAX_ROTATION_RAD)) {
+      throw new FlexInputError(FN, `poses[${i}].readings`, `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`);
+    }
+    flat.buffer.start = flat.start[i];
+    flat.buffer.count = flat.count[i];
+    const judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor);
+    const readings = pose.readings;
+    const fit = packFit(flat.buffer, core, judgement, (k) => {
+      const index = flat.inputIndex[k];
+      return { pointId: readings[index].pointId, axis: readings[index].axis, index };
+    });
+    result.fit = fit;
+    result.worst = worstOf(fit.motion);
+    result.measures = poseMeasures(result.worst, fit);
+    for (const o of fit.outliers) {
+      flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+    }
+    for (const part of ['outOfPlane', 'inPlane'] as const) {
+      if (!fit[part].misfit) continue;
+      const end = flat.start[i] + flat.count[i];
+      for (let k = flat.start[i]; k < end; k++) {
+        if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
+        const index = flat.inputIndex[k];
+        flags.push({ poseId: pose.id, pointId: readings[index].pointId, axis: AXIS_OF_CODE[flat.buffer.axis[k]], valueMm: flat.buffer.value[k], residualMm: flat.buffer.residual[k], score: null, kind: 'misfit' });
+      }
+    }
+    return result;
+  });
+  return { poses, scatterMm, flags };
+}
+
+/** Notes on each pose and on the limits of the fit and of the outlier check, each limit said once. */
+function poseNotes(poses: readonly PoseResult[], notes: string[]): void {
+  const fitted = poses.filter((pose) => pose.fit !== null);
+  const grouped = new Map<string, string[]>();
+  const say = (text: string | null, poseId: string): void => {
+    if (text !== null) grouped.set(text, [...(grouped.get(text) ?? []), poseId]);
+  };
+  for (const pose of poses) {
+    if (pose.note !== null && !pose.isBaseline) notes.push(`${pose.poseId}: ${pose.note}`);
+    if (pose.missingBaselineCount > 0) notes.push(`${pose.poseId}: ${pose.missingBaselineCount} reading(s) without a baseline reading, not used`);
+    const fit = pose.fit;
+    if (fit === null) continue;
+    for (const o of fit.outliers) {
+      notes.push(`${pose.poseId}: reading at ${o.pointId} (${o.axis}) is far from the fit (residual ${mm(o.residual)}, ${o.score.toFixed(1)} × its expected scatter); review it`);
+    }
+    for (const part of ['outOfPlane', 'inPlane'] as const) {
+      const summary = fit[part];
+      if (summary.misfit) {
+        notes.push(
+          `${pose.poseId}: the ${PART_NAMES[part]} readings do not fit one rigid motion, but with ${summary.readingCount} readings for ${summary.parameterCount} unknowns the misread cannot be singled out; review them`,
+        );
+      }
+      say(summary.reason, pose.poseId);
+      say(summary.outlierNote, pose.poseId);
+    }
+  }
+  for (const [text, ids] of grouped) notes.push(`${text} (${ids.length === fitted.length ? 'all poses' : ids.join(', ')})`);
+}
+
+function directionName(direction: TwistDirection): string {
+  return TWIST_DIRECTION_NAMES[direction];
+}
+
+interface DirectionData {
+  poseIndexes: number[];
+  xs: number[];
+  medianTwistDeg: number;
+}
+
+/** The fitted poses of each twist direction, checked as repeats for the tolerance method. */
+function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: EnvelopeParameters, notes: string[]): Record<TwistDirection, DirectionData> {
+  const data: Record<TwistDirection, DirectionData> = { positive: { poseIndexes: [], xs: [], medianTwistDeg: 0 }, negative: { poseIndexes: [], xs: [], medianTwistDeg: 0 } };
+  const slight: string[] = [];
+  poses.forEach((pose, i) => {
+    if (pose.measures === null) return;
+    const magnitude = Math.abs(pose.twistDeg);
+    if (magnitude < MIN_FIT_TWIST_DEG) {
+      slight.push(pose.poseId);
+      return;
+    }
+    const d = data[pose.twistDeg > 0 ? 'positive' : 'negative'];
+    d.poseIndexes.push(i);
+    d.xs.push(magnitude);
+  });
+  if (slight.length > 0) notes.push(`${slight.join(', ')}: twisted less than ${MIN_FIT_TWIST_DEG}° from the baseline: measured, but not used for the twist lines`);
+  for (const direction of TWIST_DIRECTIONS) {
+    const d = data[direction];
+    const sorted = [...d.xs].sort((a, b) => a - b);
+    const mid = sorted.length >> 1;
+    d.medianTwistDeg = sorted.length === 0 ? 0 : sorted.length % 2 === 1 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+    if (p.method === 'tolerance') {
+      d.xs.forEach((x, k) => {
+        if (Math.abs(x - d.medianTwistDeg) > p.repeatBandDeg) {
+          const index = d.poseIndexes[k];
+          throw new FlexInputError(
+            FN,
+            `poses[${index}]`,
+            `('${input.poses[index].id}') is twisted ${x.toFixed(1)}° (${directionName(direction)}), outside ±${p.repeatBandDeg}° of the runs' median ${d.medianTwistDeg.toFixed(1)}°: the tolerance method takes repeated runs of one pose; use the prediction method for poses at different twists`,
+          );
+        }
+      });
+    }
+    if (d.xs.length === 0) {
+      const other = direction === 'positive' ? 'negative' : 'positive';
+      notes.push(`no pose twisted ${directionName(direction)} by ${MIN_FIT_TWIST_DEG}° or more: the bound covers ${directionName(other)} only; test the other diagonal too`);
+    } else if (p.designTwistDeg < d.medianTwistDeg && p.method === 'tolerance') {
+      notes.push(`the design twist (${p.designTwistDeg}°) is below the repeated runs' twist ${directionName(direction)} (${d.medianTwistDeg.toFixed(1)}°)`);
+    } else {
+      const reached = Math.max(...d.xs);
+      if (p.designTwistDeg < reached) {
+        notes.push(`the design twist (${p.designTwistDeg}°) is below the largest twist reached ${directionName(direction)} (${reached.toFixed(1)}°)`);
+      } else if (p.designTwistDeg > FAR_EXTRAPOLATION * reached) {
+        notes.push(
+          `the design twist (${p.designTwistDeg}°) is ${(p.designTwistDeg / reached).toFixed(1)} × the largest twist reached ${directionName(direction)} (${reached.toFixed(1)}°): a long extrapolation`,
+        );
+      }
+    }
+  }
+  return data;
+}
+
+function measureEnvelope(
+  measure: EnvelopeMeasure,
+  poses: readonly PoseResult[],
+  data: Record<TwistDirection, DirectionData>,
+  p: EnvelopeParameters,
+  settings: BoundSettings,
+): MeasureEnvelope {
+  let worstIndex = -1;
+  let fitUncertaintyMm: number | null = null;
+  poses.forEach((pose, i) => {
+    if (pose.measures === null) return;
+    const m = pose.measures[measure];
+    if (worstIndex < 0 || m.valueMm > (poses[worstIndex].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure].valueMm) worstIndex = i;
+    if (m.uncertaintyMm !== null) fitUncertaintyMm = Math.max(fitUncertaintyMm ?? 0, m.uncertaintyMm);
+  });
+  const worst = (poses[worstIndex].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure];
+  const directions = {} as Record<TwistDirection, DirectionBound>;
+  for (const direction of TWIST_DIRECTIONS) {
+    const d = data[direction];
+    const ys = d.poseIndexes.map((i) => (poses[i].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure].valueMm);
+    directions[direction] =
+      p.method === 'prediction' ? predictionDirectionBound(direction, d.xs, ys, settings) : toleranceDirectionBound(direction, d.xs, ys, d.medianTwistDeg, settings);
+  }
+  let governingDirection: TwistDirection | null = null;
+  for (const direction of TWIST_DIRECTIONS) {
+    const bound = directions[direction].upperBoundMm;
+    if (bound !== null && (governingDirection === null || bound > (directions[governingDirection].upperBoundMm as number))) governingDirection = direction;
+  }
+  const upperBoundMm = governingDirection === null ? null : directions[governingDirection].upperBoundMm;
+  const projectedMm = governingDirection === null ? null : directions[governingDirection].projectedMm;
+  const measured = worst.valueMm;
+  const governing = upperBoundMm !== null && upperBoundMm > measured ? 'upperBound' : 'measured';
+  const baseMm = governing === 'upperBound' ? (upperBoundMm as number) : measured;
+  const worstPose = poses[worstIndex].poseId;
+  const label =
+    p.method === 'prediction'
+      ? `upper ${(p.confidence * 100).toFixed(0)} % prediction bound at ${p.designTwistDeg}°`
+      : `one-sided tolerance bound (coverage ${(p.coverage * 100).toFixed(0)} %, confidence ${(p.confidence * 100).toFixed(0)} %) at ${p.designTwistDeg}°`;
+
+  const reasons: string[] = [];
+  if (governingDirection === null) {
+    reasons.push(`measured worst ${mm(measured)} (${worstPose}) governs; no bound in either twist direction`);
+  } else {
+    const from = `${label}, ${directionName(governingDirection)} (${mm(upperBoundMm as number)})`;
+    reasons.push(
+      governing === 'upperBound'
+        ? `${from} is above the measured worst (${mm(measured)}, ${worstPose})`
+        : `measured worst ${mm(measured)} (${worstPose}) is at or above the ${from}`,
+    );
+  }
+  const withMarginMm = baseMm * (1 + p.margin);
+  const withAllowanceMm = withMarginMm + p.allowanceMm;
+  const envelopeMm = roundUpToIncrement(withAllowanceMm, p.incrementMm);
+  reasons.push(`× (1 + margin ${p.margin}) = ${mm(withMarginMm)}`);
+  reasons.push(`+ allowance ${mm(p.allowanceMm)} = ${mm(withAllowanceMm)}`);
+  reasons.push(`rounded up to the ${p.incrementMm} mm increment: ${envelopeMm} mm.`);
+  for (const direction of TWIST_DIRECTIONS) {
+    if (direction === governingDirection) continue;
+    const bound = directions[direction];
+    reasons.push(
+      bound.upperBoundMm === null
+        ? `${directionName(direction)}: no bound, ${bound.unavailable}.`
+        : `${directionName(direction)}: bound ${mm(bound.upperBoundMm)}, lower.`,
+    );
+  }
+  if (fitUncertaintyMm !== null && fitUncertaintyMm > 0) {
+    reasons.push(`The fit is uncertain by up to ±${mm(fitUncertaintyMm)} (1 SD) at the opening's edge in a pose; the bound's scatter includes it.`);
+  }
+
   return {
-    fit: null,
-    tolerance: { n, meanMm, sdMm, k1, coverage: p.coverage, confidence: p.confidence },
-    projectedMm: meanMm,
-    upperBoundMm: meanMm + k1 * sdMm,
-    label,
-    unavailable: null,
+    measure,
+    axis: MEASURE_AXIS[measure],
+    measuredWorstMm: measured,
+    measuredWorstPoseId: worstPose,
+    measuredWorstAt: { y: worst.y, z: worst.z, side: worst.side },
+    directions,
+    governingDirection,
+    projectedMm,
+    upperBoundMm,
+    governing,
+    fitUncertaintyMm,
+    baseMm,
+    withMarginMm,
+    withAllowanceMm,
+    envelopeMm,
+    reasons,
   };
 }
 
+/**
+ * Derives the design envelope of a flex-test session.
+ * @param input vehicle tracks, gauge points, the opening's outline, how readings were entered, the
+ *   reference (baseline) pose, the poses with their lifts and readings, and the design parameters.
+ * @returns per pose its twist, fit and measures; per measure (fore-aft opening and closing, lateral,
+ *   vertical) the bound of each twist direction, the governing one, the envelope and its reasons;
+ *   the flagged readings; and session-wide notes.
+ * @example designEnvelope({ ...session, parameters: { designTwistDeg: 12 } }).measures.lateral.envelopeMm // => 185
+ */
 export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   if (input === null || typeof input !== 'object') throw new FlexInputError(FN, 'input', 'must be an object');
   const p = resolveParameters(input.parameters);
   if (input.tracks === null || typeof input.tracks !== 'object') throw new FlexInputError(FN, 'tracks', 'must be an object');
-  requirePositiveLength(FN, 'tracks.frontMm', input.tracks.frontMm);
-  requirePositiveLength(FN, 'tracks.rearMm', input.tracks.rearMm);
+  requireTrack('tracks.frontMm', input.tracks.frontMm);
+  requireTrack('tracks.rearMm', input.tracks.rearMm);
   validateOutline(FN, input.outline);
-  if (!Array.isArray(input.gaugePoints) || input.gaugePoints.length === 0) {
-    throw new FlexInputError(FN, 'gaugePoints', 'must be a non-empty array');
+  const pointIndex = indexGaugeLocations(FN, 'gaugePoints', input.gaugePoints);
+  const { liftTwists, codes, codeStart } = checkPoses(input, pointIndex);
+  if (input.readingMode !== 'gap' && input.readingMode !== 'displacement') {
+    throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(input.readingMode)}'`);
   }
+  const baselineIndex = input.baselinePoseId === undefined ? -1 : input.poses.findIndex((pose) => pose.id === input.baselinePoseId);
+  if (input.baselinePoseId !== undefined && baselineIndex < 0) {
+    throw new FlexInputError(FN, 'baselinePoseId', `names no pose of the session: '${String(input.baselinePoseId)}'`);
+  }
+  if (input.readingMode === 'gap' && baselineIndex < 0) {
+    throw new FlexInputError(FN, 'baselinePoseId', "is required when readings are raw gaps (readingMode 'gap')");
+  }
+  const baselineTwistDeg = baselineIndex < 0 ? 0 : liftTwists[baselineIndex];
+  const relativeTwists = liftTwists.map((twist, i) => {
+    const relative = twist - baselineTwistDeg;
+    if (Math.abs(relative) > MAX_TWIST_DEG) {
+      throw new FlexInputError(FN, `poses[${i}].lifts`, `give a twist of ${relative.toFixed(1)}° relative to the baseline pose, beyond ±${MAX_TWIST_DEG}°: check the lifts`);
+    }
+    return relative;
+  });
 
-  const poses = evaluatePoses(input);
-  const measured = poses.filter((pose): pose is PoseResult & { worst: PerimeterWorst; fit: RelativeMotionFit } => pose.worst !== null);
-  if (measured.length === 0) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
-
+  const readingNotes: string[] = [];
   const notes: string[] = [];
-  // A fit limitation usually repeats in every pose (the same gauge points each time): say it once.
-  const limitations = new Map<string, string[]>();
-  for (const pose of poses) {
-    if (pose.note !== null && !pose.isBaseline) notes.push(`${pose.poseId}: ${pose.note}`);
-    if (pose.missingBaseline.length > 0) notes.push(`${pose.poseId}: ${pose.missingBaseline.length} reading(s) without a baseline reading, not used`);
-    for (const outlier of pose.fit?.outliers ?? []) {
-      notes.push(`${pose.poseId}: reading at ${outlier.pointId} (${outlier.axis}) is far from the fit (residual ${mm(outlier.residual)}); review it`);
-    }
-    for (const part of [pose.fit?.outOfPlane, pose.fit?.inPlane]) {
-      if (part === undefined || part.reason === null) continue;
-      limitations.set(part.reason, [...(limitations.get(part.reason) ?? []), pose.poseId]);
-    }
+  const session: Session = { points: input.gaugePoints, codes, codeStart, baselineIndex, liftTwists, relativeTwists };
+  const { poses, scatterMm, flags } = evaluatePoses(input, session, readingNotes);
+  if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
+  if (Math.abs(baselineTwistDeg) >= BASELINE_TWIST_NOTE_DEG) {
+    readingNotes.push(
+      `the baseline pose (${input.poses[baselineIndex].id}) is twisted ${baselineTwistDeg.toFixed(1)}° by its lifts: every twist is taken relative to it, since its readings are the reference; the envelope assumes the boot is fitted with the vehicle level`,
+    );
   }
-  for (const [reason, poseIds] of limitations) notes.push(`${reason} (${poseIds.length === measuredCount(poses) ? 'all poses' : poseIds.join(', ')})`);
-  const twists = measured.map((pose) => Math.abs(pose.twistDeg));
-  const maxTwist = Math.max(...twists);
-  if (p.designTwistDeg < maxTwist) {
-    notes.push(`the design twist (${p.designTwistDeg}°) is below the largest twist reached (${maxTwist.toFixed(1)}°)`);
-  } else if (maxTwist > 0 && p.designTwistDeg > FAR_EXTRAPOLATION * maxTwist) {
-    notes.push(`the design twist (${p.designTwistDeg}°) is ${(p.designTwistDeg / maxTwist).toFixed(1)} × the largest twist reached (${maxTwist.toFixed(1)}°): a long extrapolation`);
-  }
+  poseNotes(poses, readingNotes);
+  const data = directionData(input, poses, p, notes);
 
+  const tCache = new Map<number, number>();
   const k1Cache = new Map<number, number>();
-  const k1For = (n: number): number => {
-    if (!k1Cache.has(n)) k1Cache.set(n, oneSidedToleranceFactor(n, p.coverage, p.confidence));
-    return k1Cache.get(n) as number;
+  const settings: BoundSettings = {
+    designTwistDeg: p.designTwistDeg,
+    confidence: p.confidence,
+    coverage: p.coverage,
+    throughOrigin: p.throughOrigin,
+    repeatBandDeg: p.repeatBandDeg,
+    tFor: (df) => {
+      if (!tCache.has(df)) tCache.set(df, studentTQuantile(p.confidence, df));
+      return tCache.get(df) as number;
+    },
+    k1For: (n) => {
+      if (!k1Cache.has(n)) k1Cache.set(n, oneSidedToleranceFactor(n, p.coverage, p.confidence));
+      return k1Cache.get(n) as number;
+    },
   };
-
-  const axes = {} as Record<Axis, AxisEnvelope>;
-  for (const axis of AXES) {
-    const worsts = measured.map((pose) => Math.abs(pose.worst[axis].valueMm));
-    let worstIndex = 0;
-    worsts.forEach((w, i) => {
-      if (w > worsts[worstIndex]) worstIndex = i;
-    });
-    const worstPose = measured[worstIndex];
-    const { valueMm: measuredWorstMm, ...measuredWorstAt } = worstPose.worst[axis];
-    const bound = p.method === 'prediction' ? predictionBound(twists, worsts, p) : toleranceBound(twists, worsts, p, k1For);
-
-    const reasons: string[] = [];
-    const measuredAbs = Math.abs(measuredWorstMm);
-    const governing = bound.upperBoundMm !== null && bound.upperBoundMm > measuredAbs ? 'upperBound' : 'measured';
-    const baseMm = governing === 'upperBound' ? (bound.upperBoundMm as number) : measuredAbs;
-    if (bound.upperBoundMm === null) {
-      reasons.push(`measured worst ${mm(measuredAbs)} (${worstPose.poseId}) governs; ${bound.unavailable}`);
-    } else if (governing === 'upperBound') {
-      reasons.push(`${bound.label} (${mm(bound.upperBoundMm)}) is above the measured worst (${mm(measuredAbs)}, ${worstPose.poseId})`);
-    } else {
-      reasons.push(`measured worst ${mm(measuredAbs)} (${worstPose.poseId}) is at or above the ${bound.label} (${mm(bound.upperBoundMm)})`);
-    }
-    const withMarginMm = baseMm * (1 + p.margin);
-    const withAllowanceMm = withMarginMm + p.allowanceMm;
-    const envelopeMm = roundUpToIncrement(withAllowanceMm, p.incrementMm);
-    reasons.push(`× (1 + margin ${p.margin}) = ${mm(withMarginMm)}`);
-    reasons.push(`+ allowance ${mm(p.allowanceMm)} = ${mm(withAllowanceMm)}`);
-    reasons.push(`rounded up to the ${p.incrementMm} mm increment: ${envelopeMm} mm`);
-
-    axes[axis] = {
-      axis,
-      measuredWorstMm,
-      measuredWorstPoseId: worstPose.poseId,
-      measuredWorstAt,
-      fit: bound.fit,
-      tolerance: bound.tolerance,
-      projectedMm: bound.projectedMm,
-      upperBoundMm: bound.upperBoundMm,
-      governing,
-      baseMm,
-      withMarginMm,
-      withAllowanceMm,
-      envelopeMm,
-      reasons,
-    };
-  }
-  return { parameters: p, poses, axes, notes };
+  const measures = {} as Record<EnvelopeMeasure, MeasureEnvelope>;
+  for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, data, p, settings);
+  return { parameters: p, baselineTwistDeg, scatterMm, poses, measures, flags, readingNotes, notes };
 }

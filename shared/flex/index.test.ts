@@ -20,6 +20,11 @@ describe('shared/flex index', () => {
       'mmToIn',
       'inToMm',
       'FlexInputError',
+      'upperPredictionBoundAt',
+      'residualScale',
+      'normalDensity',
+      'outlineCorners',
+      'syntheticEnvelopeInput',
     ]) {
       expect(typeof (flex as Record<string, unknown>)[name]).toBe('function');
     }

@@ -85,6 +85,28 @@ describe('linearFit', () => {
     expect(fit.upperPredictionBound(5, 0.99)).toBeCloseTo(15, 12);
   });
 
+  it('weights each point by 1/x² for scatter proportional to x: the fit of the ratios, by hand and by transformed least squares', () => {
+    const xs = [4, 8, 12, 16, 20];
+    const ys = [37, 70, 111, 141, 183];
+    const fit = linearFit(xs, ys, { scatter: 'proportional' });
+    const r = ys.map((y, i) => y / xs[i]);
+    const mean = r.reduce((a, b) => a + b, 0) / 5;
+    // Montgomery, Peck & Vining (5th ed.), ch. 5, weighted least squares: dividing y = βx + ε, Var ε ∝ x², by x gives y/x = β + ε/x with constant variance
+    expect(fit.slope).toBeCloseTo(mean, 12);
+    expect(fit.residualSd).toBeCloseTo(Math.sqrt(r.reduce((a, v) => a + (v - mean) ** 2, 0) / 4), 12);
+    expect(fit.df).toBe(4);
+    // with an intercept: y/x = β + α·(1/x), an ordinary line in u = 1/x (simple-statistics, independent)
+    const withIntercept = linearFit(xs, ys, { scatter: 'proportional', throughOrigin: false });
+    const reference = linearRegression(xs.map((x, i) => [1 / x, ys[i] / x]));
+    expectClose(withIntercept.slope, reference.b, 1e-9);
+    expectClose(withIntercept.intercept, reference.m, 1e-9);
+  });
+
+  it('refuses x ≤ 0 with proportional scatter, and an unknown scatter model', () => {
+    expect(() => linearFit([0, 1, 2], [0, 1, 2], { scatter: 'proportional' })).toThrowError(/linearFit: xs\[0\] must be greater than 0 with proportional scatter/);
+    expect(() => linearFit([1, 2, 3], [1, 2, 3], { scatter: 'cubic' as never })).toThrowError(/options.scatter/);
+  });
+
   it('throws FlexInputError for unusable input', () => {
     expect(() => linearFit([1], [2])).toThrowError(/linearFit: xs needs at least 2 points/);
     expect(() => linearFit([1, 2], [2, 3], { throughOrigin: false })).toThrowError(FlexInputError);

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { perimeterWorst, sampleOutline, type OpeningOutline } from './perimeter';
+import { outlineCorners, perimeterWorst, perimeterWorstOn, sampleOutline, type OpeningOutline } from './perimeter';
 import { predictDisplacement } from './predict-displacement';
 import { FlexInputError } from './errors';
 import type { RigidMotion } from './types';
@@ -102,5 +102,41 @@ describe('perimeterWorst', () => {
     expect(() => perimeterWorst(still(), { width: 700, height: 900, cornerRadius: 400 })).toThrowError(/cornerRadius/);
     expect(() => sampleOutline(outline, 0)).toThrowError(FlexInputError);
     expect(() => sampleOutline(outline, 1e-6)).toThrowError(/stepMm/);
+  });
+});
+
+describe('perimeterWorst: highest and lowest apart', () => {
+  it('gives the most opening and the most closing of the gap, each at its place', () => {
+    // dx = −2 + 0.002·z: closes 0.8 mm along the bottom (z = 600), opens 1 mm along the top (z = 1500)
+    const worst = perimeterWorst({ t: { x: -2, y: 0, z: 0 }, omega: { x: 0, y: 0.002, z: 0 } }, outline);
+    expect(worst.foreAft.highest).toMatchObject({ side: 'top', z: 1500 });
+    expect(worst.foreAft.highest.valueMm).toBeCloseTo(1, 12);
+    expect(worst.foreAft.lowest).toMatchObject({ side: 'bottom', z: 600 });
+    expect(worst.foreAft.lowest.valueMm).toBeCloseTo(-0.8, 12);
+    expect(worst.foreAft.valueMm).toBeCloseTo(1, 12);
+  });
+
+  it('refuses a motion with NaN or a rotation beyond the small-angle model', () => {
+    const motion = still();
+    motion.omega.x = NaN;
+    expect(() => perimeterWorst(motion, outline)).toThrowError(/perimeterWorst: motion\.omega\.x must be a finite number/);
+    motion.omega.x = 0.9;
+    expect(() => perimeterWorst(motion, outline)).toThrowError(/perimeterWorst: motion\.omega\.x must be within ±0\.5 rad/);
+  });
+});
+
+describe('outlineCorners', () => {
+  it('gives the bounding rectangle anticlockwise from the bottom left (+y)', () => {
+    expect(outlineCorners(outline)).toEqual([350, 600, 350, 1500, -350, 1500, -350, 600]);
+  });
+});
+
+describe('perimeterWorstOn', () => {
+  it('gives what perimeterWorst gives, for motion after motion on one outline', () => {
+    const on = perimeterWorstOn(outline);
+    for (const motion of [still(), { t: { x: 1, y: -4, z: 2 }, omega: { x: 0.003, y: -0.001, z: 0.002 } }]) {
+      expect(on(motion)).toEqual(perimeterWorst(motion, outline));
+    }
+    expect(() => perimeterWorstOn({ ...outline, height: 0 })).toThrowError(/perimeterWorstOn: outline.height/);
   });
 });

@@ -1,5 +1,5 @@
 /**
- * The pass-through opening's outline and the worst displacement anywhere on it.
+ * The pass-through opening's outline and the extreme displacements anywhere on it.
  *
  * Shape: a rectangle with rounded corners in the front wall of the body (plane x = 0), width along y,
  * height along z; y from the vehicle centreline (+ left, ISO 8855), z from the top of the frame rail.
@@ -7,18 +7,17 @@
  * Side names follow the vehicle: 'left' is the +y edge (the vehicle's left), 'right' the −y edge;
  * corners are 'topLeft', 'topRight', 'bottomLeft', 'bottomRight'.
  *
- * perimeterWorst: each displacement component is affine in (y, z) under a rigid motion, so its
- * extremes on the outline lie at a straight edge's ends or at an arc's stationary point, where the
- * arc's normal is parallel to the gradient. Evaluating those few candidates gives the exact worst
- * (largest absolute value, sign kept) — the limit of sampling ever more finely — in O(1) per pose.
- * Ties go to the midpoint of a straight side, then to an arc point.
+ * perimeterWorst: each displacement component is affine in (y, z) under a rigid motion,
+ * value = c0 + cy·y + cz·z, so its largest value on the outline is the support function of the
+ * rounded rectangle in the direction g = (cy, cz): the inner rectangle's corner (inset by the
+ * radius r) that g points to, plus r·|g|, reached at that corner's arc point facing g. Where g is
+ * parallel to a side, the whole side ties and its midpoint is reported; the smallest value is the
+ * same in the direction −g. Exact (the limit of sampling ever more finely) and O(1) per component.
  * sampleOutline: points every `stepMm` (or closer) along the outline, arcs included, for drawing.
- * Source: support function of a convex set (Rockafellar, Convex Analysis, §13).
- *
- * Example: perimeterWorst({ t: { x: 0, y: 5, z: 0 }, omega: { x: 0, y: 0, z: 0 } },
- *   { width: 700, height: 900, cornerRadius: 80 }).lateral.valueMm // => 5
+ * Source: support function of a convex set, Rockafellar, Convex Analysis (1970), §13; the support
+ * function of a Minkowski sum is the sum of the support functions (same §13).
  */
-import { FlexInputError, requireLength, requireNonNegative, requirePositiveLength } from './errors';
+import { FlexInputError, requireFinite, requireLength, requireMotion, requireNonNegative, requirePositiveLength } from './errors';
 import type { Axis, RigidMotion } from './types';
 
 export interface OpeningOutline {
@@ -40,12 +39,20 @@ export interface OutlinePoint {
   side: OutlineSide;
 }
 
-export interface AxisWorst {
-  /** Largest absolute displacement on the outline, sign kept (mm). */
+/** A displacement component's value at a point of the outline. */
+export interface OutlineValue {
   valueMm: number;
   y: number;
   z: number;
   side: OutlineSide;
+}
+
+/** One component on the outline: `valueMm` and its place are the largest |value| (sign kept). */
+export interface AxisWorst extends OutlineValue {
+  /** The largest value (e.g. the widest opening of the gap for fore-aft). */
+  highest: OutlineValue;
+  /** The smallest value (e.g. the most closing of the gap for fore-aft). */
+  lowest: OutlineValue;
 }
 
 export type PerimeterWorst = Record<Axis, AxisWorst>;
@@ -64,9 +71,14 @@ interface Geometry {
   top: number;
   bottom: number;
   r: number;
-  arcs: Arc[];
 }
 
+/**
+ * Checks an opening outline.
+ * @param fn the calling function's name, for the error. @param outline the outline to check.
+ * @returns nothing; throws FlexInputError naming the bad field.
+ * @example validateOutline('designEnvelope', { width: 700, height: 900, cornerRadius: 80 }) // no error
+ */
 export function validateOutline(fn: string, outline: OpeningOutline): void {
   if (outline === null || typeof outline !== 'object') throw new FlexInputError(fn, 'outline', 'must be an object');
   requirePositiveLength(fn, 'outline.width', outline.width);
@@ -86,80 +98,112 @@ function geometry(outline: OpeningOutline): Geometry {
   const left = centreY + outline.width / 2;
   const right = centreY - outline.width / 2;
   const top = bottom + outline.height;
-  const r = outline.cornerRadius;
-  // Arc angles measured in the (y, z) plane from +y towards +z.
-  const arcs: Arc[] = [
+  return { left, right, top, bottom, r: outline.cornerRadius };
+}
+
+/** The corner arcs, anticlockwise from the top left; angles in the (y, z) plane from +y towards +z. */
+function arcsOf(g: Geometry): Arc[] {
+  const { left, right, top, bottom, r } = g;
+  return [
     { side: 'topLeft', cy: left - r, cz: top - r, from: 0, to: Math.PI / 2 },
     { side: 'topRight', cy: right + r, cz: top - r, from: Math.PI / 2, to: Math.PI },
     { side: 'bottomRight', cy: right + r, cz: bottom + r, from: Math.PI, to: (3 * Math.PI) / 2 },
     { side: 'bottomLeft', cy: left - r, cz: bottom + r, from: (3 * Math.PI) / 2, to: 2 * Math.PI },
   ];
-  return { left, right, top, bottom, r, arcs };
 }
 
-/** Coefficients of one displacement component, value = c0 + cy·y + cz·z (see predictDisplacement). */
-function affine(motion: RigidMotion, axis: Axis): [number, number, number] {
-  const { t, omega } = motion;
-  if (axis === 'foreAft') return [t.x, -omega.z, omega.y];
-  if (axis === 'lateral') return [t.y, 0, -omega.x];
-  return [t.z, omega.x, 0];
+/**
+ * The corners of an opening's bounding rectangle (the outline lies inside it).
+ * @param outline the opening. @returns [y0, z0, …, y3, z3], anticlockwise from the bottom left.
+ * @example outlineCorners({ width: 700, height: 900, cornerRadius: 80, bottomZ: 600 }) // => [350, 600, 350, 1500, -350, 1500, -350, 600]
+ */
+export function outlineCorners(outline: OpeningOutline): number[] {
+  const g = geometry(outline);
+  return [g.left, g.bottom, g.left, g.top, g.right, g.top, g.right, g.bottom];
 }
 
-function candidates(g: Geometry, cy: number, cz: number): OutlinePoint[] {
-  const midY = (g.left + g.right) / 2;
-  const midZ = (g.top + g.bottom) / 2;
-  const points: OutlinePoint[] = [
-    { y: midY, z: g.top, side: 'top' },
-    { y: midY, z: g.bottom, side: 'bottom' },
-    { y: g.left, z: midZ, side: 'left' },
-    { y: g.right, z: midZ, side: 'right' },
-  ];
-  const gradient = Math.hypot(cy, cz);
-  for (const arc of g.arcs) {
-    if (g.r > 0 && gradient > 0) {
-      for (const direction of [1, -1]) {
-        let angle = Math.atan2(direction * cz, direction * cy);
-        if (angle < 0) angle += 2 * Math.PI;
-        if (angle >= arc.from && angle <= arc.to) {
-          points.push({ y: arc.cy + g.r * Math.cos(angle), z: arc.cz + g.r * Math.sin(angle), side: arc.side });
-        }
-      }
-    }
-    points.push({ y: arc.cy + g.r * Math.cos(arc.from), z: arc.cz + g.r * Math.sin(arc.from), side: arc.side });
-    points.push({ y: arc.cy + g.r * Math.cos(arc.to), z: arc.cz + g.r * Math.sin(arc.to), side: arc.side });
+
+/** The point of the outline that is farthest in the direction (dy, dz), with the value there. */
+function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz: number): OutlineValue {
+  let y: number;
+  let z: number;
+  let side: OutlineSide;
+  if (dy === 0 && dz === 0) {
+    y = (g.left + g.right) / 2;
+    z = g.top;
+    side = 'top';
+  } else if (dy === 0) {
+    y = (g.left + g.right) / 2;
+    z = dz > 0 ? g.top : g.bottom;
+    side = dz > 0 ? 'top' : 'bottom';
+  } else if (dz === 0) {
+    y = dy > 0 ? g.left : g.right;
+    z = (g.top + g.bottom) / 2;
+    side = dy > 0 ? 'left' : 'right';
+  } else {
+    const length = Math.hypot(dy, dz);
+    y = (dy > 0 ? g.left - g.r : g.right + g.r) + (g.r * dy) / length;
+    z = (dz > 0 ? g.top - g.r : g.bottom + g.r) + (g.r * dz) / length;
+    side = dz > 0 ? (dy > 0 ? 'topLeft' : 'topRight') : dy > 0 ? 'bottomLeft' : 'bottomRight';
   }
-  return points;
+  return { valueMm: c0 + cy * y + cz * z, y, z, side };
 }
 
-/** Worst point of the outline for one affine component: the candidate with the largest |value|. */
-function worstOf(g: Geometry, c0: number, cy: number, cz: number): AxisWorst {
-  let best: AxisWorst | null = null;
-  for (const p of candidates(g, cy, cz)) {
-    const value = c0 + cy * p.y + cz * p.z;
-    if (best === null || Math.abs(value) > Math.abs(best.valueMm) + 1e-9 * (1 + Math.abs(best.valueMm))) {
-      best = { valueMm: value, y: p.y, z: p.z, side: p.side };
-    }
-  }
-  return best as AxisWorst;
+function extremesOf(g: Geometry, c0: number, cy: number, cz: number): AxisWorst {
+  const highest = support(g, c0, cy, cz, cy, cz);
+  const lowest = support(g, c0, cy, cz, -cy, -cz);
+  const worst = Math.abs(lowest.valueMm) > Math.abs(highest.valueMm) * (1 + 1e-12) ? lowest : highest;
+  return { valueMm: worst.valueMm, y: worst.y, z: worst.z, side: worst.side, highest, lowest };
 }
 
+/**
+ * The extreme displacements on the opening's outline under a rigid motion, per axis.
+ * @param motion the cab's small-angle motion relative to the body.
+ * @param outline the opening.
+ * @returns per axis the largest |value| (sign kept) with its place, and the highest and lowest values.
+ * @example perimeterWorst({ t: { x: 0, y: 5, z: 0 }, omega: { x: 0, y: 0, z: 0 } },
+ *   { width: 700, height: 900, cornerRadius: 80 }).lateral.valueMm // => 5
+ */
 export function perimeterWorst(motion: RigidMotion, outline: OpeningOutline): PerimeterWorst {
   validateOutline('perimeterWorst', outline);
+  return worstOn(geometry(outline), requireMotion('perimeterWorst', 'motion', motion));
+}
+
+function worstOn(g: Geometry, motion: RigidMotion): PerimeterWorst {
+  const { t, omega } = motion;
+  // Each component is c0 + cy·y + cz·z (see predictDisplacement).
+  return {
+    foreAft: extremesOf(g, t.x, -omega.z, omega.y),
+    lateral: extremesOf(g, t.y, 0, -omega.x),
+    vertical: extremesOf(g, t.z, omega.x, 0),
+  };
+}
+
+/**
+ * perimeterWorst for many motions on one outline: the outline is checked once, and each motion by
+ * the caller (designEnvelope checks its fitted rotations itself).
+ * @param outline the opening. @returns a function from a motion to its extremes on the outline.
+ * @example perimeterWorstOn(outline)(motion).lateral.valueMm // => the same as perimeterWorst(motion, outline)
+ */
+export function perimeterWorstOn(outline: OpeningOutline): (motion: RigidMotion) => PerimeterWorst {
+  validateOutline('perimeterWorstOn', outline);
   const g = geometry(outline);
-  const result = {} as PerimeterWorst;
-  for (const axis of ['foreAft', 'lateral', 'vertical'] as const) {
-    const [c0, cy, cz] = affine(motion, axis);
-    result[axis] = worstOf(g, c0, cy, cz);
-  }
-  return result;
+  return (motion) => worstOn(g, motion);
 }
 
 /** Most points sampleOutline will return; keeps a tiny step from exhausting memory. */
 const MAX_SAMPLES = 1_000_000;
 
+/**
+ * Points along the opening's outline, for drawing.
+ * @param outline the opening. @param stepMm the largest gap between neighbouring points (default 5).
+ * @returns the points, anticlockwise in (y, z) from the lower end of the left side, arcs included.
+ * @example sampleOutline({ width: 700, height: 900, cornerRadius: 80 }, 5).length // => 622
+ */
 export function sampleOutline(outline: OpeningOutline, stepMm = 5): OutlinePoint[] {
   const fn = 'sampleOutline';
   validateOutline(fn, outline);
+  requireFinite(fn, 'stepMm', stepMm);
   requirePositiveLength(fn, 'stepMm', stepMm);
   const g = geometry(outline);
   const perimeter = 2 * (outline.width + outline.height - 4 * g.r) + 2 * Math.PI * g.r;
@@ -184,7 +228,7 @@ export function sampleOutline(outline: OpeningOutline, stepMm = 5): OutlinePoint
       points.push({ y: a.cy + g.r * Math.cos(angle), z: a.cz + g.r * Math.sin(angle), side: a.side });
     }
   };
-  const [topLeft, topRight, bottomRight, bottomLeft] = g.arcs;
+  const [topLeft, topRight, bottomRight, bottomLeft] = arcsOf(g);
   // Anticlockwise in the (y, z) plane, starting at the lower end of the left side.
   line('left', g.left, g.bottom + g.r, g.left, g.top - g.r);
   arc(topLeft);

@@ -20,3 +20,14 @@ describe('predictDisplacement', () => {
     expect(d.dz).toBeCloseTo(2 * d1.dz, 12);
   });
 });
+
+describe('refuses what it cannot compute', () => {
+  const motion = { t: { x: 1, y: 2, z: 3 }, omega: { x: 0.01, y: 0.002, z: -0.003 } };
+  it('names the bad field instead of passing NaN through', () => {
+    expect(() => predictDisplacement(motion, NaN, 0)).toThrowError(/predictDisplacement: y must be a finite number/);
+    expect(() => predictDisplacement(motion, 0, Infinity)).toThrowError(/predictDisplacement: z/);
+    expect(() => predictDisplacement({ ...motion, t: { ...motion.t, x: NaN } }, 0, 0)).toThrowError(/predictDisplacement: motion\.t\.x/);
+    expect(() => scaleMotion(motion, NaN)).toThrowError(/scaleMotion: factor must be a finite number/);
+    expect(() => scaleMotion({ ...motion, omega: { ...motion.omega, z: NaN } }, 2)).toThrowError(/scaleMotion: motion\.omega\.z/);
+  });
+});

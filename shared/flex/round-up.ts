@@ -6,11 +6,14 @@
  * a multiple (203.2 mm on 6.35 mm, stored as 32.000000000000004 increments) stays there, and the
  * result cleaned of binary noise to 1e-9 mm.
  * Source: definition (ceiling to a grid).
- *
- * Example: roundUpToIncrement(181.2, 5) // => 185 ; roundUpToIncrement(203.2, 6.35) // => 203.2
  */
 import { FlexInputError, requireLength, requirePositiveLength } from './errors';
 
+/**
+ * @param value a length in mm (≥ 0). @param increment the fabrication increment in mm (> 0).
+ * @returns the smallest whole multiple of the increment at or above the value.
+ * @example roundUpToIncrement(181.2, 5) // => 185 ; roundUpToIncrement(203.2, 6.35) // => 203.2
+ */
 export function roundUpToIncrement(value: number, increment: number): number {
   requireLength('roundUpToIncrement', 'value', value);
   requirePositiveLength('roundUpToIncrement', 'increment', increment);

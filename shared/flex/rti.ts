@@ -9,11 +9,14 @@
  * Rounding rule: rampTravelIndex returns the unrounded value (use it for any further arithmetic);
  * roundRti rounds to one decimal, halves away from zero, for display and sheets. Some printed
  * tables truncate instead (659 for 62 in on 94 in); Twistlog rounds (659.6).
- *
- * Example: rampTravelIndex(1500, 2500) // => 600 ; roundRti(rampTravelIndex(62, 94)) // => 659.6
  */
 import { FlexInputError, requireLength, requirePositiveLength } from './errors';
 
+/**
+ * @param distance distance travelled up the ramp (≥ 0). @param wheelbase the wheelbase, same unit (> 0).
+ * @returns 1000 × distance ÷ wheelbase, unrounded.
+ * @example rampTravelIndex(1500, 2500) // => 600
+ */
 export function rampTravelIndex(distance: number, wheelbase: number): number {
   requireLength('rampTravelIndex', 'distance', distance);
   if (distance < 0) throw new FlexInputError('rampTravelIndex', 'distance', `must not be negative, got ${distance}`);
@@ -21,7 +24,11 @@ export function rampTravelIndex(distance: number, wheelbase: number): number {
   return (1000 * distance) / wheelbase;
 }
 
-/** RTI rounded to one decimal, halves away from zero (RTI is never negative). */
+/**
+ * RTI rounded to one decimal, halves away from zero (RTI is never negative).
+ * @param rti an RTI (≥ 0). @returns it to one decimal.
+ * @example roundRti(rampTravelIndex(62, 94)) // => 659.6
+ */
 export function roundRti(rti: number): number {
   if (!Number.isFinite(rti) || rti < 0) {
     throw new FlexInputError('roundRti', 'rti', `must be a finite number ≥ 0, got ${String(rti)}`);

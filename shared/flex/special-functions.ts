@@ -7,8 +7,6 @@
  *   symmetry I_x(a, b) = 1 − I_{1−x}(b, a) where the fraction converges slowly.
  * - regularizedGammaQ(a, x): Q(a, x) = Γ(a, x) / Γ(a), series below x = a + 1, continued fraction above.
  * Source: Press, Teukolsky, Vetterling, Flannery, Numerical Recipes (3rd ed.), §6.1, §6.2, §6.4.
- *
- * Example: Math.exp(logGamma(5)) // => 24 ; regularizedBeta(0.5, 2, 2) // => 0.5
  */
 const LANCZOS_G = 7;
 const LANCZOS = [
@@ -19,6 +17,10 @@ const EPS = 1e-15;
 const TINY = 1e-300;
 const MAX_ITERATIONS = 10_000;
 
+/**
+ * @param x any positive number (reflection below 0.5). @returns ln Γ(x).
+ * @example Math.exp(logGamma(5)) // => 24
+ */
 export function logGamma(x: number): number {
   if (x < 0.5) return Math.log(Math.PI / Math.abs(Math.sin(Math.PI * x))) - logGamma(1 - x);
   const xm1 = x - 1;
@@ -59,6 +61,11 @@ function betaContinuedFraction(x: number, a: number, b: number): number {
   return h;
 }
 
+/**
+ * @param x in [0, 1]. @param a > 0. @param b > 0.
+ * @returns the regularized incomplete beta function I_x(a, b).
+ * @example regularizedBeta(0.5, 2, 2) // => 0.5
+ */
 export function regularizedBeta(x: number, a: number, b: number): number {
   if (x <= 0) return 0;
   if (x >= 1) return 1;
@@ -67,6 +74,11 @@ export function regularizedBeta(x: number, a: number, b: number): number {
   return 1 - (Math.exp(logFront) * betaContinuedFraction(1 - x, b, a)) / b;
 }
 
+/**
+ * @param a > 0. @param x ≥ 0.
+ * @returns the regularized upper incomplete gamma function Q(a, x) = Γ(a, x) / Γ(a).
+ * @example regularizedGammaQ(1, 2) // => 0.135335 (e^−2)
+ */
 export function regularizedGammaQ(a: number, x: number): number {
   if (x <= 0) return 1;
   const logFront = -x + a * Math.log(x) - logGamma(a);

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { buildSyntheticSession, seededNormal, seededRandom } from './synthetic-session';
+import { buildSyntheticSession, seededNormal, seededRandom, syntheticEnvelopeInput } from './synthetic-session';
 import { crossAxleTwistDeg } from './twist';
+import { designEnvelope } from './envelope';
 
 describe('buildSyntheticSession', () => {
   it('is deterministic for a seed and has a level baseline', () => {
@@ -27,5 +28,33 @@ describe('buildSyntheticSession', () => {
       const u = uniform();
       expect(u >= 0 && u < 1).toBe(true);
     }
+  });
+
+  it('poses at given twists on top of a twisted baseline, with an asymmetric response', () => {
+    const baselineLifts = { fl: 0, fr: 0, rl: 0, rr: 150 };
+    const s = buildSyntheticSession({
+      twistsDeg: [6, -9],
+      baselineLifts,
+      noiseSdMm: 0,
+      motionPerDeg: { t: { x: 0, y: 9, z: 0 }, omega: { x: 0, y: 0, z: 0 } },
+      motionPerDegNegative: { t: { x: 0, y: 7, z: 0 }, omega: { x: 0, y: 0, z: 0 } },
+    });
+    const base = crossAxleTwistDeg(baselineLifts, s.tracks.frontMm, s.tracks.rearMm);
+    expect(crossAxleTwistDeg(s.poses[1].lifts, s.tracks.frontMm, s.tracks.rearMm) - base).toBeCloseTo(6, 9);
+    expect(crossAxleTwistDeg(s.poses[2].lifts, s.tracks.frontMm, s.tracks.rearMm) - base).toBeCloseTo(-9, 9);
+    expect(s.poses[1].readings.find((r) => r.axis === 'lateral')?.value).toBeCloseTo(54, 9);
+    expect(s.poses[2].readings.find((r) => r.axis === 'lateral')?.value).toBeCloseTo(-63, 9);
+    expect(designEnvelope(syntheticEnvelopeInput(s, { designTwistDeg: 10 })).baselineTwistDeg).toBeCloseTo(base, 12);
+  });
+
+  it('scatters each pose\'s response in proportion to it, or by a constant, only when asked', () => {
+    const plain = buildSyntheticSession({ seed: 4, poses: 3 });
+    const again = buildSyntheticSession({ seed: 4, poses: 3, proportionalScatter: 0, constantScatterMm: 0 });
+    expect(again).toEqual(plain);
+    const scattered = buildSyntheticSession({ seed: 4, poses: 3, proportionalScatter: 0.05, noiseSdMm: 0 });
+    const lateral = (session: typeof plain, i: number) => session.poses[i].readings.find((r) => r.axis === 'lateral')!.value;
+    const exact = buildSyntheticSession({ seed: 4, poses: 3, noiseSdMm: 0 });
+    expect(lateral(scattered, 1)).not.toBeCloseTo(lateral(exact, 1), 3);
+    expect(Math.abs(lateral(scattered, 1) / lateral(exact, 1) - 1)).toBeLessThan(0.25);
   });
 });

@@ -10,7 +10,8 @@ export type Axis = 'foreAft' | 'lateral' | 'vertical';
 
 export const AXES: readonly Axis[] = ['foreAft', 'lateral', 'vertical'];
 
-export interface GaugePoint {
+/** Where a gauge point sits on the front wall (named apart from the gauge point record of shared/schemas). */
+export interface GaugeLocation {
   id: string;
   /** mm from the vehicle centreline, + to the left. */
   y: number;
@@ -18,12 +19,15 @@ export interface GaugePoint {
   z: number;
 }
 
-/** One value at one gauge point on one axis (a raw gap or a displacement, in mm). */
-export interface Reading {
+/** One value at one gauge point on one axis: a raw gap or a displacement, in mm (named apart from the reading record of shared/schemas). */
+export interface GaugeValue {
   pointId: string;
   axis: Axis;
   value: number;
 }
+
+/** How much of one part of a relative-motion fit (out-of-plane or in-plane) the readings determine. */
+export type FitPartStatus = 'full' | 'partial' | 'translationOnly' | 'none';
 
 export interface Vec3 {
   x: number;
@@ -51,6 +55,12 @@ export interface Displacement {
   dz: number;
 }
 
+/**
+ * Whether a value names one of the three axes.
+ * @param value anything, e.g. a field of parsed input.
+ * @returns true for 'foreAft', 'lateral' or 'vertical'.
+ * @example isAxis('lateral') // => true ; isAxis('x') // => false
+ */
 export function isAxis(value: unknown): value is Axis {
   return value === 'foreAft' || value === 'lateral' || value === 'vertical';
 }

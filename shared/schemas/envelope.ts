@@ -4,7 +4,7 @@
 import * as z from 'zod';
 import { DEFAULT_ENVELOPE_PARAMETERS } from '../flex/envelope';
 import { axis, id, isoDate, isoDateTime } from './common';
-import type { BootSpanResult, EnvelopeResult } from '../flex';
+import type { BootSpanResult, EnvelopeFlag, EnvelopeResult } from '../flex';
 
 /** Seal check inputs: free height and the allowed compression range (25–50 % is common practice). */
 export const sealSpec = z
@@ -29,6 +29,8 @@ export const envelopeParams = z.object({
   allowanceMm: z.number().finite().min(0).max(500),
   incrementMm: z.number().finite().gt(0).max(100),
   throughOrigin: z.boolean(),
+  /** Tolerance method: runs within ± this many degrees of their median twist count as repeats. Drafts saved before it existed take 1°. */
+  repeatBandDeg: z.number().finite().gt(0).max(10).default(DEFAULT_ENVELOPE_PARAMETERS.repeatBandDeg),
   seal: sealSpec.nullable(),
 });
 export type EnvelopeParams = z.infer<typeof envelopeParams>;
@@ -57,11 +59,28 @@ export interface SnapshotPose {
 }
 
 /**
- * Everything a sign-off freezes: the inputs as read from the database at that moment, the
- * parameters, the results of shared/flex, and who signed when. Its canonical JSON is hashed.
+ * A flagged reading the engineer kept in the computation at sign-off, and said so: frozen in the
+ * snapshot and printed on the fabrication sheet.
  */
-export interface EnvelopeSnapshot {
-  format: 1;
+export interface AcknowledgedFlag extends Omit<EnvelopeFlag, 'poseId' | 'pointId'> {
+  readingId: string;
+  /** The pose and gauge point as the crew named them. */
+  poseLabel: string;
+  pointLabel: string;
+  /** The reading as entered (a raw gap or a displacement, per the session's reading mode). */
+  enteredMm: number;
+  /** The engineer's note; may be empty. */
+  note: string;
+}
+
+/** The result of a format-1 snapshot (signed before fore-aft opening and closing were apart): display fields only. */
+export interface LegacyEnvelopeResult {
+  axes: Record<z.infer<typeof axis>, { measuredWorstMm: number; upperBoundMm: number | null; governing: 'measured' | 'upperBound'; envelopeMm: number; reasons: string[] }>;
+  notes: string[];
+  readingNotes?: undefined;
+}
+
+interface SnapshotBase {
   signedBy: { id: string; name: string };
   signedAt: string;
   revision: number;
@@ -80,10 +99,28 @@ export interface EnvelopeSnapshot {
   readings: { id: string; poseId: string; gaugePointId: string; axis: z.infer<typeof axis>; valueMm: number; version: number }[];
   excludedReadings: { id: string; reason: string }[];
   params: EnvelopeParams;
-  result: EnvelopeResult;
   boot: BootSpanResult | null;
   bootNote: string | null;
 }
+
+/** Signed before this version of the method: one fore-aft envelope, no acknowledgements. Read, never written. */
+export interface EnvelopeSnapshotV1 extends SnapshotBase {
+  format: 1;
+  result: LegacyEnvelopeResult;
+}
+
+/**
+ * Everything a sign-off freezes: the inputs as read from the database at that moment, the
+ * parameters, the results of shared/flex, the flagged readings the engineer kept and acknowledged,
+ * and who signed when. Its canonical JSON is hashed.
+ */
+export interface EnvelopeSnapshotV2 extends SnapshotBase {
+  format: 2;
+  result: EnvelopeResult;
+  acknowledgedFlags: AcknowledgedFlag[];
+}
+
+export type EnvelopeSnapshot = EnvelopeSnapshotV1 | EnvelopeSnapshotV2;
 
 export interface EnvelopeSendRecord {
   id: string;
@@ -115,7 +152,14 @@ export interface EnvelopeRecord {
 }
 
 export const saveDraftInput = z.object({ version: z.number().int().min(1), params: envelopeParams });
-export const signOffInput = z.object({ version: z.number().int().min(1) });
+/** One flagged reading kept in the computation, acknowledged by the engineer at sign-off. */
+export const flagAcknowledgement = z.object({ readingId: id, note: z.string().trim().max(500).default('') });
+export const signOffInput = z.object({
+  version: z.number().int().min(1),
+  /** Every reading the outlier rule flags and the engineer keeps must be listed here. */
+  acknowledgements: z.array(flagAcknowledgement).max(1_000).default([]),
+});
+export type SignOffInput = z.infer<typeof signOffInput>;
 export const createDraftInput = z.object({ params: envelopeParams.optional() });
 
 /** A review edit of one reading: exclusion (with its reason), a flag note, a corrected value. */

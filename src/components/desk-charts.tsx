@@ -1,52 +1,72 @@
 // The desk's charts, in one module loaded on demand (React.lazy), so recharts forms a single lazy
 // chunk: out of the initial JavaScript and out of the service worker's precache (vite.config.ts).
 import { Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
-import { linearFit, type EnvelopeResult } from '@shared/flex';
+import { ENVELOPE_MEASURES, TWIST_DIRECTION_NAMES, studentTQuantile, upperPredictionBoundAt, type EnvelopeResult } from '@shared/flex';
 import type { UnitSystem } from '@shared/schemas/common';
 import type { ComparedSession } from '@shared/schemas/envelope';
 import { fromDisplay, toDisplay } from '@shared/units';
-import { AXIS_NAMES, formatSlopeValue } from '@shared/format';
+import { AXIS_NAMES, MEASURE_NAMES, formatSlopeValue } from '@shared/format';
 
 const AXES = ['foreAft', 'lateral', 'vertical'] as const;
 const STEPS = 24;
+const LINE_COLOURS = { positive: '#10333d', negative: '#1f5566' } as const;
 
-/** Worst perimeter displacement against twist per axis, with the fitted line and the upper bound. */
+/**
+ * Each envelope measure against the twist relative to the baseline (FL–RR + to the right, FR–RL −
+ * to the left), with each direction's fitted line and upper bound, so the engineer sees which way
+ * the truck moves more.
+ */
 export function TwistChart({ result, unit }: { result: EnvelopeResult; unit: UnitSystem }) {
   const p = result.parameters;
-  const measured = result.poses.filter((pose) => pose.worst !== null);
-  const twists = measured.map((pose) => Math.abs(pose.twistDeg));
-  const xMax = Math.max(p.designTwistDeg, ...twists) * 1.05;
+  const measured = result.poses.filter((pose) => pose.measures !== null);
+  const xMax = Math.max(p.designTwistDeg, ...measured.map((pose) => Math.abs(pose.twistDeg))) * 1.05;
   return (
-    <div className="grid gap-4 lg:grid-cols-3">
-      {AXES.map((axis) => {
-        const a = result.axes[axis];
-        const worsts = measured.map((pose) => Math.abs(pose.worst![axis].valueMm));
-        const points = measured.map((pose, i) => ({ x: twists[i], y: toDisplay(worsts[i], unit), pose: pose.poseId }));
-        let line: { x: number; fit: number; bound: number }[] = [];
-        if (p.method === 'prediction' && a.fit !== null) {
-          const fit = linearFit(twists, worsts, { throughOrigin: p.throughOrigin });
-          line = Array.from({ length: STEPS + 1 }, (_, i) => {
-            const x = (xMax * i) / STEPS;
-            return { x, fit: toDisplay(fit.predict(x), unit), bound: toDisplay(fit.upperPredictionBound(x, p.confidence), unit) };
+    <div className="grid gap-4 lg:grid-cols-2">
+      {ENVELOPE_MEASURES.map((measure) => {
+        const m = result.measures[measure];
+        const points = measured.map((pose) => ({ x: pose.twistDeg, y: toDisplay(pose.measures![measure].valueMm, unit), pose: pose.poseId }));
+        const lines = (['positive', 'negative'] as const).flatMap((direction) => {
+          const fit = m.directions[direction].fit;
+          if (p.method !== 'prediction' || fit === null) return [];
+          const t = studentTQuantile(p.confidence, fit.df);
+          const sign = direction === 'positive' ? 1 : -1;
+          const data = Array.from({ length: STEPS }, (_, i) => {
+            const x = (xMax * (i + 1)) / STEPS;
+            return { x: sign * x, fit: toDisplay(fit.intercept + fit.slope * x, unit), bound: toDisplay(upperPredictionBoundAt(fit, x, p.confidence, t), unit) };
           });
-        }
+          return [{ direction, data }];
+        });
         return (
-          <figure key={axis} className="card" aria-label={`${AXIS_NAMES[axis]} against twist`}>
+          <figure key={measure} className="card" aria-label={`${MEASURE_NAMES[measure]} against twist`}>
             <figcaption className="font-bold">
-              {AXIS_NAMES[axis]}: |worst| ({unit}) against |twist| (°)
+              {MEASURE_NAMES[measure]} ({unit}) against twist (°, relative to the baseline)
             </figcaption>
             <ResponsiveContainer width="100%" height={240}>
               <ComposedChart margin={{ top: 8, right: 8, bottom: 8, left: 0 }}>
                 <CartesianGrid stroke="#c9c3b3" />
-                <XAxis type="number" dataKey="x" domain={[0, Math.ceil(xMax)]} unit="°" />
+                <XAxis type="number" dataKey="x" domain={[-Math.ceil(xMax), Math.ceil(xMax)]} unit="°" />
                 <YAxis type="number" width={48} />
                 <Tooltip formatter={(v) => (typeof v === 'number' ? v.toFixed(unit === 'mm' ? 1 : 2) : String(v))} labelFormatter={(x) => `${Number(x).toFixed(1)}°`} />
                 <Legend />
-                {line.length > 0 && <Line data={line} dataKey="fit" name="fitted line" stroke="#10333d" dot={false} isAnimationActive={false} />}
-                {line.length > 0 && <Line data={line} dataKey="bound" name={`upper ${Math.round(p.confidence * 100)} % bound`} stroke="#b3261e" strokeDasharray="6 4" dot={false} isAnimationActive={false} />}
+                {lines.map(({ direction, data }) => (
+                  <Line key={`fit-${direction}`} data={data} dataKey="fit" name={`fitted line, ${TWIST_DIRECTION_NAMES[direction]}`} stroke={LINE_COLOURS[direction]} dot={false} isAnimationActive={false} />
+                ))}
+                {lines.map(({ direction, data }) => (
+                  <Line
+                    key={`bound-${direction}`}
+                    data={data}
+                    dataKey="bound"
+                    name={`upper ${Math.round(p.confidence * 100)} % bound, ${TWIST_DIRECTION_NAMES[direction]}`}
+                    stroke="#b3261e"
+                    strokeDasharray="6 4"
+                    dot={false}
+                    isAnimationActive={false}
+                  />
+                ))}
                 <Scatter data={points} dataKey="y" name="poses" fill="#8a4b00" isAnimationActive={false} />
                 <ReferenceLine x={p.designTwistDeg} stroke="#1e6b3a" label={{ value: 'design', position: 'insideTopRight' }} />
-                {a.upperBoundMm !== null && <ReferenceLine y={toDisplay(a.upperBoundMm, unit)} stroke="#b3261e" strokeOpacity={0.4} />}
+                <ReferenceLine x={-p.designTwistDeg} stroke="#1e6b3a" label={{ value: 'design', position: 'insideTopLeft' }} />
+                {m.upperBoundMm !== null && <ReferenceLine y={toDisplay(m.upperBoundMm, unit)} stroke="#b3261e" strokeOpacity={0.4} />}
               </ComposedChart>
             </ResponsiveContainer>
           </figure>

@@ -5,9 +5,13 @@ import { SyncStatusBar } from '@/features/sync/components/sync-status-bar';
 import { StoreGuard } from '@/features/sync/components/store-guard';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
-  `flex min-h-touch items-center rounded-lg px-3 font-bold ${isActive ? 'bg-paper text-slate' : 'text-paper'}`;
+  `flex min-h-touch shrink-0 items-center rounded-lg px-3 font-bold ${isActive ? 'bg-paper text-slate' : 'text-paper'}`;
 
-/** The app shell: the bar with the areas a role can reach, and the page below it. */
+/**
+ * The app shell: one bar with the areas a role can reach, and the page below it. On a phone the
+ * bar is one line (its links scroll sideways) so that, with the one-line sync state, it takes
+ * about an eighth of the screen and the pose in hand gets the rest.
+ */
 export function Layout() {
   const me = useMe();
   const signOut = useSignOut();
@@ -16,27 +20,28 @@ export function Layout() {
   return (
     <div className="min-h-dvh">
       <header className="bg-slate text-paper">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-2 px-3 py-2">
-          <span className="mr-2 text-xl font-bold tracking-tight">Twistlog</span>
-          <nav aria-label="Main" className="flex flex-wrap gap-1">
+        <div className="mx-auto flex max-w-6xl items-center gap-2 px-3 py-1">
+          <span className="shrink-0 text-lg font-bold tracking-tight">Twistlog</span>
+          <nav aria-label="Main" className="flex min-w-0 flex-1 items-center gap-1 overflow-x-auto [scrollbar-width:none]">
             {role && role !== 'viewer' && <NavLink to="/field" className={navClass}>Field</NavLink>}
             {role && <NavLink to="/desk" className={navClass}>Desk</NavLink>}
             {role && role !== 'viewer' && <NavLink to="/desk/compare" className={navClass}>Compare</NavLink>}
             {role === 'admin' && <NavLink to="/team" className={navClass}>Team</NavLink>}
             {role && <NavLink to="/account" className={navClass}>Account</NavLink>}
+            {me.data && (
+              <>
+                {/* Who is signed in, at the end of the line (on a phone, a sideways scroll away). */}
+                <span className="ml-auto shrink-0 px-2 text-sm">{`${me.data.user.name} · ${me.data.role} · ${me.data.team.name}`}</span>
+                <button
+                  type="button"
+                  className="min-h-touch shrink-0 rounded-lg border-2 border-paper px-3 font-bold"
+                  onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+                >
+                  Sign out
+                </button>
+              </>
+            )}
           </nav>
-          <span className="ml-auto text-sm">
-            {me.data && `${me.data.user.name} · ${me.data.role} · ${me.data.team.name}`}
-          </span>
-          {me.data && (
-            <button
-              type="button"
-              className="min-h-touch rounded-lg border-2 border-paper px-3 font-bold"
-              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
-            >
-              Sign out
-            </button>
-          )}
         </div>
       </header>
       {role && role !== 'viewer' ? (

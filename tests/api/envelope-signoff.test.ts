@@ -7,6 +7,7 @@ import { contentHash } from '../../server/services/envelope-hash';
 import { EnvelopeModel } from '../../server/models';
 import { DEFAULT_DRAFT_PARAMS } from '../../shared/schemas/envelope';
 import { computeDeskEnvelope } from '../../shared/desk-envelope';
+import { ENVELOPE_MEASURES } from '../../shared/flex';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -53,10 +54,12 @@ describe('sign-off', () => {
     // The same shared computation on the session as the API returns it gives the same envelope.
     const detail = (await engineer.get(`/api/sessions/${s.sessionId}`)).body;
     const expected = computeDeskEnvelope(detail, params);
-    for (const axis of ['foreAft', 'lateral', 'vertical'] as const) {
-      expect(signed.snapshot.result.axes[axis].envelopeMm).toBe(expected.result.axes[axis].envelopeMm);
-      expect(signed.snapshot.result.axes[axis].upperBoundMm).toBeCloseTo(expected.result.axes[axis].upperBoundMm!, 9);
+    for (const measure of ENVELOPE_MEASURES) {
+      expect(signed.snapshot.result.measures[measure].envelopeMm).toBe(expected.result.measures[measure].envelopeMm);
+      expect(signed.snapshot.result.measures[measure].upperBoundMm).toBeCloseTo(expected.result.measures[measure].upperBoundMm!, 9);
     }
+    expect(signed.snapshot.format).toBe(2);
+    expect(signed.snapshot.acknowledgedFlags).toEqual([]);
     expect(signed.contentHash).toBe(contentHash(signed.snapshot));
   });
 
@@ -80,10 +83,65 @@ describe('sign-off', () => {
 
     // Tampering with the stored snapshot is detected.
     const row = await EnvelopeModel.findByPk(d.id);
-    const tampered = structuredClone(row!.snapshot) as { result: { axes: { lateral: { envelopeMm: number } } } };
-    tampered.result.axes.lateral.envelopeMm += 5;
+    const tampered = structuredClone(row!.snapshot) as { result: { measures: { lateral: { envelopeMm: number } } } };
+    tampered.result.measures.lateral.envelopeMm += 5;
     await EnvelopeModel.update({ snapshot: tampered }, { where: { id: d.id } });
     expect((await engineer.get(`/api/envelopes/${d.id}`)).body.hashVerifies).toBe(false);
+  });
+
+  it('asks the engineer to acknowledge each flagged reading kept in, and freezes the acknowledgements', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    // Two misreads, 18 mm and 25 mm off what the other readings explain.
+    const misreads = [s.readingIds.get('2:P03:lateral')!, s.readingIds.get('4:P01:foreAft')!];
+    const review = (await engineer.get(`/api/sessions/${s.sessionId}/review`)).body;
+    for (const [i, id] of misreads.entries()) {
+      const value = review.readings.find((r: { id: string }) => r.id === id).valueMm;
+      await engineer.patch(`/api/readings/${id}/review`).send({ version: 1, valueMm: value + (i === 0 ? 18 : -25) }).expect(200);
+    }
+    const d = await draft(engineer, s.sessionId);
+
+    const none = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });
+    expect(none.status).toBe(400);
+    expect(none.body.error.message).toMatch(/^2 flagged reading\(s\) are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 foreAft/);
+    expect(none.body.error.fields.map((f: { field: string }) => f.field).sort()).toEqual(misreads.map((id) => `acknowledgements.${id}`).sort());
+    const one = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }] });
+    expect(one.status).toBe(400);
+    expect(one.body.error.fields.map((f: { field: string }) => f.field)).toEqual([`acknowledgements.${misreads[1]}`]);
+    expect((await EnvelopeModel.findByPk(d.id))?.status).toBe('draft');
+
+    const signed = await engineer
+      .post(`/api/envelopes/${d.id}/sign`)
+      .send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }, { readingId: misreads[1] }] });
+    expect(signed.status).toBe(200);
+    expect(signed.body.hashVerifies).toBe(true);
+    expect(signed.body.snapshot.acknowledgedFlags).toEqual([
+      expect.objectContaining({ readingId: misreads[0], poseLabel: 'Diagonal 2', pointLabel: 'P03', axis: 'lateral', kind: 'outlier', note: 'tape checked' }),
+      expect.objectContaining({ readingId: misreads[1], poseLabel: 'Diagonal 4', pointLabel: 'P01', axis: 'foreAft', kind: 'outlier', note: '' }),
+    ]);
+    expect(signed.body.contentHash).toBe(contentHash(signed.body.snapshot));
+    // The acknowledgement is part of what the hash covers: changing it is detected.
+    const row = await EnvelopeModel.findByPk(d.id);
+    const tampered = structuredClone(row!.snapshot) as { acknowledgedFlags: { note: string }[] };
+    tampered.acknowledgedFlags[1].note = 'never looked';
+    await EnvelopeModel.update({ snapshot: tampered }, { where: { id: d.id } });
+    expect((await engineer.get(`/api/envelopes/${d.id}`)).body.hashVerifies).toBe(false);
+  });
+
+  it('needs no acknowledgement once the flagged reading is excluded', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const misread = s.readingIds.get('3:P04:vertical')!;
+    const value = (await engineer.get(`/api/sessions/${s.sessionId}/review`)).body.readings.find((r: { id: string }) => r.id === misread).valueMm;
+    await engineer.patch(`/api/readings/${misread}/review`).send({ version: 1, valueMm: value + 30 }).expect(200);
+    await engineer.patch(`/api/readings/${misread}/review`).send({ version: 2, excluded: true, excludeReason: 'misread, 30 mm out' }).expect(200);
+    const d = await draft(engineer, s.sessionId);
+    const signed = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });
+    expect(signed.status).toBe(200);
+    expect(signed.body.snapshot.acknowledgedFlags).toEqual([]);
+    expect(signed.body.snapshot.excludedReadings).toEqual([{ id: misread, reason: 'misread, 30 mm out' }]);
   });
 
   it('refuses a stale draft edit and freezes parameters once signed', async () => {

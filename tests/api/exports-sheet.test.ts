@@ -9,8 +9,8 @@ import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer
 import { createDeskSession } from '../support/desk';
 import { waitForMail } from '../support/mail';
 import { DEFAULT_DRAFT_PARAMS, type EnvelopeRecord } from '../../shared/schemas/envelope';
-import { AXES } from '../../shared/flex';
-import { AXIS_NAMES, formatLengthValue, formatRatio } from '../../shared/format';
+import { envelopeRows } from '../../shared/envelope-rows';
+import { formatLengthValue, formatRatio } from '../../shared/format';
 import { EnvelopeSendModel } from '../../server/models';
 
 let ts: TestServer;
@@ -27,8 +27,17 @@ async function signedEnvelope(): Promise<{ agent: Agent; envelope: EnvelopeRecor
   const agent = await signedInAgent(ts, team.members.engineer.email);
   await agent.patch(`/api/readings/${s.readingIds.get('2:P03:vertical')}/review`).send({ version: 1, flagNote: 'read twice, "same", value' }).expect(200);
   await agent.patch(`/api/readings/${s.readingIds.get('4:P05:lateral')}/review`).send({ version: 1, excluded: true, excludeReason: '=tape slipped, redo' }).expect(200);
+  // A reading 20 mm off what the others explain, kept in the computation and acknowledged at sign-off.
+  const kept = s.readingIds.get('5:P02:vertical')!;
+  const value = (await agent.get(`/api/sessions/${s.sessionId}/review`)).body.readings.find((r: { id: string }) => r.id === kept).valueMm;
+  await agent.patch(`/api/readings/${kept}/review`).send({ version: 1, valueMm: value + 20 }).expect(200);
   const draft = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params }).expect(201)).body;
-  const envelope = (await agent.post(`/api/envelopes/${draft.id}/sign`).send({ version: draft.version }).expect(200)).body;
+  const envelope = (
+    await agent
+      .post(`/api/envelopes/${draft.id}/sign`)
+      .send({ version: draft.version, acknowledgements: [{ readingId: kept, note: 'Re-read on site: same value' }] })
+      .expect(200)
+  ).body;
   return { agent, envelope, sessionId: s.sessionId, team };
 }
 
@@ -57,11 +66,13 @@ describe('fabrication sheet', () => {
       expect(res.headers['content-type']).toMatch(/application\/pdf/);
       const text = await pdfText(res.body as Buffer);
       const s = envelope.snapshot!;
-      for (const axis of AXES) {
-        const row = `${AXIS_NAMES[axis]} ${formatLengthValue(Math.abs(s.result.axes[axis].measuredWorstMm), unit)}`;
-        expect(text).toContain(row);
-        expect(text).toContain(`±${formatLengthValue(s.result.axes[axis].envelopeMm, unit)}`);
+      for (const r of envelopeRows(s.result)) {
+        expect(text).toContain(`${r.name} ${formatLengthValue(r.measuredWorstMm, unit)}`);
+        expect(text).toContain(`${r.sign}${formatLengthValue(r.envelopeMm, unit)}`);
       }
+      // The flagged reading kept in the computation, with the engineer's acknowledgement.
+      expect(text).toContain('Flagged readings kept in the computation');
+      expect(text).toMatch(/Diagonal 5 P02 vertical .* acknowledged: Re-read on site: same value/);
       expect(text).toContain(formatRatio(s.boot!.left.extensionRatio));
       expect(text).toContain(formatLengthValue(s.boot!.top.gapMaxMm, unit));
       expect(text).toContain(envelope.contentHash!);
@@ -113,15 +124,19 @@ describe('CSV exports', () => {
     expect(res.status).toBe(200);
     const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
     const s = envelope.snapshot!;
-    for (const axis of AXES) {
-      const row = rows.find((r) => r.kind === 'axis' && r.name === AXIS_NAMES[axis])!;
-      expect(row.envelope_mm).toBe(formatLengthValue(s.result.axes[axis].envelopeMm, 'mm'));
-      expect(row.measured_worst_mm).toBe(formatLengthValue(Math.abs(s.result.axes[axis].measuredWorstMm), 'mm'));
+    for (const r of envelopeRows(s.result)) {
+      const row = rows.find((x) => x.kind === 'envelope' && x.name === r.name)!;
+      expect(row.sign).toBe({ '+': 'opens (+)', '−': 'closes (−)', '±': 'either way (±)' }[r.sign]);
+      expect(row.envelope_mm).toBe(formatLengthValue(r.envelopeMm, 'mm'));
+      expect(row.measured_worst_mm).toBe(formatLengthValue(r.measuredWorstMm, 'mm'));
       expect(row.content_hash).toBe(envelope.contentHash);
     }
     const left = rows.find((r) => r.kind === 'side' && r.name.startsWith('left'))!;
     expect(left.largest_shear_mm).toBe(formatLengthValue(s.boot!.left.largestShearMm, 'mm'));
-    expect(rows).toHaveLength(7);
+    const acknowledged = rows.filter((r) => r.kind === 'acknowledged flag');
+    expect(acknowledged.map((r) => r.name)).toEqual(['Diagonal 5 P02 vertical']);
+    expect(acknowledged[0].note).toMatch(/^entered .* mm, .* mm off the fit; Re-read on site: same value$/);
+    expect(rows).toHaveLength(4 + 4 + 1);
   });
 });
 
@@ -143,7 +158,8 @@ describe('sending the sheet', () => {
     const pdf = await agent.get(`/api/envelopes/${envelope.id}/sheet.pdf`).buffer(true).parse(binary);
     expect(mail.attachments[0].size).toBe((pdf.body as Buffer).length);
     expect(mail.text).toContain('Two boots please');
-    expect(mail.text).toContain(`lateral: ±${formatLengthValue(envelope.snapshot!.result.axes.lateral.envelopeMm, 'mm')} mm`);
+    const lateral = envelopeRows(envelope.snapshot!.result).find((r) => r.key === 'lateral')!;
+    expect(mail.text).toContain(`lateral: ±${formatLengthValue(lateral.envelopeMm, 'mm')} mm`);
     expect(mail.text).toContain('not a structural or road-legality approval');
 
     const logged = await EnvelopeSendModel.findAll({ where: { envelopeId: envelope.id } });

@@ -144,6 +144,7 @@ function changeOf(entity: SyncEntity, field: string, r: Record<string, unknown>,
       liftRrMm: () => ({ liftRrMm: more(r.liftRrMm) }),
       rampAngleDeg: () => ({ rampAngleDeg: r.rampAngleDeg === 20 ? 15 : 20 }),
       rampDistanceMm: () => ({ rampDistanceMm: r.rampDistanceMm === 500 ? 600 : 500 }),
+      rampWheel: () => ({ rampWheel: r.rampWheel === 'fl' ? 'fr' : 'fl' }),
       recordedAt: () => ({ recordedAt: later() }),
     },
     reading: {

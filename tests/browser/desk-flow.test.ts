@@ -1,6 +1,7 @@
 // The engineer's desk in a real browser on the demo data: review a session (exclude a reading with a
-// reason), re-open and sign off its envelope, check the numbers on screen against the PDF and the
-// CSV, send the sheet to a fabricator, and compare the two demo vehicles.
+// reason), re-open and sign off its envelope — acknowledging the flagged reading it keeps — check the
+// numbers on screen against the PDF and the CSV, send the sheet to a fabricator, and compare the
+// two demo vehicles.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import path from 'node:path';
 import Papa from 'papaparse';
@@ -23,7 +24,7 @@ afterAll(async () => {
   await ts?.close();
 });
 
-const AXES = ['foreAft', 'lateral', 'vertical'] as const;
+const MEASURES = ['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical'] as const;
 
 describe('the engineer desk', () => {
   it('goes from review to sign-off to a sent sheet, with the same numbers on screen, in the PDF and in the CSV', async () => {
@@ -48,6 +49,7 @@ describe('the engineer desk', () => {
     await editor.getByRole('button', { name: 'Save review' }).click();
     await editor.waitFor({ state: 'detached' });
     await page.getByText(/1 reading\(s\) excluded/).waitFor();
+    await page.getByRole('region', { name: 'Remarks on the readings and the fit' }).getByText(/Ramp 20°, FL up .*: reading at D \(vertical\) is far from the fit/).waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'desk-review.png') });
     await page.getByRole('button', { name: 'History' }).click();
     await page.getByText(/excluded a reading .*Dial gauge touched by the spotter/).waitFor();
@@ -70,13 +72,20 @@ describe('the engineer desk', () => {
     await twist.fill('3x');
     await page.getByRole('alert').filter({ hasText: 'Design twist: enter a number' }).waitFor();
     await twist.fill('26');
-    await page.getByRole('button', { name: 'Sign off revision 2' }).click();
+    // The flagged ramp reading stays in: sign-off waits until the engineer acknowledges it.
+    const signButton = page.getByRole('button', { name: 'Sign off revision 2' });
+    await page.getByText('1 flagged reading(s) still to acknowledge or exclude before signing off.').waitFor();
+    expect(await signButton.isDisabled()).toBe(true);
+    await page.getByRole('checkbox', { name: /Keep Ramp 20°, FL up D vertical/ }).check();
+    await page.getByLabel('Note on keeping Ramp 20°, FL up D vertical').fill('Crew re-read it after re-seating the gauge');
+    await signButton.click();
     await page.waitForURL('**/desk/envelopes/*');
     await page.getByText('The stored snapshot matches its hash.').waitFor();
     const envelopeId = page.url().split('/').pop()!;
     const screen: Record<string, string> = {};
-    for (const axis of AXES) screen[axis] = (await page.getByTestId(`envelope-${axis}`).textContent())!.replace('±', '');
-    expect(screen.lateral).not.toBe(before?.replace('±', ''));
+    for (const measure of MEASURES) screen[measure] = (await page.getByTestId(`envelope-${measure}`).textContent())!;
+    expect(screen.lateral).not.toBe(before);
+    await page.getByRole('list', { name: 'Acknowledged flagged readings' }).getByText(/Ramp 20°, FL up · point D · vertical: .* acknowledged: Crew re-read it after re-seating the gauge/).waitFor();
 
     // The PDF and the CSV carry the numbers shown on screen.
     const pdf = await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf?unit=mm`);
@@ -84,12 +93,13 @@ describe('the engineer desk', () => {
     const parser = new PDFParse({ data: new Uint8Array(await pdf.body()) });
     const text = (await parser.getText()).text.replace(/\s+/g, ' ');
     await parser.destroy();
-    for (const axis of AXES) expect(text).toContain(`±${screen[axis]}`);
+    for (const measure of MEASURES) expect(text).toContain(screen[measure]);
     expect(text).toContain('Design twist 26.0°');
+    expect(text).toMatch(/Flagged readings kept in the computation.*Ramp 20°, FL up D vertical .* acknowledged: Crew re-read it after re-seating the gauge/);
     expect(text).toContain('Mara Venn');
     const csv = await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}/envelope.csv?unit=mm`);
     const rows = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true }).data;
-    expect(rows.filter((r) => r.kind === 'axis').map((r) => r.envelope_mm)).toEqual(AXES.map((a) => screen[a]));
+    expect(rows.filter((r) => r.kind === 'envelope').map((r) => r.envelope_mm)).toEqual(MEASURES.map((m) => screen[m].replace(/^[+−±]/, '')));
 
     // Send the sheet to a fabricator: it reaches the mail sink with the PDF attached and is logged.
     await page.getByLabel("Fabricator's e-mail").fill('stitch@fernbootworks.test');

@@ -25,8 +25,9 @@ async function main() {
   for (const r of flex.rows) {
     rows.push({
       section: 'envelope computation',
-      measure: `${r.poses} poses × ${r.gaugePoints} points × 3 axes (${r.readings} readings)`,
-      value: `${r.ms.toFixed(0)} ms (${r.usPerReading.toFixed(2)} µs/reading)`,
+      measure: `${r.label}, ${r.poses} poses × ${r.gaugePoints} points × 3 axes (${r.readings} readings)`,
+      value: `median ${r.medianMs.toFixed(2)} ms over ${r.runs} warm runs (${r.minMs.toFixed(2)}–${r.maxMs.toFixed(2)}); first, cold run ${r.coldMs.toFixed(1)} ms`,
+      goal: r.goalMs === null ? undefined : `≤ ${r.goalMs} ms`,
     });
   }
 

@@ -6,6 +6,7 @@ import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/sc
 import { fieldDb } from './field-db';
 import { checkRows } from './records';
 import { getMeta, type MetaValues } from './meta';
+import { localWrites, useLocalWrites } from './writes-in-flight';
 
 const live = <T extends { deletedAt?: string | null }>(rows: T[]) => rows.filter((r) => !r.deletedAt);
 
@@ -26,15 +27,37 @@ export function useLocalVehicle(id: string | undefined) {
   }, [id]);
 }
 
+/**
+ * The sessions on this phone, newest first, each with how many poses it has and how many of its
+ * records (the session, its poses and readings) and photos still wait to be sent.
+ */
 export function useLocalSessions() {
   return useLiveQuery(async () => {
     const checked = checkRows<TestSession>('testSession', await fieldDb.sessions.toArray());
     const vehicles = new Map((await fieldDb.vehicles.toArray()).map((v) => [v.id, v.name]));
-    const pending = new Set((await fieldDb.outbox.where('entity').equals('testSession').toArray()).map((e) => e.recordId));
+    const allPoses = await fieldDb.poses.toArray();
+    const poses = live(allPoses);
+    const sessionOfPose = new Map(allPoses.map((p) => [p.id, p.sessionId]));
+    const waiting = new Set((await fieldDb.outbox.toArray()).map((e) => `${e.entity}:${e.recordId}`));
+    const waitingReadings = await fieldDb.readings.bulkGet([...waiting].filter((k) => k.startsWith('reading:')).map((k) => k.slice('reading:'.length)));
+    const unsent = new Map<string, number>();
+    const count = (sessionId: string | undefined) => sessionId && unsent.set(sessionId, (unsent.get(sessionId) ?? 0) + 1);
+    for (const key of waiting) {
+      const [entity, id] = key.split(':');
+      if (entity === 'testSession') count(id);
+      else if (entity === 'pose') count(sessionOfPose.get(id));
+    }
+    for (const r of waitingReadings) if (r) count(sessionOfPose.get(r.poseId));
+    for (const p of await fieldDb.photos.where('status').equals('pending').toArray()) count(p.sessionId);
     return {
       sessions: live(checked.records)
         .sort((a, b) => b.testedOn.localeCompare(a.testedOn))
-        .map((s) => ({ ...s, vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)', pending: pending.has(s.id) })),
+        .map((s) => ({
+          ...s,
+          vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)',
+          poseCount: poses.filter((p) => p.sessionId === s.id).length,
+          unsent: unsent.get(s.id) ?? 0,
+        })),
       corrupt: checked.corrupt,
     };
   });
@@ -75,16 +98,40 @@ export function useSessionPhotos(sessionId: string | undefined) {
   return useLiveQuery(async () => (sessionId ? fieldDb.photos.where('sessionId').equals(sessionId).toArray() : []), [sessionId]);
 }
 
-export function usePendingCounts() {
-  return useLiveQuery(async () => {
+export interface PendingCounts {
+  /** Records with a change the server does not have yet: waiting, in flight or held back. */
+  records: number;
+  held: number;
+  photos: number;
+  failedPhotos: number;
+  conflicts: number;
+  /** When the batch that is backing off goes again. */
+  retryAt: string | null;
+  /** How many local writes had settled when these were read: all of them are counted here. */
+  settledAtRead: number;
+}
+
+/** What waits to reach the server; read again after every local write settles. */
+export function usePendingCounts(): PendingCounts | undefined {
+  const { settled } = useLocalWrites();
+  return useLiveQuery(async (): Promise<PendingCounts> => {
+    const settledAtRead = localWrites().settled;
     const entries = await fieldDb.outbox.toArray();
+    const batch = await fieldDb.batches.toCollection().first();
     return {
       records: new Set(entries.map((e) => `${e.entity}:${e.recordId}`)).size,
+      held: new Set(entries.filter((e) => e.held).map((e) => `${e.entity}:${e.recordId}`)).size,
       photos: await fieldDb.photos.where('status').equals('pending').count(),
       failedPhotos: await fieldDb.photos.where('status').equals('failed').count(),
       conflicts: (await fieldDb.conflicts.toArray()).filter((c) => !c.resolvedAt).length,
+      retryAt: batch?.retryAt ?? null,
+      settledAtRead,
     };
-  });
+  }, [settled]);
+}
+
+export function useRefusedPhotos() {
+  return useLiveQuery(() => fieldDb.photos.where('status').equals('failed').toArray());
 }
 
 export function useOpenConflicts() {

@@ -75,6 +75,16 @@ function SessionDesk({ review }: { review: SessionReview }) {
         <div className="space-y-3">
           {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
           <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
+          {fit.result && fit.result.readingNotes.length > 0 && (
+            <section className="card" aria-label="Remarks on the readings and the fit">
+              <h2 className="font-bold">Remarks on the readings and the fit</h2>
+              <ul className="list-disc pl-6 text-sm">
+                {fit.result.readingNotes.map((n) => (
+                  <li key={n}>{n}</li>
+                ))}
+              </ul>
+            </section>
+          )}
           <p className="flex flex-wrap gap-2">
             <a className="btn" href={`/api/sessions/${review.session.id}/readings.csv?unit=${unit}`} download>
               Readings (CSV)

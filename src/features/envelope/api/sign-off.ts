@@ -1,15 +1,18 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { EnvelopeRecord } from '@shared/schemas/envelope';
+import type { EnvelopeRecord, SignOffInput } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
 import { envelopeKeys } from './get-envelopes';
 
-/** The server computes and freezes the snapshot from its own copy of the readings. */
-export const signOff = (id: string, version: number) => api<EnvelopeRecord>(`/api/envelopes/${id}/sign`, { method: 'POST', body: { version } });
+/**
+ * The server computes and freezes the snapshot from its own copy of the readings; every reading it
+ * flags that stays in the computation must be in `acknowledgements`.
+ */
+export const signOff = (id: string, input: SignOffInput) => api<EnvelopeRecord>(`/api/envelopes/${id}/sign`, { method: 'POST', body: input });
 
 export function useSignOff() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, version }: { id: string; version: number }) => signOff(id, version),
+    mutationFn: ({ id, ...input }: SignOffInput & { id: string }) => signOff(id, input),
     onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeKeys.all }),
   });
 }

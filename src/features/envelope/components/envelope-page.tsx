@@ -55,12 +55,13 @@ export function EnvelopePage() {
                     <p className="rounded-lg bg-alert-light p-2 text-alert" role="alert">The stored snapshot does NOT match its hash: do not use this sheet.</p>
                   )}
                   <p className="text-sm">
-                    Design twist {formatDeg(s.params.designTwistDeg)} · {s.params.method === 'prediction' ? 'prediction' : 'tolerance'} bound at{' '}
+                    Design twist {formatDeg(s.params.designTwistDeg)} ·{' '}
+                    {s.params.method === 'prediction' ? 'prediction bound per twist direction' : `tolerance bound, runs within ±${formatDeg(s.params.repeatBandDeg ?? 1)}`} at{' '}
                     {formatPercent(s.params.confidence)} · margin {formatPercent(s.params.margin)} · allowance {formatLength(s.params.allowanceMm, unit)} · increment{' '}
                     {formatLength(s.params.incrementMm, unit)} · {s.readings.length} readings used, {s.excludedReadings.length} excluded
                   </p>
                 </section>
-                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} />
+                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} acknowledgedFlags={s.format === 2 ? s.acknowledgedFlags : []} />
                 <p className="flex flex-wrap gap-2">
                   <a className="btn" href={`/api/envelopes/${e.id}/sheet.pdf?unit=${unit}`} download>
                     Fabrication sheet (PDF)

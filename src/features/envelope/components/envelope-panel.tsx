@@ -1,9 +1,9 @@
 import { lazy, Suspense, useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import type { DeskSessionData } from '@shared/desk-envelope';
+import { deskFlags, type DeskFlag, type DeskSessionData } from '@shared/desk-envelope';
 import type { UnitSystem } from '@shared/schemas/common';
 import type { EnvelopeRecord } from '@shared/schemas/envelope';
-import { formatTimestamp } from '@shared/format';
+import { AXIS_NAMES, formatLength, formatTimestamp } from '@shared/format';
 import { QueryState } from '@/components/query-state';
 import { useSessionEnvelopes } from '../api/get-envelopes';
 import { useCreateDraft } from '../api/create-draft';
@@ -97,11 +97,15 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
   const navigate = useNavigate();
   const dirty = params !== null && JSON.stringify(params) !== JSON.stringify(draft.params);
   const failure = save.error ?? sign.error;
+  const flags = envelope ? deskFlags(data, envelope.result) : [];
+  const [kept, setKept] = useState<Record<string, { checked: boolean; note: string }>>({});
+  const unacknowledged = flags.filter((f) => !kept[f.readingId]?.checked).length;
 
   const signOff = async () => {
     // The server signs the parameters it holds: save what is on screen first.
     const version = dirty && params ? (await save.mutateAsync({ id: draft.id, version: draft.version, params })).version : draft.version;
-    const signed = await sign.mutateAsync({ id: draft.id, version });
+    const acknowledgements = flags.map((f) => ({ readingId: f.readingId, note: kept[f.readingId]?.note ?? '' }));
+    const signed = await sign.mutateAsync({ id: draft.id, version, acknowledgements });
     navigate(`/desk/envelopes/${signed.id}`);
   };
 
@@ -129,6 +133,9 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
           </Suspense>
         </>
       )}
+      {canSign && flags.length > 0 && (
+        <FlagAcknowledgements flags={flags} kept={kept} unit={unit} onChange={setKept} />
+      )}
       <div className="flex flex-wrap gap-2">
         {canDesign && (
           <button type="button" className="btn" disabled={!dirty || save.isPending} onClick={() => params && save.mutate({ id: draft.id, version: draft.version, params })}>
@@ -136,11 +143,21 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
           </button>
         )}
         {canSign && (
-          <button type="button" className="btn-primary" disabled={!params || !envelope || save.isPending || sign.isPending} onClick={() => void signOff().catch(() => undefined)}>
+          <button
+            type="button"
+            className="btn-primary"
+            disabled={!params || !envelope || unacknowledged > 0 || save.isPending || sign.isPending}
+            onClick={() => void signOff().catch(() => undefined)}
+          >
             Sign off revision {draft.revision}
           </button>
         )}
       </div>
+      {canSign && unacknowledged > 0 && (
+        <p className="text-sm font-bold">
+          {unacknowledged} flagged reading(s) still to acknowledge or exclude before signing off.
+        </p>
+      )}
       {canSign && <p className="text-sm">Signing freezes the parameters and the readings as they are on the server now; later edits never change a signed revision.</p>}
       {failure && (
         <p role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
@@ -148,5 +165,55 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
         </p>
       )}
     </section>
+  );
+}
+
+/**
+ * The readings the outlier rule flags that are still in the computation: the engineer either
+ * excludes one (in the readings table) or ticks it to say it was checked and stays, with a note.
+ */
+function FlagAcknowledgements({
+  flags,
+  kept,
+  unit,
+  onChange,
+}: {
+  flags: DeskFlag[];
+  kept: Record<string, { checked: boolean; note: string }>;
+  unit: UnitSystem;
+  onChange: (next: Record<string, { checked: boolean; note: string }>) => void;
+}) {
+  const set = (readingId: string, change: Partial<{ checked: boolean; note: string }>) =>
+    onChange({ ...kept, [readingId]: { checked: kept[readingId]?.checked ?? false, note: kept[readingId]?.note ?? '', ...change } });
+  return (
+    <fieldset className="card space-y-2 border-signal">
+      <legend className="px-1 font-bold">Flagged readings still in the computation</legend>
+      <p className="text-sm">
+        The outlier rule finds these readings far from what the others explain. If one is a misread, exclude it in the readings table; to keep it, tick it to
+        say you have checked it. Each one you keep is printed on the fabrication sheet.
+      </p>
+      {flags.map((f) => {
+        const name = `${f.poseLabel} ${f.pointLabel} ${AXIS_NAMES[f.flag.axis]}`;
+        return (
+          <div key={f.readingId} className="flex flex-wrap items-center gap-3">
+            <label className="flex min-h-touch items-center gap-3">
+              <input type="checkbox" className="h-6 w-6" checked={kept[f.readingId]?.checked ?? false} onChange={(e) => set(f.readingId, { checked: e.target.checked })} />
+              <span>
+                Keep <b>{name}</b>: entered {formatLength(f.enteredMm, unit)}, {formatLength(f.flag.residualMm, unit)} off the fit
+                {f.flag.kind === 'misfit' ? ' (one of a set that does not fit; too few readings to tell which is off)' : ''}
+              </span>
+            </label>
+            <input
+              className="input max-w-md"
+              aria-label={`Note on keeping ${name}`}
+              placeholder="Note (optional)"
+              maxLength={500}
+              value={kept[f.readingId]?.note ?? ''}
+              onChange={(e) => set(f.readingId, { note: e.target.value })}
+            />
+          </div>
+        );
+      })}
+    </fieldset>
   );
 }

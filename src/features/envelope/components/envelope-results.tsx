@@ -1,28 +1,52 @@
 import type { BootSpanResult, EnvelopeResult } from '@shared/flex';
 import type { UnitSystem } from '@shared/schemas/common';
+import type { AcknowledgedFlag, LegacyEnvelopeResult } from '@shared/schemas/envelope';
 import { AXIS_NAMES, SIDE_NAMES, formatLengthValue, formatRatio } from '@shared/format';
+import { envelopeRemarks, envelopeRows } from '@shared/envelope-rows';
 
-const AXES = ['foreAft', 'lateral', 'vertical'] as const;
 const SIDES = ['top', 'bottom', 'left', 'right'] as const;
 
 interface Props {
-  result: EnvelopeResult;
+  result: EnvelopeResult | LegacyEnvelopeResult;
   boot: BootSpanResult | null;
   bootNote: string | null;
   unit: UnitSystem;
+  /** Signed revisions: the flagged readings the engineer kept and acknowledged. */
+  acknowledgedFlags?: AcknowledgedFlag[];
 }
 
-/** The envelope per axis with the term that governs and why, then the boot spans and seal check per side. */
-export function EnvelopeResults({ result, boot, bootNote, unit }: Props) {
+/** A list of remarks under a heading, or nothing when there are none. */
+function Remarks({ title, items }: { title: string; items: string[] }) {
+  if (items.length === 0) return null;
+  return (
+    <>
+      <h4 className="mt-2 font-bold">{title}</h4>
+      <ul className="list-disc pl-6 text-sm" aria-label={title}>
+        {items.map((n) => (
+          <li key={n}>{n}</li>
+        ))}
+      </ul>
+    </>
+  );
+}
+
+/**
+ * The envelope per measure (the fore-aft gap's opening and closing apart) with the term and twist
+ * direction that govern and why, the remarks on the readings and on the bound, the acknowledged
+ * flags of a signed revision, then the boot spans and seal check per side.
+ */
+export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlags = [] }: Props) {
+  const rows = envelopeRows(result);
+  const remarks = envelopeRemarks(result);
   return (
     <div className="space-y-4">
       {/* Focusable so a keyboard can scroll a table wider than a phone. */}
       <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Design envelope, scrollable">
         <table className="min-w-full border-collapse bg-white text-right" aria-label="Design envelope">
-          <caption className="p-2 text-left font-bold">Design envelope per axis ({unit})</caption>
+          <caption className="p-2 text-left font-bold">Design envelope ({unit}): fore-aft + opens, − closes; lateral and vertical ± either way</caption>
           <thead>
             <tr>
-              <th scope="col" className="border border-rule p-2 text-left">Axis</th>
+              <th scope="col" className="border border-rule p-2 text-left">Movement</th>
               <th scope="col" className="border border-rule p-2">Measured worst</th>
               <th scope="col" className="border border-rule p-2">Upper bound</th>
               <th scope="col" className="border border-rule p-2 text-left">Governs</th>
@@ -30,41 +54,46 @@ export function EnvelopeResults({ result, boot, bootNote, unit }: Props) {
             </tr>
           </thead>
           <tbody>
-            {AXES.map((axis) => {
-              const a = result.axes[axis];
-              return (
-                <tr key={axis} data-axis={axis}>
-                  <th scope="row" className="border border-rule p-2 text-left">{AXIS_NAMES[axis]}</th>
-                  <td className="border border-rule p-2 tabular-nums">{formatLengthValue(Math.abs(a.measuredWorstMm), unit)}</td>
-                  <td className="border border-rule p-2 tabular-nums">{a.upperBoundMm === null ? '—' : formatLengthValue(a.upperBoundMm, unit)}</td>
-                  <td className="border border-rule p-2 text-left">{a.governing === 'upperBound' ? 'upper bound' : 'measured'}</td>
-                  <td className="border border-rule p-2 text-lg font-bold tabular-nums" data-testid={`envelope-${axis}`}>±{formatLengthValue(a.envelopeMm, unit)}</td>
-                </tr>
-              );
-            })}
+            {rows.map((r) => (
+              <tr key={r.key} data-measure={r.key}>
+                <th scope="row" className="border border-rule p-2 text-left">{r.name}</th>
+                <td className="border border-rule p-2 tabular-nums">{formatLengthValue(r.measuredWorstMm, unit)}</td>
+                <td className="border border-rule p-2 tabular-nums">{r.upperBoundMm === null ? '—' : formatLengthValue(r.upperBoundMm, unit)}</td>
+                <td className="border border-rule p-2 text-left">{r.governs}</td>
+                <td className="border border-rule p-2 text-lg font-bold tabular-nums" data-testid={`envelope-${r.key}`}>
+                  {r.sign}
+                  {formatLengthValue(r.envelopeMm, unit)}
+                </td>
+              </tr>
+            ))}
           </tbody>
         </table>
       </div>
       <div>
         <h4 className="font-bold">Why these values</h4>
         <ul className="list-disc pl-6 text-sm">
-          {AXES.map((axis) => (
-            <li key={axis}>
-              <b>{AXIS_NAMES[axis]}</b>: {result.axes[axis].reasons.join(' ')}
+          {rows.map((r) => (
+            <li key={r.key}>
+              <b>{r.name}</b>: {r.reasons.join(' ')}
             </li>
           ))}
         </ul>
-        {result.notes.length > 0 && (
-          <>
-            <h4 className="mt-2 font-bold">Remarks</h4>
-            <ul className="list-disc pl-6 text-sm">
-              {result.notes.map((n) => (
-                <li key={n}>{n}</li>
-              ))}
-            </ul>
-          </>
-        )}
+        <Remarks title="Remarks on the readings and the fit" items={remarks.readings} />
+        <Remarks title="Remarks on the bound" items={remarks.bound} />
       </div>
+      {acknowledgedFlags.length > 0 && (
+        <div>
+          <h4 className="font-bold">Flagged readings kept in the computation</h4>
+          <ul className="list-disc pl-6 text-sm" aria-label="Acknowledged flagged readings">
+            {acknowledgedFlags.map((f) => (
+              <li key={f.readingId}>
+                {f.poseLabel} · point {f.pointLabel} · {AXIS_NAMES[f.axis]}: entered {formatLengthValue(f.enteredMm, unit)} {unit}, {formatLengthValue(f.residualMm, unit)} {unit} off the fit — acknowledged
+                {f.note ? `: ${f.note}` : ''}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
       {boot === null ? (
         <p>{bootNote}</p>
       ) : (

@@ -12,6 +12,7 @@ export interface ParamsFormState {
   allowance: string;
   increment: string;
   throughOrigin: boolean;
+  repeatBandDeg: string;
   sealOn: boolean;
   sealFreeHeight: string;
   sealMinPct: string;
@@ -31,6 +32,7 @@ export function toFormState(p: EnvelopeParams, unit: UnitSystem): ParamsFormStat
     allowance: show(toDisplay(p.allowanceMm, unit)),
     increment: show(toDisplay(p.incrementMm, unit)),
     throughOrigin: p.throughOrigin,
+    repeatBandDeg: show(p.repeatBandDeg),
     sealOn: p.seal !== null,
     sealFreeHeight: show(toDisplay(p.seal?.freeHeightMm ?? 0, unit)),
     sealMinPct: show(p.seal?.minCompressionPercent ?? 25),
@@ -45,6 +47,7 @@ const FIELD_LABELS: Record<string, string> = {
   margin: 'Margin',
   allowanceMm: 'Allowance',
   incrementMm: 'Fabrication increment',
+  repeatBandDeg: 'Repeat band',
   'seal.freeHeightMm': 'Seal free height',
   'seal.minCompressionPercent': 'Least compression',
   'seal.maxCompressionPercent': 'Most compression',
@@ -62,6 +65,7 @@ export function fromFormState(f: ParamsFormState, unit: UnitSystem): { params: E
     allowanceMm: fromDisplay(num(f.allowance), unit),
     incrementMm: fromDisplay(num(f.increment), unit),
     throughOrigin: f.throughOrigin,
+    repeatBandDeg: num(f.repeatBandDeg),
     seal: f.sealOn ? { freeHeightMm: fromDisplay(num(f.sealFreeHeight), unit), minCompressionPercent: num(f.sealMinPct), maxCompressionPercent: num(f.sealMaxPct) } : null,
   };
   const parsed = envelopeParams.safeParse(candidate);
@@ -109,7 +113,10 @@ export function ParamsForm({ form, unit, readOnly, onChange }: Props) {
       </label>
       <NumberField label="Confidence" suffix="%" value={form.confidencePct} readOnly={readOnly} onChange={set('confidencePct')} />
       {form.method === 'tolerance' ? (
-        <NumberField label="Coverage" suffix="%" value={form.coveragePct} readOnly={readOnly} onChange={set('coveragePct')} />
+        <>
+          <NumberField label="Coverage" suffix="%" value={form.coveragePct} readOnly={readOnly} onChange={set('coveragePct')} />
+          <NumberField label="Repeat band, runs within ±" suffix="°" value={form.repeatBandDeg} readOnly={readOnly} onChange={set('repeatBandDeg')} />
+        </>
       ) : (
         <label className="flex min-h-touch items-center gap-3 self-end">
           <input type="checkbox" className="h-6 w-6" checked={form.throughOrigin} onChange={(e) => set('throughOrigin')(e.target.checked)} />

@@ -4,6 +4,7 @@ import { rampTravelIndex, roundRti } from '@shared/flex/rti';
 import { computeDisplacements } from '@shared/flex/displacements';
 import { fitRelativeMotion } from '@shared/flex/relative-motion';
 import { formatLength } from '@shared/units';
+import { outlineOf } from '@shared/desk-envelope';
 
 const axisName = { foreAft: 'fore-aft', lateral: 'lateral', vertical: 'vertical' } as const;
 
@@ -27,15 +28,16 @@ export function checkPose(vehicle: Vehicle, session: TestSession, points: GaugeP
   if (session.readingMode === 'gap') {
     if (pose.kind === 'level') return { ...result, note: 'Level pose: these gaps are the baseline for the other poses.' };
     if (!baseline) return { ...result, note: 'No level pose yet: record the baseline gaps first.' };
-    const d = computeDisplacements(
-      baseline.map((r) => ({ pointId: r.gaugePointId, axis: r.axis, value: r.valueMm })),
-      own,
-    );
-    values = d.displacements;
-    if (!values.length) return { ...result, note: 'No baseline reading at these points and axes yet.' };
   }
   try {
-    const fit = fitRelativeMotion(points.map((p) => ({ id: p.id, y: p.yMm, z: p.zMm })), values);
+    if (session.readingMode === 'gap' && baseline) {
+      values = computeDisplacements(
+        baseline.map((r) => ({ pointId: r.gaugePointId, axis: r.axis, value: r.valueMm })),
+        own,
+      ).displacements;
+      if (!values.length) return { ...result, note: 'No baseline reading at these points and axes yet.' };
+    }
+    const fit = fitRelativeMotion(points.map((p) => ({ id: p.id, y: p.yMm, z: p.zMm })), values, outlineOf(vehicle.opening));
     for (const o of fit.outliers) result.suspect.add(`${o.pointId}|${o.axis}`);
     return { ...result, fit };
   } catch (err) {
@@ -63,6 +65,13 @@ export function PoseCheck({ check, points, unit }: { check: PoseCheckResult; poi
               {r}
             </p>
           ))}
+          {(['outOfPlane', 'inPlane'] as const)
+            .filter((part) => fit[part].misfit)
+            .map((part) => (
+              <p key={part} role="alert" className="rounded bg-signal/25 p-2 font-bold">
+                The {part === 'outOfPlane' ? 'fore-aft' : 'lateral and vertical'} readings do not agree with one another, and there are too few of them to tell which one is off. Re-read them if you can.
+              </p>
+            ))}
           {fit.outliers.map((o) => (
             <p key={`${o.pointId}${o.axis}`} role="alert" className="rounded bg-signal/25 p-2 font-bold">
               Check {label(o.pointId)} {axisName[o.axis]}: it looks inconsistent with the other readings ({formatLength(o.residual, unit)} off the fit). Re-read it if you can.

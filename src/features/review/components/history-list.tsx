@@ -34,6 +34,8 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
   } else if ('revision' in d) {
     parts.push(`revision ${String(d.revision)}`);
     if ('to' in d) parts.push(`to ${String(d.to)}`);
+    const kept = Array.isArray(d.acknowledgedReadings) ? (d.acknowledgedReadings as string[]) : [];
+    if (kept.length > 0) parts.push(`kept flagged ${kept.map((id) => labelOf(id) ?? 'reading').join(', ')}`);
   }
   return parts.join(' · ');
 }

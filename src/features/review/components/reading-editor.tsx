@@ -45,7 +45,10 @@ export function ReadingEditor({ review, readingId, flag, unit, onClose }: Props)
       </h3>
       <p className="text-sm">
         Entered by {review.people[reading.enteredBy] ?? 'unknown'} · version {reading.version}
-        {flag && ` · far from the fit: residual ${formatLength(flag.residualMm, unit)}${flag.modifiedZ !== null ? `, robust z ${flag.modifiedZ.toFixed(1)}` : ''}`}
+        {flag &&
+          (flag.kind === 'outlier'
+            ? ` · far from the fit: residual ${formatLength(flag.residualMm, unit)}, ${flag.score?.toFixed(1)} × its expected scatter`
+            : ` · one of a set of readings that do not fit one rigid motion (residual ${formatLength(flag.residualMm, unit)}); too few readings to tell which is off`)}
       </p>
       <label className="block">
         <span className="field-label">Note (flag)</span>

@@ -22,7 +22,7 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Pro
       <table className="min-w-full border-collapse bg-white text-right">
         <caption className="p-2 text-left">
           <span className="font-bold">Readings ({unit})</span> as entered ({review.session.readingMode === 'gap' ? 'raw gaps' : 'displacements'}).
-          <span className="ml-2 text-sm">⚑ far from the fit · ✎ note · struck through: excluded</span>
+          <span className="ml-2 text-sm">⚑ far from the fit, or in a set that does not fit together · ✎ note · struck through: excluded</span>
         </caption>
         <thead>
           <tr>
@@ -47,15 +47,16 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Pro
                     if (!r) return <td key={ai} className="border border-rule p-2">—</td>;
                     const flag = flags.get(r.id);
                     const label = `${pose.label} ${point.label} ${AXIS_NAMES[AXES[ai]]}`;
+                    const flagWords = flag ? (flag.kind === 'outlier' ? 'far from the fit' : 'in a set of readings that do not fit together') : '';
                     return (
                       <td key={ai} className={`border border-rule p-0 ${selectedId === r.id ? 'outline outline-3 outline-signal' : ''} ${flag ? 'bg-signal/25' : ''}`}>
                         <button
                           type="button"
                           className="block min-h-touch w-full px-2 text-right tabular-nums"
-                          aria-label={`Reading ${label}: ${formatLengthValue(r.valueMm, unit)}${flag ? ', far from the fit' : ''}${r.flagNote ? ', has a note' : ''}${r.excluded ? ', excluded' : ''}`}
+                          aria-label={`Reading ${label}: ${formatLengthValue(r.valueMm, unit)}${flag ? `, ${flagWords}` : ''}${r.flagNote ? ', has a note' : ''}${r.excluded ? ', excluded' : ''}`}
                           disabled={!onSelect}
                           onClick={() => onSelect?.(r.id)}
-                          title={[flag && `far from the fit (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`, r.flagNote, r.excluded && `excluded: ${r.excludeReason}`].filter(Boolean).join(' · ')}
+                          title={[flag && `${flagWords} (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`, r.flagNote, r.excluded && `excluded: ${r.excludeReason}`].filter(Boolean).join(' · ')}
                         >
                           <span className={r.excluded ? 'text-slate line-through' : ''}>{formatLengthValue(r.valueMm, unit)}</span>
                           {flag && <span className="ml-1 text-signal-dark" aria-hidden="true">⚑</span>}

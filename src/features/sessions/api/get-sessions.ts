@@ -8,7 +8,8 @@ export const sessionKeys = {
   detail: (id: string) => [...sessionKeys.all, 'detail', id] as const,
 };
 
-export type SessionSummary = TestSession & { vehicleName: string };
+/** A session as the server lists it: with its vehicle's name and its latest signed-off envelope revision. */
+export type SessionSummary = TestSession & { vehicleName: string; signed: { revision: number; signedAt: string } | null };
 export interface SessionDetail {
   session: TestSession;
   vehicle: Vehicle;

@@ -12,7 +12,8 @@ export const SAFETY_ITEMS = [
   'Nobody works under a vehicle held only by a jack.',
 ] as const;
 
-export function SafetyChecklist({ onAllTicked }: { onAllTicked: (all: boolean) => void }) {
+/** The checklist; `onLeftChange` hears how many items are still unticked (0 when all are). */
+export function SafetyChecklist({ onLeftChange }: { onLeftChange: (left: number) => void }) {
   const [ticked, setTicked] = useState<boolean[]>(SAFETY_ITEMS.map(() => false));
   return (
     <fieldset className="card space-y-2">
@@ -26,7 +27,7 @@ export function SafetyChecklist({ onAllTicked }: { onAllTicked: (all: boolean) =
             onChange={(e) => {
               const next = ticked.map((t, k) => (k === i ? e.target.checked : t));
               setTicked(next);
-              onAllTicked(next.every(Boolean));
+              onLeftChange(next.filter((t) => !t).length);
             }}
           />
           <span>{item}</span>
@@ -36,3 +37,5 @@ export function SafetyChecklist({ onAllTicked }: { onAllTicked: (all: boolean) =
     </fieldset>
   );
 }
+
+export const safetyItemsLeft = (left: number) => `${left} safety item${left === 1 ? '' : 's'} left`;

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { useSessions } from '../api/get-sessions';
 
-/** Field: the team's test sessions, newest first. */
+/** The team's test sessions, newest first, with the latest signed-off revision of each. */
 export function SessionListPage({ base = '/field' }: { base?: string }) {
   const sessions = useSessions();
   return (
@@ -20,6 +20,7 @@ export function SessionListPage({ base = '/field' }: { base?: string }) {
                     <span className="text-lg font-bold">{s.vehicleName}</span>
                     <span>
                       {s.testedOn} · {s.title || 'Flex test'}
+                      {s.signed && <span className="ml-2 rounded bg-good-light px-1 text-sm font-bold text-good">signed off, revision {s.signed.revision}</span>}
                     </span>
                   </Link>
                 </li>

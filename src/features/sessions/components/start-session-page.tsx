@@ -4,39 +4,49 @@ import type { TestSession } from '@shared/schemas';
 import { useLocalVehicles } from '@/lib/db/live';
 import { saveRecord, type ItemResult } from '@/lib/db/records';
 import { SaveProblems } from '@/features/field/components/save-problems';
-import { SafetyChecklist } from './safety-checklist';
+import { SAFETY_ITEMS, SafetyChecklist, safetyItemsLeft } from './safety-checklist';
+import { SessionFields, type SessionDetails } from './session-fields';
 
-const today = () => new Date().toISOString().slice(0, 10);
+/** Today on the phone's own calendar (toISOString would give the UTC date, a day off near midnight). */
+const localToday = () => {
+  const d = new Date();
+  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
+};
+
+type Draft = SessionDetails & Pick<TestSession, 'vehicleId' | 'readingMode'>;
 
 /** Start a session: vehicle, date, conditions, load, tyres, crew; the checklist before anything else. */
 export function StartSessionPage() {
   const vehicles = useLocalVehicles();
   const navigate = useNavigate();
-  const [form, setForm] = useState({ vehicleId: '', title: '', testedOn: today(), conditions: '', loadState: '', tyrePressures: '', crew: '', readingMode: 'gap' as TestSession['readingMode'] });
-  const [safe, setSafe] = useState(false);
+  const [form, setForm] = useState<Draft>(() => ({ vehicleId: '', title: '', testedOn: localToday(), conditions: '', loadState: '', tyrePressures: '', crew: '', notes: '', readingMode: 'gap' }));
+  const [left, setLeft] = useState<number>(SAFETY_ITEMS.length);
   const [problems, setProblems] = useState<ItemResult[]>([]);
-  const set = (k: keyof typeof form) => (e: { target: { value: string } }) => setForm({ ...form, [k]: e.target.value });
+  // Always build on the latest draft: a handler from an earlier render must not put back a field
+  // (the vehicle) that a later change already set.
+  const update = (patch: Partial<Draft>) => setForm((f) => ({ ...f, ...patch }));
 
-  const start = async () => {
-    const session: TestSession = { id: crypto.randomUUID(), version: 1, ...form, notes: '', safetyAckAt: new Date().toISOString() };
-    const result = await saveRecord('testSession', session);
-    if (result.ok) navigate(`/field/sessions/${session.id}`, { replace: true });
-    else setProblems([result]);
-  };
-
-  if (vehicles && vehicles.vehicles.length === 0) {
+  // Nothing is drawn until the phone knows its vehicles: a form shown before that would be swapped
+  // for "no vehicle yet" and back while the first sync runs, under a tester's thumb.
+  if (vehicles === undefined) return <p role="status">Loading the vehicles on this phone…</p>;
+  if (vehicles.vehicles.length === 0) {
     return (
       <p>
         No vehicle on this phone yet. <Link to="/field/vehicles/new" className="font-bold underline">Set one up</Link> first (or sync while online).
       </p>
     );
   }
-  const text = (k: keyof typeof form, label: string, placeholder = '') => (
-    <label className="block">
-      <span className="field-label">{label}</span>
-      <input className="input" value={form[k]} placeholder={placeholder} onChange={set(k)} />
-    </label>
-  );
+  const chosenGone = form.vehicleId !== '' && !vehicles.vehicles.some((v) => v.id === form.vehicleId);
+  const missing = [form.vehicleId === '' || chosenGone ? 'Choose the vehicle' : null, left > 0 ? safetyItemsLeft(left) : null].filter((m): m is string => m !== null);
+
+  const start = async () => {
+    if (missing.length) return;
+    const session: TestSession = { id: crypto.randomUUID(), version: 1, ...form, safetyAckAt: new Date().toISOString() };
+    const result = await saveRecord('testSession', session);
+    if (result.ok) navigate(`/field/sessions/${session.id}`, { replace: true });
+    else setProblems([result]);
+  };
+
   return (
     <form
       className="space-y-3"
@@ -50,37 +60,33 @@ export function StartSessionPage() {
         <label htmlFor="session-vehicle" className="field-label">
           Vehicle
         </label>
-        <select id="session-vehicle" className="input" required value={form.vehicleId} onChange={set('vehicleId')}>
+        {/* Uncontrolled on purpose: a phone's picker shows a choice before it reports it, and a
+            controlled select re-drawn in between (the first sync bringing vehicles) was put back
+            to "Choose…". The select holds the choice; the draft follows its change events. */}
+        <select id="session-vehicle" className="input" required defaultValue="" onChange={(e) => update({ vehicleId: e.target.value })}>
           <option value="">Choose…</option>
-          {vehicles?.vehicles.map((v) => (
+          {vehicles.vehicles.map((v) => (
             <option key={v.id} value={v.id}>
               {v.name}
             </option>
           ))}
         </select>
+        {chosenGone && <p role="alert" className="font-bold text-alert">The vehicle chosen is no longer on this phone: choose again.</p>}
       </div>
-      <label className="block">
-        <span className="field-label">Date</span>
-        <input type="date" className="input" required value={form.testedOn} onChange={set('testedOn')} />
-      </label>
-      {text('title', 'Title', 'e.g. yard flex test before boot order')}
-      {text('conditions', 'Conditions', 'ground, weather')}
-      {text('loadState', 'Load state', 'water, fuel, gear')}
-      {text('tyrePressures', 'Tyre pressures')}
-      {text('crew', 'Who', 'tester, spotter')}
+      <SessionFields value={form} onChange={update} />
       <fieldset>
         <legend className="field-label">Readings are entered as</legend>
         {(['gap', 'displacement'] as const).map((m) => (
           <label key={m} className="mr-4 inline-flex min-h-touch items-center gap-2">
-            <input type="radio" name="readingMode" className="h-6 w-6" checked={form.readingMode === m} onChange={() => setForm({ ...form, readingMode: m })} />
+            <input type="radio" name="readingMode" className="h-6 w-6" checked={form.readingMode === m} onChange={() => update({ readingMode: m })} />
             {m === 'gap' ? 'raw gaps (baseline subtracted)' : 'displacements'}
           </label>
         ))}
       </fieldset>
-      <SafetyChecklist onAllTicked={setSafe} />
+      <SafetyChecklist onLeftChange={setLeft} />
       <SaveProblems results={problems} />
-      <button type="submit" className="btn-primary w-full" disabled={!safe || !form.vehicleId}>
-        {safe ? 'Start session' : 'Tick every safety item to start'}
+      <button type="submit" className="btn-primary w-full" disabled={missing.length > 0}>
+        {missing.length ? `To start: ${missing.join(' · ')}` : 'Start session'}
       </button>
     </form>
   );

@@ -1,6 +1,8 @@
-import { useSyncExternalStore } from 'react';
+import { useState, useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { usePendingCounts, useMetaValue } from '@/lib/db/live';
+import { useLocalWrites } from '@/lib/db/writes-in-flight';
+import { barSummary } from '../bar-summary';
 import { syncNow, syncState } from '@/sync/sync-engine';
 import { usePersistentStorage } from '../hooks/use-persistent-storage';
 
@@ -12,45 +14,67 @@ const ago = (iso: string | null | undefined) => {
   return new Date(iso).toLocaleString();
 };
 
-/** Always on screen: connection, what waits to be sent, the last sync, any error, upload progress. */
+/**
+ * Always on screen, in one line on a phone: connection, what waits to be sent, a sync under way
+ * with its photo upload progress, conflicts and refused photos, and the last error. The line opens
+ * the details: last sync, storage, each field of the error, and Sync now.
+ */
 export function SyncStatusBar() {
   const engine = useSyncExternalStore(syncState.subscribe, syncState.get);
   const counts = usePendingCounts();
+  const writes = useLocalWrites();
+  const summary = barSummary(counts, writes);
   const lastSyncAt = useMetaValue('lastSyncAt');
   const lastError = useMetaValue('lastError');
   const persisted = usePersistentStorage();
-  const waiting = (counts?.records ?? 0) + (counts?.photos ?? 0);
+  const [open, setOpen] = useState(false);
   const pct = engine.progress && engine.progress.total ? Math.round((100 * engine.progress.loaded) / engine.progress.total) : null;
   return (
     <section aria-label="Sync state" className="border-b-2 border-rule bg-white">
-      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-1 px-3 py-2 text-sm">
-        <span className={`font-bold ${engine.online ? 'text-good' : 'text-alert'}`}>{engine.online ? 'Online' : 'Offline'}</span>
-        <span data-testid="sync-pending" className="font-bold">
-          {waiting === 0 ? 'All saved on the server' : `Waiting to send: ${counts?.records ?? 0} records, ${counts?.photos ?? 0} photos`}
-        </span>
-        <span>Last sync: {ago(lastSyncAt)}</span>
-        {engine.running && <span role="status">Syncing…{pct != null && ` photo ${pct}%`}</span>}
-        {pct != null && <progress className="h-3 w-24" max={100} value={pct} aria-label="Photo upload" />}
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-3 px-3 text-sm">
+        <button type="button" className="flex min-h-touch min-w-0 flex-1 items-center gap-2 text-left" aria-expanded={open} aria-controls="sync-details" onClick={() => setOpen(!open)}>
+          <span className="sr-only">Sync details:</span>
+          <span className={`shrink-0 font-bold ${engine.online ? 'text-good' : 'text-alert'}`}>{engine.online ? 'Online' : 'Offline'}</span>
+          <span data-testid="sync-pending" className={`min-w-0 truncate font-bold ${summary.allSaved ? 'text-good' : ''}`}>
+            {summary.text}
+          </span>
+          {engine.running && (
+            <span role="status" className="shrink-0">
+              Syncing…{pct != null && ` photo ${pct}%`}
+            </span>
+          )}
+          <span aria-hidden className="ml-auto shrink-0 text-lg">
+            {open ? '▴' : '▾'}
+          </span>
+        </button>
         {!!counts?.conflicts && (
-          <Link to="/field/sync" className="font-bold text-alert underline">
+          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
             {counts.conflicts} conflict{counts.conflicts > 1 ? 's' : ''} to resolve
           </Link>
         )}
+        {!!counts?.held && (
+          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
+            See the held records
+          </Link>
+        )}
         {!!counts?.failedPhotos && (
-          <Link to="/field/sync" className="font-bold text-alert underline">
+          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
             {counts.failedPhotos} photo{counts.failedPhotos > 1 ? 's' : ''} refused
           </Link>
         )}
-        <span>Storage: {persisted === true ? 'kept by the browser' : persisted === false ? 'may be cleared when space runs low — sync often' : 'checking…'}</span>
-        <button type="button" className="btn ml-auto min-h-touch" disabled={engine.running || !engine.online} onClick={() => void syncNow()}>
-          Sync now
-        </button>
       </div>
+      {pct != null && <progress className="block h-1 w-full" max={100} value={pct} aria-label="Photo upload" />}
       {lastError && (
-        <div role="alert" className="mx-auto max-w-6xl px-3 pb-2 text-sm font-bold text-alert">
+        <p role="alert" className="mx-auto max-w-6xl truncate px-3 pb-1 text-sm font-bold text-alert">
           Sync problem: {lastError.message}
-          {lastError.fields.length > 0 && (
-            <ul className="list-disc pl-5 font-normal">
+        </p>
+      )}
+      {open && (
+        <div id="sync-details" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-1 px-3 pb-2 text-sm">
+          <span>Last sync: {ago(lastSyncAt)}</span>
+          <span>Storage: {persisted === true ? 'kept by the browser' : persisted === false ? 'may be cleared when space runs low — sync often' : 'checking…'}</span>
+          {lastError && lastError.fields.length > 0 && (
+            <ul className="w-full list-disc pl-5 text-alert">
               {lastError.fields.slice(0, 5).map((f) => (
                 <li key={f.field}>
                   {f.field}: {f.message}
@@ -58,6 +82,9 @@ export function SyncStatusBar() {
               ))}
             </ul>
           )}
+          <button type="button" className="btn ml-auto min-h-touch" disabled={engine.running || !engine.online} onClick={() => void syncNow({ force: true })}>
+            Sync now
+          </button>
         </div>
       )}
     </section>

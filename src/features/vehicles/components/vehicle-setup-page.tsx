@@ -1,9 +1,10 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
-import type { GaugePoint, Vehicle } from '@shared/schemas';
+import { gaugePoint as gaugePointSchema, opening as openingSchema, vehicle as vehicleSchema, type GaugePoint, type Vehicle } from '@shared/schemas';
 import { useLocalVehicle } from '@/lib/db/live';
-import { saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
-import { LengthInput } from '@/features/field/components/length-input';
+import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
+import { LengthInput, limitsOf } from '@/features/field/components/length-input';
+import type { LengthLimits } from '@/features/field/parse-length';
 import { UnitToggle } from '@/features/field/components/unit-toggle';
 import { SaveProblems } from '@/features/field/components/save-problems';
 import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
@@ -23,6 +24,10 @@ const blank = (): Vehicle => ({
   notes: '',
 });
 
+const v = vehicleSchema.shape;
+const o = openingSchema.shape;
+const POINT_LIMITS = limitsOf(gaugePointSchema.shape.yMm);
+
 const nextLabel = (points: GaugePoint[]) => {
   for (let i = 0; i < 64; i++) {
     const l = i < 26 ? String.fromCharCode(65 + i) : `P${i + 1}`;
@@ -39,22 +44,37 @@ export function VehicleSetupPage() {
   const navigate = useNavigate();
   const [unit, setUnit] = useFieldUnit();
   const [draft, setDraft] = useState<Vehicle | null>(isNew ? blank() : null);
+  // The vehicle as it was when the draft was taken: a save writes only what the tester changed.
+  const [loaded, setLoaded] = useState<Vehicle | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   useEffect(() => {
-    if (!isNew && stored && !draft) setDraft(stored.vehicle);
+    if (!isNew && stored && !draft) {
+      setDraft(stored.vehicle);
+      setLoaded(stored.vehicle);
+    }
   }, [isNew, stored, draft]);
   if (!draft) return <p role="status">{stored === null ? 'This vehicle is not on this phone.' : 'Loading…'}</p>;
   const points = stored?.gaugePoints ?? [];
-  const len = (label: string, get: (v: Vehicle) => number, put: (v: Vehicle, mm: number) => Vehicle) => (
-    <LengthInput label={label} unit={unit} valueMm={get(draft)} onChange={(mm) => mm != null && setDraft(put(draft, mm))} compact />
+  const len = (label: string, limits: LengthLimits, get: (v: Vehicle) => number, put: (v: Vehicle, mm: number) => Vehicle) => (
+    <LengthInput label={label} unit={unit} limits={limits} valueMm={get(draft)} onChange={(mm) => mm != null && setDraft((d) => (d ? put(d, mm) : d))} />
   );
   const open = (k: keyof Vehicle['opening']) => (v: Vehicle, mm: number) => ({ ...v, opening: { ...v.opening, [k]: mm } });
   const save = async () => {
-    const r = await saveRecord('vehicle', draft);
+    if (isNew) {
+      const r = await saveRecord('vehicle', draft);
+      setProblems([r]);
+      if (r.ok) {
+        setLoaded(draft);
+        navigate(`/field/vehicles/${draft.id}`, { replace: true });
+      }
+      return;
+    }
+    const r = await patchRecord('vehicle', draft.id, changedFields(loaded ?? draft, draft));
     setProblems([r]);
-    if (r.ok && isNew) navigate(`/field/vehicles/${draft.id}`, { replace: true });
+    if (r.ok) setLoaded(draft);
   };
-  const savePoints = async (list: GaugePoint[]) => setProblems(await saveRecords('gaugePoint', list));
+  const addPoint = async (point: GaugePoint) => setProblems(await saveRecords('gaugePoint', [point]));
+  const patchPoint = async (id: string, fields: Partial<GaugePoint>) => setProblems([await patchRecord('gaugePoint', id, fields)]);
 
   return (
     <section className="space-y-4">
@@ -75,18 +95,18 @@ export function VehicleSetupPage() {
         <input className="input" value={draft.body} onChange={(e) => setDraft({ ...draft, body: e.target.value })} />
       </label>
       <div className="grid grid-cols-2 gap-3">
-        {len('Wheelbase', (v) => v.wheelbaseMm, (v, mm) => ({ ...v, wheelbaseMm: mm }))}
-        {len('Nominal gap', (v) => v.nominalGapMm, (v, mm) => ({ ...v, nominalGapMm: mm }))}
-        {len('Track front', (v) => v.trackFrontMm, (v, mm) => ({ ...v, trackFrontMm: mm }))}
-        {len('Track rear', (v) => v.trackRearMm, (v, mm) => ({ ...v, trackRearMm: mm }))}
+        {len('Wheelbase', limitsOf(v.wheelbaseMm), (x) => x.wheelbaseMm, (x, mm) => ({ ...x, wheelbaseMm: mm }))}
+        {len('Nominal gap', limitsOf(v.nominalGapMm), (x) => x.nominalGapMm, (x, mm) => ({ ...x, nominalGapMm: mm }))}
+        {len('Track front', limitsOf(v.trackFrontMm), (x) => x.trackFrontMm, (x, mm) => ({ ...x, trackFrontMm: mm }))}
+        {len('Track rear', limitsOf(v.trackRearMm), (x) => x.trackRearMm, (x, mm) => ({ ...x, trackRearMm: mm }))}
       </div>
       <h2 className="text-xl font-bold">Opening</h2>
       <div className="grid grid-cols-2 gap-3">
-        {len('Width', (v) => v.opening.widthMm, open('widthMm'))}
-        {len('Height', (v) => v.opening.heightMm, open('heightMm'))}
-        {len('Corner radius', (v) => v.opening.cornerRadiusMm, open('cornerRadiusMm'))}
-        {len('Centre y (+ left)', (v) => v.opening.centreYMm, open('centreYMm'))}
-        {len('Bottom z (above rail)', (v) => v.opening.bottomZMm, open('bottomZMm'))}
+        {len('Width', limitsOf(o.widthMm), (x) => x.opening.widthMm, open('widthMm'))}
+        {len('Height', limitsOf(o.heightMm), (x) => x.opening.heightMm, open('heightMm'))}
+        {len('Corner radius', limitsOf(o.cornerRadiusMm), (x) => x.opening.cornerRadiusMm, open('cornerRadiusMm'))}
+        {len('Centre y (+ left)', limitsOf(o.centreYMm), (x) => x.opening.centreYMm, open('centreYMm'))}
+        {len('Bottom z (above rail)', limitsOf(o.bottomZMm), (x) => x.opening.bottomZMm, open('bottomZMm'))}
       </div>
       <button type="button" className="btn-primary w-full" onClick={() => void save()}>
         Save vehicle
@@ -99,20 +119,24 @@ export function VehicleSetupPage() {
           <OpeningDrawing
             opening={draft.opening}
             points={points}
-            onPlace={(yMm, zMm) => void savePoints([{ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm }])}
+            onPlace={(yMm, zMm) => void addPoint({ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm })}
           />
           <ul className="space-y-2">
             {points.map((p) => (
-              <li key={p.id} className="card grid grid-cols-[4rem_1fr_1fr_auto] items-end gap-2">
-                <label>
-                  <span className="block text-sm font-bold">Label</span>
-                  <input className="input" defaultValue={p.label} onBlur={(e) => e.target.value !== p.label && void savePoints([{ ...p, label: e.target.value }])} />
-                </label>
-                <LengthInput compact label={`${p.label} y`} unit={unit} valueMm={p.yMm} onChange={(mm) => mm != null && void savePoints([{ ...p, yMm: mm }])} />
-                <LengthInput compact label={`${p.label} z`} unit={unit} valueMm={p.zMm} onChange={(mm) => mm != null && void savePoints([{ ...p, zMm: mm }])} />
-                <button type="button" className="btn" aria-label={`Remove point ${p.label}`} onClick={() => void savePoints([{ ...p, deletedAt: new Date().toISOString() }])}>
-                  ✕
-                </button>
+              <li key={p.id} className="card space-y-2 p-3">
+                <div className="flex items-end gap-2">
+                  <label className="w-24">
+                    <span className="block text-sm font-bold">Label</span>
+                    <input className="input" defaultValue={p.label} onBlur={(e) => e.target.value !== p.label && void patchPoint(p.id, { label: e.target.value })} />
+                  </label>
+                  <button type="button" className="btn ml-auto" aria-label={`Remove point ${p.label}`} onClick={() => void patchPoint(p.id, { deletedAt: new Date().toISOString() })}>
+                    ✕
+                  </button>
+                </div>
+                <div className="grid grid-cols-2 gap-2">
+                  <LengthInput label={`${p.label} y`} unit={unit} limits={POINT_LIMITS} valueMm={p.yMm} onChange={(mm) => mm != null && void patchPoint(p.id, { yMm: mm })} />
+                  <LengthInput label={`${p.label} z`} unit={unit} limits={POINT_LIMITS} valueMm={p.zMm} onChange={(mm) => mm != null && void patchPoint(p.id, { zMm: mm })} />
+                </div>
               </li>
             ))}
           </ul>
