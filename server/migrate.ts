@@ -7,7 +7,7 @@ import { repoRoot } from './paths';
 
 const migrationsDir = path.join(repoRoot, 'migrations');
 // A pattern import: the bundled server carries every migration (esbuild bundles what it matches).
-const loadMigration = (name: string) => import(`../migrations/${name}`) as Promise<{ up: MigrationStep; down: MigrationStep }>;
+const loadMigration = (name: string) => import(`../migrations/${name.replace(/\.ts$/, '')}.ts`) as Promise<{ up: MigrationStep; down: MigrationStep }>;
 type MigrationStep = (params: { context: unknown; name: string }) => Promise<void>;
 
 /** umzug is loaded only when a migration is pending: an instance starting on a current schema skips it. */

@@ -134,24 +134,6 @@ export const photoOut = (p: PhotoModel): Photo & { changeSeq: number } => ({
 });
 
 /** A raw photos row (as a pull reads it) → the photo record. */
-export function photoRecordFromRow(r: Record<string, unknown>): Photo & { changeSeq: number } {
-  return {
-    id: r.id as string,
-    version: r.version as number,
-    deletedAt: iso(r.deleted_at as Date | null),
-    sessionId: r.session_id as string,
-    poseId: (r.pose_id as string | null) ?? null,
-    caption: r.caption as string,
-    mime: r.mime as string,
-    width: r.width as number,
-    height: r.height as number,
-    bytes: r.bytes as number,
-    capturedAt: iso(r.captured_at as Date | null),
-    hasGps: r.gps_lat != null && r.gps_lon != null,
-    changeSeq: Number(r.change_seq),
-  };
-}
-
 /**
  * Stores one uploaded photo. The client's id makes a retried upload (lost answer) return the
  * photo already stored instead of storing it twice.

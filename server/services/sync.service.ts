@@ -19,12 +19,11 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
-import { photoRecordFromRow } from './photos.service';
 import { lockTeamChanges } from './team-changes';
 import { enforceSyncAccess } from './sync-access';
 import { translateDbError } from './sync-db-errors';
 import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
-import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
+import { syncChange, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
 
 type Row = Record<string, unknown>;
 
@@ -421,53 +420,6 @@ function conflictOut(r: Row): SyncConflict {
     resolvedAt: iso(r.resolved_at),
     resolution: (r.resolution as 'client' | 'server' | null) ?? null,
   };
-}
-
-/** Everything of the team changed after `since`, oldest first, at most `limit` rows per table. */
-export async function pullChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
-  try {
-    return await readChanges(auth, since, limit);
-  } catch (err) {
-    translateDbError(err, () => null);
-  }
-}
-
-async function readChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
-  return db().transaction(async (transaction) => {
-    await lockTeamChanges(auth.teamId, transaction, 'read');
-    // Only the columns a record carries: parsing timestamps nobody reads costs more than the query.
-    const columns = (table: string) => {
-      const spec = Object.values(syncTables).find((t) => t.table === table);
-      return spec ? ['id', 'version', 'change_seq', ...spec.columns.map((c) => c.column)].join(', ') : '*';
-    };
-    // A kept conflict is a decision for the person whose edit it holds: each phone gets its own.
-    const page = (table: string) =>
-      table === 'sync_conflicts'
-        ? select(`SELECT * FROM sync_conflicts WHERE team_id = $1 AND user_id = $4 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit, auth.userId], transaction)
-        : select(`SELECT ${columns(table)} FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
-    const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'] as const;
-    const pages: (readonly [(typeof tables)[number], Row[]])[] = [];
-    for (const t of tables) pages.push([t, await page(t)] as const);
-    // A full page may have more behind it: stop the cursor at the lowest last seq of the full
-    // pages, and hold back every row beyond it so no table skips rows.
-    const full = pages.filter(([, rows]) => rows.length === limit);
-    const allSeqs = pages.flatMap(([, rows]) => rows.map((r) => Number(r.change_seq)));
-    const cursor = full.length
-      ? Math.min(...full.map(([, rows]) => Number(rows[rows.length - 1].change_seq)))
-      : Math.max(since, ...allSeqs);
-    const get = (t: (typeof tables)[number]) => pages.find(([name]) => name === t)![1].filter((r) => Number(r.change_seq) <= cursor);
-    return {
-      cursor,
-      hasMore: full.length > 0,
-      vehicles: get('vehicles').map((r) => rowToRecord(syncTables.vehicle, r)),
-      gaugePoints: get('gauge_points').map((r) => rowToRecord(syncTables.gaugePoint, r)),
-      testSessions: get('test_sessions').map((r) => rowToRecord(syncTables.testSession, r)),
-      poses: get('poses').map((r) => rowToRecord(syncTables.pose, r)),
-      readings: get('readings').map((r) => rowToRecord(syncTables.reading, r)),
-      photos: get('photos').map(photoRecordFromRow),
-      conflicts: get('sync_conflicts').map(conflictOut),
-    } as PullResponse;
-  });
 }
 
 /**
