@@ -1,7 +1,8 @@
 // Who is asking: loaded once per request from the session cookie. Team scope always comes from
 // here, never from the request body or URL.
 import type { RequestHandler } from 'express';
-import type { Role } from '../../shared/schemas/common';
+import type { Role, UnitSystem } from '../../shared/schemas/common';
+import type { Team } from '../../shared/schemas/team';
 import { blankSessionCookie, endSession, validateSessionCookie } from './lucia';
 
 export interface AuthContext {
@@ -11,6 +12,10 @@ export interface AuthContext {
   sessionId: string;
   email: string;
   name: string;
+  /** The person's own choice of units, if any (read with the session). */
+  unitSystem: UnitSystem | null;
+  /** The session's team as it is now (read with the session). */
+  team: Team;
 }
 
 declare global {
@@ -41,6 +46,8 @@ export const loadAuth: RequestHandler = async (req, res, next) => {
     sessionId: session.sessionId,
     email: session.email,
     name: session.name,
+    unitSystem: session.unitSystem,
+    team: session.team,
   };
   next();
 };
