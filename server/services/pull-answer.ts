@@ -24,7 +24,7 @@ const conflictCursorSql = (person: string) => `(SELECT coalesce(max(change_seq),
 
 // $1 team, $2 since, $3 limit, $4 person. Written once the models are initialised.
 let pullSqlText: string | undefined;
-const pullSql = () => {
+export const pullSql = () => {
   if (pullSqlText) return pullSqlText;
   const page = (table: string) => `SELECT * FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`;
   const tables = [

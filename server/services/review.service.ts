@@ -26,7 +26,7 @@ export type SessionReview = Awaited<ReturnType<typeof getSessionDetail>> & { peo
 // history. PostgreSQL builds the JSON and the route passes the text through (see record-json.ts).
 // Written once the models are initialised, from their column names.
 let reviewSqlText: string | undefined;
-const reviewSql = () => (reviewSqlText ??= `
+export const reviewSql = () => (reviewSqlText ??= `
 WITH s AS (SELECT * FROM test_sessions WHERE id = $2 AND team_id = $1 AND deleted_at IS NULL),
 v AS (SELECT v.* FROM vehicles v JOIN s ON v.id = s.vehicle_id WHERE v.team_id = $1),
 g AS (SELECT g.* FROM gauge_points g JOIN s ON g.vehicle_id = s.vehicle_id WHERE g.team_id = $1 AND g.deleted_at IS NULL),
