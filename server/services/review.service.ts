@@ -58,14 +58,17 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
 
 /**
  * The review's validator: the team's change cursor moves with any change to the session's
- * records, and the history's count and last id with any new event (http/validator.ts).
+ * records, the history's count and last id with any new event (http/validator.ts), and the
+ * members' latest update with a renamed person (the answer names who entered and who changed what).
  */
 export async function reviewEtag(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<string> {
-  const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number }>(
-    `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last FROM history_events WHERE team_id = $1 AND session_id = $2`,
+  const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number; people: number }>(
+    `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.team_id = $1) AS people
+     FROM history_events WHERE team_id = $1 AND session_id = $2`,
     { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT },
   );
-  return etagOf('review', [row.cursor, row.events, row.last], auth.sessionId);
+  return etagOf('review', [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
 
 /** The history action of a change to a reading, at the desk or through sync. */

@@ -112,6 +112,18 @@ describe('the review answer', () => {
     expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
   });
 
+  it('shows a person renamed since the desk\'s copy under the new name', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const etag = (await reviewOf(engineer, s.sessionId)).headers.etag;
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    expect((await tester.patch('/api/me').send({ name: 'Joss Harlow-Venn' })).status).toBe(200);
+    const res = await reviewOf(engineer, s.sessionId, etag);
+    expect(res.status).toBe(200);
+    expect(res.body.people[team.members.tester.userId]).toBe('Joss Harlow-Venn');
+  });
+
   it('a change elsewhere in the workshop costs a full answer but never a stale one', async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
