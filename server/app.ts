@@ -1,7 +1,8 @@
-// Express wiring: security headers, logging, CSRF guard, the route table (each route loads the
-// session, checks access, then parses its body within its limit), the built client, and the one
-// error handler.
+// Express wiring: request tracking (for draining), security headers, compression, logging, CSRF
+// guard, the route table (each route loads the session, checks access, then parses its body within
+// its limit), the built client, and the one error handler.
 import express, { Router } from 'express';
+import compression from 'compression';
 import fs from 'node:fs';
 import path from 'node:path';
 import { pinoHttp } from 'pino-http';
@@ -12,6 +13,7 @@ import { mountRoutes } from './routes/route';
 import { allRoutes } from './routes';
 import { errorHandler } from './http/error-handler';
 import { NotFound } from './http/errors';
+import { trackRequests } from './http/lifecycle';
 
 export interface AppOptions {
   logger: Logger;
@@ -27,16 +29,22 @@ export interface AppOptions {
 export function createApp(opts: AppOptions) {
   const app = express();
   app.disable('x-powered-by');
-  // No ETags: hashing every large JSON answer (a session's readings) costs CPU on each request,
-  // and the client's query cache already decides when to ask again.
+  // No ETags made by hashing bodies: that costs CPU on every large answer. The routes whose
+  // answers are large and often unchanged (review, pull) set a cheap validator of their own
+  // from the team's change cursor (http/validator.ts).
   app.set('etag', false);
   // Set explicitly: behind a proxy, rate limits and Origin checks must see the client, not the proxy.
   app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
+  app.use(trackRequests);
   app.use(securityHeaders(opts.production ?? false));
+  // gzip or brotli (quality 4: most of the saving for little CPU) for JSON, HTML, scripts and
+  // styles over 1 kB; photos (JPEG) are sent as they are.
+  app.use(compression({ threshold: 1024 }));
   app.use(
     pinoHttp({
       logger: opts.logger,
-      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      // Probes come every few seconds from a load balancer: not worth a line each.
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') || req.url === '/api/health' || req.url === '/api/ready' },
       // Session ids never reach the logs.
       serializers: { req: withoutCookies('cookie'), res: withoutCookies('set-cookie') },
     }),
@@ -53,7 +61,7 @@ export function createApp(opts: AppOptions) {
 
   if (opts.clientDir && fs.existsSync(path.join(opts.clientDir, 'index.html'))) {
     const dir = opts.clientDir;
-    app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
+    app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: cacheRules }));
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');
       // `root` keeps send's dotfile rule to the path below `dir`: the test build lives under .data/.
@@ -64,11 +72,14 @@ export function createApp(opts: AppOptions) {
   return app;
 }
 
-// The service worker and the HTML shell must always be revalidated so a new version is seen.
-function noCacheForShell(res: express.Response, file: string) {
+// The service worker and the HTML shell must always be revalidated so a new version is seen;
+// files under assets/ carry a hash of their content in their name, so they never change.
+function cacheRules(res: express.Response, file: string) {
   const base = path.basename(file);
   if (base === 'sw.js' || base === 'index.html' || base.endsWith('.webmanifest') || base.startsWith('workbox-')) {
     res.setHeader('Cache-Control', 'no-cache');
+  } else if (path.basename(path.dirname(file)) === 'assets') {
+    res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
   }
 }
 

@@ -13,7 +13,22 @@ const env = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASS: z.string().optional(),
   MAIL_FROM: z.string().default('Twistlog <no-reply@twistlog.invalid>'),
+  /** Photos on this machine's disk, used only when S3_BUCKET is not set (one instance, development). */
   PHOTO_DIR: z.string().default('.data/photos'),
+  /** Photos in S3-compatible object storage (storage/s3-store.ts): any number of instances share it. */
+  S3_BUCKET: z.string().min(3).max(63).optional(),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).optional(),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  /** The local mail sink's list of caught messages (development): serves /dev/mailbox. */
+  MAIL_SINK_URL: z.string().url().optional(),
+  /** After SIGTERM, how long the instance keeps serving while it answers 503 to readiness probes. */
+  DRAIN_DELAY_MS: z.coerce.number().int().min(0).default(0),
+  /** How long SIGTERM then waits for requests in flight before it cuts them. */
+  DRAIN_TIMEOUT_MS: z.coerce.number().int().min(0).default(20_000),
+  KEEP_ALIVE_TIMEOUT_MS: z.coerce.number().int().min(1000).default(65_000),
   TRUST_PROXY: z.string().default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
   DB_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),

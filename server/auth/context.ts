@@ -1,8 +1,8 @@
 // Who is asking: loaded once per request from the session cookie. Team scope always comes from
 // here, never from the request body or URL.
 import type { RequestHandler } from 'express';
-import type { Role } from '../../shared/schemas/common';
-import { MembershipModel } from '../models';
+import type { Role, UnitSystem } from '../../shared/schemas/common';
+import type { Team } from '../../shared/schemas/team';
 import { blankSessionCookie, endSession, validateSessionCookie } from './lucia';
 
 export interface AuthContext {
@@ -12,6 +12,10 @@ export interface AuthContext {
   sessionId: string;
   email: string;
   name: string;
+  /** The person's own choice of units, if any (read with the session). */
+  unitSystem: UnitSystem | null;
+  /** The session's team as it is now (read with the session). */
+  team: Team;
 }
 
 declare global {
@@ -27,9 +31,9 @@ export const loadAuth: RequestHandler = async (req, res, next) => {
   const { session, setCookies } = await validateSessionCookie(req.headers.cookie);
   for (const c of setCookies) res.append('Set-Cookie', c);
   if (!session) return next();
-  // The role is read afresh on every request, so a role change or a removal counts at once.
-  const membership = await MembershipModel.findOne({ where: { userId: session.userId, teamId: session.teamId } });
-  if (!membership) {
+  // The role is read with the session on every request (one query, auth/lucia.ts), so a role
+  // change or a removal counts at once.
+  if (!session.role) {
     // Removed from the team: the session no longer grants anything.
     await endSession(session.sessionId);
     res.append('Set-Cookie', blankSessionCookie());
@@ -38,10 +42,12 @@ export const loadAuth: RequestHandler = async (req, res, next) => {
   req.auth = {
     userId: session.userId,
     teamId: session.teamId,
-    role: membership.role,
+    role: session.role,
     sessionId: session.sessionId,
     email: session.email,
     name: session.name,
+    unitSystem: session.unitSystem,
+    team: session.team,
   };
   next();
 };

@@ -6,8 +6,10 @@
 import { createHash } from 'node:crypto';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Argon2id } from 'oslo/password';
-import { Op } from 'sequelize';
-import { UserModel, UserSessionModel } from '../models';
+import { Op, QueryTypes } from 'sequelize';
+import { UserSessionModel } from '../models';
+import type { Role, UnitSystem } from '../../shared/schemas/common';
+import type { PhotoGps, Team } from '../../shared/schemas/team';
 
 /** OWASP Password Storage Cheat Sheet minimum for Argon2id: m = 19456 KiB, t = 2, p = 1. */
 export const ARGON2_PARAMS = { memorySize: 19456, iterations: 2, parallelism: 1, tagLength: 32 } as const;
@@ -24,17 +26,42 @@ const toSession = (s: UserSessionModel, id: string): DatabaseSession => ({
   id,
   userId: s.userId,
   expiresAt: s.expiresAt,
-  attributes: { teamId: s.teamId },
+  attributes: { teamId: s.teamId, role: null, team: null },
 });
 
+interface SessionRow {
+  user_id: string;
+  team_id: string;
+  expires_at: Date;
+  email: string;
+  name: string;
+  user_unit_system: UnitSystem | null;
+  role: Role | null;
+  team_name: string;
+  team_unit_system: UnitSystem;
+  photo_gps: PhotoGps;
+}
+
 const sequelizeAdapter: Adapter = {
+  // One query per signed-in request: the session, its person (with their own units) and their role
+  // in the session's team (null once they are no longer a member) and the team's name and
+  // settings, read afresh so a change counts at once; /api/me needs no query of its own.
   async getSessionAndUser(sessionId) {
-    const s = await UserSessionModel.findByPk(storedSessionId(sessionId));
-    if (!s) return [null, null];
-    const u = await UserModel.findByPk(s.userId);
-    if (!u) return [null, null];
-    const user: DatabaseUser = { id: u.id, attributes: { email: u.email, name: u.name } };
-    return [toSession(s, sessionId), user];
+    const [row] = await UserSessionModel.sequelize!.query<SessionRow>(
+      `SELECT s.user_id, s.team_id, s.expires_at, u.email, u.name, u.unit_system AS user_unit_system, m.role,
+              t.name AS team_name, t.unit_system AS team_unit_system, t.photo_gps
+         FROM user_sessions s
+         JOIN users u ON u.id = s.user_id
+         JOIN teams t ON t.id = s.team_id
+         LEFT JOIN memberships m ON m.user_id = s.user_id AND m.team_id = s.team_id
+        WHERE s.id = $1`,
+      { bind: [storedSessionId(sessionId)], type: QueryTypes.SELECT },
+    );
+    if (!row) return [null, null];
+    const team = { id: row.team_id, name: row.team_name, unitSystem: row.team_unit_system, photoGps: row.photo_gps };
+    const session: DatabaseSession = { id: sessionId, userId: row.user_id, expiresAt: row.expires_at, attributes: { teamId: row.team_id, role: row.role, team } };
+    const user: DatabaseUser = { id: row.user_id, attributes: { email: row.email, name: row.name, unitSystem: row.user_unit_system } };
+    return [session, user];
   },
   async getUserSessions(userId) {
     // Only hashes are stored: these sessions can be counted and ended, never resumed.
@@ -68,21 +95,22 @@ export const lucia = new Lucia(sequelizeAdapter, {
     name: 'twistlog_session',
     attributes: { secure: process.env.NODE_ENV === 'production', sameSite: 'lax' },
   },
-  getSessionAttributes: (a) => ({ teamId: a.teamId }),
-  getUserAttributes: (a) => ({ email: a.email, name: a.name }),
+  getSessionAttributes: (a) => ({ teamId: a.teamId, role: a.role, team: a.team }),
+  getUserAttributes: (a) => ({ email: a.email, name: a.name, unitSystem: a.unitSystem }),
 });
 
 declare module 'lucia' {
   interface Register {
     Lucia: typeof lucia;
-    DatabaseSessionAttributes: { teamId: string };
-    DatabaseUserAttributes: { email: string; name: string };
+    /** role and team: the person's role in the team and the team itself, read with the session (not stored with it). */
+    DatabaseSessionAttributes: { teamId: string; role: Role | null; team: Team | null };
+    DatabaseUserAttributes: { email: string; name: string; unitSystem: UnitSystem | null };
   }
 }
 
 /** Start a fresh session (a new id at every sign-in) and return its cookie header value. */
 export async function startSession(userId: string, teamId: string): Promise<string> {
-  const session = await lucia.createSession(userId, { teamId });
+  const session = await lucia.createSession(userId, { teamId, role: null, team: null });
   return lucia.createSessionCookie(session.id).serialize();
 }
 
@@ -126,8 +154,13 @@ export interface ValidatedSession {
   sessionId: string;
   userId: string;
   teamId: string;
+  /** The person's role in the team now; null when they are no longer a member. */
+  role: Role | null;
   email: string;
   name: string;
+  /** The person's own choice of units, if any. */
+  unitSystem: UnitSystem | null;
+  team: Team;
 }
 
 /**
@@ -142,7 +175,7 @@ export async function validateSessionCookie(cookieHeader: string | undefined): P
   if (!session) return { session: null, setCookies: [blankSessionCookie()] };
   const setCookies = session.fresh ? [lucia.createSessionCookie(session.id).serialize()] : [];
   return {
-    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, email: user.email, name: user.name },
+    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, role: session.role, email: user.email, name: user.name, unitSystem: user.unitSystem, team: session.team! },
     setCookies,
   };
 }

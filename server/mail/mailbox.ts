@@ -4,7 +4,7 @@
 // so a page elsewhere cannot read it through DNS rebinding.
 import { createHash } from 'node:crypto';
 import { Router, type RequestHandler } from 'express';
-import type { MailSink } from './sink';
+import type { CaughtMessage, MailboxSource } from './sink';
 import { publicAppUrl } from './templates';
 
 const escapeHtml = (s: string) =>
@@ -42,7 +42,8 @@ const STYLE = `
 /** The page's one style block, allowed by its hash: the policy keeps refusing every other inline style and all scripts. */
 const PAGE_CSP = `default-src 'none'; style-src 'sha256-${createHash('sha256').update(STYLE).digest('base64')}'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'`;
 
-export function createMailboxRouter(sink: MailSink, nodeEnv = process.env.NODE_ENV): Router {
+/** `source`: the sink in this process (tests) or the one every instance shares (remoteMailbox). */
+export function createMailboxRouter(source: MailboxSource, nodeEnv = process.env.NODE_ENV): Router {
   if (nodeEnv !== 'development' && nodeEnv !== 'test') {
     throw new Error(`the mailbox is served only in development and tests (NODE_ENV is ${nodeEnv ?? 'unset'})`);
   }
@@ -50,15 +51,16 @@ export function createMailboxRouter(sink: MailSink, nodeEnv = process.env.NODE_E
   const r = Router();
   r.use('/dev/mailbox', ownHostOnly);
   r.use('/dev/mailbox.json', ownHostOnly);
-  const newestFirst = () => [...sink.messages].reverse();
+  const newestFirst = async () => [...(await source.list())].reverse();
 
-  r.get('/dev/mailbox.json', (_req, res) => {
+  r.get('/dev/mailbox.json', async (_req, res) => {
     res.setHeader('Cache-Control', 'no-store');
-    res.json(newestFirst());
+    res.json(await newestFirst());
   });
 
-  r.get('/dev/mailbox', (_req, res) => {
-    const items = newestFirst()
+  r.get('/dev/mailbox', async (_req, res) => {
+    const messages = await newestFirst();
+    const items = messages
       .map(
         (m) => `<li id="message-${m.seq}">
   <h2>${escapeHtml(m.subject || '(no subject)')}</h2>
@@ -79,7 +81,7 @@ export function createMailboxRouter(sink: MailSink, nodeEnv = process.env.NODE_E
 </head>
 <body>
 <h1>Mailbox</h1>
-<p>Every e-mail the app sent while running here, newest first. Nothing was delivered to anyone: the development mail sink keeps it. (${sink.messages.length} message${sink.messages.length === 1 ? '' : 's'}; reload to see new ones.)</p>
+<p>Every e-mail the app sent while running here, newest first. Nothing was delivered to anyone: the development mail sink keeps it. (${messages.length} message${messages.length === 1 ? '' : 's'}; reload to see new ones.)</p>
 <ol>
 ${items || '<li>No e-mail yet.</li>'}
 </ol>
@@ -87,4 +89,16 @@ ${items || '<li>No e-mail yet.</li>'}
 </html>`);
   });
   return r;
+}
+
+/** The messages of a sink running in another process (its `listUrl`). */
+export function remoteMailbox(listUrl: string): MailboxSource {
+  return {
+    async list() {
+      const res = await fetch(listUrl);
+      if (!res.ok) throw new Error(`the mail sink at ${listUrl} answered ${res.status}`);
+      const caught = (await res.json()) as (Omit<CaughtMessage, 'receivedAt'> & { receivedAt: string })[];
+      return caught.map((m) => ({ ...m, receivedAt: new Date(m.receivedAt) }));
+    },
+  };
 }

@@ -1,6 +1,9 @@
 // A local SMTP sink for development and tests: accepts every message on loopback, keeps it in
-// memory (parsed), and never relays anything. `npm start` runs it in-process (`--mail-sink`),
-// tests start one per test server; the mailbox page (mailbox.ts) lists what it caught.
+// memory (parsed), and never relays anything. `npm start` runs one in a process of its own
+// (server/scripts/local-services.ts) that every app instance sends to, and which lists what it
+// caught as JSON on a loopback HTTP port; tests start one per test server. The mailbox page
+// (mailbox.ts) lists what it caught.
+import http from 'node:http';
 import { SMTPServer } from 'smtp-server';
 import { simpleParser, type AddressObject } from 'mailparser';
 import type { AddressInfo } from 'node:net';
@@ -18,9 +21,17 @@ export interface CaughtMessage {
   attachments: { filename: string; contentType: string; size: number }[];
 }
 
-export interface MailSink {
+/** Where the development mailbox reads caught messages from. */
+export interface MailboxSource {
+  /** Every message caught so far, oldest first. */
+  list(): Promise<readonly CaughtMessage[]>;
+}
+
+export interface MailSink extends MailboxSource {
   host: string;
   port: number;
+  /** The loopback URL listing the messages as JSON, when started with `httpPort`. */
+  listUrl?: string;
   /** Every message caught so far, oldest first. */
   readonly messages: readonly CaughtMessage[];
   clear(): void;
@@ -32,7 +43,7 @@ export interface MailSink {
 const addressText = (a: AddressObject | AddressObject[] | undefined) =>
   (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');
 
-export async function startMailSink(opts: { port?: number; host?: string } = {}): Promise<MailSink> {
+export async function startMailSink(opts: { port?: number; host?: string; httpPort?: number } = {}): Promise<MailSink> {
   const host = opts.host ?? '127.0.0.1';
   const messages: CaughtMessage[] = [];
   const waiters = new Set<{ match: (m: CaughtMessage) => boolean; resolve: (m: CaughtMessage) => void }>();
@@ -84,10 +95,22 @@ export async function startMailSink(opts: { port?: number; host?: string } = {})
   server.on('error', () => {});
   const port = ((server as unknown as { server: { address(): AddressInfo } }).server.address()).port;
 
+  // Other processes (every app instance's mailbox page) read the list here.
+  let lister: http.Server | undefined;
+  if (opts.httpPort !== undefined) {
+    lister = http.createServer((_req, res) => {
+      res.writeHead(200, { 'Content-Type': 'application/json', 'Cache-Control': 'no-store' });
+      res.end(JSON.stringify(messages));
+    });
+    await new Promise<void>((resolve) => lister!.listen(opts.httpPort, host, () => resolve()));
+  }
+
   return {
     host,
     port,
+    listUrl: lister ? `http://${host}:${(lister.address() as AddressInfo).port}/messages` : undefined,
     messages,
+    list: async () => messages,
     clear() {
       messages.length = 0;
     },
@@ -103,6 +126,10 @@ export async function startMailSink(opts: { port?: number; host?: string } = {})
         waiters.add(w);
       });
     },
-    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+    close: async () => {
+      lister?.closeAllConnections();
+      await new Promise<void>((resolve) => (lister ? lister.close(() => resolve()) : resolve()));
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+    },
   };
 }

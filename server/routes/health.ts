@@ -1,5 +1,6 @@
 import { publicRoute } from './route';
 import { VehicleModel } from '../models';
+import { readiness } from '../http/lifecycle';
 
 export const healthRoutes = [
   publicRoute({
@@ -16,6 +17,19 @@ export const healthRoutes = [
         res.status(503);
         return { ok: false, database: 'down' };
       }
+    },
+  }),
+  // Readiness for a load balancer (http/lifecycle.ts): 503 while starting, while draining after
+  // SIGTERM, or when the database or the photo store does not answer.
+  publicRoute({
+    method: 'get',
+    path: '/api/ready',
+    access: 'public',
+    session: false,
+    handler: async ({ res }) => {
+      const { status, body } = await readiness();
+      res.status(status);
+      return body;
     },
   }),
 ];

@@ -138,3 +138,31 @@ export function spawnChild(cmd, args, opts = {}) {
   const done = new Promise((resolve) => child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0))));
   return { child, done };
 }
+
+/**
+ * The local stand-ins for hosted services (server/scripts/local-services.ts) in a child process:
+ * `args` choose them (`--s3 DIR`, `--mail PORT`). Resolves once they listen, with the settings
+ * the app needs (S3_*, SMTP_*, MAIL_SINK_URL); `stop()` ends the process.
+ */
+export async function startLocalServices(args, opts = {}) {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/scripts/local-services.ts', ...args], {
+    cwd: repoRoot,
+    stdio: ['ignore', 'pipe', 'inherit'],
+    ...opts,
+  });
+  const done = new Promise((resolve) => child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0))));
+  const settings = await new Promise((resolve, reject) => {
+    let out = '';
+    child.stdout.on('data', (d) => {
+      out += d;
+      const m = /local services ready (\{.*\})\n/.exec(out);
+      if (m) resolve(JSON.parse(m[1]));
+    });
+    void done.then((code) => reject(new Error(`local services exited (${code}) before they were ready:\n${out}`)));
+  });
+  const stop = async () => {
+    if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+    await done;
+  };
+  return { child, done, settings, stop };
+}

@@ -2,7 +2,7 @@
 // the real PostgreSQL, browser in Debian's Chromium), ending with one pass/fail summary line.
 import path from 'node:path';
 import fs from 'node:fs';
-import { ensureNpmPackages, ensureDebPackages, startCluster, ensureDatabase, repoRoot, run, spawnChild, log } from './system.mjs';
+import { ensureNpmPackages, ensureDebPackages, startCluster, ensureDatabase, startLocalServices, repoRoot, run, spawnChild, log } from './system.mjs';
 
 const pgPort = Number(process.env.TWISTLOG_TEST_PG_PORT ?? 54339);
 const extraArgs = process.argv.slice(2);
@@ -20,6 +20,7 @@ ensureDebPackages(['chromium', 'fonts-dejavu-core']);
 const clientDir = path.join(repoRoot, '.data', `dist-test-${pgPort}`);
 let code = 1;
 let cluster;
+let services;
 const report = path.join(repoRoot, '.data', `test-summary-${pgPort}.json`);
 fs.rmSync(report, { force: true });
 try {
@@ -29,6 +30,10 @@ try {
   // Port-specific folders let two runs (e.g. two developers on one machine) proceed side by side.
   cluster = await startCluster({ dataDir: path.join(repoRoot, '.data', `pg-test-${pgPort}`), port: pgPort, fresh: true });
   ensureDatabase(cluster, 'twistlog_test');
+  // Photos go to the local S3 fake, as under `npm start` (a fresh bucket folder per run and port).
+  const s3Dir = path.join(repoRoot, '.data', `s3-test-${pgPort}`);
+  fs.rmSync(s3Dir, { recursive: true, force: true });
+  services = await startLocalServices(['--s3', s3Dir]);
   if (runsBrowserTests(extraArgs)) {
     log('building the client for the browser tests…');
     run('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', clientDir, '--emptyOutDir'], { cwd: repoRoot });
@@ -37,6 +42,7 @@ try {
     ...process.env,
     NODE_ENV: 'test',
     DATABASE_URL: cluster.url('twistlog_test'),
+    ...services.settings,
     PHOTO_DIR: path.join(repoRoot, '.data', `photos-test-${pgPort}`),
     CLIENT_DIR: clientDir,
     SMTP_PORT: String(pgPort + 1),
@@ -49,6 +55,7 @@ try {
 } catch (err) {
   console.error(err.message);
 } finally {
+  await services?.stop();
   cluster?.stop();
 }
 

@@ -12,5 +12,5 @@ export async function updateMe(auth: AuthContext, input: UpdateMeInput) {
   if (input.name !== undefined) changes.name = input.name;
   if (input.unitSystem !== undefined) changes.unitSystem = input.unitSystem;
   if (Object.keys(changes).length) await user.update(changes);
-  return describeMe(auth);
+  return describeMe({ ...auth, name: user.name, unitSystem: user.unitSystem ?? null });
 }

@@ -39,12 +39,11 @@ export async function checkCredentials(email: string, password: string): Promise
   return { userId: user.id, teamId };
 }
 
-export async function describeMe(auth: AuthContext): Promise<Me> {
-  const [user, team] = await Promise.all([UserModel.findByPk(auth.userId), TeamModel.findByPk(auth.teamId)]);
-  if (!user || !team) throw new Unauthenticated();
+/** The signed-in person, their workshop and role: all read with the session (auth/lucia.ts). */
+export function describeMe(auth: AuthContext): Me {
   return {
-    user: { id: user.id, name: user.name, email: user.email, unitSystem: user.unitSystem ?? null },
-    team: { id: team.id, name: team.name, unitSystem: team.unitSystem, photoGps: team.photoGps },
+    user: { id: auth.userId, name: auth.name, email: auth.email, unitSystem: auth.unitSystem },
+    team: auth.team,
     role: auth.role,
   };
 }

@@ -6,6 +6,7 @@
 // in all), and the fitting runs in a worker thread (compare-worker.ts), one comparison at a time
 // with a short queue, so the request thread keeps answering everyone else meanwhile.
 import { Worker } from 'node:worker_threads';
+import { runsBundled } from '../paths';
 import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import { Invalid, Unavailable } from '../http/errors';
@@ -32,8 +33,11 @@ function failAll(err: Error) {
 
 function theWorker(): Worker {
   if (worker) return worker;
-  // The server runs TypeScript through tsx; ts-worker.mjs gives the worker the same loader.
-  const w = new Worker(new URL('./ts-worker.mjs', import.meta.url), { workerData: { entry: new URL('./compare-worker.ts', import.meta.url).href } });
+  // From the TypeScript sources (tsx, tests) ts-worker.mjs gives the worker the same loader; the
+  // bundled server has the worker bundled beside it (server/scripts/build-server.mjs).
+  const w = runsBundled
+    ? new Worker(new URL('./compare-worker.mjs', import.meta.url))
+    : new Worker(new URL('./ts-worker.mjs', import.meta.url), { workerData: { entry: new URL('./compare-worker.ts', import.meta.url).href } });
   w.unref();
   w.on('message', (answer: CompareAnswer) => {
     const job = waiting.get(answer.id);

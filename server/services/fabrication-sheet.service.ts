@@ -2,8 +2,9 @@
 // seal. It prints only the frozen snapshot (never a recomputation), every number through
 // shared/format.ts so it reads as on screen and in the CSV, and the planning-aid notice.
 // Fonts: Atkinson Hyperlegible (SIL OFL 1.1, fonts/OFL.txt), read by pdfkit's fontkit from WOFF.
-import PDFDocument from 'pdfkit';
+import type PDFKit from 'pdfkit';
 import path from 'node:path';
+import { repoRoot } from '../paths';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
 import { envelopeRemarks, envelopeRows } from '../../shared/envelope-rows';
@@ -18,7 +19,7 @@ import {
   formatTimestamp,
 } from '../../shared/format';
 
-const FONT_DIR = path.resolve(import.meta.dirname, '../../fonts');
+const FONT_DIR = path.join(repoRoot, 'fonts');
 const REGULAR = path.join(FONT_DIR, 'atkinson-hyperlegible-regular.woff');
 const BOLD = path.join(FONT_DIR, 'atkinson-hyperlegible-bold.woff');
 
@@ -37,7 +38,7 @@ export interface SheetInput {
   unit: UnitSystem;
 }
 
-type Doc = InstanceType<typeof PDFDocument>;
+type Doc = InstanceType<typeof PDFKit>;
 
 function heading(doc: Doc, text: string) {
   doc.moveDown(0.6).font('bold').fontSize(12).fillColor(LINE).text(text, MARGIN).moveDown(0.2);
@@ -117,7 +118,9 @@ function openingDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
   doc.y = Math.max(top + h + 12, doc.y + 6);
 }
 
-export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetInput): Promise<Buffer> {
+// pdfkit is loaded with the first sheet, not at start-up (it takes a tenth of a second to load).
+export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetInput): Promise<Buffer> {
+  const { default: PDFDocument } = await import('pdfkit');
   const doc = new PDFDocument({
     size: 'A4',
     margin: MARGIN,

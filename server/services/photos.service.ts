@@ -7,13 +7,12 @@
 // and cache kept small), a short queue beyond which the upload is asked to come back later, at most
 // two uploads in flight per person (routes/photos.ts), and a storage ceiling per workshop. Phones
 // shrink photos before storing them (src/lib/photo-shrink.ts), so large originals are the exception.
-import exifr from 'exifr';
 import pLimit from 'p-limit';
-import sharp, { type Metadata as ImageMetadata } from 'sharp';
+import type { Metadata as ImageMetadata } from 'sharp';
 import { QueryTypes, UniqueConstraintError } from 'sequelize';
 import { AppError, Conflict, Invalid, NotFound, Unavailable } from '../http/errors';
 import { PhotoModel, PoseModel, TeamModel, TestSessionModel } from '../models';
-import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-store';
+import { readPhotoFile, removePhotoFiles, writePhotoFiles, type StoredObject } from '../storage/photo-store';
 import type { AuthContext } from '../auth/context';
 import { withTeamChanges } from './team-changes';
 import type { Photo } from '../../shared/schemas';
@@ -40,9 +39,15 @@ export const photoLimits = {
   memoryBudgetMb: 400,
 } as const;
 
-// One libvips worker thread per image and no operation cache: memory follows the decode queue.
-sharp.concurrency(1);
-sharp.cache(false);
+// sharp and exifr are loaded with the first upload, not at start-up. One libvips worker thread per
+// image and no operation cache: memory follows the decode queue.
+let imaging: Promise<{ sharp: typeof import('sharp').default; exifr: typeof import('exifr').default }> | undefined;
+const loadImaging = () =>
+  (imaging ??= Promise.all([import('sharp'), import('exifr')]).then(([s, e]) => {
+    s.default.concurrency(1);
+    s.default.cache(false);
+    return { sharp: s.default, exifr: e.default };
+  }));
 const decodeQueue = pLimit(photoLimits.concurrentDecodes);
 
 type ImageKind = 'jpeg' | 'png' | 'webp';
@@ -63,6 +68,7 @@ interface Metadata {
 
 async function readMetadata(buf: Buffer): Promise<Metadata> {
   try {
+    const { exifr } = await loadImaging();
     const m = await exifr.parse(buf, { gps: true, exif: true, tiff: true, xmp: false, icc: false, iptc: false });
     const when = m?.DateTimeOriginal ?? m?.CreateDate;
     const lat = typeof m?.latitude === 'number' && Number.isFinite(m.latitude) ? m.latitude : null;
@@ -80,6 +86,7 @@ function tooManyPixels(size: string | null) {
 }
 
 async function reencode(buf: Buffer) {
+  const { sharp } = await loadImaging();
   const input = () => sharp(buf, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' });
   let meta: ImageMetadata;
   try {
@@ -127,24 +134,6 @@ export const photoOut = (p: PhotoModel): Photo & { changeSeq: number } => ({
 });
 
 /** A raw photos row (as a pull reads it) → the photo record. */
-export function photoRecordFromRow(r: Record<string, unknown>): Photo & { changeSeq: number } {
-  return {
-    id: r.id as string,
-    version: r.version as number,
-    deletedAt: iso(r.deleted_at as Date | null),
-    sessionId: r.session_id as string,
-    poseId: (r.pose_id as string | null) ?? null,
-    caption: r.caption as string,
-    mime: r.mime as string,
-    width: r.width as number,
-    height: r.height as number,
-    bytes: r.bytes as number,
-    capturedAt: iso(r.captured_at as Date | null),
-    hasGps: r.gps_lat != null && r.gps_lon != null,
-    changeSeq: Number(r.change_seq),
-  };
-}
-
 /**
  * Stores one uploaded photo. The client's id makes a retried upload (lost answer) return the
  * photo already stored instead of storing it twice.
@@ -215,11 +204,13 @@ async function checkStorage(teamId: string, incoming: number) {
   }
 }
 
-/** The file of a team's photo (full size or thumbnail). */
-export async function photoFile(auth: AuthContext, id: string, size: 'full' | 'thumb'): Promise<string> {
-  const p = await PhotoModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null } });
+/** The stored file of a team's photo (full size or thumbnail), read from the photo store. */
+export async function photoFile(auth: AuthContext, id: string, size: 'full' | 'thumb'): Promise<StoredObject> {
+  const p = await PhotoModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, attributes: ['storedName', 'thumbName'] });
   if (!p) throw new NotFound('photo');
-  return photoPath(size === 'thumb' ? p.thumbName : p.storedName);
+  const file = await readPhotoFile(size === 'thumb' ? p.thumbName : p.storedName);
+  if (!file) throw new NotFound('photo file');
+  return file;
 }
 
 export const tooLarge = () => new AppError(413, 'too_large', `photo is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB`, [{ field: 'photo', message: 'file too large' }]);

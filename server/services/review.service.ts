@@ -2,40 +2,71 @@
 // session's history, and the engineer's edits of one reading (exclude with a reason, flag with a
 // note, correct a value). Nothing is deleted; every edit checks the reading's version (a stale edit
 // is a 409) and leaves a history event in the same transaction.
-import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel, UserModel } from '../models';
+import { QueryTypes } from 'sequelize';
+import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel } from '../models';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
-import { getSessionDetail, readingOut } from './sessions.service';
+import { readingOut, type getSessionDetail } from './sessions.service';
 import { withTeamChanges } from './team-changes';
+import { isoSql, syncedRecordJsonSql } from './record-json';
+import { etagOf, teamCursorSql } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
-async function people(ids: (string | null)[]) {
-  const wanted = [...new Set(ids.filter((x): x is string => !!x))];
-  const users = wanted.length ? await UserModel.findAll({ where: { id: wanted }, attributes: ['id', 'name'] }) : [];
-  return Object.fromEntries(users.map((u) => [u.id, u.name])) as Record<string, string>;
+/** How many of a session's latest history events the review carries. */
+const HISTORY_SHOWN = 200;
+
+export type SessionReview = Awaited<ReturnType<typeof getSessionDetail>> & { people: Record<string, string>; history: HistoryEventRecord[] };
+
+// The whole answer in one statement: the session, its vehicle and gauge points, poses and readings
+// (as getSessionDetail gives them), the names of the people who entered readings, and the latest
+// history. PostgreSQL builds the JSON and the route passes the text through (see record-json.ts).
+// Written once the models are initialised, from their column names.
+let reviewSqlText: string | undefined;
+export const reviewSql = () => (reviewSqlText ??= `
+WITH s AS (SELECT * FROM test_sessions WHERE id = $2 AND team_id = $1 AND deleted_at IS NULL),
+v AS (SELECT v.* FROM vehicles v JOIN s ON v.id = s.vehicle_id WHERE v.team_id = $1),
+g AS (SELECT g.* FROM gauge_points g JOIN s ON g.vehicle_id = s.vehicle_id WHERE g.team_id = $1 AND g.deleted_at IS NULL),
+p AS (SELECT * FROM poses WHERE session_id = $2 AND team_id = $1 AND deleted_at IS NULL),
+r AS (SELECT r.* FROM readings r JOIN p ON r.pose_id = p.id WHERE r.team_id = $1 AND r.deleted_at IS NULL),
+h AS (SELECT * FROM history_events WHERE team_id = $1 AND session_id = $2 ORDER BY id DESC LIMIT ${HISTORY_SHOWN})
+SELECT (SELECT count(*) FROM s)::int AS sessions, (SELECT count(*) FROM v)::int AS vehicles, json_build_object(
+  'session', (SELECT ${syncedRecordJsonSql('testSession', 's')} FROM s),
+  'vehicle', (SELECT ${syncedRecordJsonSql('vehicle', 'v')} FROM v),
+  'gaugePoints', coalesce((SELECT json_agg(${syncedRecordJsonSql('gaugePoint', 'g')} ORDER BY g.label) FROM g), '[]'),
+  'poses', coalesce((SELECT json_agg(${syncedRecordJsonSql('pose', 'p')} ORDER BY p.seq) FROM p), '[]'),
+  'readings', coalesce((SELECT json_agg(${syncedRecordJsonSql('reading', 'r', { enteredBy: 'r.entered_by' })} ORDER BY r.created_at, r.id) FROM r), '[]'),
+  'people', coalesce((SELECT json_object_agg(u.id, u.name) FROM users u WHERE u.id IN (SELECT entered_by FROM r)), '{}'),
+  'history', coalesce((SELECT json_agg(json_build_object('id', h.id, 'entity', h.entity, 'entityId', h.entity_id, 'action', h.action,
+    'userName', u.name, 'detail', h.detail, 'createdAt', ${isoSql('h.created_at')}) ORDER BY h.id DESC) FROM h LEFT JOIN users u ON u.id = h.user_id), '[]')
+)::text AS body`);
+
+/** The review as JSON text, built by PostgreSQL. */
+export async function getReviewJson(auth: Pick<AuthContext, 'teamId'>, sessionId: string): Promise<string> {
+  const [row] = await TestSessionModel.sequelize!.query<{ sessions: number; vehicles: number; body: string }>(reviewSql(), { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT });
+  if (!row.sessions) throw new NotFound('session');
+  if (!row.vehicles) throw new NotFound('vehicle');
+  return row.body;
 }
 
-export async function sessionHistory(teamId: string, sessionId: string): Promise<HistoryEventRecord[]> {
-  const events = await HistoryEventModel.findAll({ where: { teamId, sessionId }, order: [['id', 'DESC']], limit: 200 });
-  const names = await people(events.map((e) => e.userId));
-  return events.map((e) => ({
-    id: Number(e.id),
-    entity: e.entity,
-    entityId: e.entityId,
-    action: e.action,
-    userName: e.userId ? (names[e.userId] ?? null) : null,
-    detail: e.detail as Record<string, unknown>,
-    createdAt: new Date(e.createdAt).toISOString(),
-  }));
+export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: string): Promise<SessionReview> {
+  return JSON.parse(await getReviewJson(auth, sessionId)) as SessionReview;
 }
 
-/** The session as getSessionDetail gives it, plus the names of the people in it and its history. */
-export async function getReview(auth: Reviewer, sessionId: string) {
-  const detail = await getSessionDetail(auth, sessionId);
-  const [names, history] = await Promise.all([people(detail.readings.map((r) => r.enteredBy)), sessionHistory(auth.teamId, sessionId)]);
-  return { ...detail, people: names, history };
+/**
+ * The review's validator: the team's change cursor moves with any change to the session's
+ * records, the history's count and last id with any new event (http/validator.ts), and the
+ * members' latest update with a renamed person (the answer names who entered and who changed what).
+ */
+export async function reviewEtag(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<string> {
+  const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number; people: number }>(
+    `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.team_id = $1) AS people
+     FROM history_events WHERE team_id = $1 AND session_id = $2`,
+    { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT },
+  );
+  return etagOf('review', [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
 
 /** The history action of a change to a reading, at the desk or through sync. */

@@ -1,12 +1,40 @@
-// Photo files on disk: the re-encoded copy and its thumbnail, under PHOTO_DIR, with names the
-// server makes up (a random UUID). A client's file name never reaches the file system.
-import fs from 'node:fs/promises';
-import path from 'node:path';
+// Where photo files live: the re-encoded copy and its thumbnail, under names the server makes up
+// (a random UUID), so a client's file name never reaches storage. Two drivers behind one small
+// interface: S3-compatible object storage (any number of app instances share it; `npm start` and
+// `npm test` run a local fake) when S3_BUCKET is set, else a folder on this machine (PHOTO_DIR),
+// which suits one instance in development. The settings are read from the environment when the
+// store is first used (server/config.ts validates them at start-up).
+import type { Readable } from 'node:stream';
 import { randomUUID } from 'node:crypto';
+import { diskStore } from './disk-store';
+import { s3Store, s3SettingsFrom } from './s3-store';
 
-/** PHOTO_DIR (server/config.ts), resolved once per call so a test run's folder is honoured. */
-export function photoDir(): string {
-  return path.resolve(process.env.PHOTO_DIR ?? '.data/photos');
+export interface StoredObject {
+  body: Readable;
+  bytes: number;
+}
+
+export interface PhotoStore {
+  /** Where the files go, for logs and the readiness answer ("s3://bucket", "/path"). */
+  readonly where: string;
+  put(name: string, data: Buffer): Promise<void>;
+  /** The stored file, or null when no such name is stored. */
+  get(name: string): Promise<StoredObject | null>;
+  remove(names: string[]): Promise<void>;
+  /** Every stored name (tests and housekeeping). */
+  list(): Promise<string[]>;
+  /** Throws when the storage cannot be reached (the readiness check). */
+  check(): Promise<void>;
+}
+
+let current: { key: string; store: PhotoStore } | undefined;
+
+/** The store the environment names; the same object for as long as the settings stay the same. */
+export function photoStore(env: NodeJS.ProcessEnv = process.env): PhotoStore {
+  const s3 = s3SettingsFrom(env);
+  const key = s3 ? JSON.stringify(s3) : `disk:${env.PHOTO_DIR ?? ''}`;
+  if (current?.key !== key) current = { key, store: s3 ? s3Store(s3) : diskStore(env.PHOTO_DIR ?? '.data/photos') };
+  return current.store;
 }
 
 export interface StoredPhotoFiles {
@@ -14,27 +42,33 @@ export interface StoredPhotoFiles {
   thumbName: string;
 }
 
-/** Writes both files atomically (temporary name, then rename), so a crash never leaves half a photo. */
+const NAME = /^[0-9a-f-]{36}(\.thumb)?\.jpg$/;
+
+/** Only names this module made are accepted: nothing else can be asked of the storage. */
+export function checkedName(name: string): string {
+  if (!NAME.test(name)) throw new Error(`not a stored photo name: ${name}`);
+  return name;
+}
+
+/** Stores a photo and its thumbnail under fresh names; a failure leaves neither behind. */
 export async function writePhotoFiles(photo: Buffer, thumb: Buffer): Promise<StoredPhotoFiles> {
-  const dir = photoDir();
-  await fs.mkdir(dir, { recursive: true });
   const base = randomUUID();
   const files = { storedName: `${base}.jpg`, thumbName: `${base}.thumb.jpg` };
-  for (const [name, data] of [[files.storedName, photo], [files.thumbName, thumb]] as const) {
-    const tmp = path.join(dir, `.${name}.tmp`);
-    await fs.writeFile(tmp, data, { flag: 'wx' });
-    await fs.rename(tmp, path.join(dir, name));
+  const store = photoStore();
+  try {
+    await store.put(files.storedName, photo);
+    await store.put(files.thumbName, thumb);
+  } catch (err) {
+    await store.remove([files.storedName, files.thumbName]).catch(() => {});
+    throw err;
   }
   return files;
 }
 
-export async function removePhotoFiles(files: StoredPhotoFiles): Promise<void> {
-  const dir = photoDir();
-  await Promise.all([files.storedName, files.thumbName].map((n) => fs.rm(path.join(dir, n), { force: true })));
+export function removePhotoFiles(files: StoredPhotoFiles): Promise<void> {
+  return photoStore().remove([files.storedName, files.thumbName]);
 }
 
-/** Absolute path of a stored name; only names this module made (UUID-based) are accepted. */
-export function photoPath(name: string): string {
-  if (!/^[0-9a-f-]{36}(\.thumb)?\.jpg$/.test(name)) throw new Error(`not a stored photo name: ${name}`);
-  return path.join(photoDir(), name);
+export function readPhotoFile(name: string): Promise<StoredObject | null> {
+  return photoStore().get(checkedName(name));
 }

@@ -1,5 +1,8 @@
 // The one HTTP client: JSON in and out, same-origin cookies, and failures as a typed ApiError
-// carrying the server's message and field errors.
+// carrying the server's message and field errors. Answers that carry an ETag (the review, the
+// pull) are kept in memory with it, and asked for again with If-None-Match: an unchanged answer
+// comes back as a 304 with no body and the kept copy is used. API answers are no-store, so the
+// browser's own cache keeps none of them.
 import type { FieldError } from '@shared/schemas/common';
 
 export type { FieldError };
@@ -19,15 +22,33 @@ export class ApiError extends Error {
   }
 }
 
+/** How many validated answers are kept (a session review is a few hundred kB). */
+const KEPT_ANSWERS = 12;
+const kept = new Map<string, { etag: string; data: unknown }>();
+
+/** Drops every kept answer (at sign-out: the next person starts with nothing of the last one's). */
+export function forgetKeptAnswers() {
+  kept.clear();
+}
+
+function keep(path: string, etag: string, data: unknown) {
+  kept.delete(path);
+  kept.set(path, { etag, data });
+  if (kept.size > KEPT_ANSWERS) kept.delete(kept.keys().next().value!);
+}
+
 export async function api<T>(path: string, init: { method?: string; body?: unknown; signal?: AbortSignal; headers?: Record<string, string> } = {}): Promise<T> {
+  const method = init.method ?? 'GET';
+  const copy = method === 'GET' ? kept.get(path) : undefined;
   let res: Response;
   try {
     res = await fetch(path, {
-      method: init.method ?? 'GET',
+      method,
       credentials: 'same-origin',
       signal: init.signal,
       headers: {
         Accept: 'application/json',
+        ...(copy ? { 'If-None-Match': copy.etag } : {}),
         ...(init.body !== undefined && !(init.body instanceof FormData) ? { 'Content-Type': 'application/json' } : {}),
         ...init.headers,
       },
@@ -37,8 +58,15 @@ export async function api<T>(path: string, init: { method?: string; body?: unkno
     if ((err as Error).name === 'AbortError') throw err;
     throw new ApiError(0, 'network', 'no connection to the server');
   }
+  if (res.status === 304 && copy) {
+    keep(path, copy.etag, copy.data);
+    return copy.data as T;
+  }
   const text = await res.text();
   const data = text ? safeJson(text) : undefined;
+  if (res.status === 401) forgetKeptAnswers();
+  const etag = res.headers.get('ETag');
+  if (method === 'GET' && res.ok && etag) keep(path, etag, data);
   if (!res.ok) {
     const e = (data as { error?: { code?: string; message?: string; fields?: FieldError[] } } | undefined)?.error;
     throw new ApiError(res.status, e?.code ?? 'http', e?.message ?? `request failed (${res.status})`, e?.fields ?? []);

@@ -4,12 +4,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import fs from 'node:fs';
-import path from 'node:path';
 import zlib from 'node:zlib';
 import { randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
+import { storedPhotoNames } from '../support/photos';
 
 let ts: TestServer;
 let team: TestTeam;
@@ -24,8 +24,6 @@ beforeAll(async () => {
 });
 afterAll(async () => ts.close());
 
-const photoDir = () => path.resolve(process.env.PHOTO_DIR ?? '.data/photos');
-
 /** Everything this team has written, table by table, plus the stored photo files. */
 async function footprint() {
   const [row] = await ts.sequelize.query<Record<string, number>>(
@@ -34,7 +32,7 @@ async function footprint() {
       .join(', ')}`,
     { bind: [team.teamId], type: QueryTypes.SELECT },
   );
-  const files = fs.existsSync(photoDir()) ? fs.readdirSync(photoDir(), { recursive: true }).length : 0;
+  const files = (await storedPhotoNames()).length;
   return { ...row, files };
 }
 
@@ -214,7 +212,7 @@ describe('photo upload under hostile input', () => {
     for (const name of [row.stored_name, row.thumb_name]) {
       expect(name).not.toMatch(/owned|\.\./);
     }
-    const all = fs.readdirSync(photoDir(), { recursive: true }).map(String);
+    const all = await storedPhotoNames();
     expect(all.some((f) => f.includes('owned'))).toBe(false);
   });
 });

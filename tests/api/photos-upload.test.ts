@@ -1,13 +1,12 @@
 // Photo upload through HTTP: limits, bad files, GPS stripped from the stored copy, team-scoped serving.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import fs from 'node:fs';
 import sharp from 'sharp';
 import exifr from 'exifr';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
 import { batchKey, change, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PhotoModel } from '../../server/models';
-import { photoPath } from '../../server/storage/photo-store';
+import { storedPhotoBytes } from '../support/photos';
 import { MAX_PHOTO_BYTES } from '../../server/services/photos.service';
 
 let ts: TestServer;
@@ -92,10 +91,11 @@ describe('photo upload', () => {
     const row = await PhotoModel.findByPk(id);
     expect(row?.gpsLat).toBeCloseTo(47.5, 6);
     expect(row?.storedName).not.toMatch(/passwd|IMG/);
-    const stored = fs.readFileSync(photoPath(row!.storedName));
+    const stored = (await storedPhotoBytes(row!.storedName))!;
+    expect(stored).not.toBeNull();
     expect(await exifr.gps(stored)).toBeUndefined();
     expect(await exifr.parse(stored)).toBeUndefined();
-    expect(fs.existsSync(photoPath(row!.thumbName))).toBe(true);
+    expect(await storedPhotoBytes(row!.thumbName)).not.toBeNull();
 
     const full = await tester.get(`/api/photos/${id}`).buffer(true);
     expect(full.status).toBe(200);

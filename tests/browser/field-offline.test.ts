@@ -1,7 +1,6 @@
 // A whole field session offline on a phone-sized screen, then sync: everything typed survives a
 // reload while offline (served by the service worker), and arrives intact in PostgreSQL and on disk.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import fs from 'node:fs';
 import path from 'node:path';
 import sharp from 'sharp';
 import type { Browser } from 'playwright-core';
@@ -9,7 +8,7 @@ import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, t
 import { launchBrowser, screenshotDir } from '../support/browser';
 import { vehicleWithPoints } from '../support/sync';
 import { PhotoModel, PoseModel, ReadingModel, TestSessionModel } from '../../server/models';
-import { photoPath } from '../../server/storage/photo-store';
+import { storedPhotoBytes } from '../support/photos';
 
 let ts: TestServer;
 let browser: Browser;
@@ -122,8 +121,8 @@ describe('field recorder offline', () => {
     const photos = await PhotoModel.findAll({ where: { sessionId } });
     expect(photos).toHaveLength(1);
     expect(photos[0].poseId).toBe(poses[1].id);
-    expect(fs.statSync(photoPath(photos[0].storedName)).size).toBeGreaterThan(0);
-    expect(fs.existsSync(photoPath(photos[0].thumbName))).toBe(true);
+    expect((await storedPhotoBytes(photos[0].storedName))?.length).toBeGreaterThan(0);
+    expect(await storedPhotoBytes(photos[0].thumbName)).not.toBeNull();
     await page.goto(poseUrl);
     await page.getByTestId('pose-photos').getByText('on the server', { exact: true }).waitFor();
     await context.close();

@@ -43,10 +43,13 @@ export interface ServerProcess {
   stop(): Promise<void>;
 }
 
-/** The real server (server/main.ts) as a child process on a free port. */
-export async function startServerProcess(databaseUrl: string, env: Record<string, string> = {}): Promise<ServerProcess> {
+/**
+ * The real server as a child process on a free port: from its TypeScript sources, or from a bundle
+ * (`bundle`: a main.mjs built by server/scripts/build-server.mjs).
+ */
+export async function startServerProcess(databaseUrl: string, env: Record<string, string> = {}, bundle?: string): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+  const child = spawn(process.execPath, bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'], {
     cwd: repoRoot,
     env: { ...process.env, NODE_ENV: 'test', LOG_LEVEL: 'silent', DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(await freePort()), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -134,8 +137,15 @@ export function nodeTransport(baseUrl: string, cookie: string, hooks: { beforePu
     async pull(since: number) {
       return pullResponse.parse(await call(baseUrl, cookie, `/api/sync/pull?since=${since}`));
     },
-    async uploadPhoto() {
-      throw new Error('no photos in fault tests');
+    async uploadPhoto(form: FormData) {
+      let res: Response;
+      try {
+        res = await fetch(`${baseUrl}/api/photos`, { method: 'POST', headers: { Cookie: cookie, Origin: baseUrl, Accept: 'application/json' }, body: form });
+      } catch {
+        throw new ApiError(0, 'network', 'no connection to the server');
+      }
+      const data = await res.json().catch(() => undefined);
+      if (!res.ok) throw new ApiError(res.status, data?.error?.code ?? 'http', data?.error?.message ?? `HTTP ${res.status}`, data?.error?.fields ?? []);
     },
   };
   return t;

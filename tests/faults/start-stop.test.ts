@@ -44,11 +44,14 @@ async function npmStart(waitFor: RegExp) {
   const [pgPort, appPort, smtpPort] = [await freePort(), await freePort(), await freePort()];
   // A marker every process of this run carries in its environment, and the cluster in its command line.
   const pgDir = path.join('.data', `pg-start-stop-${pgPort}`);
+  const s3Dir = path.join('.data', `s3-start-stop-${pgPort}`);
+  folders.push(path.resolve(repoRoot, s3Dir));
   // The test run's own database and folders are not this run's.
-  const { DATABASE_URL: _db, PHOTO_DIR: _photos, ...env } = process.env;
+  const { DATABASE_URL: _db, PHOTO_DIR: _photos, CLIENT_DIR: _client, ...inherited } = process.env;
+  const env = Object.fromEntries(Object.entries(inherited).filter(([k]) => !k.startsWith('S3_')));
   const child = spawn('npm', ['start'], {
     cwd: repoRoot,
-    env: { ...env, NODE_ENV: 'development', TWISTLOG_PG_PORT: String(pgPort), PORT: String(appPort), SMTP_PORT: String(smtpPort), TWISTLOG_PG_DIR: pgDir, LOG_LEVEL: 'warn' },
+    env: { ...env, NODE_ENV: 'development', TWISTLOG_PG_PORT: String(pgPort), PORT: String(appPort), SMTP_PORT: String(smtpPort), TWISTLOG_PG_DIR: pgDir, TWISTLOG_S3_DIR: s3Dir, LOG_LEVEL: 'warn' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   started.push(child);
@@ -63,7 +66,8 @@ async function npmStart(waitFor: RegExp) {
   }
   const marker = path.resolve(repoRoot, pgDir);
   folders.push(marker);
-  return { child, pgPort, appPort, marker, output: () => output };
+  // The local services (S3 fake, mail sink) carry their folder in their command line.
+  return { child, pgPort, appPort, marker, s3Marker: path.resolve(repoRoot, s3Dir), output: () => output };
 }
 
 async function expectAllGone(run: Awaited<ReturnType<typeof npmStart>>) {
@@ -74,10 +78,11 @@ async function expectAllGone(run: Awaited<ReturnType<typeof npmStart>>) {
   expect(exited, run.output()).toBe(true);
   // Whatever was started must stop within a few seconds of npm.
   const deadline = Date.now() + 20_000;
-  let left = processesWith(run.marker);
+  const running = () => [...processesWith(run.marker), ...processesWith(run.s3Marker)];
+  let left = running();
   while (left.length && Date.now() < deadline) {
     await new Promise((r) => setTimeout(r, 500));
-    left = processesWith(run.marker);
+    left = running();
   }
   expect(left.map((p) => `${p.pid} ${p.cmd}`), run.output()).toEqual([]);
   expect(await portOpen(run.appPort)).toBe(false);

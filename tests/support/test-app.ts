@@ -19,6 +19,7 @@ import { configureMailer } from '../../server/mail/mailer';
 import { startMailSink, type MailSink } from '../../server/mail/sink';
 import { createMailboxRouter } from '../../server/mail/mailbox';
 import { setAppUrl } from '../../server/mail/templates';
+import { lifecycle } from '../../server/http/lifecycle';
 import type { Role } from '../../shared/schemas';
 
 export const repoRoot = path.resolve(import.meta.dirname, '../..');
@@ -67,6 +68,7 @@ export async function startTestServer(opts: TestServerOptions = {}): Promise<Tes
   const { port } = server.address() as AddressInfo;
   const baseUrl = `http://127.0.0.1:${port}`;
   setAppUrl(baseUrl);
+  lifecycle.markReady();
   return {
     sequelize,
     server,

@@ -1,28 +1,111 @@
-// The benchmark's server and data: the real app in this process on the bench cluster, one
-// workshop with a tester, and helpers to build what the field client would push.
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
+// The benchmark's servers and data. The app runs as it is deployed — the bundled server
+// (dist-server/main.mjs, built by bench.mjs) in production mode, one process per instance — and
+// the bare reference B2 in a process of its own; this process only sets up data and generates
+// load, so the load generator never shares a process (or an event loop) with what it measures.
+import { spawn, type ChildProcess } from 'node:child_process';
+import net from 'node:net';
+import path from 'node:path';
 import { randomUUID } from 'node:crypto';
-import { pino } from 'pino';
 import { createSequelize } from '../../db';
 import { initModels, MembershipModel, TeamModel, UserModel } from '../../models';
 import { migrate } from '../../migrate';
-import { createApp } from '../../app';
 import { hashPassword, startSession } from '../../auth/lucia';
 import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../../shared/records';
+import { repoRoot } from '../../paths';
 
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export interface Child {
+  baseUrl: string;
+  pid: number;
+  /** Milliseconds from spawning the process to its first successful health answer. */
+  startMs: number;
+  stop(): Promise<void>;
+}
+
+async function stopChild(child: ChildProcess) {
+  if (child.exitCode !== null || child.signalCode) return;
+  const exited = new Promise((r) => child.once('exit', r));
+  child.kill('SIGTERM');
+  await exited;
+}
+
+/** The environment of an app instance under the bench: production, as a deployment runs it. */
+export function appEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
+  return {
+    ...process.env,
+    NODE_ENV: 'production',
+    DATABASE_URL: databaseUrl,
+    PORT: String(port),
+    LOG_LEVEL: process.env.BENCH_APP_LOG_LEVEL ?? 'info',
+    PHOTO_DIR: process.env.PHOTO_DIR ?? path.join(repoRoot, '.data', 'photos-bench'),
+  };
+}
+
+/** One app instance: `node <bundle>` (or the TypeScript sources when `bundle` is null), its output discarded. */
+export async function startInstance(databaseUrl: string, bundle: string | null = process.env.SERVER_BUNDLE ?? null): Promise<Child> {
+  const port = await freePort();
+  const started = performance.now();
+  const child = spawn(process.execPath, bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'], {
+    cwd: repoRoot,
+    env: appEnv(databaseUrl, port),
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const baseUrl = `http://127.0.0.1:${port}`;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`the app instance exited during start-up (${child.exitCode})`);
+    try {
+      if ((await fetch(`${baseUrl}/api/health`)).ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (performance.now() - started > 60_000) throw new Error('the app instance did not answer within 60 s');
+    await new Promise((r) => setTimeout(r, 5));
+  }
+  return { baseUrl, pid: child.pid!, startMs: performance.now() - started, stop: () => stopChild(child) };
+}
+
+/** B2, the bare reference handler (bare-b2.ts), in a process of its own. */
+export async function startB2(databaseUrl: string): Promise<Child> {
+  const started = performance.now();
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/scripts/bench/bare-b2.ts'], {
+    cwd: repoRoot,
+    env: { ...process.env, DATABASE_URL: databaseUrl },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  const port = await new Promise<number>((resolve, reject) => {
+    let out = '';
+    child.stdout!.on('data', (d) => {
+      out += d;
+      const m = /b2 listening (\d+)/.exec(out);
+      if (m) resolve(Number(m[1]));
+    });
+    child.once('exit', (code) => reject(new Error(`B2 exited during start-up (${code})`)));
+  });
+  return { baseUrl: `http://127.0.0.1:${port}`, pid: child.pid!, startMs: performance.now() - started, stop: () => stopChild(child) };
+}
+
+/** The bench's database (migrated here, so instances start on a current schema) and one app instance. */
 export async function startBenchServer(databaseUrl: string) {
-  const sequelize = createSequelize(databaseUrl, 10);
+  const sequelize = createSequelize(databaseUrl, 4);
   initModels(sequelize);
   await migrate(sequelize);
-  const app = createApp({ logger: pino({ level: 'silent' }), clientDir: process.env.CLIENT_DIR });
-  const server = http.createServer(app);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-
+  const app = await startInstance(databaseUrl);
+  const baseUrl = app.baseUrl;
   const { teamId, userId, headers } = await newWorkshop(baseUrl);
   return {
+    databaseUrl,
     sequelize,
+    app,
     baseUrl,
     teamId,
     userId,
@@ -34,7 +117,7 @@ export async function startBenchServer(databaseUrl: string) {
       return res.json();
     },
     async close() {
-      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await app.stop();
       await sequelize.close();
     },
   };

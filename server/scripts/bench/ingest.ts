@@ -1,6 +1,7 @@
-// Sync ingest: 10,000 readings through the app's own push route (HTTP, JSON, validation,
-// checks, one transaction per batch, the batch's stored answer), beside one plain multi-row
-// INSERT of the same rows into the same table, in the same run. Median of three rounds each.
+// Sync ingest: 10,000 readings through the app's own push route (HTTP to the app's process, JSON,
+// validation, checks, one transaction per batch, the batch's stored answer), beside one plain
+// multi-row INSERT of the same rows into the same table from this process, interleaved in the same
+// run. Median of three rounds each.
 import { randomUUID } from 'node:crypto';
 import type { BenchRow } from './report';
 import { CLIENT_BATCH_CHANGES } from '../../../shared/schemas/sync';
@@ -51,9 +52,15 @@ export async function runIngestBench(s: BenchServer): Promise<BenchRow[]> {
   const oneRate = rate(median(oneBatch));
   const plainRate = rate(median(plain));
   const fmt = (r: number) => `${Math.round(r).toLocaleString('en')} readings/s`;
+  const clientRatio = appRate / plainRate;
   return [
     { section: 'sync ingest', measure: `plain multi-row INSERT of ${READINGS.toLocaleString('en')} readings`, value: `${fmt(plainRate)} (${median(plain).toFixed(0)} ms)` },
-    { section: 'sync ingest', measure: `app push, one batch of ${READINGS.toLocaleString('en')}`, value: `${fmt(oneRate)} (${median(oneBatch).toFixed(0)} ms), ratio ${(oneRate / plainRate).toFixed(2)}`, goal: '≥ 0.5 of plain' },
-    { section: 'sync ingest', measure: `app push, client batches of ${CLIENT_BATCH}`, value: `${fmt(appRate)} (${median(app).toFixed(0)} ms), ratio ${(appRate / plainRate).toFixed(2)}`, goal: '≥ 0.5 of plain' },
+    { section: 'sync ingest', measure: `app push, one batch of ${READINGS.toLocaleString('en')}`, value: `${fmt(oneRate)} (${median(oneBatch).toFixed(0)} ms), ratio ${(oneRate / plainRate).toFixed(2)}` },
+    {
+      section: 'sync ingest',
+      measure: `app push, the client's batches of ${CLIENT_BATCH}`,
+      value: `${fmt(appRate)} (${median(app).toFixed(0)} ms), ratio ${clientRatio.toFixed(2)}`,
+      goal: `≥ 0.65 of plain: ${clientRatio >= 0.65 ? 'met' : 'NOT met'}`,
+    },
   ];
 }

@@ -1,4 +1,5 @@
-// Runs every benchmark in one process against the cluster bench.mjs started.
+// Runs every benchmark against the cluster bench.mjs started: this process sets up data and
+// generates load; the app and the bare reference run in processes of their own (fixture.ts).
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { renderReport, writeReport, type BenchRow } from './report';
@@ -8,6 +9,7 @@ import { startBenchServer } from './fixture';
 import { runIngestBench } from './ingest';
 import { runLoadBench } from './load';
 import { runTapBench } from './tap-to-commit';
+import { runColdStartBench } from './cold-start';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
@@ -36,6 +38,7 @@ async function main() {
     if (wants('ingest')) rows.push(...(await runIngestBench(server)));
     if (wants('load')) rows.push(...(await runLoadBench(server)));
     if (wants('tap')) rows.push(...(await runTapBench(server)));
+    if (wants('cold')) rows.push(...(await runColdStartBench(server)));
   } finally {
     await server.close();
   }

@@ -45,9 +45,14 @@ function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]
 
 /** Puts records and queues them; call inside a transaction over their table and the outbox. */
 async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], db: FieldDb) {
-  await tableOf(db, entity).bulkPut(valid as never[]);
+  // The record's write and the look-up of its outbox entries go to IndexedDB together (one round
+  // trip, not two: a keystroke pays for each); the look-up does not depend on the write.
   // One waiting entry per record is enough: the batch reads the latest content when it forms.
-  const unclaimed = (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '');
+  const [, entries] = await Promise.all([
+    tableOf(db, entity).bulkPut(valid as never[]),
+    db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray(),
+  ]);
+  const unclaimed = entries.filter((e) => e.batchKey === '');
   // The tester changed a record the server refused: every held record may go again (a fixed pose
   // lets its held readings through too); what is still wrong is held again with the new answer.
   if (unclaimed.some((e) => e.held)) await db.outbox.filter((e) => !!e.held).modify({ held: null });

@@ -1,9 +1,15 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { api, forgetKeptAnswers } from '@/lib/api-client';
 
 export const signOut = () => api<{ ok: true }>('/api/auth/sign-out', { method: 'POST', body: {} });
 
 export function useSignOut() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: signOut, onSuccess: () => qc.clear() });
+  return useMutation({
+    mutationFn: signOut,
+    onSuccess: () => {
+      forgetKeptAnswers();
+      qc.clear();
+    },
+  });
 }

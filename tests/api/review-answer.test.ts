@@ -1,0 +1,157 @@
+// The session review as the desk receives it: built by PostgreSQL yet the same records, field for
+// field, as the session route's (Sequelize and serialize.ts); compressed on the wire; and with a
+// cheap validator, so an unchanged review answers 304 with no body, and any change to the session,
+// its readings or its history, or another person asking, gets the whole answer again.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import http from 'node:http';
+import zlib from 'node:zlib';
+import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
+import { createDeskSession } from '../support/desk';
+import { batchKey, change } from '../support/sync';
+import { ReadingModel, PoseModel } from '../../server/models';
+
+let ts: TestServer;
+beforeAll(async () => {
+  ts = await startTestServer();
+});
+afterAll(async () => ts.close());
+
+const reviewOf = (agent: Agent, sessionId: string, etag?: string) => {
+  const req = agent.get(`/api/sessions/${sessionId}/review`);
+  return etag ? req.set('If-None-Match', etag) : req;
+};
+
+/** The raw bytes on the wire for an Accept-Encoding, and the decoded JSON. */
+function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; json: unknown }> {
+  return new Promise((resolve, reject) => {
+    http.get(`${ts.baseUrl}${path}`, { headers: { Cookie: cookie, 'Accept-Encoding': encoding } }, (res) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c) => chunks.push(c));
+      res.on('end', () => {
+        const raw = Buffer.concat(chunks);
+        const enc = res.headers['content-encoding'];
+        const text = enc === 'br' ? zlib.brotliDecompressSync(raw) : enc === 'gzip' ? zlib.gunzipSync(raw) : raw;
+        resolve({ bytes: raw.length, encoding: enc, json: JSON.parse(text.toString('utf8')) });
+      });
+    }).on('error', reject);
+  });
+}
+
+describe('the review answer', () => {
+  it('carries the same session, vehicle, gauge points, poses and readings as the session route, plus names and history', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team, { poses: 5 });
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const excluded = s.readingIdList[3];
+    expect((await engineer.patch(`/api/readings/${excluded}/review`).send({ version: 1, excluded: true, excludeReason: 'gauge slipped' })).status).toBe(200);
+    // A deleted pose and its readings stay out of both answers.
+    await PoseModel.update({ deletedAt: new Date() }, { where: { id: s.poseIds[4] } });
+
+    const review = await reviewOf(engineer, s.sessionId);
+    const detail = await engineer.get(`/api/sessions/${s.sessionId}`);
+    expect(review.status).toBe(200);
+    expect(review.headers['content-type']).toMatch(/^application\/json/);
+    for (const key of ['session', 'vehicle', 'gaugePoints', 'poses', 'readings'] as const) {
+      expect(review.body[key], key).toEqual(detail.body[key]);
+    }
+    expect(review.body.readings.length).toBeGreaterThan(0);
+    expect(review.body.poses).toHaveLength(s.poseIds.length - 1);
+    expect(Object.keys(review.body).sort()).toEqual(['gaugePoints', 'history', 'people', 'poses', 'readings', 'session', 'vehicle']);
+    expect(review.body.people).toEqual({ [team.members.tester.userId]: `tester ${team.members.tester.userId.slice(0, 4)}` });
+    expect(review.body.history).toEqual([
+      expect.objectContaining({ entity: 'reading', entityId: excluded, action: 'reading.exclude', userName: `engineer ${team.members.engineer.userId.slice(0, 4)}`, detail: expect.objectContaining({ excluded: { before: false, after: true } }) }),
+    ]);
+    expect(review.body.history[0].createdAt).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
+    expect(typeof review.body.history[0].id).toBe('number');
+  });
+
+  it('answers 404 for a session of another workshop, or none', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const outsider = await signedInAgent(ts, (await createTeam('Other')).members.engineer.email);
+    expect((await reviewOf(outsider, s.sessionId)).status).toBe(404);
+    expect((await reviewOf(outsider, '00000000-0000-4000-8000-000000000000')).status).toBe(404);
+  });
+
+  it('answers 304 with no body while nothing changed, and the whole answer after any change', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const first = await reviewOf(engineer, s.sessionId);
+    const etag = first.headers.etag;
+    expect(etag).toMatch(/^W\/"review\./);
+
+    const again = await reviewOf(engineer, s.sessionId, etag);
+    expect(again.status).toBe(304);
+    expect(again.text ?? '').toBe('');
+    expect(again.headers.etag).toBe(etag);
+
+    // A reading reviewed at the desk.
+    expect((await engineer.patch(`/api/readings/${s.readingIdList[0]}/review`).send({ version: 1, flagNote: 'check this' })).status).toBe(200);
+    const afterEdit = await reviewOf(engineer, s.sessionId, etag);
+    expect(afterEdit.status).toBe(200);
+    expect(afterEdit.body.readings.find((r: { id: string }) => r.id === s.readingIdList[0]).flagNote).toBe('check this');
+    const etag2 = afterEdit.headers.etag;
+    expect(etag2).not.toBe(etag);
+    expect((await reviewOf(engineer, s.sessionId, etag2)).status).toBe(304);
+
+    // A phone's push changing a pose of the session.
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    const pulled = (await tester.get('/api/sync/pull?since=0')).body;
+    const pose = pulled.poses.find((p: { id: string }) => p.id === s.poseIds[1]);
+    const pushed = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', { ...pose, notes: 'spotter moved the block' })] });
+    expect(pushed.status).toBe(200);
+    const afterPush = await reviewOf(engineer, s.sessionId, etag2);
+    expect(afterPush.status).toBe(200);
+    expect(afterPush.body.poses.find((p: { id: string }) => p.id === s.poseIds[1]).notes).toBe('spotter moved the block');
+
+    // Another person never gets a 304 for a copy someone else received.
+    const admin = await signedInAgent(ts, team.members.admin.email);
+    const theirs = await reviewOf(admin, s.sessionId, afterPush.headers.etag);
+    expect(theirs.status).toBe(200);
+    expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
+  });
+
+  it('shows a person renamed since the desk\'s copy under the new name', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const etag = (await reviewOf(engineer, s.sessionId)).headers.etag;
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    expect((await tester.patch('/api/me').send({ name: 'Joss Harlow-Venn' })).status).toBe(200);
+    const res = await reviewOf(engineer, s.sessionId, etag);
+    expect(res.status).toBe(200);
+    expect(res.body.people[team.members.tester.userId]).toBe('Joss Harlow-Venn');
+  });
+
+  it('a change elsewhere in the workshop costs a full answer but never a stale one', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const etag = (await reviewOf(engineer, s.sessionId)).headers.etag;
+    await ReadingModel.update({ valueMm: 42.5 }, { where: { id: s.readingIdList[5] } });
+    const res = await reviewOf(engineer, s.sessionId, etag);
+    expect(res.status).toBe(200);
+    expect(res.body.readings.find((r: { id: string }) => r.id === s.readingIdList[5]).valueMm).toBe(42.5);
+  });
+
+  it('is sent compressed (brotli or gzip) at a small fraction of its raw size', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team, { poses: 12 });
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const cookie = (engineer as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
+      .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
+      .map((c) => c.toValueString())
+      .join('; ');
+    const path = `/api/sessions/${s.sessionId}/review`;
+    const raw = await onTheWire(cookie, path, 'identity');
+    const br = await onTheWire(cookie, path, 'br, gzip');
+    const gzip = await onTheWire(cookie, path, 'gzip');
+    expect(raw.encoding).toBeUndefined();
+    expect(br.encoding).toBe('br');
+    expect(gzip.encoding).toBe('gzip');
+    expect(br.json).toEqual(raw.json);
+    expect(gzip.json).toEqual(raw.json);
+    expect(br.bytes / raw.bytes, `${br.bytes} of ${raw.bytes} bytes`).toBeLessThan(0.2);
+  });
+});
