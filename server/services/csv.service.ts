@@ -71,7 +71,7 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
     extension_ratio: '',
     note: '',
   };
-  const rows: Record<string, string | number>[] = envelopeRows(s.result).map((r) => ({
+  const rows: Record<string, string | number>[] = envelopeRows(s.result, unit).map((r) => ({
       kind: 'envelope',
       name: r.name,
       sign: SIGN_WORDS[r.sign],

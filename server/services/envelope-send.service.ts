@@ -40,7 +40,7 @@ export async function sendSheet(auth: AuthContext, envelopeId: string, input: Se
       '',
       ...(input.note ? [input.note, ''] : []),
       'Design envelope:',
-      ...envelopeRows(s.result).map((r) => `  ${r.name}: ${r.sign}${formatLength(r.envelopeMm, unit)}`),
+      ...envelopeRows(s.result, unit).map((r) => `  ${r.name}: ${r.sign}${formatLength(r.envelopeMm, unit)}`),
       '',
       `Content hash: ${envelope.contentHash}`,
       '',

@@ -10,13 +10,17 @@ import { envelopeRemarks, envelopeRows } from '../../shared/envelope-rows';
 import {
   AXIS_NAMES,
   SIDE_NAMES,
+  UNIT_WORDS,
   formatDeg,
+  formatIncrement,
   formatLength,
   formatLengthValue,
   formatPercent,
   formatRatio,
   formatTimestamp,
+  lengthWords,
 } from '../../shared/format';
+import { sealReason } from '../../shared/flex';
 
 const FONT_DIR = path.resolve(import.meta.dirname, '../../fonts');
 const REGULAR = path.join(FONT_DIR, 'atkinson-hyperlegible-regular.woff');
@@ -136,7 +140,7 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
   doc.font('bold').fontSize(18).fillColor(LINE).text('Fabrication sheet: pass-through boot and seal');
   doc.font('regular').fontSize(10).fillColor(INK);
   doc.text(`${s.vehicle.name} · session "${s.session.title}" of ${s.session.testedOn} · envelope revision ${s.revision}`);
-  doc.text(`All lengths in ${unit}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`);
+  doc.text(`All lengths in ${UNIT_WORDS[unit]}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`);
   if (status === 'superseded') {
     doc.moveDown(0.3).font('bold').fillColor('#b3261e').text('SUPERSEDED: a later revision of this envelope has been signed off. Do not fabricate from this sheet.');
     doc.font('regular').fillColor(INK);
@@ -146,7 +150,7 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
   openingDrawing(doc, s, unit);
 
   heading(doc, 'Design envelope');
-  const rows = envelopeRows(s.result);
+  const rows = envelopeRows(s.result, unit);
   table(
     doc,
     [
@@ -222,7 +226,7 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
       (['top', 'bottom', 'left', 'right'] as const).map((side) => {
         const b = boot[side];
         const range = b.sealFreeHeightRangeMm ? `${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)}` : 'none';
-        const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${b.seal.reason}` : '—';
+        const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${sealReason(b.seal, b.gapMinMm, b.gapMaxMm, lengthWords(unit))}` : '—';
         return [SIDE_NAMES[side], range, check];
       }),
     );
@@ -235,9 +239,9 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
       ? `one-sided prediction bound at ${formatPercent(p.confidence)} confidence per twist direction, line ${p.throughOrigin ? 'through the origin' : 'with intercept'}, scatter growing with twist`
       : `one-sided tolerance bound, coverage ${formatPercent(p.coverage)} at ${formatPercent(p.confidence)} confidence, repeated runs within ±${formatDeg(p.repeatBandDeg ?? 1)}`;
   doc.text(`Design twist ${formatDeg(p.designTwistDeg)}; ${method}.`, MARGIN);
-  doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatLength(p.incrementMm, unit)}.`);
+  doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatIncrement(p.incrementMm, unit)}.`);
   doc.text(`${s.poses.length} poses, ${s.readings.length} readings used, ${s.excludedReadings.length} excluded by the engineer.`);
-  const remarks = envelopeRemarks(s.result);
+  const remarks = envelopeRemarks(s.result, unit);
   for (const [title, list] of [['Remarks on the readings and the fit', remarks.readings], ['Remarks on the bound', remarks.bound]] as const) {
     if (list.length === 0) continue;
     heading(doc, title);

@@ -10,7 +10,7 @@ import { createDeskSession } from '../support/desk';
 import { waitForMail } from '../support/mail';
 import { DEFAULT_DRAFT_PARAMS, type EnvelopeRecord } from '../../shared/schemas/envelope';
 import { envelopeRows } from '../../shared/envelope-rows';
-import { formatLengthValue, formatRatio } from '../../shared/format';
+import { UNIT_WORDS, formatLengthValue, formatRatio } from '../../shared/format';
 import { EnvelopeSendModel } from '../../server/models';
 
 let ts: TestServer;
@@ -77,7 +77,11 @@ describe('fabrication sheet', () => {
       expect(text).toContain(formatLengthValue(s.boot!.top.gapMaxMm, unit));
       expect(text).toContain(envelope.contentHash!);
       expect(text).toContain(envelope.signedBy!.name);
-      expect(text).toContain(`All lengths in ${unit}`);
+      expect(text).toContain(`All lengths in ${UNIT_WORDS[unit]}`);
+      // "Why these values" and the remarks are written in the reader's unit: under inches no length
+      // is printed in mm, save the increment the engineer chose in mm, with its inch value beside it.
+      for (const r of envelopeRows(s.result, unit)) expect(text).toContain(r.reasons[r.reasons.length - 1].slice(0, 40));
+      if (unit === 'in') expect(text.replace(/\d+ mm \(\d+\.\d\d in\)/g, '')).not.toMatch(/\d mm\b/);
       expect(text).toMatch(/Planning aid only.*not a structural or road-legality approval.*Local codes and qualified professionals decide/);
     }
   });

@@ -3,6 +3,7 @@ import { useParams, useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
+import { envelopeRemarks } from '@shared/envelope-rows';
 import { useMe } from '@/features/auth/api/get-me';
 import { useReview, type SessionReview } from '@/features/review/api/get-review';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
@@ -38,6 +39,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
   const section = (SECTIONS.find((s) => s.id === search.get('section'))?.id ?? 'readings') as Section;
   const [selected, setSelected] = useState<string | null>(null);
   const fit = useFitFlags(review);
+  const readingRemarks = fit.result ? envelopeRemarks(fit.result, unit).readings : [];
   const labelOf = (readingId: string) => {
     const r = review.readings.find((x) => x.id === readingId);
     if (!r) return null;
@@ -75,11 +77,11 @@ function SessionDesk({ review }: { review: SessionReview }) {
         <div className="space-y-3">
           {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
           <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
-          {fit.result && fit.result.readingNotes.length > 0 && (
+          {readingRemarks.length > 0 && (
             <section className="card" aria-label="Remarks on the readings and the fit">
               <h2 className="font-bold">Remarks on the readings and the fit</h2>
               <ul className="list-disc pl-6 text-sm">
-                {fit.result.readingNotes.map((n) => (
+                {readingRemarks.map((n) => (
                   <li key={n}>{n}</li>
                 ))}
               </ul>
