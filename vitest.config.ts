@@ -26,7 +26,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'api',
-          include: ['tests/api/**/*.test.ts', 'tests/faults/**/*.test.ts'],
+          include: ['tests/api/**/*.test.ts', 'tests/faults/**/*.test.ts', 'tests/model/**/*.test.ts'],
           environment: 'node',
           fileParallelism: false,
           testTimeout: 30_000,

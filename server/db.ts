@@ -1,4 +1,4 @@
-import { Sequelize } from 'sequelize';
+import { ConnectionError, Sequelize } from 'sequelize';
 import pg from 'pg';
 
 // Return DATE columns as 'YYYY-MM-DD' strings and bigint change cursors as numbers
@@ -27,3 +27,28 @@ export function createSequelize(url: string, poolMax = 10): Sequelize {
     define: { underscored: true, timestamps: true },
   });
 }
+
+export type Unavailability = 'unreachable' | 'locked' | 'slow' | 'busy';
+
+/**
+ * Why the database cannot answer right now, or null when the failure is not a passing one:
+ * unreachable (connection refused or dropped, shutting down or starting), locked (lock_timeout),
+ * slow (statement_timeout or a cancel), busy (no free connection slot, or a transaction that lost
+ * a serialization or deadlock race it may win next time). Any of these is a 503 to retry, never a
+ * 500: a 500 tells the field client the request itself is at fault.
+ */
+export function databaseUnavailability(err: unknown): Unavailability | null {
+  if (err instanceof ConnectionError) return 'unreachable';
+  const e = err as { parent?: { code?: string; message?: string }; original?: { code?: string; message?: string }; code?: string; message?: string };
+  const pg = e?.parent ?? e?.original ?? e ?? {};
+  const code = typeof pg.code === 'string' ? pg.code : '';
+  // A pooled connection the database dropped fails with no SQLSTATE, only its message.
+  if (!code) return /connection terminated|connection refused|ECONNRESET|ECONNREFUSED/i.test(pg.message ?? '') ? 'unreachable' : null;
+  if (code === '55P03') return 'locked';
+  if (code === '57014') return 'slow';
+  if (code.startsWith('08') || code.startsWith('57P')) return 'unreachable';
+  if (code === '53300' || code === '40001' || code === '40P01') return 'busy';
+  return null;
+}
+
+export const isDatabaseUnavailable = (err: unknown): boolean => databaseUnavailability(err) !== null;

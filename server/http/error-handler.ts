@@ -1,19 +1,18 @@
 import type { ErrorRequestHandler } from 'express';
-import { BaseError, ConnectionError } from 'sequelize';
 import { AppError, Unavailable } from './errors';
+import { databaseUnavailability, type Unavailability } from '../db';
 
-// PostgreSQL codes that mean "not now" rather than "wrong": lock_timeout, statement_timeout or a
-// cancel, a shutting-down or starting server, no free connection slot.
-const BUSY_CODES = new Set(['55P03', '57014', '57P01', '57P02', '57P03', '53300']);
+const UNAVAILABLE_MESSAGES: Record<Unavailability, string> = {
+  unreachable: 'the database cannot be reached just now; try again shortly',
+  locked: 'the record is being changed by someone else just now; try again shortly',
+  slow: 'the database took too long to answer; try again shortly',
+  busy: 'the database is busy just now; try again shortly',
+};
 
 /** A database failure a retry may cure becomes a 503 with Retry-After, never a 500. */
 function asUnavailable(err: unknown): Unavailable | null {
-  if (err instanceof ConnectionError) return new Unavailable('the database cannot be reached just now; try again shortly');
-  const code = err instanceof BaseError ? (err as BaseError & { parent?: { code?: string } }).parent?.code : undefined;
-  if (code === '55P03') return new Unavailable('the record is being changed by someone else just now; try again shortly');
-  if (code === '57014') return new Unavailable('the database took too long to answer; try again shortly');
-  if (code && BUSY_CODES.has(code)) return new Unavailable('the database is busy just now; try again shortly');
-  return null;
+  const why = databaseUnavailability(err);
+  return why ? new Unavailable(UNAVAILABLE_MESSAGES[why]) : null;
 }
 
 /** The one JSON error handler: typed errors keep their status; anything else is a 500 with no details. */

@@ -22,6 +22,7 @@ import { VehicleModel } from '../models';
 import { photoRecordFromRow } from './photos.service';
 import { lockTeamChanges } from './team-changes';
 import { enforceSyncAccess } from './sync-access';
+import { translateDbError } from './sync-db-errors';
 import { columnValue, rowToRecord, syncOrder, syncTables, type SyncTable } from './sync-tables';
 import { syncChange, type PullResponse, type PushRequest, type PushResponse, type SyncConflict, type SyncEntity } from '../../shared/schemas/sync';
 
@@ -44,13 +45,42 @@ interface Item {
 interface Plan {
   inserts: Map<SyncEntity, Item[]>;
   updates: Map<SyncEntity, Item[]>;
-  conflicts: { item: Item; serverRow: Row }[];
+  /**
+   * Edits kept beside the server's row for a person to decide: a stale base version, or a new
+   * reading typed into a slot another device filled first (then `targetId` is that reading).
+   */
+  conflicts: { item: Item; targetId: string; serverRow: Row }[];
 }
 
-const field = (item: Item, key: string) => `body.changes.${item.index}.record.${key}`;
+/** Where a field error points: `body.changes.3.record.label` for a push, `clientRecord.label` for a resolution. */
+type FieldOf = (item: Item, key: string) => string;
+const field: FieldOf = (item, key) => `body.changes.${item.index}.record.${key}`;
 const short = (id: string) => id.slice(0, 8);
 
 export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<PushResponse> {
+  const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
+  try {
+    return await writeBatch(auth, req, items);
+  } catch (err) {
+    translateDbError(err, (constraint, key) => nameConstraint(items, constraint, key));
+  }
+}
+
+/** The change of the batch a slot or label constraint's key points at, if one does. */
+function nameConstraint(items: Item[], constraint: string, key: Record<string, string>): FieldError | null {
+  const match = (entity: SyncEntity, test: (r: Item['record']) => boolean) => items.find((i) => i.entity === entity && !i.record.deletedAt && test(i.record));
+  if (constraint === 'readings_slot') {
+    const item = match('reading', (r) => r.poseId === key.pose_id && r.gaugePointId === key.gauge_point_id && r.axis === key.axis);
+    if (item) return { field: field(item, 'axis'), message: `pose ${short(key.pose_id)} already has a ${key.axis} reading at this gauge point` };
+  }
+  if (constraint === 'gauge_points_label') {
+    const item = match('gaugePoint', (r) => r.vehicleId === key.vehicle_id && r.label === key.label);
+    if (item) return { field: field(item, 'label'), message: `gauge point label '${key.label}' is already used on this vehicle` };
+  }
+  return null;
+}
+
+async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): Promise<PushResponse> {
   const hash = requestHash(req);
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction);
@@ -63,10 +93,12 @@ export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<Pu
       if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
       return earlier.response;
     }
-    const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
     await enforceSyncAccess(auth, items, transaction);
     const plan = await checkBatch(auth, items, transaction);
     const response = await applyPlan(auth, plan, transaction);
+    // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
+    // so a violation the checks above missed is named, not found at commit.
+    await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
     await db().query(
       'INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)',
       { bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)], transaction },
@@ -112,7 +144,7 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
       } else if (row.team_id !== auth.teamId) {
         errors.push({ field: field(item, 'id'), message: `${entity} id ${item.record.id} is already taken` });
       } else if (row.version !== item.record.version) {
-        plan.conflicts.push({ item, serverRow: row });
+        plan.conflicts.push({ item, targetId: item.record.id, serverRow: row });
       } else updates.push(item);
     }
     plan.inserts.set(entity, inserts);
@@ -120,8 +152,8 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
   }
 
   await checkReferences(auth, byEntity, known, errors, transaction);
-  await checkReadingsUnique(auth, byEntity.get('reading')!, errors, transaction);
-  await checkGaugeLabelsUnique(auth, byEntity.get('gaugePoint')!, errors, transaction);
+  await checkReadingSlots(auth, plan, errors, transaction);
+  await checkGaugeLabels(auth, plan, errors, transaction);
 
   if (errors.length) {
     errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
@@ -170,47 +202,70 @@ async function checkReferences(
   }
 }
 
-/** One reading per pose, gauge point and axis (the table's unique key), within the batch and against the server. */
-async function checkReadingsUnique(auth: AuthContext, readings: Item[], errors: FieldError[], transaction: Transaction) {
-  if (!readings.length) return;
-  const slot = (r: Record<string, unknown>) => `${r.poseId}|${r.gaugePointId}|${r.axis}`;
-  const claimed = new Map<string, string>();
-  const poseIds = [...new Set(readings.map((i) => i.record.poseId as string))];
-  const rows = await select<{ id: string; pose_id: string; gauge_point_id: string; axis: string }>(
+const written = (plan: Plan, entity: SyncEntity) => [...plan.inserts.get(entity)!, ...plan.updates.get(entity)!];
+
+/**
+ * One live reading per pose, gauge point and axis, judged on the state after the batch: a reading
+ * the batch writes takes its new slot and frees its old one; every other live reading (kept
+ * conflicts included) stays where it is. A reading written into a slot another device filled
+ * first is kept as a conflict with that reading; two of the batch's own in one slot are refused.
+ */
+async function checkReadingSlots(auth: AuthContext, plan: Plan, errors: FieldError[], transaction: Transaction, fieldOf: FieldOf = field) {
+  const writes = written(plan, 'reading');
+  const live = writes.filter((i) => !i.record.deletedAt);
+  if (!live.length) return;
+  const slot = (r: { poseId: unknown; gaugePointId: unknown; axis: unknown }) => `${r.poseId}|${r.gaugePointId}|${r.axis}`;
+  const writtenIds = new Set(writes.map((i) => i.record.id));
+  const rows = await select(
     // Only the team's rows: another workshop's (refused as a reference anyway) is never named back.
-    'SELECT id, pose_id, gauge_point_id, axis FROM readings WHERE pose_id = ANY($1::uuid[]) AND team_id = $2',
-    [poseIds, auth.teamId],
+    'SELECT * FROM readings WHERE pose_id = ANY($1::uuid[]) AND deleted_at IS NULL AND team_id = $2',
+    [[...new Set(live.map((i) => i.record.poseId as string))], auth.teamId],
     transaction,
   );
-  const batchIds = new Set(readings.map((i) => i.record.id));
-  for (const r of rows) if (!batchIds.has(r.id)) claimed.set(`${r.pose_id}|${r.gauge_point_id}|${r.axis}`, r.id);
-  for (const item of readings) {
-    const key = slot(item.record);
-    const holder = claimed.get(key);
-    if (holder && holder !== item.record.id) {
-      errors.push({ field: field(item, 'axis'), message: `reading ${short(item.record.id)}: pose ${short(item.record.poseId as string)} already has a ${item.record.axis} reading at this gauge point (reading ${short(holder)})` });
-    } else claimed.set(key, item.record.id);
+  const holders = new Map<string, Row>();
+  for (const r of rows) if (!writtenIds.has(r.id as string)) holders.set(slot({ poseId: r.pose_id, gaugePointId: r.gauge_point_id, axis: r.axis }), r);
+  const claimed = new Map<string, Item>();
+  const inserts = plan.inserts.get('reading')!;
+  for (const item of live) {
+    const key = slot(item.record as Row as { poseId: unknown; gaugePointId: unknown; axis: unknown });
+    const holder = holders.get(key);
+    const where = `pose ${short(item.record.poseId as string)} already has a ${item.record.axis} reading at this gauge point (reading ${short(String(holder?.id ?? claimed.get(key)?.record.id))})`;
+    if (holder) {
+      // Typed into (or brought back into) a slot another device filled meanwhile: both values
+      // are kept, as a conflict with the reading that holds the slot, for a person to decide.
+      const list = inserts.includes(item) ? inserts : plan.updates.get('reading')!;
+      list.splice(list.indexOf(item), 1);
+      plan.conflicts.push({ item, targetId: holder.id as string, serverRow: holder });
+    } else if (claimed.has(key)) {
+      errors.push({ field: fieldOf(item, 'axis'), message: `reading ${short(item.record.id)}: ${where}, in this same batch` });
+    } else claimed.set(key, item);
   }
 }
 
-/** Live gauge point labels are unique per vehicle. */
-async function checkGaugeLabelsUnique(auth: AuthContext, points: Item[], errors: FieldError[], transaction: Transaction) {
-  const live = points.filter((p) => !p.record.deletedAt);
+/**
+ * Live gauge point labels are unique per vehicle, judged on the state after the batch (two labels
+ * swapped in one batch are fine; a renamed point whose edit is kept as a conflict keeps its label).
+ */
+async function checkGaugeLabels(auth: AuthContext, plan: Plan, errors: FieldError[], transaction: Transaction, fieldOf: FieldOf = field) {
+  const writes = written(plan, 'gaugePoint');
+  const live = writes.filter((i) => !i.record.deletedAt);
   if (!live.length) return;
-  const vehicleIds = [...new Set(live.map((p) => p.record.vehicleId as string))];
+  const writtenIds = new Set(writes.map((i) => i.record.id));
   const rows = await select<{ id: string; vehicle_id: string; label: string }>(
     'SELECT id, vehicle_id, label FROM gauge_points WHERE vehicle_id = ANY($1::uuid[]) AND deleted_at IS NULL AND team_id = $2',
-    [vehicleIds, auth.teamId],
+    [[...new Set(live.map((i) => i.record.vehicleId as string))], auth.teamId],
     transaction,
   );
-  const batchIds = new Set(points.map((p) => p.record.id));
   const claimed = new Map<string, string>();
-  for (const r of rows) if (!batchIds.has(r.id)) claimed.set(`${r.vehicle_id}|${r.label}`, r.id);
+  for (const r of rows) if (!writtenIds.has(r.id)) claimed.set(`${r.vehicle_id}|${r.label}`, r.id);
   for (const item of live) {
     const key = `${item.record.vehicleId}|${item.record.label}`;
     const holder = claimed.get(key);
     if (holder && holder !== item.record.id) {
-      errors.push({ field: field(item, 'label'), message: `gauge point label '${item.record.label}' is already used on this vehicle` });
+      errors.push({
+        field: fieldOf(item, 'label'),
+        message: `gauge point label '${item.record.label}' is already used on this vehicle by another gauge point (${short(holder)}): rename one of them`,
+      });
     } else claimed.set(key, item.record.id);
   }
 }
@@ -311,38 +366,39 @@ async function bulkUpdate(auth: AuthContext, spec: SyncTable, items: Item[], tra
   return rows;
 }
 
+/**
+ * Keeps each stale edit beside the server's whole row. One open conflict per record and person:
+ * an edit the tester made on top of a conflicted record (sent later, still on the old base) joins
+ * it, so the tester decides once, on their latest values.
+ */
 async function keepConflicts(auth: AuthContext, conflicts: Plan['conflicts'], transaction: Transaction): Promise<SyncConflict[]> {
-  if (!conflicts.length) return [];
-  // The whole server row, kept beside the client's version (the checks read only id, team and version).
-  for (const entity of syncOrder) {
-    const mine = conflicts.filter((c) => c.item.entity === entity);
-    if (!mine.length) continue;
-    const full = await select(`SELECT * FROM ${syncTables[entity].table} WHERE id = ANY($1::uuid[])`, [mine.map((c) => c.item.record.id)], transaction);
-    const byRowId = new Map(full.map((r) => [r.id as string, r]));
-    for (const c of mine) c.serverRow = byRowId.get(c.item.record.id)!;
+  const out: SyncConflict[] = [];
+  for (const c of conflicts) {
+    const spec = syncTables[c.item.entity];
+    const [serverRow] = await select(`SELECT * FROM ${spec.table} WHERE id = $1`, [c.targetId], transaction);
+    const serverRecord = JSON.stringify(withoutSeq(rowToRecord(spec, serverRow)));
+    const clientRecord = JSON.stringify(c.item.record);
+    const [open] = await select(
+      'SELECT id FROM sync_conflicts WHERE team_id = $1 AND user_id = $2 AND entity_id = $3 AND resolved_at IS NULL ORDER BY created_at LIMIT 1 FOR UPDATE',
+      [auth.teamId, auth.userId, c.targetId],
+      transaction,
+    );
+    const [row] = open
+      ? await select(
+          `UPDATE sync_conflicts SET base_version = $2, server_version = $3, client_record = $4::jsonb, server_record = $5::jsonb, updated_at = now()
+           WHERE id = $1 RETURNING *`,
+          [open.id, c.item.record.version, serverRow.version, clientRecord, serverRecord],
+          transaction,
+        )
+      : await select(
+          `INSERT INTO sync_conflicts (id, team_id, entity, entity_id, base_version, server_version, client_record, server_record, user_id)
+           VALUES ($1, $2, $3, $4, $5, $6, $7::jsonb, $8::jsonb, $9) RETURNING *`,
+          [randomUUID(), auth.teamId, c.item.entity, c.targetId, c.item.record.version, serverRow.version, clientRecord, serverRecord, auth.userId],
+          transaction,
+        );
+    out.push(conflictOut(row));
   }
-  const ids = conflicts.map(() => randomUUID());
-  const rows = await select(
-    `INSERT INTO sync_conflicts (id, team_id, entity, entity_id, base_version, server_version, client_record, server_record, user_id)
-     SELECT u.id, $1::uuid, u.entity, u.entity_id, u.base_version, u.server_version, u.client_record, u.server_record, $2::uuid
-     FROM unnest($3::uuid[], $4::text[], $5::uuid[], $6::int4[], $7::int4[], $8::jsonb[], $9::jsonb[])
-       AS u(id, entity, entity_id, base_version, server_version, client_record, server_record)
-     RETURNING *`,
-    [
-      auth.teamId,
-      auth.userId,
-      ids,
-      conflicts.map((c) => c.item.entity),
-      conflicts.map((c) => c.item.record.id),
-      conflicts.map((c) => c.item.record.version),
-      conflicts.map((c) => c.serverRow.version),
-      conflicts.map((c) => JSON.stringify(c.item.record)),
-      conflicts.map((c) => JSON.stringify(withoutSeq(rowToRecord(syncTables[c.item.entity], c.serverRow)))),
-    ],
-    transaction,
-  );
-  const byId = new Map(rows.map((r) => [r.id as string, r]));
-  return ids.map((id) => conflictOut(byId.get(id)!));
+  return out;
 }
 
 function withoutSeq<T extends { changeSeq: number }>(r: T): Omit<T, 'changeSeq'> {
@@ -369,6 +425,14 @@ function conflictOut(r: Row): SyncConflict {
 
 /** Everything of the team changed after `since`, oldest first, at most `limit` rows per table. */
 export async function pullChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
+  try {
+    return await readChanges(auth, since, limit);
+  } catch (err) {
+    translateDbError(err, () => null);
+  }
+}
+
+async function readChanges(auth: AuthContext, since: number, limit: number): Promise<PullResponse> {
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction, 'read');
     // Only the columns a record carries: parsing timestamps nobody reads costs more than the query.
@@ -376,8 +440,11 @@ export async function pullChanges(auth: AuthContext, since: number, limit: numbe
       const spec = Object.values(syncTables).find((t) => t.table === table);
       return spec ? ['id', 'version', 'change_seq', ...spec.columns.map((c) => c.column)].join(', ') : '*';
     };
+    // A kept conflict is a decision for the person whose edit it holds: each phone gets its own.
     const page = (table: string) =>
-      select(`SELECT ${columns(table)} FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
+      table === 'sync_conflicts'
+        ? select(`SELECT * FROM sync_conflicts WHERE team_id = $1 AND user_id = $4 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit, auth.userId], transaction)
+        : select(`SELECT ${columns(table)} FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`, [auth.teamId, since, limit], transaction);
     const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'] as const;
     const pages: (readonly [(typeof tables)[number], Row[]])[] = [];
     for (const t of tables) pages.push([t, await page(t)] as const);
@@ -403,24 +470,31 @@ export async function pullChanges(auth: AuthContext, since: number, limit: numbe
   });
 }
 
-/** A person's decision on a kept conflict: keep the server's version, or write the client's over it. */
+/**
+ * A person's decision on a kept conflict. "Keep the server's" writes nothing. "Keep this phone's"
+ * writes the fields where this phone's version differs from the server's as the conflict kept it,
+ * onto the row as it is now (whatever else changed since stays), with one new version; checked
+ * like a pushed record, so a slot or label taken meanwhile is refused naming the field. Sent
+ * twice (a lost answer, a second tap), the same decision answers the same and lands once.
+ */
 export async function resolveConflict(auth: AuthContext, id: string, keep: 'client' | 'server'): Promise<SyncConflict> {
+  try {
+    return await decideConflict(auth, id, keep);
+  } catch (err) {
+    translateDbError(err, () => null);
+  }
+}
+
+async function decideConflict(auth: AuthContext, id: string, keep: 'client' | 'server'): Promise<SyncConflict> {
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction);
     const [row] = await select('SELECT * FROM sync_conflicts WHERE id = $1 AND team_id = $2 FOR UPDATE', [id, auth.teamId], transaction);
     if (!row) throw new NotFound('conflict');
-    if (row.resolved_at) throw new Conflict('this conflict was already resolved');
-    if (keep === 'client') {
-      const entity = row.entity as SyncEntity;
-      const spec = syncTables[entity];
-      const parsed = syncChange.safeParse({ entity, record: row.client_record });
-      if (!parsed.success) throw Invalid.fromZod('clientRecord', parsed.error);
-      const [current] = await select(`SELECT version FROM ${spec.table} WHERE id = $1 AND team_id = $2 FOR UPDATE`, [row.entity_id, auth.teamId], transaction);
-      if (!current) throw new NotFound(entity);
-      const record = { ...(parsed.data.record as Item['record']), version: current.version as number };
-      await enforceSyncAccess(auth, [{ index: 0, entity, record }], transaction, (_i, key) => `clientRecord.${key}`);
-      await bulkUpdate(auth, spec, [{ index: 0, entity, record }], transaction);
+    if (row.resolved_at) {
+      if (row.resolution === keep) return conflictOut(row);
+      throw new Conflict(`this conflict was already resolved, keeping the ${row.resolution === 'client' ? "phone's" : "server's"} version`);
     }
+    if (keep === 'client') await writeClientSide(auth, row, transaction);
     const [done] = await select(
       'UPDATE sync_conflicts SET resolved_at = now(), resolved_by = $2, resolution = $3 WHERE id = $1 RETURNING *',
       [id, auth.userId, keep],
@@ -428,4 +502,34 @@ export async function resolveConflict(auth: AuthContext, id: string, keep: 'clie
     );
     return conflictOut(done);
   });
+}
+
+async function writeClientSide(auth: AuthContext, conflict: Row, transaction: Transaction) {
+  const entity = conflict.entity as SyncEntity;
+  const spec = syncTables[entity];
+  const [current] = await select(`SELECT * FROM ${spec.table} WHERE id = $1 AND team_id = $2 FOR UPDATE`, [conflict.entity_id, auth.teamId], transaction);
+  if (!current) throw new NotFound(entity);
+  const phone = conflict.client_record as Record<string, unknown>;
+  const server = conflict.server_record as Record<string, unknown>;
+  const now = withoutSeq(rowToRecord(spec, current));
+  const merged: Record<string, unknown> = { ...now };
+  for (const col of spec.columns) {
+    if (JSON.stringify(phone[col.key] ?? null) !== JSON.stringify(server[col.key] ?? null)) merged[col.key] = phone[col.key] ?? null;
+  }
+  const parsed = syncChange.safeParse({ entity, record: merged });
+  if (!parsed.success) throw Invalid.fromZod('clientRecord', parsed.error);
+  const item: Item = { index: 0, entity, record: parsed.data.record as Item['record'] };
+  const plan: Plan = { inserts: new Map(syncOrder.map((e) => [e, []])), updates: new Map(syncOrder.map((e) => [e, e === entity ? [item] : []])), conflicts: [] };
+  const errors: FieldError[] = [];
+  const fieldOf: FieldOf = (_item, key) => `clientRecord.${key}`;
+  await checkReadingSlots(auth, plan, errors, transaction, fieldOf);
+  await checkGaugeLabels(auth, plan, errors, transaction, fieldOf);
+  for (const taken of plan.conflicts) {
+    errors.push({ field: 'clientRecord.axis', message: `its slot now holds another reading (${short(taken.targetId)}): keep the server's version, or clear one of them first` });
+  }
+  if (errors.length) throw new Invalid(`this phone's version cannot be kept: ${errors[0].message}`, errors);
+  // Keeping the phone's version is a change like a push: the same field-by-field role checks.
+  await enforceSyncAccess(auth, [item], transaction, (_i, key) => `clientRecord.${key}`);
+  await bulkUpdate(auth, spec, [item], transaction);
+  await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
 }

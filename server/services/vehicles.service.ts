@@ -1,7 +1,7 @@
 import { Op } from 'sequelize';
 import type { GaugePoint, Vehicle } from '../../shared/schemas';
 import { GaugePointModel, VehicleModel } from '../models';
-import { Conflict, NotFound } from '../http/errors';
+import { Conflict, Invalid, NotFound } from '../http/errors';
 import { gaugePointOut, vehicleOut } from './serialize';
 import { withTeamChanges } from './team-changes';
 import type { AuthContext } from '../auth/context';
@@ -46,6 +46,9 @@ type PointInput = Omit<GaugePoint, 'version' | 'deletedAt' | 'vehicleId'>;
 export async function setGaugePoints(auth: AuthContext, vehicleId: string, points: PointInput[]) {
   const v = await VehicleModel.findOne({ where: { id: vehicleId, teamId: auth.teamId, deletedAt: null } });
   if (!v) throw new NotFound('vehicle');
+  // Labels are unique per vehicle (checked by the database only at commit, where it could not name the point).
+  const twice = points.findIndex((p, i) => points.findIndex((q) => q.label === p.label) !== i);
+  if (twice >= 0) throw new Invalid(`gauge point label '${points[twice].label}' appears twice`, [{ field: `body.gaugePoints.${twice}.label`, message: 'already used by another gauge point' }]);
   await withTeamChanges(auth.teamId, async (transaction) => {
     const keep = points.map((p) => p.id);
     await GaugePointModel.update(

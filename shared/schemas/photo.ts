@@ -1,12 +1,12 @@
 import * as z from 'zod';
-import { id, isoDateTime, syncedFields } from './common';
+import { id, isoDateTime, syncedFields, text } from './common';
 
 /** A photo as the server describes it after upload (the file itself travels separately). */
 export const photo = z.object({
   ...syncedFields,
   sessionId: id,
   poseId: id.nullable(),
-  caption: z.string().trim().max(500),
+  caption: text(500),
   mime: z.string(),
   width: z.number().int(),
   height: z.number().int(),

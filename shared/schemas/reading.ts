@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { axis, id, mm, syncedFields } from './common';
+import { axis, id, mm, syncedFields, text } from './common';
 
 /** One value at one gauge point on one axis in one pose, in millimetres. */
 export const reading = z
@@ -10,8 +10,8 @@ export const reading = z
     axis,
     valueMm: mm,
     excluded: z.boolean(),
-    excludeReason: z.string().trim().max(500).nullable(),
-    flagNote: z.string().trim().max(500).nullable(),
+    excludeReason: text(500).nullable(),
+    flagNote: text(500).nullable(),
   })
   .refine((r) => !r.excluded || (r.excludeReason ?? '').length > 0, {
     message: 'excluding a reading needs a reason',

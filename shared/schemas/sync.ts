@@ -2,7 +2,7 @@
 // the server answers, and what a pull returns. A pushed record's `version` is its base version
 // (the server version it was edited from; 1 for a record the server has never seen).
 import * as z from 'zod';
-import { id, isoDateTime } from './common';
+import { id, isoDateTime, text } from './common';
 import { vehicle } from './vehicle';
 import { gaugePoint } from './gauge-point';
 import { testSession } from './test-session';
@@ -35,7 +35,8 @@ export const CLIENT_BATCH_CHANGES = 1_000;
 export const MAX_BATCH_CHANGES = 12_000;
 
 export const pushRequest = z.object({
-  idempotencyKey: z.string().min(8).max(100),
+  /** Printable ASCII only: the key is stored as text (a NUL in it could not be). */
+  idempotencyKey: z.string().min(8).max(100).regex(/^[\x21-\x7e]+$/, 'must be printable ASCII'),
   changes: z.array(syncChange).min(1).max(MAX_BATCH_CHANGES),
 });
 export type PushRequest = z.infer<typeof pushRequest>;
@@ -92,6 +93,6 @@ export const photoUploadFields = z.object({
   id,
   sessionId: id,
   poseId: z.union([id, z.literal('')]).optional().transform((v) => v || null),
-  caption: z.string().trim().max(500).default(''),
+  caption: text(500).default(''),
 });
 export type PhotoUploadFields = z.input<typeof photoUploadFields>;

@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { positiveMm, shortText, syncedFields } from './common';
+import { positiveMm, shortText, syncedFields, text } from './common';
 
 /**
  * The pass-through opening on the body's front wall (plane x = 0): a rectangle with rounded
@@ -22,7 +22,7 @@ export type Opening = z.infer<typeof opening>;
 
 export const vehicle = z.object({
   ...syncedFields,
-  name: z.string().trim().min(1).max(120),
+  name: text(120, 1),
   chassis: shortText(),
   body: shortText(),
   wheelbaseMm: positiveMm,

@@ -35,9 +35,16 @@ let again = false;
 /** Off until the store is claimed by the signed-in person (StoreGuard), and again at sign-out. */
 let enabled = false;
 
-/** Starts a run now, or right after the current one. */
-export function syncNow(): Promise<void> {
+let forced = false;
+let retryTimer: ReturnType<typeof setTimeout> | undefined;
+
+/**
+ * Starts a run now, or right after the current one. `force` is a person asking (Sync now): held
+ * records and a batch that is backing off go at once.
+ */
+export function syncNow(opts: { force?: boolean } = {}): Promise<void> {
   if (!enabled) return Promise.resolve();
+  forced ||= Boolean(opts.force);
   if (current) {
     again = true;
     return current;
@@ -47,7 +54,12 @@ export function syncNow(): Promise<void> {
     try {
       do {
         again = false;
-        const result = await runSync(fieldDb, httpTransport, (progress) => set({ progress }));
+        const force = forced;
+        forced = false;
+        const result = await runSync(fieldDb, httpTransport, (progress) => set({ progress }), { force });
+        // A batch backing off is sent again when its wait is over, not only at the next timer tick.
+        clearTimeout(retryTimer);
+        if (!result.ok && result.retryAt) retryTimer = setTimeout(() => void syncNow(), Math.max(0, Date.parse(result.retryAt) - Date.now()) + 50);
         if (!result.ok && result.error.isNetwork) break;
       } while (again);
     } finally {

@@ -172,7 +172,7 @@ describe('sync run', () => {
     expect(await db.outbox.count()).toBe(0);
   });
 
-  it('on a refused batch, keeps the records waiting and the field errors for the tester', async () => {
+  it('on a refused batch, holds the named record back with the field errors, and says so in words', async () => {
     const s = session();
     await saveRecord('testSession', s, db);
     const server = fakeServer(() => {
@@ -181,8 +181,9 @@ describe('sync run', () => {
     const result = await runSync(db, server.transport);
     expect(result.ok).toBe(false);
     expect(await db.batches.count()).toBe(0);
-    expect(await db.outbox.where('batchKey').equals('').count()).toBe(1);
-    expect((await getMeta('lastError', db))?.fields[0].field).toBe('body.changes.0.record.vehicleId');
+    const [entry] = await db.outbox.where('batchKey').equals('').toArray();
+    expect(entry.held?.fields[0].field).toBe('body.changes.0.record.vehicleId');
+    expect(await getMeta('lastError', db)).toMatchObject({ message: 'the server refused a record: held back on this phone until changed (see Sync)', fields: [] });
   });
 
   it('pull keeps a local edit still waiting and takes the rest from the server', async () => {

@@ -1,14 +1,14 @@
 // One sync run: push the outbox batch by batch, upload waiting photos, then pull everything new.
 // Pure over its inputs (a database and a transport), so it runs the same in a test.
 import { ApiError } from '@/lib/api-client';
-import type { FieldDb } from '@/lib/db/field-db';
-import { completeBatch, formBatch, releaseBatch } from '@/lib/db/outbox';
+import type { FieldDb, PendingBatch } from '@/lib/db/field-db';
+import { completeBatch, formBatch, holdRecords, noteBatchFailure, releaseHolds } from '@/lib/db/outbox';
 import { getMeta, setMeta } from '@/lib/db/meta';
 import { applyPull } from '@/lib/db/server-changes';
 import { markPhotoFailed, markPhotoUploaded, nextPendingPhotos, notePhotoError } from '@/lib/db/photos';
 import type { SyncTransport } from './transport';
-import { CLIENT_BATCH_CHANGES } from '@shared/schemas/sync';
-
+import { CLIENT_BATCH_CHANGES, type PushResponse } from '@shared/schemas/sync';
+import type { FieldError } from '@shared/schemas/common';
 
 export interface Progress {
   photoId: string;
@@ -16,16 +16,28 @@ export interface Progress {
   total: number;
 }
 
-export type RunResult = { ok: true } | { ok: false; error: ApiError };
+export type RunResult = { ok: true } | { ok: false; error: ApiError; retryAt?: string | null };
 
-export async function runSync(db: FieldDb, transport: SyncTransport, onProgress: (p: Progress | null) => void = () => {}): Promise<RunResult> {
+export interface RunOptions {
+  /** A person asked for it (Sync now): held records and a batch that is backing off go at once. */
+  force?: boolean;
+}
+
+/**
+ * Push, then upload photos, then pull. A push the server refuses or fails on does not stop the
+ * rest: the records it could not take stay on the phone (held, or backing off), and photos and
+ * the pull go on, which is safe because a pull never overwrites a record still in the outbox.
+ * Only an unreachable server ends the run early.
+ */
+export async function runSync(db: FieldDb, transport: SyncTransport, onProgress: (p: Progress | null) => void = () => {}, opts: RunOptions = {}): Promise<RunResult> {
   try {
-    await pushAll(db, transport);
+    if (opts.force) await releaseHolds(db);
+    const pushed = await pushAll(db, transport);
     await uploadPhotos(db, transport, onProgress);
     await pullAll(db, transport);
     await setMeta('lastSyncAt', new Date().toISOString(), db);
-    await setMeta('lastError', null, db);
-    return { ok: true };
+    await setMeta('lastError', pushed.ok ? null : { message: pushed.error.message, fields: pushed.error.fields, at: new Date().toISOString() }, db);
+    return pushed;
   } catch (err) {
     const error = err instanceof ApiError ? err : new ApiError(0, 'client', (err as Error).message);
     await setMeta('lastError', { message: error.message, fields: error.fields, at: new Date().toISOString() }, db);
@@ -35,19 +47,61 @@ export async function runSync(db: FieldDb, transport: SyncTransport, onProgress:
   }
 }
 
-export async function pushAll(db: FieldDb, transport: SyncTransport) {
+/** No answer from the server, or one saying it is unavailable: the batch waits exactly as it is. */
+const unreachable = (e: ApiError) => e.status === 0 || e.status === 502 || e.status === 503 || e.status === 504;
+
+/** The records of a batch that a refusal names (`body.changes.3.record.label`), with what was wrong with each. */
+function namedRecords(batch: PendingBatch, error: ApiError) {
+  const named = new Map<string, { message: string; fields: FieldError[] }>();
+  for (const f of error.fields) {
+    const m = /^body\.changes\.(\d+)(\.|$)/.exec(f.field);
+    const change = m ? batch.changes[Number(m[1])] : undefined;
+    if (!change) continue;
+    const key = `${change.entity}:${change.record.id}`;
+    const entry = named.get(key) ?? { message: '', fields: [] };
+    entry.fields.push(f);
+    entry.message = entry.fields.map((x) => x.message).join('; ');
+    named.set(key, entry);
+  }
+  return named;
+}
+
+/** A batch waiting before its next try, said in the tester's words (the server's own message in brackets). */
+const backingOff = (batch: PendingBatch) =>
+  new ApiError(0, 'backing_off', `the server could not take ${batch.changes.length === 1 ? 'a record' : `${batch.changes.length} records`} and wrote nothing (${batch.lastError ?? 'no reason given'}); trying again shortly`);
+
+export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<RunResult> {
+  let refused: ApiError | null = null;
+  let held = 0;
   for (;;) {
-    const batch = await formBatch(CLIENT_BATCH_CHANGES, db);
-    if (!batch) return;
-    try {
-      const response = await transport.push({ idempotencyKey: batch.key, changes: batch.changes });
-      await completeBatch(batch.key, response, db);
-    } catch (err) {
-      // Refused as a whole (bad record): free the records so a fix is sent fresh; a network
-      // failure keeps the batch exactly as it is for the retry.
-      if (err instanceof ApiError && err.status === 400) await releaseBatch(batch.key, db);
-      throw err;
+    const limit = Math.min(CLIENT_BATCH_CHANGES, (await getMeta('pushLimit', db)) ?? CLIENT_BATCH_CHANGES);
+    const batch = await formBatch(limit, db);
+    if (!batch) {
+      // Everything that could go went: the next failing batch starts from the full size again.
+      if (limit < CLIENT_BATCH_CHANGES) await setMeta('pushLimit', null, db);
+      return refused ? { ok: false, error: refused } : { ok: true };
     }
+    if (batch.retryAt && Date.parse(batch.retryAt) > Date.now()) return { ok: false, error: backingOff(batch), retryAt: batch.retryAt };
+    let response: PushResponse;
+    try {
+      response = await transport.push({ idempotencyKey: batch.key, changes: batch.changes });
+    } catch (err) {
+      const error = err instanceof ApiError ? err : new ApiError(0, 'client', (err as Error).message);
+      if (unreachable(error)) throw error;
+      // The server answered and wrote nothing. Records it named are held for the tester; the
+      // rest go on in the next batch. Otherwise back off, then narrow the batch down.
+      const named = error.status === 400 ? namedRecords(batch, error) : new Map();
+      if (named.size) {
+        await holdRecords(batch.key, named, db);
+        held += named.size;
+        refused = new ApiError(400, 'held', `the server refused ${held === 1 ? 'a record' : `${held} records`}: held back on this phone until changed (see Sync)`);
+        continue;
+      }
+      const next = await noteBatchFailure(batch.key, error, db);
+      if (next.retryAt) return { ok: false, error: backingOff({ ...batch, lastError: error.message }), retryAt: next.retryAt };
+      continue;
+    }
+    await completeBatch(batch.key, response, db);
   }
 }
 

@@ -123,7 +123,7 @@ describe('PostgreSQL stopped in the middle of a sync', () => {
     let result = await runSync(db, nodeTransport(server.baseUrl, cookie));
     // The first request after the restart may meet a pooled connection the crash broke.
     for (let i = 0; !result.ok && i < 5; i++) result = await runSync(db, nodeTransport(server.baseUrl, cookie));
-    expect(result).toEqual({ ok: true });
+    expect(result, JSON.stringify(result)).toEqual({ ok: true });
     expect(await db.outbox.count()).toBe(0);
     expect(await countsFor(records.sessionId)).toEqual({ poses: 100, readings: 1800, distinct_readings: 1800 });
     db.close();

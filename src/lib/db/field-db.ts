@@ -3,7 +3,7 @@
 //   vehicles, gaugePoints, sessions, poses, readings — records as in shared/schemas (local edits
 //     and pulled server rows alike), keyed by their client-generated UUIDs;
 //   outbox   — one entry per record waiting to be pushed (entity + id; the content is read from the
-//     record table when a batch is formed);
+//     record table when a batch is formed), or held back with the server's reason until fixed;
 //   batches  — a formed batch with its idempotency key and exact contents, kept until the server
 //     answers, so a retry after a crash or a lost answer sends the very same batch;
 //   photos   — photo blobs until uploaded, then their server description;
@@ -13,6 +13,7 @@
 // success before the data is on disk. Keep every earlier version() when the schema changes.
 import Dexie, { type EntityTable } from 'dexie';
 import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
+import type { FieldError } from '@shared/schemas/common';
 import type { PushRequest, SyncConflict, SyncEntity } from '@shared/schemas/sync';
 
 export interface OutboxEntry {
@@ -22,6 +23,15 @@ export interface OutboxEntry {
   /** '' while waiting; the batch's idempotency key once claimed by a formed batch. */
   batchKey: string;
   queuedAt: string;
+  /** Held back from batches: the server refused the record, or failed on it again and again. */
+  held?: Hold | null;
+}
+
+/** Why a record is held back, in the server's words, naming the field where it can. */
+export interface Hold {
+  message: string;
+  fields: FieldError[];
+  at: string;
 }
 
 export interface PendingBatch {
@@ -29,6 +39,11 @@ export interface PendingBatch {
   changes: PushRequest['changes'];
   outboxSeqs: number[];
   formedAt: string;
+  /** Answers that said the server wrote nothing (a refusal naming no record, or a failure of its own). */
+  tries?: number;
+  /** Not sent again before this time (backing off). */
+  retryAt?: string | null;
+  lastError?: string | null;
 }
 
 export type PhotoStatus = 'pending' | 'uploaded' | 'failed';

@@ -6,6 +6,7 @@ import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/sc
 import { fieldDb } from './field-db';
 import { checkRows } from './records';
 import { getMeta, type MetaValues } from './meta';
+import { localWrites, useLocalWrites } from './writes-in-flight';
 
 const live = <T extends { deletedAt?: string | null }>(rows: T[]) => rows.filter((r) => !r.deletedAt);
 
@@ -97,16 +98,40 @@ export function useSessionPhotos(sessionId: string | undefined) {
   return useLiveQuery(async () => (sessionId ? fieldDb.photos.where('sessionId').equals(sessionId).toArray() : []), [sessionId]);
 }
 
-export function usePendingCounts() {
-  return useLiveQuery(async () => {
+export interface PendingCounts {
+  /** Records with a change the server does not have yet: waiting, in flight or held back. */
+  records: number;
+  held: number;
+  photos: number;
+  failedPhotos: number;
+  conflicts: number;
+  /** When the batch that is backing off goes again. */
+  retryAt: string | null;
+  /** How many local writes had settled when these were read: all of them are counted here. */
+  settledAtRead: number;
+}
+
+/** What waits to reach the server; read again after every local write settles. */
+export function usePendingCounts(): PendingCounts | undefined {
+  const { settled } = useLocalWrites();
+  return useLiveQuery(async (): Promise<PendingCounts> => {
+    const settledAtRead = localWrites().settled;
     const entries = await fieldDb.outbox.toArray();
+    const batch = await fieldDb.batches.toCollection().first();
     return {
       records: new Set(entries.map((e) => `${e.entity}:${e.recordId}`)).size,
+      held: new Set(entries.filter((e) => e.held).map((e) => `${e.entity}:${e.recordId}`)).size,
       photos: await fieldDb.photos.where('status').equals('pending').count(),
       failedPhotos: await fieldDb.photos.where('status').equals('failed').count(),
       conflicts: (await fieldDb.conflicts.toArray()).filter((c) => !c.resolvedAt).length,
+      retryAt: batch?.retryAt ?? null,
+      settledAtRead,
     };
-  });
+  }, [settled]);
+}
+
+export function useRefusedPhotos() {
+  return useLiveQuery(() => fieldDb.photos.where('status').equals('failed').toArray());
 }
 
 export function useOpenConflicts() {

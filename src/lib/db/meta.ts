@@ -17,6 +17,8 @@ export interface MetaValues {
   unit: UnitSystem | null;
   persisted: boolean | null;
   owner: StoreOwner | null;
+  /** Most changes in the next batch while a failing batch is being narrowed down (halved each time). */
+  pushLimit: number | null;
 }
 
 /** The person and workshop whose records the store holds. */
@@ -26,7 +28,7 @@ export interface StoreOwner {
   email: string;
 }
 
-const defaults: MetaValues = { pullCursor: 0, lastSyncAt: null, lastError: null, unit: null, persisted: null, owner: null };
+const defaults: MetaValues = { pullCursor: 0, lastSyncAt: null, lastError: null, unit: null, persisted: null, owner: null, pushLimit: null };
 
 export async function getMeta<K extends keyof MetaValues>(key: K, db: FieldDb = fieldDb): Promise<MetaValues[K]> {
   const row = await db.meta.get(key);

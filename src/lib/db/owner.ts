@@ -3,6 +3,7 @@
 // workshop, and a second person on a shared phone must not see the first one's records.
 import { fieldDb, type FieldDb } from './field-db';
 import { getMeta, setMeta, type StoreOwner } from './meta';
+import { replayTyping } from './records';
 
 export type StoreClaim = { kind: 'own' } | { kind: 'foreign'; owner: StoreOwner; waiting: number };
 
@@ -26,6 +27,8 @@ async function emptyFor(me: StoreOwner, db: FieldDb) {
  * untouched and reported, for that person to sign in and send it, or for this one to discard it.
  */
 export async function claimStore(me: StoreOwner, db: FieldDb = fieldDb): Promise<StoreClaim> {
+  // Typing a reload cut short belongs to the store as it was: store it before anyone reads it.
+  await replayTyping(db);
   return db.transaction('rw', allTables(db), async () => {
     const owner = await getMeta('owner', db);
     if (owner && sameOwner(owner, me)) return { kind: 'own' } as const;

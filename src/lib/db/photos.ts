@@ -3,6 +3,7 @@
 import type { Photo } from '@shared/schemas';
 import { fieldDb, type FieldDb, type StoredPhoto } from './field-db';
 import { announceSaved, storageMessage, type ItemResult } from './records';
+import { tracked } from './writes-in-flight';
 
 const MAX_BYTES = 20 * 1024 * 1024;
 
@@ -28,13 +29,15 @@ export async function addPhoto(
     status: 'pending',
     error: null,
   };
-  try {
-    await db.photos.add(row);
-    announceSaved();
-    return { id: input.id, ok: true };
-  } catch (err) {
-    return { id: input.id, ok: false, message: storageMessage(err), fields: [] };
-  }
+  return tracked(async () => {
+    try {
+      await db.photos.add(row);
+      announceSaved();
+      return { id: input.id, ok: true };
+    } catch (err) {
+      return { id: input.id, ok: false, message: storageMessage(err), fields: [] };
+    }
+  });
 }
 
 export const nextPendingPhotos = (db: FieldDb = fieldDb) => db.photos.where('status').equals('pending').toArray();

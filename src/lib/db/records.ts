@@ -4,10 +4,11 @@
 // schemas on the way in and on the way out: a bad value or a corrupt row comes back as a per-item
 // result naming the record and the field, never as a thrown error.
 import type { ZodType } from 'zod';
-import { gaugePoint, pose, reading, testSession, vehicle, type Reading } from '@shared/schemas';
+import { gaugePoint, pose, reading, testSession, vehicle, type GaugePoint, type Pose, type Reading, type TestSession, type Vehicle } from '@shared/schemas';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { fieldDb, tableOf, type FieldDb } from './field-db';
 import { tracked } from './writes-in-flight';
+import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
 
 export const recordSchemas: Record<SyncEntity, ZodType> = {
   vehicle,
@@ -16,6 +17,18 @@ export const recordSchemas: Record<SyncEntity, ZodType> = {
   pose,
   reading,
 };
+
+/** The record type of each synced entity. */
+export interface RecordOf {
+  vehicle: Vehicle;
+  gaugePoint: GaugePoint;
+  testSession: TestSession;
+  pose: Pose;
+  reading: Reading;
+}
+
+/** What an edit may change: any field but the record's identity and the version it builds on. */
+export type Patch<E extends SyncEntity> = Partial<Omit<RecordOf[E], 'id' | 'version'>>;
 
 export interface ItemError {
   field: string;
@@ -48,9 +61,11 @@ function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]
 async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], db: FieldDb) {
   await tableOf(db, entity).bulkPut(valid as never[]);
   // One waiting entry per record is enough: the batch reads the latest content when it forms.
-  const waiting = new Set(
-    (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '').map((e) => e.recordId),
-  );
+  const unclaimed = (await db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray()).filter((e) => e.batchKey === '');
+  // The tester changed a record the server refused: every held record may go again (a fixed pose
+  // lets its held readings through too); what is still wrong is held again with the new answer.
+  if (unclaimed.some((e) => e.held)) await db.outbox.filter((e) => !!e.held).modify({ held: null });
+  const waiting = new Set(unclaimed.map((e) => e.recordId));
   const queuedAt = new Date().toISOString();
   await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
 }
@@ -81,19 +96,41 @@ export async function saveRecord<T extends { id: string }>(entity: SyncEntity, r
 }
 
 /**
- * Merges `patch` into the stored record and queues it, read and written in one transaction over
- * the record's table and the outbox: an edit never carries stale fields (or a stale version) from
- * a screen's copy, so a phone does not conflict with its own accepted edits. The merged record is
- * checked with the shared schema; a missing record or a bad value is a refusal naming the field.
+ * Edits a stored record: merges the patch into the record as it is stored NOW, inside the
+ * transaction that writes it and its outbox entry. Screens hand over only the fields a person
+ * changed, never a whole record from their own copy: a copy taken before a push was answered
+ * carries the old version, and writing it back would make the next push conflict with this
+ * phone's own accepted edit (and undo whatever a pull brought meanwhile).
  */
-export function patchRecord(entity: SyncEntity, id: string, patch: Record<string, unknown>, db: FieldDb = fieldDb): Promise<ItemResult> {
+export function patchRecord<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>, db: FieldDb = fieldDb): Promise<ItemResult> {
+  return journaled(db, { op: 'patch', entity, id, patch }, () => writePatch(entity, id, patch, db));
+}
+
+/** Runs a typed edit's write, noted in the typing journal until it settles (typing-journal.ts). */
+function journaled(db: FieldDb, edit: TypedEdit, write: () => Promise<ItemResult>): Promise<ItemResult> {
+  const n = noteTyping(db.name, edit);
+  const done = write();
+  void done.finally(() => crossOff(db.name, n));
+  return done;
+}
+
+/** Replays edits a reload cut before they were stored, in the order they were typed. */
+export async function replayTyping(db: FieldDb = fieldDb): Promise<void> {
+  for (const entry of journalEntries(db.name)) {
+    if (entry.op === 'reading') await setReadingValue(entry.slot, entry.valueMm, db);
+    else await patchRecord(entry.entity, entry.id, entry.patch as Patch<SyncEntity>, db);
+    crossOff(db.name, entry.n);
+  }
+}
+
+function writePatch<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>, db: FieldDb): Promise<ItemResult> {
   return tracked(async () => {
     let wrote = false;
     try {
       const result = await db.transaction('rw', tableOf(db, entity), db.outbox, async (): Promise<ItemResult> => {
         const stored = await tableOf(db, entity).get(id);
-        if (!stored) return { id, ok: false, message: `${entity} ${id} is not on this phone`, fields: [{ field: 'id', message: 'not on this phone' }] };
-        const { valid, refused } = checkRecords(entity, [{ ...stored, ...patch, id }]);
+        if (!stored) return { id, ok: false, message: `this ${entity} is not on this phone any more`, fields: [] };
+        const { valid, refused } = checkRecords(entity, [{ ...stored, ...patch, id: stored.id, version: stored.version }]);
         if (!valid.length) return refused[0];
         await putQueued(entity, valid, db);
         wrote = true;
@@ -105,6 +142,15 @@ export function patchRecord(entity: SyncEntity, id: string, patch: Record<string
       return { id, ok: false, message: storageMessage(err), fields: [] };
     }
   });
+}
+
+/** The fields of `after` that differ from `before`: what a form changed, as a patch. */
+export function changedFields<T extends Record<string, unknown>>(before: T, after: T): Partial<T> {
+  const patch: Partial<T> = {};
+  for (const key of Object.keys(after) as (keyof T)[]) {
+    if (JSON.stringify(before[key]) !== JSON.stringify(after[key])) patch[key] = after[key];
+  }
+  return patch;
 }
 
 /** Rows read back from storage, checked against the shared schema; corrupt ones are reported, not trusted. */
@@ -148,7 +194,9 @@ export function setReadingValue(
 ): Promise<ItemResult> {
   const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
   const previous = slotWrites.get(key);
-  const write = tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db)));
+  const write = journaled(db, { op: 'reading', slot, valueMm }, () =>
+    tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db))),
+  );
   slotWrites.set(key, write);
   void write.finally(() => {
     if (slotWrites.get(key) === write) slotWrites.delete(key);
@@ -161,7 +209,9 @@ async function writeReadingValue(slot: { poseId: string; gaugePointId: string; a
   let wrote = false;
   try {
     const result = await db.transaction('rw', db.readings, db.outbox, async (): Promise<ItemResult> => {
-      const existing = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).first();
+      // A slot can hold a cleared reading pulled from another device beside the live one: edit the live one.
+      const inSlot = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray();
+      const existing = inSlot.find((r) => !r.deletedAt) ?? inSlot[0];
       let record: Reading;
       if (valueMm === null) {
         if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };

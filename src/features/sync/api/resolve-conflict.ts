@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { resolveConflictInput, syncConflict, type ResolveConflictInput } from '@shared/schemas/sync';
 import { api } from '@/lib/api-client';
+import { keepResolvedConflict } from '@/lib/db/conflicts';
 import { syncNow } from '@/sync/sync-engine';
 
 export const resolveConflict = async (id: string, input: ResolveConflictInput) =>
@@ -10,6 +11,9 @@ export const resolveConflict = async (id: string, input: ResolveConflictInput) =
 export function useResolveConflict() {
   return useMutation({
     mutationFn: ({ id, keep }: { id: string } & ResolveConflictInput) => resolveConflict(id, { keep }),
-    onSuccess: () => void syncNow(),
+    onSuccess: async (resolved) => {
+      await keepResolvedConflict(resolved);
+      void syncNow();
+    },
   });
 }

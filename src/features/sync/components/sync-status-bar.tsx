@@ -1,6 +1,8 @@
 import { useState, useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { usePendingCounts, useMetaValue } from '@/lib/db/live';
+import { useLocalWrites } from '@/lib/db/writes-in-flight';
+import { barSummary } from '../bar-summary';
 import { syncNow, syncState } from '@/sync/sync-engine';
 import { usePersistentStorage } from '../hooks/use-persistent-storage';
 
@@ -20,11 +22,12 @@ const ago = (iso: string | null | undefined) => {
 export function SyncStatusBar() {
   const engine = useSyncExternalStore(syncState.subscribe, syncState.get);
   const counts = usePendingCounts();
+  const writes = useLocalWrites();
+  const summary = barSummary(counts, writes);
   const lastSyncAt = useMetaValue('lastSyncAt');
   const lastError = useMetaValue('lastError');
   const persisted = usePersistentStorage();
   const [open, setOpen] = useState(false);
-  const waiting = (counts?.records ?? 0) + (counts?.photos ?? 0);
   const pct = engine.progress && engine.progress.total ? Math.round((100 * engine.progress.loaded) / engine.progress.total) : null;
   return (
     <section aria-label="Sync state" className="border-b-2 border-rule bg-white">
@@ -32,8 +35,8 @@ export function SyncStatusBar() {
         <button type="button" className="flex min-h-touch min-w-0 flex-1 items-center gap-2 text-left" aria-expanded={open} aria-controls="sync-details" onClick={() => setOpen(!open)}>
           <span className="sr-only">Sync details:</span>
           <span className={`shrink-0 font-bold ${engine.online ? 'text-good' : 'text-alert'}`}>{engine.online ? 'Online' : 'Offline'}</span>
-          <span data-testid="sync-pending" className="min-w-0 truncate font-bold">
-            {waiting === 0 ? 'All saved on the server' : `Waiting to send: ${counts?.records ?? 0} records, ${counts?.photos ?? 0} photos`}
+          <span data-testid="sync-pending" className={`min-w-0 truncate font-bold ${summary.allSaved ? 'text-good' : ''}`}>
+            {summary.text}
           </span>
           {engine.running && (
             <span role="status" className="shrink-0">
@@ -47,6 +50,11 @@ export function SyncStatusBar() {
         {!!counts?.conflicts && (
           <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
             {counts.conflicts} conflict{counts.conflicts > 1 ? 's' : ''} to resolve
+          </Link>
+        )}
+        {!!counts?.held && (
+          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
+            See the held records
           </Link>
         )}
         {!!counts?.failedPhotos && (
@@ -74,7 +82,7 @@ export function SyncStatusBar() {
               ))}
             </ul>
           )}
-          <button type="button" className="btn ml-auto min-h-touch" disabled={engine.running || !engine.online} onClick={() => void syncNow()}>
+          <button type="button" className="btn ml-auto min-h-touch" disabled={engine.running || !engine.online} onClick={() => void syncNow({ force: true })}>
             Sync now
           </button>
         </div>

@@ -2,7 +2,7 @@ import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { gaugePoint as gaugePointSchema, opening as openingSchema, vehicle as vehicleSchema, type GaugePoint, type Vehicle } from '@shared/schemas';
 import { useLocalVehicle } from '@/lib/db/live';
-import { patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
+import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
 import { LengthInput, limitsOf } from '@/features/field/components/length-input';
 import type { LengthLimits } from '@/features/field/parse-length';
 import { UnitToggle } from '@/features/field/components/unit-toggle';
@@ -27,12 +27,6 @@ const blank = (): Vehicle => ({
 const v = vehicleSchema.shape;
 const o = openingSchema.shape;
 const POINT_LIMITS = limitsOf(gaugePointSchema.shape.yMm);
-
-/** The fields of `draft` that differ from the vehicle as it was loaded: all a save needs to write. */
-function changedFields(loaded: Vehicle, draft: Vehicle): Partial<Vehicle> {
-  const keys = ['name', 'chassis', 'body', 'wheelbaseMm', 'trackFrontMm', 'trackRearMm', 'opening', 'nominalGapMm', 'notes'] as const;
-  return Object.fromEntries(keys.filter((k) => JSON.stringify(loaded[k]) !== JSON.stringify(draft[k])).map((k) => [k, draft[k]]));
-}
 
 const nextLabel = (points: GaugePoint[]) => {
   for (let i = 0; i < 64; i++) {
