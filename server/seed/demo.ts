@@ -210,7 +210,12 @@ async function seedDemoEnvelope(): Promise<boolean> {
   if (flagged && flagged.flagNote === null) {
     await flagged.update({ valueMm: flagged.valueMm + 8, version: flagged.version + 1, flagNote: 'Dial gauge bracket may have flexed on the ramp; re-seated and read again, same value' });
   }
-  const params: EnvelopeParams = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
+  const params: EnvelopeParams = {
+    ...DEFAULT_DRAFT_PARAMS,
+    designTwistDeg: 20,
+    seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 },
+    design: { ...DEFAULT_DRAFT_PARAMS.design, option: 'boot', driverSide: 'left' },
+  };
   await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
   // The engineer kept the flagged reading after the crew's note, and said so at sign-off.
   const auth = { teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name };

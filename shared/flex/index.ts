@@ -48,6 +48,19 @@ export type {
 } from './envelope';
 export { bootSpan, sealCompressionPercent } from './boot';
 export { sealReason } from './seal-reason';
+export { DEFAULT_PASS_THROUGH_ALLOWANCES, PASS_THROUGH_OPTIONS, passThroughOptions, sealFollowRange, startingSealFreeHeight } from './pass-through';
+export type {
+  BootOption,
+  BootPanel,
+  ClearOpening,
+  DesignMovement,
+  FrameSeal,
+  FramesOption,
+  PassThroughAllowances,
+  PassThroughInput,
+  PassThroughOption,
+  PassThroughResult,
+} from './pass-through';
 export type { SealFacts } from './seal-reason';
 export { MM_WORDS } from './length-words';
 export type { LengthWords } from './length-words';

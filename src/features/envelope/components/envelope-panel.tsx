@@ -1,6 +1,8 @@
 import { lazy, Suspense, useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import { deskFlags, type DeskFlag, type DeskSessionData } from '@shared/desk-envelope';
+import { deskFlags, type DeskEnvelope, type DeskFlag, type DeskSessionData } from '@shared/desk-envelope';
+import { startingSealFreeHeight } from '@shared/flex';
+import { toDisplay } from '@shared/units';
 import type { UnitSystem } from '@shared/schemas/common';
 import type { EnvelopeRecord } from '@shared/schemas/envelope';
 import { AXIS_NAMES, formatLength, formatTimestamp } from '@shared/format';
@@ -12,7 +14,9 @@ import { useSignOff } from '../api/sign-off';
 import { useReopenEnvelope } from '../api/reopen';
 import { useLiveEnvelope } from '../hooks/use-live-envelope';
 import { EnvelopeResults } from './envelope-results';
-import { ParamsForm, fromFormState, toFormState, type ParamsFormState } from './params-form';
+import { PassThroughOptions } from './pass-through-options';
+import { ParamsForm } from './params-form';
+import { fromFormState, toFormState, type ParamsFormState } from './params-form-state';
 
 const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
 
@@ -112,7 +116,7 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
   return (
     <section className="space-y-4" aria-label={`Envelope draft, revision ${draft.revision}`}>
       <h3 className="text-lg font-bold">Draft revision {draft.revision}</h3>
-      <ParamsForm form={form} unit={unit} readOnly={!canDesign} onChange={setForm} />
+      <ParamsForm form={form} unit={unit} readOnly={!canDesign} onChange={(next) => setForm(withStartingSeal(form, next, envelope, unit))} />
       {problems.length > 0 && (
         <ul role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
           {problems.map((p) => (
@@ -133,6 +137,14 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
           </Suspense>
         </>
       )}
+      <PassThroughOptions
+        design={form.design}
+        unit={unit}
+        readOnly={!canDesign}
+        onChange={(design) => setForm({ ...form, design })}
+        result={envelope?.passThrough ?? null}
+        missing={envelope && !envelope.passThrough ? 'No options without a nominal fore-aft gap: set it on the vehicle.' : null}
+      />
       {canSign && flags.length > 0 && (
         <FlagAcknowledgements flags={flags} kept={kept} unit={unit} onChange={setKept} />
       )}
@@ -166,6 +178,18 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
       )}
     </section>
   );
+}
+
+/**
+ * Ticking the seal check with no free height typed starts from one that follows the gap range (the
+ * middle of the heights that do, to 5 mm), or, where none does, the least that touches both faces.
+ */
+function withStartingSeal(before: ParamsFormState, next: ParamsFormState, envelope: DeskEnvelope | null, unit: UnitSystem): ParamsFormState {
+  if (before.sealOn || !next.sealOn || next.sealFreeHeight.trim() !== '' || !envelope?.passThrough) return next;
+  const frames = envelope.passThrough.frames;
+  const minPct = Number(next.sealMinPct) || 25;
+  const startMm = startingSealFreeHeight(frames.sealFreeHeightRangeMm) ?? Math.ceil(frames.gapMaxMm / (1 - minPct / 100) / 5) * 5;
+  return { ...next, sealFreeHeight: String(Number(toDisplay(startMm, unit).toFixed(2))) };
 }
 
 /**
