@@ -15,6 +15,7 @@ import {
   type PassThroughResult,
   type RigidMotion,
 } from './flex';
+import { plural } from './plural';
 import type { GaugePoint, Opening, Pose, Reading, TestSession, Vehicle } from './schemas';
 import type { AcknowledgedFlag, EnvelopeParams, EnvelopeSnapshotV2, SnapshotPose } from './schemas/envelope';
 
@@ -149,7 +150,7 @@ export function computeDeskEnvelope(data: DeskSessionData, params: EnvelopeParam
     result,
     boot,
     passThrough: passThroughOf(data.vehicle, params, result),
-    bootNote: `cover the fitted motion of ${result.poses.filter((p) => p.fit).length} pose(s), each also scaled to the design twist of ${params.designTwistDeg}°`,
+    bootNote: `cover the fitted motion of ${plural(result.poses.filter((p) => p.fit).length, 'pose')}, each also scaled to the design twist of ${params.designTwistDeg}°`,
   };
 }
 

@@ -200,13 +200,15 @@ export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput
         missing.map((f, i) => ({ field: `acknowledgements.${f.readingId}`, message: `flagged reading ${named[i]} needs an acknowledgement` })),
       );
     }
-    const snapshot = buildSnapshot(
-      detail,
-      params,
-      { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision },
-      envelope,
-      acknowledged,
-    );
+    const standing = await EnvelopeModel.findAll({
+      where: { teamId: auth.teamId, sessionId: row.sessionId, status: 'signed', id: { [Op.ne]: row.id } },
+      attributes: ['revision'],
+      transaction,
+    });
+    const snapshot = {
+      ...buildSnapshot(detail, params, { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision }, envelope, acknowledged),
+      supersedesRevision: standing.length === 0 ? null : Math.max(...standing.map((e) => e.revision)),
+    };
     // Stored exactly as hashed, so reading it back re-hashes to the same value.
     const frozen = JSON.parse(canonicalJson(snapshot)) as EnvelopeSnapshot;
     const hash = contentHash(frozen);

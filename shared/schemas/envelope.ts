@@ -175,6 +175,8 @@ export interface EnvelopeSnapshotV2 extends SnapshotBase {
   acknowledgedFlags: AcknowledgedFlag[];
   /** The pass-through options at sign-off (absent in revisions signed before they existed; null without a nominal gap). */
   passThrough?: PassThroughResult | null;
+  /** The signed revision this one superseded at sign-off (null: the first; absent in older snapshots). */
+  supersedesRevision?: number | null;
 }
 
 export type EnvelopeSnapshot = EnvelopeSnapshotV1 | EnvelopeSnapshotV2;
