@@ -4,7 +4,9 @@
 import { MembershipModel, TeamModel, UserModel, VehicleModel, GaugePointModel, TestSessionModel, PoseModel, ReadingModel } from '../models';
 import { hashPassword } from '../auth/lucia';
 import type { Axis } from '../../shared/schemas';
-import { EnvelopeModel } from '../models';
+import { EnvelopeModel, PhotoModel } from '../models';
+import sharp from 'sharp';
+import { savePhoto } from '../services/photos.service';
 import { signOff } from '../services/envelope.service';
 import { getSessionDetail } from '../services/sessions.service';
 import { computeDeskEnvelope, deskFlags } from '../../shared/desk-envelope';
@@ -68,7 +70,18 @@ const poses = [
   { label: 'Diagonal FL + RR 300', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 300 },
   { label: 'Diagonal FR + RL 300', kind: 'wheels', fl: 0, fr: 300, rl: 300, rr: 0 },
   // Front left 1500 mm up a 20° ramp: its lift is 1500 × sin 20° = 513.03 mm (shared/flex/ramp-lift.ts).
-  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500, rampWheel: 'fl' },
+  {
+    label: 'Ramp 20°, FL up',
+    kind: 'ramp',
+    fl: 513,
+    fr: 0,
+    rl: 0,
+    rr: 0,
+    rampAngle: 20,
+    rampDistance: 1500,
+    rampWheel: 'fl',
+    notes: 'RR tyre just off the ground at the top; gauge bracket at D knocked by the hose, re-seated before reading',
+  },
 ] as const;
 
 const id = (n: number, kind: string) => `0d3c5a10-0000-4000-8${kind}-${n.toString(16).padStart(12, '0')}`;
@@ -86,7 +99,8 @@ function noise(seed: number) {
 export async function seedDemo(): Promise<boolean> {
   const workshop = await seedWorkshop();
   const envelope = await seedDemoEnvelope();
-  return workshop || envelope;
+  const photo = await seedDemoPhoto();
+  return workshop || envelope || photo;
 }
 
 async function seedWorkshop(): Promise<boolean> {
@@ -148,6 +162,7 @@ async function seedWorkshop(): Promise<boolean> {
             rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
             rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
             rampWheel: 'rampWheel' in p ? p.rampWheel : null,
+            notes: 'notes' in p ? p.notes : '',
             recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000),
             createdBy: tester,
           },
@@ -225,5 +240,29 @@ async function seedDemoEnvelope(): Promise<boolean> {
     note: 'Crew re-seated the dial gauge and read the same value; kept',
   }));
   await signOff(auth, DEMO_ENVELOPE_ID, { version: 1, acknowledgements }, new Date('2026-11-20T15:30:00Z'));
+  return true;
+}
+
+export const DEMO_PHOTO_ID = id(1, '007');
+
+/**
+ * A photo of the Mossback ramp pose, as the tester would have taken it: drawn here (an invented
+ * sketch of the gauge at point D across the gap), stored through the upload service.
+ */
+async function seedDemoPhoto(): Promise<boolean> {
+  if (await PhotoModel.findByPk(DEMO_PHOTO_ID)) return false;
+  const tester = DEMO_PEOPLE[2];
+  const rampPose = id(poses.length, '004');
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1200" height="800">
+    <rect width="1200" height="800" fill="#9aa39a"/>
+    <rect x="80" y="120" width="420" height="600" fill="#d8d2c0" stroke="#333" stroke-width="6"/>
+    <rect x="610" y="120" width="510" height="600" fill="#e8e4d8" stroke="#333" stroke-width="6"/>
+    <rect x="500" y="380" width="110" height="60" fill="#f2a13a" stroke="#333" stroke-width="4"/>
+    <text x="520" y="480" font-size="40" font-family="sans-serif" fill="#111">D</text>
+    <text x="90" y="780" font-size="34" font-family="sans-serif" fill="#111">cab · gauge D · body (invented demo photo)</text>
+  </svg>`;
+  const jpeg = await sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
+  const auth = { teamId: DEMO_TEAM_ID, userId: tester.id, role: 'tester' as const, sessionId: 'demo-seed', email: tester.email, name: tester.name };
+  await savePhoto(auth, { id: DEMO_PHOTO_ID, sessionId: id(1, '003'), poseId: rampPose, caption: 'Gauge D across the gap, ramp pose' }, jpeg);
   return true;
 }

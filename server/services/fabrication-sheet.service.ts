@@ -9,6 +9,7 @@ import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
 import { envelopeRemarks, envelopeRows } from '../../shared/envelope-rows';
 import { buildLines, buildToSentence, designOf, drawingNumber, gaugePointDimensions, sideWords } from '../../shared/build-sheet';
 import { OPTION_NAMES } from '../../shared/pass-through-rows';
+import { revisionName } from '../../shared/revision-name';
 import {
   AXIS_NAMES,
   SIDE_NAMES,
@@ -226,7 +227,7 @@ export function buildSheetPdf({ snapshot: s, contentHash, status, unit }: SheetI
 
   doc.font('bold').fontSize(18).fillColor(LINE).text('Fabrication sheet: pass-through boot and seal');
   doc.font('regular').fontSize(10).fillColor(INK);
-  doc.text(`${s.vehicle.name} · ${s.session.title} · revision ${s.revision} · tested ${s.session.testedOn}`);
+  doc.text(`${revisionName({ vehicleName: s.vehicle.name, sessionTitle: s.session.title, revision: s.revision })} · tested ${s.session.testedOn}`);
   doc.text(`Drawing ${drawingNumber(s)}, revision ${s.revision}${s.format === 2 && s.supersedesRevision != null ? `, supersedes revision ${s.supersedesRevision}` : ''}.`);
   doc.text(
     `All lengths in ${UNIT_WORDS[unit]}${unit === 'in' ? ', to 0.01 in, with build figures also to the nearest 1/16 in' : ''}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`,

@@ -2,7 +2,8 @@
 // session's history, and the engineer's edits of one reading (exclude with a reason, flag with a
 // note, correct a value). Nothing is deleted; every edit checks the reading's version (a stale edit
 // is a 409) and leaves a history event in the same transaction.
-import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel, UserModel } from '../models';
+import { HistoryEventModel, PhotoModel, PoseModel, ReadingModel, TestSessionModel, UserModel } from '../models';
+import { photoOut } from './photos.service';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
@@ -32,11 +33,18 @@ export async function sessionHistory(teamId: string, sessionId: string): Promise
   }));
 }
 
-/** The session as getSessionDetail gives it, plus the names of the people in it and its history. */
+/**
+ * The session as getSessionDetail gives it, plus its photos (the engineer judges a reading by the
+ * pose's photos and notes), the names of the people in it and its history.
+ */
 export async function getReview(auth: Reviewer, sessionId: string) {
   const detail = await getSessionDetail(auth, sessionId);
-  const [names, history] = await Promise.all([people(detail.readings.map((r) => r.enteredBy)), sessionHistory(auth.teamId, sessionId)]);
-  return { ...detail, people: names, history };
+  const [names, history, photos] = await Promise.all([
+    people(detail.readings.map((r) => r.enteredBy)),
+    sessionHistory(auth.teamId, sessionId),
+    PhotoModel.findAll({ where: { teamId: auth.teamId, sessionId, deletedAt: null }, order: [['capturedAt', 'ASC'], ['createdAt', 'ASC']] }),
+  ]);
+  return { ...detail, photos: photos.map(photoOut), people: names, history };
 }
 
 /** The history action of a change to a reading, at the desk or through sync. */

@@ -9,6 +9,7 @@ import { useReview, type SessionReview } from '@/features/review/api/get-review'
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
 import { ReadingsTable } from '@/features/review/components/readings-table';
 import { ReadingEditor } from '@/features/review/components/reading-editor';
+import { SessionConditions } from '@/features/review/components/pose-context';
 import { HistoryList } from '@/features/review/components/history-list';
 import { OpeningPlot } from '@/features/review/components/opening-plot';
 import { EnvelopePanel } from '@/features/envelope/components/envelope-panel';
@@ -75,8 +76,15 @@ function SessionDesk({ review }: { review: SessionReview }) {
       )}
       {section === 'readings' && (
         <div className="space-y-3">
-          {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
-          <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
+          <SessionConditions session={review.session} />
+          <ReadingsTable
+            review={review}
+            flags={fit.flags}
+            unit={unit}
+            selectedId={selected}
+            onSelect={isDesigner ? setSelected : undefined}
+            editor={selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
+          />
           {readingRemarks.length > 0 && (
             <section className="card" aria-label="Remarks on the readings and the fit">
               <h2 className="font-bold">Remarks on the readings and the fit</h2>

@@ -7,6 +7,8 @@ import { useEnvelope } from '../api/get-envelopes';
 import { useReopenEnvelope } from '../api/reopen';
 import { EnvelopeResults } from './envelope-results';
 import { SendSheetForm } from './send-sheet-form';
+import { RevisionState } from './revision-state';
+import { revisionName } from '@shared/revision-name';
 import { OptionsTable } from './pass-through-options';
 import { OPTION_NAMES } from '@shared/pass-through-rows';
 
@@ -29,11 +31,10 @@ export function EnvelopePage() {
             <SafetyNotice compact />
             <header>
               <h1 className="text-2xl font-bold">
-                {e.vehicleName}: envelope revision {e.revision}
+                {revisionName(e)}
               </h1>
               <p>
-                Session "{e.sessionTitle}" of {e.testedOn} ·{' '}
-                <b className={e.status === 'signed' ? 'text-good' : e.status === 'superseded' ? 'text-alert' : ''}>{e.status}</b>
+                Envelope of the session of {e.testedOn} · <RevisionState status={e.status} />
                 {role !== 'viewer' && (
                   <>
                     {' '}

@@ -14,6 +14,8 @@ import { useSignOff } from '../api/sign-off';
 import { useReopenEnvelope } from '../api/reopen';
 import { useLiveEnvelope } from '../hooks/use-live-envelope';
 import { EnvelopeResults } from './envelope-results';
+import { RevisionState } from './revision-state';
+import { revisionName } from '@shared/revision-name';
 import { PassThroughOptions } from './pass-through-options';
 import { ParamsForm } from './params-form';
 import { fromFormState, toFormState, type ParamsFormState } from './params-form-state';
@@ -43,7 +45,7 @@ export function EnvelopePanel({ data, unit, canDesign, canSign }: Props) {
               <NoDraft sessionId={data.session.id} latest={signed[0]} canDesign={canDesign} />
             )}
             <section>
-              <h3 className="text-lg font-bold">Signed revisions</h3>
+              <h3 className="text-lg font-bold">Signed revisions of this session</h3>
               {signed.length === 0 ? (
                 <p>None yet.</p>
               ) : (
@@ -51,9 +53,9 @@ export function EnvelopePanel({ data, unit, canDesign, canSign }: Props) {
                   {signed.map((e) => (
                     <li key={e.id}>
                       <Link className="font-bold underline" to={`/desk/envelopes/${e.id}`}>
-                        Revision {e.revision}
+                        {revisionName(e)}
                       </Link>{' '}
-                      · {e.status} · signed by {e.signedBy?.name} on {formatTimestamp(e.signedAt!)}
+                      <RevisionState status={e.status} /> · signed by {e.signedBy?.name} on {formatTimestamp(e.signedAt!)}
                     </li>
                   ))}
                 </ul>
@@ -115,7 +117,9 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
 
   return (
     <section className="space-y-4" aria-label={`Envelope draft, revision ${draft.revision}`}>
-      <h3 className="text-lg font-bold">Draft revision {draft.revision}</h3>
+      <h3 className="text-lg font-bold">
+        {revisionName(draft)} <RevisionState status="draft" />
+      </h3>
       <ParamsForm form={form} unit={unit} readOnly={!canDesign} onChange={(next) => setForm(withStartingSeal(form, next, envelope, unit))} />
       {problems.length > 0 && (
         <ul role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
