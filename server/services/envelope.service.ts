@@ -19,6 +19,7 @@ import { Conflict, Invalid, NotFound } from '../http/errors';
 import { FlexInputError } from '../../shared/flex';
 import { buildSnapshot, computeDeskEnvelope, deskFlags, type DeskEnvelope } from '../../shared/desk-envelope';
 import { formatLength } from '../../shared/format';
+import { plural } from '../../shared/plural';
 import {
   DEFAULT_DRAFT_PARAMS,
   envelopeParams,
@@ -196,7 +197,7 @@ export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput
     if (missing.length > 0) {
       const named = missing.map((f) => `${f.poseLabel} ${f.pointLabel} ${f.flag.axis} (residual ${formatLength(f.flag.residualMm, 'mm')})`);
       throw new Invalid(
-        `${missing.length} flagged reading(s) are still in the computation: acknowledge each one, or exclude it, before signing off: ${named.join('; ')}`,
+        `${plural(missing.length, 'flagged reading')} ${missing.length === 1 ? 'is' : 'are'} still in the computation: acknowledge each one, or exclude it, before signing off: ${named.join('; ')}`,
         missing.map((f, i) => ({ field: `acknowledgements.${f.readingId}`, message: `flagged reading ${named[i]} needs an acknowledgement` })),
       );
     }

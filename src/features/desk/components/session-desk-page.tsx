@@ -4,6 +4,7 @@ import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
 import { envelopeRemarks } from '@shared/envelope-rows';
+import { plural } from '@shared/plural';
 import { useMe } from '@/features/auth/api/get-me';
 import { useReview, type SessionReview } from '@/features/review/api/get-review';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
@@ -52,7 +53,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
       <header>
         <h1 className="text-2xl font-bold">{review.vehicle.name}</h1>
         <p>
-          {review.session.testedOn} · {review.session.title} · {review.poses.length} poses · {review.readings.filter((r) => r.excluded).length} reading(s) excluded ·{' '}
+          {review.session.testedOn} · {review.session.title} · {plural(review.poses.length, 'pose')} · {plural(review.readings.filter((r) => r.excluded).length, 'reading')} excluded ·{' '}
           {fit.flags.size} far from the fit
         </p>
       </header>

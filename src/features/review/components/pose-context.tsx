@@ -4,6 +4,7 @@ import type { UnitSystem } from '@shared/schemas/common';
 import { rampTravelIndex, roundRti } from '@shared/flex';
 import { formatDeg, formatLength } from '@shared/format';
 
+const THUMB_HEIGHT = 80;
 const WHEEL_NAMES = { fl: 'front left (FL)', fr: 'front right (FR)', rl: 'rear left (RL)', rr: 'rear right (RR)' } as const;
 const LIFT_KEYS = [
   ['fl', 'liftFlMm'],
@@ -70,7 +71,15 @@ export function PoseContext({ pose, photos, wheelbaseMm, unit }: { pose: Pose; p
           {photos.map((p, i) => (
             <li key={p.id}>
               <button type="button" className="block rounded border border-rule" onClick={() => show(p)} aria-label={`Open photo ${i + 1} of ${name} full size${p.caption ? `: ${p.caption}` : ''}`}>
-                <img src={`/api/photos/${p.id}/thumb`} alt={p.caption || `Photo ${i + 1} of ${name}`} className="h-20 w-auto" loading="lazy" />
+                <img
+                  src={`/api/photos/${p.id}/thumb`}
+                  alt={p.caption || `Photo ${i + 1} of ${name}`}
+                  // Its own proportions reserve the space before it loads, so the table does not jump.
+                  width={Math.round((THUMB_HEIGHT * p.width) / Math.max(1, p.height))}
+                  height={THUMB_HEIGHT}
+                  className="h-20 w-auto"
+                  loading="lazy"
+                />
               </button>
             </li>
           ))}
