@@ -115,7 +115,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
         </div>
       )}
       {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={isDesigner} canSign={isDesigner} />}
-      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} />}
+      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} unit={unit} />}
     </div>
   );
 }
