@@ -128,7 +128,7 @@ describe('sign-off', () => {
 
     const none = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });
     expect(none.status).toBe(400);
-    expect(none.body.error.message).toMatch(/^2 flagged reading\(s\) are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 foreAft/);
+    expect(none.body.error.message).toMatch(/^2 flagged readings are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 fore-aft/);
     expect(none.body.error.fields.map((f: { field: string }) => f.field).sort()).toEqual(misreads.map((id) => `acknowledgements.${id}`).sort());
     const one = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }] });
     expect(one.status).toBe(400);

@@ -38,12 +38,14 @@ describe('plain words at the desk', () => {
     const confirm = page.getByRole('group', { name: 'Confirm the role of Joss Harl' });
     await confirm.getByText(/Change Joss Harl from tester to engineer\?/).waitFor();
     await confirm.getByRole('button', { name: 'Cancel' }).click();
-    expect(await role.inputValue()).toBe('tester');
+    await expect.poll(() => role.inputValue(), { timeout: 10_000 }).toBe('tester');
+    await confirm.waitFor({ state: 'detached' });
     await role.selectOption('engineer');
     await confirm.getByRole('button', { name: 'Change role' }).click();
     await page.getByText('Saved: Joss Harl is now an engineer.').waitFor();
     await page.reload();
-    await expect.poll(() => page.getByLabel('Role of Joss Harl').inputValue()).toBe('engineer');
+    // A loaded machine may take more than a second to bring the page back after the reload.
+    await expect.poll(() => page.getByLabel('Role of Joss Harl').inputValue(), { timeout: 15_000 }).toBe('engineer');
 
     // The workshop's default units: a member who chose none sees inches at once.
     await page.getByRole('radio', { name: /^Inches \(in\)/ }).click();
