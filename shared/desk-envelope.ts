@@ -5,14 +5,17 @@
 import {
   bootSpan,
   designEnvelope,
+  passThroughOptions,
   scaleMotion,
   type BootSpanResult,
   type EnvelopeFlag,
   type EnvelopeInput,
   type EnvelopeResult,
   type OpeningOutline,
+  type PassThroughResult,
   type RigidMotion,
 } from './flex';
+import { plural } from './plural';
 import type { GaugePoint, Opening, Pose, Reading, TestSession, Vehicle } from './schemas';
 import type { AcknowledgedFlag, EnvelopeParams, EnvelopeSnapshotV2, SnapshotPose } from './schemas/envelope';
 
@@ -73,7 +76,7 @@ export function toEnvelopeInput(data: DeskSessionData, params: EnvelopeParams): 
     byPose.set(r.poseId, list);
   }
   const baseline = baselinePose(data.poses);
-  const { seal: _seal, ...flexParams } = params;
+  const { seal: _seal, design: _design, ...flexParams } = params;
   return {
     tracks: { frontMm: data.vehicle.trackFrontMm, rearMm: data.vehicle.trackRearMm },
     gaugePoints: data.gaugePoints.map((g) => ({ id: g.label, y: g.yMm, z: g.zMm })),
@@ -96,6 +99,26 @@ export interface DeskEnvelope {
   boot: BootSpanResult | null;
   /** Why the boot check could not run, or which motions it covered. */
   bootNote: string;
+  /** The ways to close the pass-through for this envelope; null without a nominal fore-aft gap. */
+  passThrough: PassThroughResult | null;
+}
+
+/** The pass-through options for a computed envelope: its design movement on the vehicle's opening. */
+export function passThroughOf(vehicle: DeskSessionData['vehicle'], params: EnvelopeParams, result: EnvelopeResult): PassThroughResult | null {
+  if (!(vehicle.nominalGapMm > 0)) return null;
+  const { option: _option, driverSide: _side, fastening: _f, material: _m, drain: _d, fabricToleranceMm: _ft, frameToleranceMm: _fr, ...allowances } = params.design;
+  return passThroughOptions({
+    opening: { widthMm: vehicle.opening.widthMm, heightMm: vehicle.opening.heightMm, cornerRadiusMm: vehicle.opening.cornerRadiusMm },
+    nominalGapMm: vehicle.nominalGapMm,
+    movement: {
+      foreAftOpeningMm: result.measures.foreAftOpening.envelopeMm,
+      foreAftClosingMm: result.measures.foreAftClosing.envelopeMm,
+      lateralMm: result.measures.lateral.envelopeMm,
+      verticalMm: result.measures.vertical.envelopeMm,
+    },
+    allowances,
+    seal: params.seal,
+  });
 }
 
 /**
@@ -107,7 +130,7 @@ export interface DeskEnvelope {
 export function computeDeskEnvelope(data: DeskSessionData, params: EnvelopeParams): DeskEnvelope {
   const result = designEnvelope(toEnvelopeInput(data, params));
   if (!(data.vehicle.nominalGapMm > 0)) {
-    return { result, boot: null, bootNote: 'no boot check: the vehicle has no nominal fore-aft gap set' };
+    return { result, boot: null, bootNote: 'no boot check: the vehicle has no nominal fore-aft gap set', passThrough: null };
   }
   const motions: RigidMotion[] = [];
   for (const pose of result.poses) {
@@ -126,7 +149,8 @@ export function computeDeskEnvelope(data: DeskSessionData, params: EnvelopeParam
   return {
     result,
     boot,
-    bootNote: `cover the fitted motion of ${result.poses.filter((p) => p.fit).length} pose(s), each also scaled to the design twist of ${params.designTwistDeg}°`,
+    passThrough: passThroughOf(data.vehicle, params, result),
+    bootNote: `cover the fitted motion of ${plural(result.poses.filter((p) => p.fit).length, 'pose')}, each also scaled to the design twist of ${params.designTwistDeg}°`,
   };
 }
 
@@ -171,7 +195,7 @@ export function buildSnapshot(
   envelope: DeskEnvelope,
   acknowledgements: ReadonlyMap<string, string>,
 ): EnvelopeSnapshotV2 {
-  const { result, boot, bootNote } = envelope;
+  const { result, boot, bootNote, passThrough } = envelope;
   const acknowledgedFlags: AcknowledgedFlag[] = deskFlags(data, result).map((f) => {
     const note = acknowledgements.get(f.readingId);
     if (note === undefined) throw new Error(`buildSnapshot: flagged reading ${f.readingId} has no acknowledgement`);
@@ -212,5 +236,6 @@ export function buildSnapshot(
     acknowledgedFlags,
     boot,
     bootNote,
+    passThrough,
   };
 }

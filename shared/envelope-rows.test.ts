@@ -34,3 +34,15 @@ describe('envelopeRows', () => {
     expect(envelopeRemarks({ axes: {} as LegacyEnvelopeResult['axes'], notes: ['old'] })).toEqual({ readings: [], bound: ['old'] });
   });
 });
+
+describe('envelope rows in the reader’s unit', () => {
+  it('writes "Why these values" and the remarks in inches for a person who chose inches', () => {
+    const result = designEnvelope(syntheticEnvelopeInput(buildSyntheticSession({ seed: 3, noiseSdMm: 2 }), { designTwistDeg: 40, incrementMm: 6.35 }));
+    const text = [...envelopeRows(result, 'in').flatMap((r) => r.reasons), ...envelopeRemarks(result, 'in').readings].join(' ');
+    expect(text).not.toMatch(/\bmm\b/);
+    expect(text).toMatch(/rounded up to the 1\/4 in increment: \d+\.\d\d in\./);
+    // The same numbers as the stored mm reasons: the envelope of the lateral row in both.
+    const lateral = envelopeRows(result, 'in')[2];
+    expect(lateral.reasons.join(' ')).toContain(`${(result.measures.lateral.envelopeMm / 25.4).toFixed(2)} in.`);
+  });
+});

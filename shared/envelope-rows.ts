@@ -1,8 +1,10 @@
 // The envelope as rows for people: the desk, the fabrication sheet, the CSV and the e-mail print
 // the same rows, whether the snapshot was signed with one fore-aft envelope (format 1) or with the
 // gap's opening and closing apart (format 2), so an older signed sheet still reads as signed.
-import { ENVELOPE_MEASURES, TWIST_DIRECTION_NAMES, type EnvelopeResult } from './flex';
-import { AXIS_NAMES, MEASURE_NAMES, MEASURE_SIGNS } from './format';
+// Reasons and remarks are written again from the frozen numbers in the reader's unit.
+import { ENVELOPE_MEASURES, TWIST_DIRECTION_NAMES, measureReasons, readingRemarks, type EnvelopeResult } from './flex';
+import { AXIS_NAMES, MEASURE_NAMES, MEASURE_SIGNS, lengthWords } from './format';
+import type { UnitSystem } from './schemas/common';
 import type { LegacyEnvelopeResult } from './schemas/envelope';
 
 export interface EnvelopeRow {
@@ -23,8 +25,8 @@ function isLegacy(result: EnvelopeResult | LegacyEnvelopeResult): result is Lega
   return 'axes' in result;
 }
 
-/** The rows of an envelope, in print order. */
-export function envelopeRows(result: EnvelopeResult | LegacyEnvelopeResult): EnvelopeRow[] {
+/** The rows of an envelope, in print order, its reasons in the reader's unit (format 1 kept its own, in mm). */
+export function envelopeRows(result: EnvelopeResult | LegacyEnvelopeResult, unit: UnitSystem = 'mm'): EnvelopeRow[] {
   if (isLegacy(result)) {
     return (['foreAft', 'lateral', 'vertical'] as const).map((axis) => {
       const a = result.axes[axis];
@@ -50,12 +52,12 @@ export function envelopeRows(result: EnvelopeResult | LegacyEnvelopeResult): Env
       upperBoundMm: m.upperBoundMm,
       governs: m.governing === 'upperBound' && m.governingDirection !== null ? `upper bound, ${TWIST_DIRECTION_NAMES[m.governingDirection]}` : 'measured',
       envelopeMm: m.envelopeMm,
-      reasons: m.reasons,
+      reasons: measureReasons(m, result.parameters, lengthWords(unit)),
     };
   });
 }
 
-/** Every remark of an envelope, readings first (format 1 kept them in one list). */
-export function envelopeRemarks(result: EnvelopeResult | LegacyEnvelopeResult): { readings: string[]; bound: string[] } {
-  return isLegacy(result) ? { readings: [], bound: result.notes } : { readings: result.readingNotes, bound: result.notes };
+/** Every remark of an envelope, readings first, in the reader's unit (format 1 kept them in one list). */
+export function envelopeRemarks(result: EnvelopeResult | LegacyEnvelopeResult, unit: UnitSystem = 'mm'): { readings: string[]; bound: string[] } {
+  return isLegacy(result) ? { readings: [], bound: result.notes } : { readings: readingRemarks(result, lengthWords(unit)), bound: result.notes };
 }

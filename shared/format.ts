@@ -3,7 +3,8 @@
 // Lengths arrive in mm and are shown in the team's or user's unit (1 in = 25.4 mm exactly, see
 // units.ts): 1 decimal in mm, 2 in inches (a 0.5 mm reading resolution is about 0.02 in).
 import type { UnitSystem } from './schemas/common';
-import { toDisplay } from './units';
+import type { LengthWords } from './flex/length-words';
+import { MM_PER_IN, toDisplay } from './units';
 
 const LENGTH_DIGITS: Record<UnitSystem, number> = { mm: 1, in: 2 };
 
@@ -22,6 +23,65 @@ export function formatLengthValue(mm: number, unit: UnitSystem): string {
 export function formatLength(mm: number, unit: UnitSystem): string {
   return `${formatLengthValue(mm, unit)} ${unit}`;
 }
+
+/** Sixteenths of an inch: the finest mark on a workshop tape in inches (common practice). */
+const SIXTEENTHS = 16;
+
+function gcd(a: number, b: number): number {
+  return b === 0 ? a : gcd(b, a % b);
+}
+
+/**
+ * A length as the nearest 1/16 in, as a tape reads it: `formatInchFraction(184.15) // => '7 1/4 in'`,
+ * `formatInchFraction(7.9375) // => '5/16 in'`, `formatInchFraction(-34.925) // => '−1 3/8 in'`.
+ */
+export function formatInchFraction(mm: number): string {
+  const sixteenths = Math.round((Math.abs(mm) / MM_PER_IN) * SIXTEENTHS);
+  if (sixteenths === 0) return '0 in';
+  const whole = Math.floor(sixteenths / SIXTEENTHS);
+  const rest = sixteenths % SIXTEENTHS;
+  const d = gcd(rest, SIXTEENTHS);
+  const fraction = rest === 0 ? '' : `${rest / d}/${SIXTEENTHS / d}`;
+  return `${mm < 0 ? '−' : ''}${[whole > 0 ? String(whole) : '', fraction].filter(Boolean).join(' ')} in`;
+}
+
+/** Whether a length is a whole number of sixteenths of an inch (an increment chosen in inches). */
+function isInchFraction(mm: number): boolean {
+  const n = (mm / MM_PER_IN) * SIXTEENTHS;
+  return Math.abs(n - Math.round(n)) < 1e-6;
+}
+
+/**
+ * A figure to build to, as the sheet prints it: in inches the decimal and the nearest 1/16 in
+ * (`formatBuildLength(184.15, 'in') // => '7.25 in (7 1/4 in)'`), in mm as on screen.
+ */
+export function formatBuildLength(mm: number, unit: UnitSystem): string {
+  return unit === 'in' ? `${formatLength(mm, 'in')} (${formatInchFraction(mm)})` : formatLength(mm, 'mm');
+}
+
+/**
+ * A fabrication increment as the engineer chose it: an increment chosen in inches reads as a
+ * fraction (`1/4 in`), one chosen in mm as mm, with its inch value beside it for an inch reader
+ * (`5 mm (0.20 in)`), never as a bare "0.20 in" that nobody would choose.
+ */
+export function formatIncrement(mm: number, unit: UnitSystem): string {
+  const inMm = `${Number(mm.toFixed(3))} mm`;
+  if (unit === 'in') return isInchFraction(mm) ? formatInchFraction(mm) : `${inMm} (${formatLength(mm, 'in')})`;
+  const chosenInInches = isInchFraction(mm) && !Number.isInteger(Number(mm.toFixed(6)));
+  return chosenInInches ? `${inMm} (${formatInchFraction(mm)})` : inMm;
+}
+
+/** How the computation's sentences write lengths for a reader of `unit` (see shared/flex/length-words.ts). */
+export function lengthWords(unit: UnitSystem): LengthWords {
+  return {
+    length: (mm) => formatLength(mm, unit),
+    fine: (mm) => `${fixed(toDisplay(mm, unit), unit === 'mm' ? 2 : 3)} ${unit}`,
+    increment: (mm) => formatIncrement(mm, unit),
+  };
+}
+
+/** The unit in words, for a sentence: "Lengths in inches". */
+export const UNIT_WORDS: Record<UnitSystem, string> = { mm: 'millimetres (mm)', in: 'inches (in)' };
 
 /** An angle in degrees, bare: `formatDegValue(8.94) // => '8.9'`. */
 export function formatDegValue(deg: number): string {

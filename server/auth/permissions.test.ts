@@ -34,3 +34,13 @@ describe('the permission table', () => {
     expect(can('tester', 'envelope.signOff')).toBe(false);
   });
 });
+
+describe('refusals in words', () => {
+  it('says who may do an action, from the same table', async () => {
+    const { refusal } = await import('./permissions');
+    expect(refusal('session.review')).toBe('Reviewing readings is for engineers and admins.');
+    expect(refusal('team.manage')).toBe('Managing members and invitations is for admins.');
+    expect(refusal('session.record')).toBe('Recording sessions in the field is for testers, engineers and admins.');
+    expect(refusal('envelope.readSigned')).toBe('Seeing signed-off envelopes is for everyone in the workshop.');
+  });
+});

@@ -3,7 +3,7 @@
 // test can walk the same table.
 import type { Request, RequestHandler, Response, Router } from 'express';
 import type { ZodType } from 'zod';
-import { can, type Action } from '../auth/permissions';
+import { can, refusal, type Action } from '../auth/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
 import { loadAuth } from '../auth/context';
@@ -60,7 +60,7 @@ export function accessCheck(access: Access, auth: AuthContext | undefined): void
   if (access === 'public') return;
   if (!auth) throw new Unauthenticated();
   if (access === 'signedIn') return;
-  if (!can(auth.role, access)) throw new Forbidden(`the ${auth.role} role may not do ${access}`);
+  if (!can(auth.role, access)) throw new Forbidden(refusal(access));
 }
 
 export function mountRoutes(router: Router, routes: AnyRoute[]) {

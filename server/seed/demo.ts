@@ -5,7 +5,8 @@ import { MembershipModel, TeamModel, UserModel, VehicleModel, GaugePointModel, T
 import { hashPassword } from '../auth/lucia';
 import type { Axis } from '../../shared/schemas';
 import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
-import { EnvelopeModel } from '../models';
+import { EnvelopeModel, PhotoModel } from '../models';
+import { savePhoto } from '../services/photos.service';
 import { signOff } from '../services/envelope.service';
 import { getSessionDetail } from '../services/sessions.service';
 import { computeDeskEnvelope, deskFlags } from '../../shared/desk-envelope';
@@ -69,7 +70,18 @@ const poses = [
   { label: 'Diagonal FL + RR 300', kind: 'wheels', fl: 300, fr: 0, rl: 0, rr: 300 },
   { label: 'Diagonal FR + RL 300', kind: 'wheels', fl: 0, fr: 300, rl: 300, rr: 0 },
   // Front left 1500 mm up a 20° ramp: its lift is 1500 × sin 20° = 513.03 mm (shared/flex/ramp-lift.ts).
-  { label: 'Ramp 20°, FL up', kind: 'ramp', fl: 513, fr: 0, rl: 0, rr: 0, rampAngle: 20, rampDistance: 1500, rampWheel: 'fl' },
+  {
+    label: 'Ramp 20°, FL up',
+    kind: 'ramp',
+    fl: 513,
+    fr: 0,
+    rl: 0,
+    rr: 0,
+    rampAngle: 20,
+    rampDistance: 1500,
+    rampWheel: 'fl',
+    notes: 'RR tyre just off the ground at the top; gauge bracket at D knocked by the hose, re-seated before reading',
+  },
 ] as const;
 
 const id = (n: number, kind: string) => `0d3c5a10-0000-4000-8${kind}-${n.toString(16).padStart(12, '0')}`;
@@ -87,7 +99,8 @@ function noise(seed: number) {
 export async function seedDemo(): Promise<boolean> {
   const workshop = await seedWorkshop();
   const envelope = await seedDemoEnvelope();
-  return workshop || envelope;
+  const photo = await seedDemoPhoto();
+  return workshop || envelope || photo;
 }
 
 async function seedWorkshop(): Promise<boolean> {
@@ -149,6 +162,7 @@ async function seedWorkshop(): Promise<boolean> {
               rampAngleDeg: 'rampAngle' in p ? p.rampAngle : null,
               rampDistanceMm: 'rampDistance' in p ? p.rampDistance : null,
               rampWheel: 'rampWheel' in p ? p.rampWheel : null,
+              notes: 'notes' in p ? p.notes : '',
               recordedAt: new Date(Date.parse(`${vi === 0 ? '2026-11-18' : '2026-11-25'}T09:10:00Z`) + si * 9 * 60_000).toISOString(),
             }),
             teamId: DEMO_TEAM_ID,
@@ -203,7 +217,12 @@ async function seedDemoEnvelope(): Promise<boolean> {
   if (flagged && flagged.flagNote === null) {
     await flagged.update({ valueMm: flagged.valueMm + 8, version: flagged.version + 1, flagNote: 'Dial gauge bracket may have flexed on the ramp; re-seated and read again, same value' });
   }
-  const params: EnvelopeParams = { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20, seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 } };
+  const params: EnvelopeParams = {
+    ...DEFAULT_DRAFT_PARAMS,
+    designTwistDeg: 20,
+    seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 },
+    design: { ...DEFAULT_DRAFT_PARAMS.design, option: 'boot', driverSide: 'left' },
+  };
   await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
   // The engineer kept the flagged reading after the crew's note, and said so at sign-off.
   const auth = { teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name };
@@ -213,5 +232,30 @@ async function seedDemoEnvelope(): Promise<boolean> {
     note: 'Crew re-seated the dial gauge and read the same value; kept',
   }));
   await signOff(auth, DEMO_ENVELOPE_ID, { version: 1, acknowledgements }, new Date('2026-11-20T15:30:00Z'));
+  return true;
+}
+
+export const DEMO_PHOTO_ID = id(1, '007');
+
+/**
+ * A photo of the Mossback ramp pose, as the tester would have taken it: drawn here (an invented
+ * sketch of the gauge at point D across the gap), stored through the upload service.
+ */
+async function seedDemoPhoto(): Promise<boolean> {
+  if (await PhotoModel.findByPk(DEMO_PHOTO_ID)) return false;
+  const tester = DEMO_PEOPLE[2];
+  const rampPose = id(poses.length, '004');
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1200" height="800">
+    <rect width="1200" height="800" fill="#9aa39a"/>
+    <rect x="80" y="120" width="420" height="600" fill="#d8d2c0" stroke="#333" stroke-width="6"/>
+    <rect x="610" y="120" width="510" height="600" fill="#e8e4d8" stroke="#333" stroke-width="6"/>
+    <rect x="500" y="380" width="110" height="60" fill="#f2a13a" stroke="#333" stroke-width="4"/>
+    <text x="520" y="480" font-size="40" font-family="sans-serif" fill="#111">D</text>
+    <text x="90" y="780" font-size="34" font-family="sans-serif" fill="#111">cab · gauge D · body (invented demo photo)</text>
+  </svg>`;
+  // Loaded here, not at the top: the server's cold start does not wait for sharp.
+  const { default: sharp } = await import('sharp');
+  const jpeg = await sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
+  await savePhoto({ teamId: DEMO_TEAM_ID, userId: tester.id }, { id: DEMO_PHOTO_ID, sessionId: id(1, '003'), poseId: rampPose, caption: 'Gauge D across the gap, ramp pose' }, jpeg);
   return true;
 }

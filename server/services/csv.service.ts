@@ -12,6 +12,8 @@ import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
 import type { GaugePoint, Pose, Reading } from '../../shared/schemas';
 import { AXES } from '../../shared/flex';
 import { envelopeRows } from '../../shared/envelope-rows';
+import { buildLines, buildToSentence, designOf, drawingNumber } from '../../shared/build-sheet';
+import { OPTION_NAMES } from '../../shared/pass-through-rows';
 import { AXIS_NAMES, SIDE_NAMES, formatDegValue, formatLengthValue, formatRatio } from '../../shared/format';
 
 export interface ReadingsCsvInput {
@@ -70,8 +72,11 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
     [`largest_shear_${unit}`]: '',
     extension_ratio: '',
     note: '',
+    figure: '',
+    option: '',
+    supersedes_revision: '',
   };
-  const rows: Record<string, string | number>[] = envelopeRows(s.result).map((r) => ({
+  const rows: Record<string, string | number>[] = envelopeRows(s.result, unit).map((r) => ({
       kind: 'envelope',
       name: r.name,
       sign: SIGN_WORDS[r.sign],
@@ -84,6 +89,9 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
       [`largest_shear_${unit}`]: '',
       extension_ratio: '',
       note: '',
+      figure: '',
+      option: '',
+      supersedes_revision: '',
       design_twist_deg: formatDegValue(s.params.designTwistDeg),
       ...common,
   }));
@@ -111,6 +119,21 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
       design_twist_deg: formatDegValue(s.params.designTwistDeg),
       ...common,
     });
+  }
+  // The sheet's drawing and build figures, the same lines the PDF prints.
+  const design = designOf(s);
+  rows.push({
+    ...blank,
+    kind: 'drawing',
+    name: drawingNumber(s),
+    option: design.option === null ? 'none chosen' : OPTION_NAMES[design.option],
+    supersedes_revision: s.format === 2 && s.supersedesRevision != null ? s.supersedesRevision : '',
+    note: buildToSentence(s, unit),
+    design_twist_deg: formatDegValue(s.params.designTwistDeg),
+    ...common,
+  });
+  for (const line of buildLines(s, unit)) {
+    rows.push({ ...blank, kind: 'build', name: line.item, figure: line.figure, design_twist_deg: formatDegValue(s.params.designTwistDeg), ...common });
   }
   return Papa.unparse(rows, CSV_OPTIONS);
 }

@@ -9,6 +9,7 @@ import { sendWithinQuota } from '../mail/quotas';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { SendSheetInput } from '../../shared/schemas/envelope';
 import { envelopeRows } from '../../shared/envelope-rows';
+import { revisionName } from '../../shared/revision-name';
 import { formatLength, formatTimestamp } from '../../shared/format';
 import { getSignedEnvelope } from './envelope.service';
 import { PLANNING_AID_NOTICE, buildSheetPdf } from './fabrication-sheet.service';
@@ -29,7 +30,7 @@ export async function sendSheet(auth: AuthContext, envelopeId: string, input: Se
   const envelope = await getSignedEnvelope(auth, envelopeId);
   if (envelope.status !== 'signed') throw new Conflict(`revision ${envelope.revision} is superseded by a later sign-off: send the current revision`);
   const s = envelope.snapshot;
-  const subject = `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`;
+  const subject = `Fabrication sheet: ${revisionName({ vehicleName: s.vehicle.name, sessionTitle: s.session.title, revision: s.revision })}`;
   // Counted against the sheet quotas (mail/quotas.ts) before the PDF is made, and logged like
   // every e-mail the app sends.
   const { messageId } = await sendWithinQuota(auth, 'sheet', { to: input.to, subject }, async () => {
@@ -40,7 +41,7 @@ export async function sendSheet(auth: AuthContext, envelopeId: string, input: Se
       '',
       ...(input.note ? [input.note, ''] : []),
       'Design envelope:',
-      ...envelopeRows(s.result).map((r) => `  ${r.name}: ${r.sign}${formatLength(r.envelopeMm, unit)}`),
+      ...envelopeRows(s.result, unit).map((r) => `  ${r.name}: ${r.sign}${formatLength(r.envelopeMm, unit)}`),
       '',
       `Content hash: ${envelope.contentHash}`,
       '',

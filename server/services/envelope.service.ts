@@ -18,7 +18,8 @@ import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import { FlexInputError } from '../../shared/flex';
 import { buildSnapshot, computeDeskEnvelope, deskFlags, type DeskEnvelope } from '../../shared/desk-envelope';
-import { formatLength } from '../../shared/format';
+import { AXIS_NAMES, formatLength } from '../../shared/format';
+import { plural } from '../../shared/plural';
 import {
   DEFAULT_DRAFT_PARAMS,
   envelopeParams,
@@ -194,19 +195,21 @@ export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput
     const acknowledged = new Map((input.acknowledgements ?? []).map((a) => [a.readingId, a.note ?? '']));
     const missing = deskFlags(detail, envelope.result).filter((f) => !acknowledged.has(f.readingId));
     if (missing.length > 0) {
-      const named = missing.map((f) => `${f.poseLabel} ${f.pointLabel} ${f.flag.axis} (residual ${formatLength(f.flag.residualMm, 'mm')})`);
+      const named = missing.map((f) => `${f.poseLabel} ${f.pointLabel} ${AXIS_NAMES[f.flag.axis]} (residual ${formatLength(f.flag.residualMm, 'mm')})`);
       throw new Invalid(
-        `${missing.length} flagged reading(s) are still in the computation: acknowledge each one, or exclude it, before signing off: ${named.join('; ')}`,
+        `${plural(missing.length, 'flagged reading')} ${missing.length === 1 ? 'is' : 'are'} still in the computation: acknowledge each one, or exclude it, before signing off: ${named.join('; ')}`,
         missing.map((f, i) => ({ field: `acknowledgements.${f.readingId}`, message: `flagged reading ${named[i]} needs an acknowledgement` })),
       );
     }
-    const snapshot = buildSnapshot(
-      detail,
-      params,
-      { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision },
-      envelope,
-      acknowledged,
-    );
+    const standing = await EnvelopeModel.findAll({
+      where: { teamId: auth.teamId, sessionId: row.sessionId, status: 'signed', id: { [Op.ne]: row.id } },
+      attributes: ['revision'],
+      transaction,
+    });
+    const snapshot = {
+      ...buildSnapshot(detail, params, { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision }, envelope, acknowledged),
+      supersedesRevision: standing.length === 0 ? null : Math.max(...standing.map((e) => e.revision)),
+    };
     // Stored exactly as hashed, so reading it back re-hashes to the same value.
     const frozen = JSON.parse(canonicalJson(snapshot)) as EnvelopeSnapshot;
     const hash = contentHash(frozen);

@@ -8,16 +8,24 @@ import { repoRoot } from '../paths';
 import type { UnitSystem } from '../../shared/schemas/common';
 import type { EnvelopeSnapshot } from '../../shared/schemas/envelope';
 import { envelopeRemarks, envelopeRows } from '../../shared/envelope-rows';
+import { buildLines, buildToSentence, designOf, drawingNumber, gaugePointDimensions, sideWords } from '../../shared/build-sheet';
+import { OPTION_NAMES } from '../../shared/pass-through-rows';
+import { revisionName } from '../../shared/revision-name';
 import {
   AXIS_NAMES,
   SIDE_NAMES,
+  UNIT_WORDS,
   formatDeg,
+  formatBuildLength,
+  formatIncrement,
   formatLength,
   formatLengthValue,
   formatPercent,
   formatRatio,
   formatTimestamp,
+  lengthWords,
 } from '../../shared/format';
+import { sealReason } from '../../shared/flex';
 
 const FONT_DIR = path.join(repoRoot, 'fonts');
 const REGULAR = path.join(FONT_DIR, 'atkinson-hyperlegible-regular.woff');
@@ -82,40 +90,122 @@ function arrowLine(doc: Doc, x1: number, y1: number, x2: number, y2: number) {
   }
 }
 
-/** The opening to scale, seen from the cab (the vehicle's left on the drawing's right), dimensioned. */
-function openingDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
+/**
+ * One frame to scale, seen from the cab looking rearward (the vehicle's left, +y, on the drawing's
+ * right), with its outline dimensioned, the gauge points by label, L and R marked, and for the
+ * body-side frame of an overlapping design its inner (clear) edge.
+ */
+function frameDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem, at: { left: number; top: number; title: string; inner: { widthMm: number; heightMm: number } | null }) {
   const o = s.vehicle.opening;
-  const boxW = 300;
-  const boxH = 190;
+  const boxW = 190;
+  const boxH = 150;
   const scale = Math.min(boxW / o.widthMm, boxH / o.heightMm);
   const w = o.widthMm * scale;
   const h = o.heightMm * scale;
-  const left = MARGIN + 40;
-  const top = doc.y + 24;
+  const left = at.left + 22;
+  const top = at.top + 36;
+  const driver = designOf(s).driverSide;
+  doc.font('bold').fontSize(10).fillColor(LINE).text(at.title, at.left, at.top, { width: boxW + 60 });
   doc.roundedRect(left, top, w, h, o.cornerRadiusMm * scale).lineWidth(1.5).strokeColor(INK).stroke();
-  // Viewed from the cab looking rearward, +y (the vehicle's left) is on the right of the drawing.
+  if (at.inner) {
+    const iw = at.inner.widthMm * scale;
+    const ih = at.inner.heightMm * scale;
+    doc.rect(left + (w - iw) / 2, top + (h - ih) / 2, iw, ih).lineWidth(0.8).dash(3, { space: 2 }).strokeColor(LINE).stroke().undash();
+  }
   const px = (y: number) => left + w / 2 + (y - o.centreYMm) * scale;
   const py = (z: number) => top + h - (z - o.bottomZMm) * scale;
   for (const g of s.gaugePoints) {
     doc.circle(px(g.yMm), py(g.zMm), 3).fillColor('#8a4b00').fill();
     doc.font('bold').fontSize(8).fillColor(INK).text(g.label, px(g.yMm) + 4, py(g.zMm) - 10, { lineBreak: false });
   }
-  arrowLine(doc, left, top - 10, left + w, top - 10);
-  doc.font('regular').fontSize(9).fillColor(INK).text(`width ${formatLength(o.widthMm, unit)}`, left, top - 22, { width: w, align: 'center' });
-  arrowLine(doc, left - 12, top, left - 12, top + h);
-  doc.save().rotate(-90, { origin: [left - 16, top + h / 2] });
-  doc.text(`height ${formatLength(o.heightMm, unit)}`, left - 16 - h / 2, top + h / 2 - 11, { width: h, align: 'center' });
+  arrowLine(doc, left, top - 8, left + w, top - 8);
+  doc.font('regular').fontSize(8).fillColor(INK).text(formatBuildLength(o.widthMm, unit), left, top - 19, { width: w, align: 'center' });
+  arrowLine(doc, left - 10, top, left - 10, top + h);
+  doc.save().rotate(-90, { origin: [left - 14, top + h / 2] });
+  doc.text(formatBuildLength(o.heightMm, unit), left - 14 - h / 2, top + h / 2 - 9, { width: h, align: 'center' });
   doc.restore();
-  const notesX = left + w + 24;
-  doc.fontSize(9).fillColor(INK);
-  doc.text(`corner radius ${formatLength(o.cornerRadiusMm, unit)}`, notesX, top);
-  doc.text(`centre ${formatLength(o.centreYMm, unit)} from the vehicle centreline (+ = left)`, notesX, doc.y + 2, { width: 160 });
-  doc.text(`bottom edge ${formatLength(o.bottomZMm, unit)} above the top of the frame rail`, notesX, doc.y + 2, { width: 160 });
-  doc.text(`nominal fore-aft gap ${formatLength(s.vehicle.nominalGapMm, unit)}`, notesX, doc.y + 2, { width: 160 });
-  doc.fillColor(MUTED).text('Seen from the cab, looking rearward; dots are the gauge points.', notesX, doc.y + 2, { width: 160 });
-  doc.fillColor(INK);
+  // Each side's mark under its edge, one line each so they never run together on a narrow opening.
+  doc.font('bold').fontSize(8).text(sideWords('right', driver), left - 10, top + h + 4, { lineBreak: false });
+  doc.text(sideWords('left', driver), left - 10, top + h + 15, { width: w + 20, align: 'right', lineBreak: false });
+  doc.font('regular');
+  return top + h + 30;
+}
+
+/** Both frames side by side, then every gauge point dimensioned on the opening. */
+function framesSection(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
+  const design = designOf(s);
+  const pass = s.format === 2 ? (s.passThrough ?? null) : null;
+  const overlapping = pass !== null && (design.option === 'frames' || design.option === 'both');
+  if (doc.y > doc.page.height - MARGIN - 300) doc.addPage();
+  const top = doc.y;
+  const bottom = Math.max(
+    frameDrawing(doc, s, unit, { left: MARGIN, top, title: 'Cab-side frame', inner: null }),
+    frameDrawing(doc, s, unit, { left: MARGIN + 260, top, title: 'Body-side frame', inner: overlapping ? pass.frames.clear : null }),
+  );
   doc.x = MARGIN;
-  doc.y = Math.max(top + h + 12, doc.y + 6);
+  doc.y = bottom;
+  const o = s.vehicle.opening;
+  doc.fontSize(8).fillColor(MUTED);
+  doc.text(
+    `Both seen from the cab, looking rearward: the vehicle's left (+y) is on the right of each drawing. Corner radius ${formatBuildLength(o.cornerRadiusMm, unit)}; ` +
+      `the opening's centre is ${formatLength(o.centreYMm, unit)} from the vehicle centreline (+ = left) and its bottom edge ${formatLength(o.bottomZMm, unit)} above the top of the frame rail; ` +
+      `nominal fore-aft gap ${formatBuildLength(s.vehicle.nominalGapMm, unit)}.${overlapping ? ' Dashed: the body-side frame\'s inner edge (the clear opening).' : ''}` +
+      (design.driverSide === null ? ' The driver\'s side was not set: L and R are the vehicle\'s left and right.' : ''),
+    MARGIN,
+    doc.y,
+    { width: doc.page.width - 2 * MARGIN },
+  );
+  doc.fillColor(INK);
+  table(
+    doc,
+    [
+      { title: 'gauge point', width: 70 },
+      { title: "across, from the opening's centre line", width: 190 },
+      { title: "up, from the opening's bottom edge", width: 130 },
+      { title: 'as placed (y, z)', width: 110 },
+    ],
+    gaugePointDimensions(s, unit).map((g) => [g.label, g.across, g.up, g.placed]),
+  );
+}
+
+/** The chosen option's build lines, then attachment, material, drain and tolerances. */
+function buildSection(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
+  const design = designOf(s);
+  heading(doc, design.option === null ? 'Build' : `Build: ${OPTION_NAMES[design.option]}`);
+  if (design.option === null) doc.text('No pass-through option was chosen at sign-off: the sheet gives the design envelope and the boot spans only.', MARGIN);
+  table(
+    doc,
+    [
+      { title: 'item', width: 210 },
+      { title: `figure (${unit})`, width: 290 },
+    ],
+    buildLines(s, unit).map((l) => [l.item, l.figure]),
+  );
+}
+
+/**
+ * On every page, so a page handed on alone still says what it is and who signed it: the drawing
+ * number and revision, the revision it supersedes, the signature and hash, and "page x of y".
+ */
+function signOffFooters(doc: Doc, s: EnvelopeSnapshot, contentHash: string, status: SheetInput['status']) {
+  const range = doc.bufferedPageRange();
+  const supersedes = s.format === 2 && s.supersedesRevision !== undefined ? (s.supersedesRevision === null ? 'supersedes none' : `supersedes revision ${s.supersedesRevision}`) : 'supersedes: not recorded';
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const bottomMargin = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    const y = doc.page.height - MARGIN + 8;
+    doc.moveTo(MARGIN, y - 4).lineTo(doc.page.width - MARGIN, y - 4).lineWidth(0.5).strokeColor(LINE).stroke();
+    doc.font('regular').fontSize(7.5).fillColor(INK);
+    doc.text(
+      `Drawing ${drawingNumber(s)} revision ${s.revision} (${supersedes})${status === 'superseded' ? ' · SUPERSEDED' : ''} · signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)} · hash ${contentHash.slice(0, 16)}…`,
+      MARGIN,
+      y,
+      { width: doc.page.width - 2 * MARGIN - 70, lineBreak: false },
+    );
+    doc.font('bold').text(`page ${i - range.start + 1} of ${range.count}`, doc.page.width - MARGIN - 70, y, { width: 70, align: 'right', lineBreak: false });
+    doc.page.margins.bottom = bottomMargin;
+  }
 }
 
 // pdfkit is loaded with the first sheet, not at start-up (it takes a tenth of a second to load).
@@ -124,6 +214,8 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   const doc = new PDFDocument({
     size: 'A4',
     margin: MARGIN,
+    // Kept until the end, so each page's footer can say "page x of y".
+    bufferPages: true,
     // Dated at the sign-off, so the same revision always prints to the same file.
     info: { Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`, Author: s.signedBy.name, Creator: 'Twistlog', CreationDate: new Date(s.signedAt) },
   });
@@ -138,18 +230,25 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
 
   doc.font('bold').fontSize(18).fillColor(LINE).text('Fabrication sheet: pass-through boot and seal');
   doc.font('regular').fontSize(10).fillColor(INK);
-  doc.text(`${s.vehicle.name} · session "${s.session.title}" of ${s.session.testedOn} · envelope revision ${s.revision}`);
-  doc.text(`All lengths in ${unit}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`);
+  doc.text(`${revisionName({ vehicleName: s.vehicle.name, sessionTitle: s.session.title, revision: s.revision })} · tested ${s.session.testedOn}`);
+  doc.text(`Drawing ${drawingNumber(s)}, revision ${s.revision}${s.format === 2 && s.supersedesRevision != null ? `, supersedes revision ${s.supersedesRevision}` : ''}.`);
+  doc.text(
+    `All lengths in ${UNIT_WORDS[unit]}${unit === 'in' ? ', to 0.01 in, with build figures also to the nearest 1/16 in' : ''}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`,
+  );
   if (status === 'superseded') {
     doc.moveDown(0.3).font('bold').fillColor('#b3261e').text('SUPERSEDED: a later revision of this envelope has been signed off. Do not fabricate from this sheet.');
     doc.font('regular').fillColor(INK);
   }
 
-  heading(doc, 'Opening');
-  openingDrawing(doc, s, unit);
+  doc.moveDown(0.5).font('bold').fontSize(11).fillColor(LINE).text(buildToSentence(s, unit), MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
+  doc.font('regular').fontSize(9).fillColor(INK);
+
+  heading(doc, 'Frames and gauge points');
+  framesSection(doc, s, unit);
+  buildSection(doc, s, unit);
 
   heading(doc, 'Design envelope');
-  const rows = envelopeRows(s.result);
+  const rows = envelopeRows(s.result, unit);
   table(
     doc,
     [
@@ -225,7 +324,7 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
       (['top', 'bottom', 'left', 'right'] as const).map((side) => {
         const b = boot[side];
         const range = b.sealFreeHeightRangeMm ? `${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)}` : 'none';
-        const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${b.seal.reason}` : '—';
+        const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${sealReason(b.seal, b.gapMinMm, b.gapMaxMm, lengthWords(unit))}` : '—';
         return [SIDE_NAMES[side], range, check];
       }),
     );
@@ -238,9 +337,9 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
       ? `one-sided prediction bound at ${formatPercent(p.confidence)} confidence per twist direction, line ${p.throughOrigin ? 'through the origin' : 'with intercept'}, scatter growing with twist`
       : `one-sided tolerance bound, coverage ${formatPercent(p.coverage)} at ${formatPercent(p.confidence)} confidence, repeated runs within ±${formatDeg(p.repeatBandDeg ?? 1)}`;
   doc.text(`Design twist ${formatDeg(p.designTwistDeg)}; ${method}.`, MARGIN);
-  doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatLength(p.incrementMm, unit)}.`);
+  doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatIncrement(p.incrementMm, unit)}.`);
   doc.text(`${s.poses.length} poses, ${s.readings.length} readings used, ${s.excludedReadings.length} excluded by the engineer.`);
-  const remarks = envelopeRemarks(s.result);
+  const remarks = envelopeRemarks(s.result, unit);
   for (const [title, list] of [['Remarks on the readings and the fit', remarks.readings], ['Remarks on the bound', remarks.bound]] as const) {
     if (list.length === 0) continue;
     heading(doc, title);
@@ -277,6 +376,7 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   doc.fontSize(8).text(`Content hash (SHA-256 of the snapshot's canonical JSON): ${contentHash}`);
 
   doc.moveDown(0.8).fontSize(9).font('bold').text(PLANNING_AID_NOTICE, MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
+  signOffFooters(doc, s, contentHash, status);
   doc.end();
   return done;
 }

@@ -138,7 +138,7 @@ export const photoOut = (p: PhotoModel): Photo & { changeSeq: number } => ({
  * Stores one uploaded photo. The client's id makes a retried upload (lost answer) return the
  * photo already stored instead of storing it twice.
  */
-export async function savePhoto(auth: AuthContext, fields: { id: string; sessionId: string; poseId: string | null; caption: string }, file: Buffer | undefined) {
+export async function savePhoto(auth: Pick<AuthContext, 'teamId' | 'userId'>, fields: { id: string; sessionId: string; poseId: string | null; caption: string }, file: Buffer | undefined) {
   if (!file) throw new Invalid('photo: no file was sent', [{ field: 'photo', message: 'required' }]);
   const existing = await PhotoModel.findByPk(fields.id);
   if (existing) {

@@ -8,12 +8,11 @@
 // of the full pages and every row beyond it waits for the next pull (no table skips rows).
 import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
-import { PhotoModel, VehicleModel } from '../models';
-import { photo } from '../../shared/schemas';
+import { VehicleModel } from '../models';
 import { records, syncEntities } from '../../shared/records';
 import { syncTables } from './sync-tables';
 import { etagOf, teamCursorSql } from '../http/validator';
-import { isoSql, recordJsonSql, syncedRecordJsonSql } from './record-json';
+import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { lockTeamChanges } from './team-changes';
 import { translateDbError } from './sync-db-errors';
 
@@ -32,7 +31,7 @@ export const pullSql = () => {
   // [answer key, alias, the alias's rows, one row's JSON]: the synced records of the registry, then photos and conflicts.
   const tables: [string, string, string, string][] = [
     ...syncEntities.map((entity, i): [string, string, string, string] => [records[entity].pullKey, `t${i}`, page(syncTables[entity].table), syncedRecordJsonSql(entity, `t${i}`)]),
-    ['photos', 'ph', page('photos'), recordJsonSql(PhotoModel, photo.omit({ hasGps: true }), 'ph', { hasGps: '(ph.gps_lat IS NOT NULL AND ph.gps_lon IS NOT NULL)' })],
+    ['photos', 'ph', page('photos'), photoJsonSql('ph')],
     ['conflicts', 'c', 'SELECT * FROM sync_conflicts WHERE team_id = $1 AND user_id = $4 AND change_seq > $2 ORDER BY change_seq LIMIT $3',
       `json_build_object('id', c.id, 'entity', c.entity, 'entityId', c.entity_id, 'baseVersion', c.base_version,
       'serverVersion', c.server_version, 'clientRecord', c.client_record, 'serverRecord', c.server_record,

@@ -7,6 +7,8 @@
 // tests/api/review-answer.test.ts and pull-answer.test.ts compare both ways field by field.
 import { DataTypes, type ModelStatic, type Model } from 'sequelize';
 import type * as z from 'zod';
+import { PhotoModel } from '../models';
+import { photo } from '../../shared/schemas';
 import type { SyncEntity } from '../../shared/records';
 import { syncTables } from './sync-tables';
 
@@ -42,3 +44,7 @@ export function syncedRecordJsonSql(entity: SyncEntity, alias: string, extra: Re
   ];
   return `json_build_object(${fields.map(([key, sql]) => `'${key}', ${sql}`).join(', ')})`;
 }
+
+/** A photo row (aliased `alias`) as photos.service.ts photoOut describes it. */
+export const photoJsonSql = (alias: string) =>
+  recordJsonSql(PhotoModel, photo.omit({ hasGps: true }), alias, { hasGps: `(${alias}.gps_lat IS NOT NULL AND ${alias}.gps_lon IS NOT NULL)` });

@@ -4,12 +4,13 @@
 // is a 409) and leaves a history event in the same transaction.
 import { QueryTypes } from 'sequelize';
 import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel } from '../models';
+import type { Photo } from '../../shared/schemas';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
 import { readingOut, type getSessionDetail } from './sessions.service';
 import { withTeamChanges } from './team-changes';
-import { isoSql, syncedRecordJsonSql } from './record-json';
+import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { etagOf, teamCursorSql } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
@@ -17,10 +18,15 @@ type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 /** How many of a session's latest history events the review carries. */
 const HISTORY_SHOWN = 200;
 
-export type SessionReview = Awaited<ReturnType<typeof getSessionDetail>> & { people: Record<string, string>; history: HistoryEventRecord[] };
+export type SessionReview = Awaited<ReturnType<typeof getSessionDetail>> & {
+  photos: (Photo & { changeSeq: number })[];
+  people: Record<string, string>;
+  history: HistoryEventRecord[];
+};
 
 // The whole answer in one statement: the session, its vehicle and gauge points, poses and readings
-// (as getSessionDetail gives them), the names of the people who entered readings, and the latest
+// (as getSessionDetail gives them), its photos (the engineer judges a reading by the pose's photos
+// and notes), the names of the people who entered readings, and the latest
 // history. PostgreSQL builds the JSON and the route passes the text through (see record-json.ts).
 // Written once the models are initialised, from their column names.
 let reviewSqlText: string | undefined;
@@ -30,6 +36,7 @@ v AS (SELECT v.* FROM vehicles v JOIN s ON v.id = s.vehicle_id WHERE v.team_id =
 g AS (SELECT g.* FROM gauge_points g JOIN s ON g.vehicle_id = s.vehicle_id WHERE g.team_id = $1 AND g.deleted_at IS NULL),
 p AS (SELECT * FROM poses WHERE session_id = $2 AND team_id = $1 AND deleted_at IS NULL),
 r AS (SELECT r.* FROM readings r JOIN p ON r.pose_id = p.id WHERE r.team_id = $1 AND r.deleted_at IS NULL),
+ph AS (SELECT * FROM photos WHERE team_id = $1 AND session_id = $2 AND deleted_at IS NULL),
 h AS (SELECT * FROM history_events WHERE team_id = $1 AND session_id = $2 ORDER BY id DESC LIMIT ${HISTORY_SHOWN})
 SELECT (SELECT count(*) FROM s)::int AS sessions, (SELECT count(*) FROM v)::int AS vehicles, json_build_object(
   'session', (SELECT ${syncedRecordJsonSql('testSession', 's')} FROM s),
@@ -37,6 +44,7 @@ SELECT (SELECT count(*) FROM s)::int AS sessions, (SELECT count(*) FROM v)::int 
   'gaugePoints', coalesce((SELECT json_agg(${syncedRecordJsonSql('gaugePoint', 'g')} ORDER BY g.label) FROM g), '[]'),
   'poses', coalesce((SELECT json_agg(${syncedRecordJsonSql('pose', 'p')} ORDER BY p.seq) FROM p), '[]'),
   'readings', coalesce((SELECT json_agg(${syncedRecordJsonSql('reading', 'r', { enteredBy: 'r.entered_by' })} ORDER BY r.created_at, r.id) FROM r), '[]'),
+  'photos', coalesce((SELECT json_agg(${photoJsonSql('ph')} ORDER BY ph.captured_at, ph.created_at) FROM ph), '[]'),
   'people', coalesce((SELECT json_object_agg(u.id, u.name) FROM users u WHERE u.id IN (SELECT entered_by FROM r)), '{}'),
   'history', coalesce((SELECT json_agg(json_build_object('id', h.id, 'entity', h.entity, 'entityId', h.entity_id, 'action', h.action,
     'userName', u.name, 'detail', h.detail, 'createdAt', ${isoSql('h.created_at')}) ORDER BY h.id DESC) FROM h LEFT JOIN users u ON u.id = h.user_id), '[]')

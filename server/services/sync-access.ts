@@ -15,7 +15,7 @@ import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
 import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
-import { allRoles, can, type Action } from '../auth/permissions';
+import { can, whoMay, type Action } from '../auth/permissions';
 import { Invalid, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { syncTables } from './sync-tables';
@@ -104,7 +104,6 @@ function shown(col: Column, v: unknown): unknown {
   return v;
 }
 
-const who = (action: Action) => allRoles.filter((r) => can(r, action)).join(', ');
 const fieldPath = (index: number, key: string) => `body.changes.${index}.record.${key}`;
 
 const WORDS: Record<SyncEntity, string> = { vehicle: 'a vehicle', gaugePoint: 'a gauge point', testSession: 'a session', pose: 'a pose', reading: 'a reading' };
@@ -154,7 +153,7 @@ export async function enforceSyncAccess(
     const spec = syncTables[item.entity];
     const row = rows.get(`${item.entity}:${item.record.id}`);
     const refuse = (key: string, action: Action, what: string) =>
-      errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that needs ${action} (${who(action)})` });
+      errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that is for ${whoMay(action)} (${action})` });
 
     const changed: Column[] = [];
     for (const col of spec.columns) {

@@ -38,7 +38,7 @@ export async function getTeam(auth: AuthContext): Promise<{ team: Team; members:
  */
 export async function updateTeamSettings(auth: AuthContext, input: TeamSettingsInput) {
   await withTeamChanges(auth.teamId, async (transaction) => {
-    await TeamModel.update({ photoGps: input.photoGps }, { where: { id: auth.teamId }, transaction });
+    await TeamModel.update({ ...(input.photoGps && { photoGps: input.photoGps }), ...(input.unitSystem && { unitSystem: input.unitSystem }) }, { where: { id: auth.teamId }, transaction });
     if (input.photoGps === 'drop') {
       await PhotoModel.sequelize!.query(
         'UPDATE photos SET gps_lat = NULL, gps_lon = NULL, version = version + 1 WHERE team_id = $1 AND (gps_lat IS NOT NULL OR gps_lon IS NOT NULL)',

@@ -48,6 +48,15 @@ describe('bootSpan', () => {
     expect(good.top.sealFreeHeightRangeMm?.max).toBeCloseTo(60, 12);
   });
 
+  it('says in words when a seal is too small to reach across the gap, never a negative compression', () => {
+    // gap 40 → 50 mm (opening by 10). A 15 mm seal cannot touch both faces at any gap: at 50 mm it
+    // would be "compressed" (15 − 50) / 15 = −233 %, which means nothing to anyone.
+    const small = bootSpan({ outline, nominalGapMm: 40, motions: [motion({ x: 10 })], seal: { freeHeightMm: 15 } });
+    expect(small.top.seal?.follows).toBe(false);
+    expect(small.top.seal?.reason).not.toMatch(/−|-\d/);
+    expect(small.top.seal?.reason).toBe('the seal (free height 15.0 mm) is shorter than the gap it must fill (40.0 mm to 50.0 mm): it does not touch both faces; choose a free height of 66.7 mm to 80.0 mm');
+  });
+
   it('separates the sides under a pitch of the cab', () => {
     // dx = wy·z: the top (z = 1500) opens more than the bottom, whose corner arcs reach z = 680
     const result = bootSpan({ outline, nominalGapMm: 40, motions: [motion({}, { y: 0.01 })] });

@@ -21,6 +21,7 @@
 import { FlexInputError, requireFinite, requireLength, requireMotion, requirePositiveLength } from './errors';
 import { sampleOutline, validateOutline, type OpeningOutline, type OutlineSide, type StraightSide } from './perimeter';
 import type { RigidMotion } from './types';
+import { sealReason } from './seal-reason';
 
 export interface SealSpec {
   freeHeightMm: number;
@@ -102,11 +103,6 @@ function checkSeal(seal: SealSpec, gapMin: number, gapMax: number, nominal: numb
   const maxPct = seal.maxCompressionPercent ?? 50;
   const compressionAtWidestPercent = sealCompressionPercent(seal.freeHeightMm, gapMax);
   const compressionAtNarrowestPercent = sealCompressionPercent(seal.freeHeightMm, gapMin);
-  const tooLoose = compressionAtWidestPercent < minPct;
-  const crushed = compressionAtNarrowestPercent > maxPct;
-  const reasons: string[] = [];
-  if (tooLoose) reasons.push(`at the widest gap (${gapMax.toFixed(1)} mm) it is compressed only ${compressionAtWidestPercent.toFixed(0)} % (< ${minPct} %)`);
-  if (crushed) reasons.push(`at the narrowest gap (${gapMin.toFixed(1)} mm) it is compressed ${compressionAtNarrowestPercent.toFixed(0)} % (> ${maxPct} %)`);
   return {
     freeHeightMm: seal.freeHeightMm,
     minCompressionPercent: minPct,
@@ -114,8 +110,8 @@ function checkSeal(seal: SealSpec, gapMin: number, gapMax: number, nominal: numb
     compressionAtNominalPercent: sealCompressionPercent(seal.freeHeightMm, nominal),
     compressionAtWidestPercent,
     compressionAtNarrowestPercent,
-    follows: !tooLoose && !crushed,
-    reason: reasons.length === 0 ? `stays within ${minPct}–${maxPct} % compression over the fore-aft range` : reasons.join('; '),
+    follows: gapMin > 0 && compressionAtWidestPercent >= minPct && compressionAtNarrowestPercent <= maxPct,
+    reason: sealReason({ freeHeightMm: seal.freeHeightMm, minCompressionPercent: minPct, maxCompressionPercent: maxPct }, gapMin, gapMax),
   };
 }
 

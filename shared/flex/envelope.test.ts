@@ -190,12 +190,12 @@ describe('designEnvelope', () => {
     poses[1].readings[0] = { ...poses[1].readings[0], value: poses[1].readings[0].value + 25 };
     const result = designEnvelope(inputOf(poses, { designTwistDeg: 20 }, four));
     expect(result.readingNotes).toContain(
-      'fore-aft readings judged together only (4 reading(s) for 3 unknown(s); 5 are needed to single out a misread); the fore-aft reading(s) at a alone fix part of the fit, so nothing checks them (all poses)',
+      'fore-aft readings judged together only (4 readings for 3 unknowns; 5 are needed to single out a misread); the fore-aft reading at a alone fixes part of the fit, so nothing checks it (all poses)',
     );
     const three = six.slice(0, 3);
     const few = [4, -8, 12].map((t) => poseAt(`p${t}`, t, shear(9 * t), three));
     expect(designEnvelope(inputOf(few, { designTwistDeg: 20 }, three)).readingNotes).toContain(
-      'outlier check skipped for fore-aft readings (3 reading(s) for 3 unknown(s); 5 are needed to single out a misread) (all poses)',
+      'outlier check skipped for fore-aft readings (3 readings for 3 unknowns; 5 are needed to single out a misread) (all poses)',
     );
   });
 
@@ -250,7 +250,7 @@ describe('designEnvelope', () => {
     const result = designEnvelope(input);
     expect(result.scatterMm.inPlane).toBeGreaterThan(1.5);
     expect(result.scatterMm.inPlane).toBeLessThan(2.5);
-    expect(result.readingNotes.some((n) => /the lateral and vertical readings scatter about their fits by \d\.\d\d mm \(robust SD\), more than the 0\.5 mm/.test(n))).toBe(true);
+    expect(result.readingNotes.some((n) => /the lateral and vertical readings scatter about their fits by \d\.\d\d mm \(robust SD\), more than the 0\.50 mm a gauge is read to/.test(n))).toBe(true);
     expect(result.flags).toEqual([]);
   });
 

@@ -46,6 +46,8 @@ import { roundUpToIncrement } from './round-up';
 import { studentTQuantile } from './student-t';
 import { oneSidedToleranceFactor } from './tolerance-factor';
 import { crossAxleTwistDeg } from './twist';
+import { TWIST_DIRECTION_NAMES, measureReasons } from './measure-reasons';
+import { readingRemarks } from './reading-remarks';
 import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type WheelLifts } from './types';
 
 export type EnvelopeMethod = 'prediction' | 'tolerance';
@@ -55,8 +57,7 @@ export type EnvelopeMeasure = 'foreAftOpening' | 'foreAftClosing' | 'lateral' | 
 export const ENVELOPE_MEASURES: readonly EnvelopeMeasure[] = ['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical'];
 export const MEASURE_AXIS: Record<EnvelopeMeasure, Axis> = { foreAftOpening: 'foreAft', foreAftClosing: 'foreAft', lateral: 'lateral', vertical: 'vertical' };
 export const TWIST_DIRECTIONS: readonly TwistDirection[] = ['positive', 'negative'];
-/** The twist directions in the crew's words: which diagonal pair of wheels is up. */
-export const TWIST_DIRECTION_NAMES: Record<TwistDirection, string> = { positive: 'FL–RR twist (+)', negative: 'FR–RL twist (−)' };
+export { TWIST_DIRECTION_NAMES };
 
 export interface EnvelopeParameters {
   /** The most twist the vehicle is expected to see in service, degrees (> 0), either way. */
@@ -192,16 +193,9 @@ const MAX_TRACK_MM = 4000;
 const MAX_TWIST_DEG = 90;
 /** Beyond this the straight line is stretched too far to trust quietly. */
 const FAR_EXTRAPOLATION = 1.5;
-/** A baseline twisted more than this is said in the notes. */
-const BASELINE_TWIST_NOTE_DEG = 0.5;
 /** Fewest standardized residuals for a session scatter estimate (fewer: the reading SD alone). */
 const MIN_SCALE_RESIDUALS = 10;
 const AXIS_OF_CODE: readonly Axis[] = ['foreAft', 'lateral', 'vertical'];
-const PART_NAMES: Record<FitPartName, string> = { outOfPlane: 'fore-aft', inPlane: 'lateral and vertical' };
-
-function mm(value: number): string {
-  return `${value.toFixed(1)} mm`;
-}
 
 function resolveParameters(raw: EnvelopeInput['parameters']): EnvelopeParameters {
   if (raw === null || typeof raw !== 'object') throw new FlexInputError(FN, 'parameters', 'must be an object');
@@ -452,7 +446,7 @@ function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<Env
   };
 }
 
-function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
+function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
   const flat = flatten(input, s);
   const corners = outlineCorners(input.outline);
   const worstOf = perimeterWorstOn(input.outline);
@@ -479,11 +473,6 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
       }
       return limit;
     };
-    if (estimated) {
-      notes.push(
-        `the ${PART_NAMES[part]} readings scatter about their fits by ${scaleMm.toFixed(2)} mm (robust SD), more than the ${READING_SD_MM} mm a gauge is read to: outliers are judged against ${scaleMm.toFixed(2)} mm`,
-      );
-    }
   }
 
   const flags: EnvelopeFlag[] = [];
@@ -536,35 +525,6 @@ function evaluatePoses(input: EnvelopeInput, s: Session, notes: string[]): { pos
     return result;
   });
   return { poses, scatterMm, flags };
-}
-
-/** Notes on each pose and on the limits of the fit and of the outlier check, each limit said once. */
-function poseNotes(poses: readonly PoseResult[], notes: string[]): void {
-  const fitted = poses.filter((pose) => pose.fit !== null);
-  const grouped = new Map<string, string[]>();
-  const say = (text: string | null, poseId: string): void => {
-    if (text !== null) grouped.set(text, [...(grouped.get(text) ?? []), poseId]);
-  };
-  for (const pose of poses) {
-    if (pose.note !== null && !pose.isBaseline) notes.push(`${pose.poseId}: ${pose.note}`);
-    if (pose.missingBaselineCount > 0) notes.push(`${pose.poseId}: ${pose.missingBaselineCount} reading(s) without a baseline reading, not used`);
-    const fit = pose.fit;
-    if (fit === null) continue;
-    for (const o of fit.outliers) {
-      notes.push(`${pose.poseId}: reading at ${o.pointId} (${o.axis}) is far from the fit (residual ${mm(o.residual)}, ${o.score.toFixed(1)} × its expected scatter); review it`);
-    }
-    for (const part of ['outOfPlane', 'inPlane'] as const) {
-      const summary = fit[part];
-      if (summary.misfit) {
-        notes.push(
-          `${pose.poseId}: the ${PART_NAMES[part]} readings do not fit one rigid motion, but with ${summary.readingCount} readings for ${summary.parameterCount} unknowns the misread cannot be singled out; review them`,
-        );
-      }
-      say(summary.reason, pose.poseId);
-      say(summary.outlierNote, pose.poseId);
-    }
-  }
-  for (const [text, ids] of grouped) notes.push(`${text} (${ids.length === fitted.length ? 'all poses' : ids.join(', ')})`);
 }
 
 function directionName(direction: TwistDirection): string {
@@ -662,47 +622,26 @@ function measureEnvelope(
   const measured = worst.valueMm;
   const governing = upperBoundMm !== null && upperBoundMm > measured ? 'upperBound' : 'measured';
   const baseMm = governing === 'upperBound' ? (upperBoundMm as number) : measured;
-  const worstPose = poses[worstIndex].poseId;
-  const label =
-    p.method === 'prediction'
-      ? `upper ${(p.confidence * 100).toFixed(0)} % prediction bound at ${p.designTwistDeg}°`
-      : `one-sided tolerance bound (coverage ${(p.coverage * 100).toFixed(0)} %, confidence ${(p.confidence * 100).toFixed(0)} %) at ${p.designTwistDeg}°`;
-
-  const reasons: string[] = [];
-  if (governingDirection === null) {
-    reasons.push(`measured worst ${mm(measured)} (${worstPose}) governs; no bound in either twist direction`);
-  } else {
-    const from = `${label}, ${directionName(governingDirection)} (${mm(upperBoundMm as number)})`;
-    reasons.push(
-      governing === 'upperBound'
-        ? `${from} is above the measured worst (${mm(measured)}, ${worstPose})`
-        : `measured worst ${mm(measured)} (${worstPose}) is at or above the ${from}`,
-    );
-  }
   const withMarginMm = baseMm * (1 + p.margin);
   const withAllowanceMm = withMarginMm + p.allowanceMm;
   const envelopeMm = roundUpToIncrement(withAllowanceMm, p.incrementMm);
-  reasons.push(`× (1 + margin ${p.margin}) = ${mm(withMarginMm)}`);
-  reasons.push(`+ allowance ${mm(p.allowanceMm)} = ${mm(withAllowanceMm)}`);
-  reasons.push(`rounded up to the ${p.incrementMm} mm increment: ${envelopeMm} mm.`);
-  for (const direction of TWIST_DIRECTIONS) {
-    if (direction === governingDirection) continue;
-    const bound = directions[direction];
-    reasons.push(
-      bound.upperBoundMm === null
-        ? `${directionName(direction)}: no bound, ${bound.unavailable}.`
-        : `${directionName(direction)}: bound ${mm(bound.upperBoundMm)}, lower.`,
-    );
-  }
-  if (fitUncertaintyMm !== null && fitUncertaintyMm > 0) {
-    reasons.push(`The fit is uncertain by up to ±${mm(fitUncertaintyMm)} (1 SD) at the opening's edge in a pose; the bound's scatter includes it.`);
-  }
-
+  const terms = {
+    measuredWorstMm: measured,
+    measuredWorstPoseId: poses[worstIndex].poseId,
+    directions,
+    governingDirection,
+    upperBoundMm,
+    governing,
+    fitUncertaintyMm: fitUncertaintyMm as number | null,
+    withMarginMm,
+    withAllowanceMm,
+    envelopeMm,
+  } as const;
   return {
     measure,
     axis: MEASURE_AXIS[measure],
     measuredWorstMm: measured,
-    measuredWorstPoseId: worstPose,
+    measuredWorstPoseId: terms.measuredWorstPoseId,
     measuredWorstAt: { y: worst.y, z: worst.z, side: worst.side },
     directions,
     governingDirection,
@@ -714,7 +653,7 @@ function measureEnvelope(
     withMarginMm,
     withAllowanceMm,
     envelopeMm,
-    reasons,
+    reasons: measureReasons(terms, p),
   };
 }
 
@@ -755,17 +694,11 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     return relative;
   });
 
-  const readingNotes: string[] = [];
   const notes: string[] = [];
   const session: Session = { points: input.gaugePoints, codes, codeStart, baselineIndex, liftTwists, relativeTwists };
-  const { poses, scatterMm, flags } = evaluatePoses(input, session, readingNotes);
+  const { poses, scatterMm, flags } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
-  if (Math.abs(baselineTwistDeg) >= BASELINE_TWIST_NOTE_DEG) {
-    readingNotes.push(
-      `the baseline pose (${input.poses[baselineIndex].id}) is twisted ${baselineTwistDeg.toFixed(1)}° by its lifts: every twist is taken relative to it, since its readings are the reference; the envelope assumes the boot is fitted with the vehicle level`,
-    );
-  }
-  poseNotes(poses, readingNotes);
+  const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
   const data = directionData(input, poses, p, notes);
 
   const tCache = new Map<number, number>();

@@ -5,6 +5,7 @@
  * Shared by fitRelativeMotion and designEnvelope so both report a fit the same way.
  * See docs/method.md §2–§3.
  */
+import { nounFor, plural } from '../plural';
 import { MAX_EDGE_ERROR_RATIO, type PartCore, type PoseBuffer, type PoseFitCore } from './pose-fit';
 import type { OutlierCheck, PoseJudgement } from './outlier-rule';
 import type { Axis, FitPartStatus, RigidMotion } from './types';
@@ -103,9 +104,9 @@ function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: Outl
   const alone =
     check === 'skipped' || unchecked.length === 0
       ? ''
-      : `; the ${name} reading(s) at ${unchecked.join(', ')} alone fix part of the fit, so nothing checks them`;
+      : `; the ${name} ${nounFor(unchecked.length, 'reading')} at ${unchecked.join(', ')} alone ${unchecked.length === 1 ? 'fixes' : 'fix'} part of the fit, so nothing checks ${unchecked.length === 1 ? 'it' : 'them'}`;
   if (check === 'checked') return alone === '' ? null : alone.slice(2);
-  const counts = `${core.readingCount} reading(s) for ${core.parameterCount} unknown(s); ${core.parameterCount + 2} are needed to single out a misread`;
+  const counts = `${plural(core.readingCount, 'reading')} for ${plural(core.parameterCount, 'unknown')}; ${core.parameterCount + 2} are needed to single out a misread`;
   return (check === 'misfitOnly' ? `${name} readings judged together only (${counts})` : `outlier check skipped for ${name} readings (${counts})`) + alone;
 }
 

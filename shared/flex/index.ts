@@ -47,6 +47,27 @@ export type {
   ReadingMode,
 } from './envelope';
 export { bootSpan, sealCompressionPercent } from './boot';
+export { sealReason } from './seal-reason';
+export { DEFAULT_PASS_THROUGH_ALLOWANCES, PASS_THROUGH_OPTIONS, passThroughOptions, sealFollowRange, startingSealFreeHeight } from './pass-through';
+export type {
+  BootOption,
+  BootPanel,
+  ClearOpening,
+  DesignMovement,
+  FrameSeal,
+  FramesOption,
+  PassThroughAllowances,
+  PassThroughInput,
+  PassThroughOption,
+  PassThroughResult,
+} from './pass-through';
+export type { SealFacts } from './seal-reason';
+export { MM_WORDS } from './length-words';
+export type { LengthWords } from './length-words';
+export { measureReasons } from './measure-reasons';
+export type { MeasureTerms, ReasonParameters } from './measure-reasons';
+export { BASELINE_TWIST_NOTE_DEG, readingRemarks } from './reading-remarks';
+export type { ReadingFacts } from './reading-remarks';
 export type { BootSpanInput, BootSpanResult, SealCheck, SealSpec, SideSpan } from './boot';
 export { compareSessions, poseSummaries } from './compare-sessions';
 export type { SessionComparison, SessionForComparison, SessionPoseSummary } from './compare-sessions';

@@ -211,7 +211,7 @@ describe('fitRelativeMotion', () => {
     expect(fit.outOfPlane.misfit).toBe(true);
     // b, c and d stand on one vertical line, so a alone sets the tilt about z and nothing checks it
     expect(fit.outOfPlane.outlierNote).toBe(
-      "fore-aft readings judged together only (4 reading(s) for 3 unknown(s); 5 are needed to single out a misread); the fore-aft reading(s) at a alone fix part of the fit, so nothing checks them",
+      "fore-aft readings judged together only (4 readings for 3 unknowns; 5 are needed to single out a misread); the fore-aft reading at a alone fixes part of the fit, so nothing checks it",
     );
   });
 

@@ -3,8 +3,9 @@
 // sheet's e-mail. One schema each: the server validates with them, the client's forms too.
 import * as z from 'zod';
 import { DEFAULT_ENVELOPE_PARAMETERS } from '../flex/envelope';
+import { DEFAULT_PASS_THROUGH_ALLOWANCES } from '../flex/pass-through';
 import { axis, id, isoDate, isoDateTime, text } from './common';
-import type { BootSpanResult, EnvelopeFlag, EnvelopeResult } from '../flex';
+import type { BootSpanResult, EnvelopeFlag, EnvelopeResult, PassThroughResult } from '../flex';
 
 /** Seal check inputs: free height and the allowed compression range (25–50 % is common practice). */
 export const sealSpec = z
@@ -19,6 +20,57 @@ export const sealSpec = z
   });
 export type SealSpecInput = z.infer<typeof sealSpec>;
 
+/** How a boot edge is fastened to its frame's flange (our words; the engineer chooses). */
+export const fastening = z.enum(['hookAndLoop', 'snaps', 'magnets', 'elastic', 'bead']);
+export type Fastening = z.infer<typeof fastening>;
+export const FASTENING_NAMES: Record<Fastening, string> = {
+  hookAndLoop: 'hook-and-loop strip',
+  snaps: 'snap fasteners',
+  magnets: 'magnets sewn into the hem',
+  elastic: 'elastic hem over the flange',
+  bead: 'bead (keder) in a channel',
+};
+
+/**
+ * How the pass-through is closed (shared/flex/pass-through.ts), with the allowances and the sheet's
+ * construction notes. Frozen with the sign-off like every parameter. Lengths in mm.
+ */
+export const passThroughDesign = z.object({
+  /** The option the engineer picked; null until one is. */
+  option: z.enum(['frames', 'boot', 'both']).nullable(),
+  /**
+   * Which side of the vehicle the driver sits on (+y is the vehicle's left, ISO 8855), so the sheet
+   * can mark L/R as driver/passenger; null until the engineer says.
+   */
+  driverSide: z.enum(['left', 'right']).nullable(),
+  minClearWidthMm: z.number().finite().min(0).max(3_000),
+  minClearHeightMm: z.number().finite().min(0).max(3_000),
+  overlapMarginMm: z.number().finite().min(0).max(500),
+  slackPercent: z.number().finite().min(0).max(200),
+  seamAllowanceMm: z.number().finite().min(0).max(200),
+  flangeWidthMm: z.number().finite().min(0).max(300),
+  foldDepthMm: z.number().finite().gt(0).max(300),
+  fastening,
+  material: text(200),
+  drain: text(300),
+  /** Cutting tolerance of the fabric and of the frames, ± mm. */
+  fabricToleranceMm: z.number().finite().gt(0).max(50),
+  frameToleranceMm: z.number().finite().gt(0).max(50),
+});
+export type PassThroughDesign = z.infer<typeof passThroughDesign>;
+
+/** Starting values, common practice (not from a standard): the engineer changes them per build. */
+export const DEFAULT_PASS_THROUGH_DESIGN: PassThroughDesign = {
+  option: null,
+  driverSide: null,
+  ...DEFAULT_PASS_THROUGH_ALLOWANCES,
+  fastening: 'hookAndLoop',
+  material: 'coated polyester fabric, UV-stable, waterproof',
+  drain: 'one grommeted drain hole at the lowest point of the bottom panel',
+  fabricToleranceMm: 3,
+  frameToleranceMm: 1,
+};
+
 /** What the engineer sets; lengths in mm, fractions as fractions (0.15 = 15 %). */
 export const envelopeParams = z.object({
   designTwistDeg: z.number().finite().gt(0).max(90),
@@ -32,6 +84,8 @@ export const envelopeParams = z.object({
   /** Tolerance method: runs within ± this many degrees of their median twist count as repeats. Drafts saved before it existed take 1°. */
   repeatBandDeg: z.number().finite().gt(0).max(10).default(DEFAULT_ENVELOPE_PARAMETERS.repeatBandDeg),
   seal: sealSpec.nullable(),
+  /** Drafts saved before the design options existed take the starting values. */
+  design: passThroughDesign.default(DEFAULT_PASS_THROUGH_DESIGN),
 });
 export type EnvelopeParams = z.infer<typeof envelopeParams>;
 
@@ -43,6 +97,7 @@ export const DEFAULT_DRAFT_PARAMS: EnvelopeParams = {
   designTwistDeg: 12,
   ...DEFAULT_ENVELOPE_PARAMETERS,
   seal: null,
+  design: DEFAULT_PASS_THROUGH_DESIGN,
 };
 
 export const envelopeStatus = z.enum(['draft', 'signed', 'superseded']);
@@ -118,6 +173,10 @@ export interface EnvelopeSnapshotV2 extends SnapshotBase {
   format: 2;
   result: EnvelopeResult;
   acknowledgedFlags: AcknowledgedFlag[];
+  /** The pass-through options at sign-off (absent in revisions signed before they existed; null without a nominal gap). */
+  passThrough?: PassThroughResult | null;
+  /** The signed revision this one superseded at sign-off (null: the first; absent in older snapshots). */
+  supersedesRevision?: number | null;
 }
 
 export type EnvelopeSnapshot = EnvelopeSnapshotV1 | EnvelopeSnapshotV2;

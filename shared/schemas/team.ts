@@ -9,7 +9,14 @@ export const team = z.object({ id, name: text(120, 1), unitSystem, photoGps });
 export type Team = z.infer<typeof team>;
 
 /** The workshop's settings an admin changes on the Team page. */
-export const teamSettingsInput = z.object({ photoGps }).strict();
+export const teamSettingsInput = z
+  .object({
+    photoGps: photoGps.optional(),
+    /** The workshop's default units: what members see unless they chose their own on the Account page. */
+    unitSystem: unitSystem.optional(),
+  })
+  .strict()
+  .refine((s) => s.photoGps !== undefined || s.unitSystem !== undefined, { message: 'name a setting to change: photoGps or unitSystem' });
 export type TeamSettingsInput = z.infer<typeof teamSettingsInput>;
 
 export const member = z.object({

@@ -10,6 +10,10 @@ export function AppProviders({ children }: { children: ReactNode }) {
     <PersistQueryClientProvider
       client={queryClient}
       persistOptions={{ persister, maxAge: PERSIST_MAX_AGE, buster: __APP_VERSION__ }}
+      // The restored cache opens the app at once (offline too), but a reload means "show me what
+      // is true now": every restored read is marked stale and the ones on screen fetch again, so
+      // the role in the header and the Team page's pending invitations are fresh after a reload.
+      onSuccess={() => void queryClient.invalidateQueries()}
     >
       {children}
     </PersistQueryClientProvider>

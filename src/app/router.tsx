@@ -49,6 +49,8 @@ export const router = createBrowserRouter([
           { path: 'desk/compare', lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
           { path: 'account', lazy: async () => ({ Component: (await import('@/features/auth/components/account-page')).AccountPage }) },
           { path: 'team', lazy: async () => ({ Component: (await import('@/features/team/components/team-page')).TeamPage }) },
+          // Any other address: an app page with the header and a way back, not the router's own error.
+          { path: '*', lazy: async () => ({ Component: (await import('@/components/not-found-page')).NotFoundPage }) },
         ],
       },
     ],

@@ -63,6 +63,30 @@ describe('sign-off', () => {
     expect(signed.contentHash).toBe(contentHash(signed.snapshot));
   });
 
+  it('freezes the chosen pass-through option and its figures with the sign-off', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const d = await draft(engineer, s.sessionId);
+    const design = { ...params.design, option: 'boot' as const, driverSide: 'left' as const, slackPercent: 12, fastening: 'snaps' as const };
+    const saved = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: d.version, params: { ...params, design } });
+    expect(saved.status).toBe(200);
+    // A design the schema refuses names the field, in the engineer's terms.
+    const bad = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: saved.body.version, params: { ...params, design: { ...design, slackPercent: 300 } } });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body)).toContain('body.params.design.slackPercent');
+    const signed = (await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: saved.body.version })).body;
+    expect(signed.snapshot.params.design).toMatchObject({ option: 'boot', slackPercent: 12, fastening: 'snaps', driverSide: 'left' });
+    const detail = (await engineer.get(`/api/sessions/${s.sessionId}`)).body;
+    const expected = computeDeskEnvelope(detail, { ...params, design });
+    expect(signed.snapshot.passThrough.boot.panels.top.flatLengthMm).toBeCloseTo(expected.passThrough!.boot.panels.top.flatLengthMm, 9);
+    expect(signed.snapshot.passThrough.frames.clear.widthMm).toBeCloseTo(expected.passThrough!.frames.clear.widthMm, 9);
+    // Frozen: the design cannot change on a signed revision.
+    const late = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: signed.version, params: { ...params, design: { ...design, option: 'frames' } } });
+    expect(late.status).toBe(409);
+    expect((await engineer.get(`/api/envelopes/${d.id}`)).body.snapshot.params.design.option).toBe('boot');
+  });
+
   it('keeps a signed snapshot unchanged after its readings change, and its hash still verifies', async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
@@ -104,7 +128,7 @@ describe('sign-off', () => {
 
     const none = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });
     expect(none.status).toBe(400);
-    expect(none.body.error.message).toMatch(/^2 flagged reading\(s\) are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 foreAft/);
+    expect(none.body.error.message).toMatch(/^2 flagged readings are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 fore-aft/);
     expect(none.body.error.fields.map((f: { field: string }) => f.field).sort()).toEqual(misreads.map((id) => `acknowledgements.${id}`).sort());
     const one = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }] });
     expect(one.status).toBe(400);

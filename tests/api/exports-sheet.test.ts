@@ -10,7 +10,8 @@ import { createDeskSession } from '../support/desk';
 import { waitForMail } from '../support/mail';
 import { DEFAULT_DRAFT_PARAMS, type EnvelopeRecord } from '../../shared/schemas/envelope';
 import { envelopeRows } from '../../shared/envelope-rows';
-import { formatLengthValue, formatRatio } from '../../shared/format';
+import { buildLines, buildToSentence, drawingNumber, gaugePointDimensions } from '../../shared/build-sheet';
+import { UNIT_WORDS, formatBuildLength, formatLengthValue, formatRatio } from '../../shared/format';
 import { EnvelopeSendModel } from '../../server/models';
 
 let ts: TestServer;
@@ -48,6 +49,15 @@ const binary = (res: request.Response, done: (err: Error | null, body: Buffer) =
   stream.on('end', () => done(null, Buffer.concat(chunks)));
 };
 
+async function pdfPages(pdf: Buffer): Promise<string[]> {
+  const parser = new PDFParse({ data: new Uint8Array(pdf) });
+  try {
+    return (await parser.getText()).pages.map((p) => p.text.replace(/\s+/g, ' '));
+  } finally {
+    await parser.destroy();
+  }
+}
+
 async function pdfText(pdf: Buffer) {
   const parser = new PDFParse({ data: new Uint8Array(pdf) });
   try {
@@ -77,9 +87,68 @@ describe('fabrication sheet', () => {
       expect(text).toContain(formatLengthValue(s.boot!.top.gapMaxMm, unit));
       expect(text).toContain(envelope.contentHash!);
       expect(text).toContain(envelope.signedBy!.name);
-      expect(text).toContain(`All lengths in ${unit}`);
+      expect(text).toContain(`All lengths in ${UNIT_WORDS[unit]}`);
+      // "Why these values" and the remarks are written in the reader's unit: under inches no length
+      // is printed in mm, save the increment the engineer chose in mm, with its inch value beside it.
+      for (const r of envelopeRows(s.result, unit)) expect(text).toContain(r.reasons[r.reasons.length - 1].slice(0, 40));
+      if (unit === 'in') expect(text.replace(/\d+ mm \(\d+\.\d\d in\)/g, '')).not.toMatch(/\d mm\b/);
       expect(text).toMatch(/Planning aid only.*not a structural or road-legality approval.*Local codes and qualified professionals decide/);
     }
+  });
+
+  it('is a sheet a boot maker builds from: the chosen option, flat lengths, both frames, page x of y and the signature on every page, in inches', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const agent = await signedInAgent(ts, team.members.engineer.email);
+    const design = { ...params.design, option: 'both' as const, driverSide: 'right' as const, fastening: 'bead' as const };
+    const first = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params: { ...params, design } }).expect(201)).body;
+    // Signed once (acknowledging whatever the outlier rule flags), re-opened and signed again.
+    const tried = await agent.post(`/api/envelopes/${first.id}/sign`).send({ version: first.version });
+    const acknowledgements: { readingId: string }[] =
+      tried.status === 400 ? tried.body.error.fields.map((f: { field: string }) => ({ readingId: f.field.replace('acknowledgements.', '') })) : [];
+    if (tried.status === 400) await agent.post(`/api/envelopes/${first.id}/sign`).send({ version: first.version, acknowledgements }).expect(200);
+    else expect(tried.status).toBe(200);
+    const draft2 = (await agent.post(`/api/envelopes/${first.id}/reopen`).expect(201)).body;
+    const envelope = (await agent.post(`/api/envelopes/${draft2.id}/sign`).send({ version: draft2.version, acknowledgements }).expect(200)).body as EnvelopeRecord;
+    const snapshot = envelope.snapshot!;
+    expect(snapshot.format === 2 && snapshot.supersedesRevision).toBe(1);
+
+    const res = await agent.get(`/api/envelopes/${envelope.id}/sheet.pdf?unit=in`).buffer(true).parse(binary);
+    expect(res.status).toBe(200);
+    const pages = await pdfPages(res.body as Buffer);
+    expect(pages.length).toBeGreaterThan(1);
+    const drawing = drawingNumber(snapshot);
+    pages.forEach((page, i) => {
+      // Each page alone says what it is, which revision it replaces, who signed it, and where it sits.
+      expect(page).toContain(`page ${i + 1} of ${pages.length}`);
+      expect(page).toContain(`Drawing ${drawing} revision 2 (supersedes revision 1)`);
+      expect(page).toContain(`signed off by ${envelope.signedBy!.name}`);
+    });
+    const text = pages.join(' ');
+    expect(text).toContain('Build: Both: bulb seal on the frames, fabric boot inside');
+    expect(text).toContain(buildToSentence(snapshot, 'in').slice(0, 60));
+    // The flat lengths of the chosen option, in decimals and to the nearest 1/16 in.
+    const top = snapshot.format === 2 ? snapshot.passThrough!.both.boot.panels.top : null;
+    expect(text).toContain(`${formatBuildLength(top!.flatLengthMm, 'in')} × ${formatBuildLength(top!.flatWidthMm, 'in')}`);
+    expect(text).toMatch(/\d+\.\d\d in \(\d+ \d+\/\d+ in\) × /);
+    for (const line of buildLines(snapshot, 'in')) expect(text).toContain(line.figure.slice(0, 30));
+    expect(text).toContain('Cab-side frame');
+    expect(text).toContain('Body-side frame');
+    expect(text).toContain('R (−y), driver side');
+    expect(text).toContain('L (+y), passenger side');
+    for (const g of gaugePointDimensions(snapshot, 'in')) expect(text).toContain(g.across);
+    expect(text).toContain('bead (keder) in a channel');
+    // A tolerance is never rounded to a looser fraction: decimals only.
+    expect(text).toContain('fabric cut ± 0.12 in');
+    expect(text).toMatch(/Planning aid only.*Local codes and qualified professionals decide/);
+    expect(text).not.toMatch(/All lengths in in\./);
+
+    // The CSV carries the same build figures.
+    const csv = await agent.get(`/api/envelopes/${envelope.id}/envelope.csv?unit=in`);
+    const rows = Papa.parse<Record<string, string>>(csv.text, { header: true, skipEmptyLines: true }).data;
+    const built = rows.filter((r) => r.kind === 'build');
+    expect(built.map((r) => [r.name, r.figure])).toEqual(buildLines(snapshot, 'in').map((l) => [l.item, l.figure]));
+    expect(rows.find((r) => r.kind === 'drawing')).toMatchObject({ name: drawing, option: 'Both: bulb seal on the frames, fabric boot inside', supersedes_revision: '1' });
   });
 
   it('is not printed for a draft, nor shown to a viewer before sign-off', async () => {
@@ -136,7 +205,7 @@ describe('CSV exports', () => {
     const acknowledged = rows.filter((r) => r.kind === 'acknowledged flag');
     expect(acknowledged.map((r) => r.name)).toEqual(['Diagonal 5 P02 vertical']);
     expect(acknowledged[0].note).toMatch(/^entered .* mm, .* mm off the fit; Re-read on site: same value$/);
-    expect(rows).toHaveLength(4 + 4 + 1);
+    expect(rows).toHaveLength(4 + 4 + 1 + 1 + buildLines(s, 'mm').length);
   });
 });
 

@@ -1,10 +1,12 @@
 // The session review as the desk receives it: built by PostgreSQL yet the same records, field for
-// field, as the session route's (Sequelize and serialize.ts); compressed on the wire; and with a
+// field, as the session route's (Sequelize and to-record.ts) and the photos as the pull's; compressed on the wire; and with a
 // cheap validator, so an unchanged review answers 304 with no body, and any change to the session,
 // its readings or its history, or another person asking, gets the whole answer again.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import http from 'node:http';
 import zlib from 'node:zlib';
+import { randomUUID } from 'node:crypto';
+import sharp from 'sharp';
 import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
 import { createDeskSession } from '../support/desk';
 import { batchKey, change } from '../support/sync';
@@ -47,8 +49,18 @@ describe('the review answer', () => {
     // A deleted pose and its readings stay out of both answers.
     await PoseModel.update({ deletedAt: new Date() }, { where: { id: s.poseIds[4] } });
 
+    // A photo of the session, as the tester uploads it: the review carries it as the pull does.
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#778877' } }).jpeg().toBuffer();
+    const photoId = randomUUID();
+    const uploaded = await tester.post('/api/photos').field('id', photoId).field('sessionId', s.sessionId).field('poseId', s.poseIds[1]).attach('photo', jpeg, { filename: 'gauge.jpg', contentType: 'image/jpeg' });
+    expect(uploaded.status).toBe(201);
+
     const review = await reviewOf(engineer, s.sessionId);
     const detail = await engineer.get(`/api/sessions/${s.sessionId}`);
+    const pulled = await engineer.get('/api/sync/pull').query({ since: 0, limit: 5000 });
+    expect(review.body.photos).toEqual(pulled.body.photos.filter((p: { sessionId: string }) => p.sessionId === s.sessionId));
+    expect(review.body.photos.map((p: { id: string }) => p.id)).toEqual([photoId]);
     expect(review.status).toBe(200);
     expect(review.headers['content-type']).toMatch(/^application\/json/);
     for (const key of ['session', 'vehicle', 'gaugePoints', 'poses', 'readings'] as const) {
@@ -56,7 +68,7 @@ describe('the review answer', () => {
     }
     expect(review.body.readings.length).toBeGreaterThan(0);
     expect(review.body.poses).toHaveLength(s.poseIds.length - 1);
-    expect(Object.keys(review.body).sort()).toEqual(['gaugePoints', 'history', 'people', 'poses', 'readings', 'session', 'vehicle']);
+    expect(Object.keys(review.body).sort()).toEqual(['gaugePoints', 'history', 'people', 'photos', 'poses', 'readings', 'session', 'vehicle']);
     expect(review.body.people).toEqual({ [team.members.tester.userId]: `tester ${team.members.tester.userId.slice(0, 4)}` });
     expect(review.body.history).toEqual([
       expect.objectContaining({ entity: 'reading', entityId: excluded, action: 'reading.exclude', userName: `engineer ${team.members.engineer.userId.slice(0, 4)}`, detail: expect.objectContaining({ excluded: { before: false, after: true } }) }),

@@ -58,6 +58,8 @@ describe('reviewing readings', () => {
       const agent = await signedInAgent(ts, team.members[role].email);
       const edit = await agent.patch(`/api/readings/${readingId}/review`).send({ version: 1, flagNote: 'x' });
       expect(edit.status).toBe(403);
+      // The refusal is said in words from the permission table, not as a role and an action code.
+      expect(edit.body.error.message).toBe('Reviewing readings is for engineers and admins.');
     }
     const viewer = await signedInAgent(ts, team.members.viewer.email);
     expect((await viewer.get(`/api/sessions/${s.sessionId}/review`)).status).toBe(403);

@@ -184,3 +184,21 @@ describe('roles and removal', () => {
     expect((await MembershipModel.findOne({ where: { teamId: team.teamId, userId: team.members.engineer.userId } }))?.role).toBe('engineer');
   });
 });
+
+describe('workshop settings', () => {
+  it('sets the workshop default units, seen by members who chose none; admins only', async () => {
+    const team = await createTeam();
+    const admin = await signedInAgent(ts, team.members.admin.email);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const before = (await engineer.get('/api/me')).body.team;
+    expect(before.unitSystem).toBe('mm');
+    expect((await engineer.patch('/api/team').send({ unitSystem: 'in' })).status).toBe(403);
+    const res = await admin.patch('/api/team').send({ unitSystem: 'in' });
+    expect(res.status).toBe(200);
+    // Only the named setting changes.
+    expect(res.body.team).toMatchObject({ unitSystem: 'in', photoGps: before.photoGps });
+    expect((await engineer.get('/api/me')).body.team.unitSystem).toBe('in');
+    expect((await admin.patch('/api/team').send({ unitSystem: 'furlongs' })).status).toBe(400);
+    expect((await admin.patch('/api/team').send({})).status).toBe(400);
+  });
+});

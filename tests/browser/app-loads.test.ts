@@ -28,7 +28,7 @@ describe('the built app', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL('**/desk');
     await page.getByRole('link', { name: 'TC-14 "Mossback"', exact: true }).first().waitFor();
-    await page.getByRole('link', { name: /Yard flex test before boot order/ }).click();
+    await page.locator('a[href^="/desk/sessions/"]').filter({ hasText: 'Yard flex test before boot order' }).click();
     await page.getByRole('table').waitFor();
     expect(await page.getByRole('row').count()).toBeGreaterThan(7);
     await page.screenshot({ path: path.join(screenshotDir(), 'session.png'), fullPage: true });

@@ -29,7 +29,7 @@ export function DeskHomePage() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((v) => (
                 <li key={v.id} className="card">
-                  <Link to={`/desk/vehicles/${v.id}`} className="text-lg font-bold underline">{v.name}</Link>
+                  <Link to={`/field/vehicles/${v.id}`} className="text-lg font-bold underline">{v.name}</Link>
                   <p className="text-sm">{v.chassis}</p>
                   <p className="text-sm">
                     Wheelbase {formatLength(v.wheelbaseMm, unit, 0)} · track {formatLength(v.trackFrontMm, unit, 0)} /{' '}

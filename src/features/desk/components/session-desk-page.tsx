@@ -3,11 +3,14 @@ import { useParams, useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
+import { envelopeRemarks } from '@shared/envelope-rows';
+import { plural } from '@shared/plural';
 import { useMe } from '@/features/auth/api/get-me';
 import { useReview, type SessionReview } from '@/features/review/api/get-review';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
 import { ReadingsTable } from '@/features/review/components/readings-table';
 import { ReadingEditor } from '@/features/review/components/reading-editor';
+import { SessionConditions } from '@/features/review/components/pose-context';
 import { HistoryList } from '@/features/review/components/history-list';
 import { OpeningPlot } from '@/features/review/components/opening-plot';
 import { EnvelopePanel } from '@/features/envelope/components/envelope-panel';
@@ -38,6 +41,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
   const section = (SECTIONS.find((s) => s.id === search.get('section'))?.id ?? 'readings') as Section;
   const [selected, setSelected] = useState<string | null>(null);
   const fit = useFitFlags(review);
+  const readingRemarks = fit.result ? envelopeRemarks(fit.result, unit).readings : [];
   const labelOf = (readingId: string) => {
     const r = review.readings.find((x) => x.id === readingId);
     if (!r) return null;
@@ -49,7 +53,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
       <header>
         <h1 className="text-2xl font-bold">{review.vehicle.name}</h1>
         <p>
-          {review.session.testedOn} · {review.session.title} · {review.poses.length} poses · {review.readings.filter((r) => r.excluded).length} reading(s) excluded ·{' '}
+          {review.session.testedOn} · {review.session.title} · {plural(review.poses.length, 'pose')} · {plural(review.readings.filter((r) => r.excluded).length, 'reading')} excluded ·{' '}
           {fit.flags.size} far from the fit
         </p>
       </header>
@@ -73,13 +77,20 @@ function SessionDesk({ review }: { review: SessionReview }) {
       )}
       {section === 'readings' && (
         <div className="space-y-3">
-          {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
-          <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
-          {fit.result && fit.result.readingNotes.length > 0 && (
+          <SessionConditions session={review.session} />
+          <ReadingsTable
+            review={review}
+            flags={fit.flags}
+            unit={unit}
+            selectedId={selected}
+            onSelect={isDesigner ? setSelected : undefined}
+            editor={selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
+          />
+          {readingRemarks.length > 0 && (
             <section className="card" aria-label="Remarks on the readings and the fit">
               <h2 className="font-bold">Remarks on the readings and the fit</h2>
               <ul className="list-disc pl-6 text-sm">
-                {fit.result.readingNotes.map((n) => (
+                {readingRemarks.map((n) => (
                   <li key={n}>{n}</li>
                 ))}
               </ul>
@@ -104,7 +115,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
         </div>
       )}
       {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={isDesigner} canSign={isDesigner} />}
-      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} />}
+      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} unit={unit} />}
     </div>
   );
 }

@@ -7,6 +7,10 @@ import { useEnvelope } from '../api/get-envelopes';
 import { useReopenEnvelope } from '../api/reopen';
 import { EnvelopeResults } from './envelope-results';
 import { SendSheetForm } from './send-sheet-form';
+import { RevisionState } from './revision-state';
+import { revisionName } from '@shared/revision-name';
+import { OptionsTable } from './pass-through-options';
+import { OPTION_NAMES } from '@shared/pass-through-rows';
 
 /** One envelope revision: the frozen snapshot, its hash check, the sheet and CSV, sending, re-opening. */
 export function EnvelopePage() {
@@ -27,11 +31,10 @@ export function EnvelopePage() {
             <SafetyNotice compact />
             <header>
               <h1 className="text-2xl font-bold">
-                {e.vehicleName}: envelope revision {e.revision}
+                {revisionName(e)}
               </h1>
               <p>
-                Session "{e.sessionTitle}" of {e.testedOn} ·{' '}
-                <b className={e.status === 'signed' ? 'text-good' : e.status === 'superseded' ? 'text-alert' : ''}>{e.status}</b>
+                Envelope of the session of {e.testedOn} · <RevisionState status={e.status} />
                 {role !== 'viewer' && (
                   <>
                     {' '}
@@ -62,6 +65,13 @@ export function EnvelopePage() {
                   </p>
                 </section>
                 <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} acknowledgedFlags={s.format === 2 ? s.acknowledgedFlags : []} />
+                {s.format === 2 && s.passThrough && (
+                  <section className="space-y-2" aria-label="Pass-through design options, as signed">
+                    <h3 className="text-lg font-bold">Pass-through design options, as signed</h3>
+                    <p>{s.params.design?.option ? `Chosen: ${OPTION_NAMES[s.params.design.option]}.` : 'No option was chosen at sign-off.'}</p>
+                    <OptionsTable result={s.passThrough} unit={unit} chosen={s.params.design?.option ?? null} />
+                  </section>
+                )}
                 <p className="flex flex-wrap gap-2">
                   <a className="btn" href={`/api/envelopes/${e.id}/sheet.pdf?unit=${unit}`} download>
                     Fabrication sheet (PDF)

@@ -1,7 +1,7 @@
-import type { BootSpanResult, EnvelopeResult } from '@shared/flex';
+import { sealReason, type BootSpanResult, type EnvelopeResult } from '@shared/flex';
 import type { UnitSystem } from '@shared/schemas/common';
 import type { AcknowledgedFlag, LegacyEnvelopeResult } from '@shared/schemas/envelope';
-import { AXIS_NAMES, SIDE_NAMES, formatLengthValue, formatRatio } from '@shared/format';
+import { AXIS_NAMES, SIDE_NAMES, formatLengthValue, formatRatio, lengthWords } from '@shared/format';
 import { envelopeRemarks, envelopeRows } from '@shared/envelope-rows';
 
 const SIDES = ['top', 'bottom', 'left', 'right'] as const;
@@ -36,8 +36,8 @@ function Remarks({ title, items }: { title: string; items: string[] }) {
  * flags of a signed revision, then the boot spans and seal check per side.
  */
 export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlags = [] }: Props) {
-  const rows = envelopeRows(result);
-  const remarks = envelopeRemarks(result);
+  const rows = envelopeRows(result, unit);
+  const remarks = envelopeRemarks(result, unit);
   return (
     <div className="space-y-4">
       {/* Focusable so a keyboard can scroll a table wider than a phone. */}
@@ -127,7 +127,7 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
                     <td className="border border-rule p-2 tabular-nums">{formatRatio(b.extensionRatio)}</td>
                     <td className={`border border-rule p-2 text-left text-sm ${b.seal && !b.seal.follows ? 'bg-alert-light text-alert' : ''}`}>
                       {b.contact && <b>cab and body touch · </b>}
-                      {b.seal ? `${b.seal.follows ? 'follows' : 'does not follow'}: ${b.seal.reason}` : range}
+                      {b.seal ? `${b.seal.follows ? 'follows' : 'does not follow'}: ${sealReason(b.seal, b.gapMinMm, b.gapMaxMm, lengthWords(unit))}` : range}
                     </td>
                   </tr>
                 );

@@ -2,6 +2,8 @@ import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { formatTimestamp } from '@shared/format';
 import { useSignedEnvelopes } from '../api/get-envelopes';
+import { RevisionState } from './revision-state';
+import { revisionName } from '@shared/revision-name';
 
 /** Every signed-off envelope of the workshop, newest first, with its sheet. */
 export function SignedEnvelopesList() {
@@ -17,10 +19,10 @@ export function SignedEnvelopesList() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((e) => (
                 <li key={e.id} className="card">
-                  <p className="text-lg font-bold">{e.vehicleName}</p>
-                  <Link className="font-bold underline" to={`/desk/envelopes/${e.id}`}>
-                    Envelope revision {e.revision}
-                  </Link>
+                  <Link className="text-lg font-bold underline" to={`/desk/envelopes/${e.id}`}>
+                    {revisionName(e)}
+                  </Link>{' '}
+                  <RevisionState status="signed" />
                   <p className="text-sm">
                     {e.sessionTitle} ({e.testedOn}) · signed by {e.signedBy} on {formatTimestamp(e.signedAt)}
                   </p>

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
+import type { GaugePoint, Photo, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
 import type { HistoryEventRecord } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
 
@@ -14,6 +14,8 @@ export interface SessionReview {
   gaugePoints: GaugePoint[];
   poses: Pose[];
   readings: (Reading & { enteredBy: string })[];
+  /** The session's photos, each with the pose it belongs to (or none). */
+  photos: Photo[];
   /** Names of the people who entered readings, by user id. */
   people: Record<string, string>;
   history: HistoryEventRecord[];

@@ -1,4 +1,6 @@
+import type { ReactNode } from 'react';
 import type { Axis } from '@shared/schemas';
+import { PoseContext } from './pose-context';
 import type { UnitSystem } from '@shared/schemas/common';
 import { AXIS_NAMES, formatLengthValue } from '@shared/format';
 import type { SessionReview } from '../api/get-review';
@@ -12,11 +14,14 @@ interface Props {
   unit: UnitSystem;
   selectedId: string | null;
   onSelect?: (readingId: string) => void;
+  /** The editor of the selected reading, shown in the row under it, where the engineer clicked. */
+  editor?: ReactNode;
 }
 
 /** Readings as pose × gauge point rows with one column per axis; flags and exclusions marked in the cell. */
-export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Props) {
+export function ReadingsTable({ review, flags, unit, selectedId, onSelect, editor }: Props) {
   const at = new Map(review.readings.map((r) => [`${r.poseId}|${r.gaugePointId}|${r.axis}`, r]));
+  const photosOf = (poseId: string) => review.photos.filter((p) => p.poseId === poseId);
   return (
     <div className="overflow-x-auto">
       <table className="min-w-full border-collapse bg-white text-right">
@@ -35,12 +40,18 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Pro
           </tr>
         </thead>
         <tbody>
-          {review.poses.flatMap((pose) =>
-            review.gaugePoints.map((point, pi) => {
+          {review.poses.flatMap((pose) => [
+            <tr key={`${pose.id}-context`} className="border-t-4 border-rule bg-paper">
+              <td colSpan={AXES.length + 3} className="border border-rule p-2">
+                <PoseContext pose={pose} photos={photosOf(pose.id)} wheelbaseMm={review.vehicle.wheelbaseMm} unit={unit} />
+              </td>
+            </tr>,
+            ...review.gaugePoints.flatMap((point, pi) => {
               const cells = AXES.map((axis) => at.get(`${pose.id}|${point.id}|${axis}`));
+              const holdsSelected = selectedId !== null && cells.some((c) => c?.id === selectedId);
               const who = [...new Set(cells.flatMap((c) => (c ? [review.people[c.enteredBy] ?? '?'] : [])))].join(', ');
-              return (
-                <tr key={`${pose.id}-${point.id}`} className={pi === 0 ? 'border-t-4 border-rule' : ''}>
+              const row = (
+                <tr key={`${pose.id}-${point.id}`}>
                   <th scope="row" className="border border-rule p-2 text-left font-normal">{pi === 0 ? <b>{pose.label || `Pose ${pose.seq}`}</b> : <span className="sr-only">{pose.label}</span>}</th>
                   <td className="border border-rule p-2 text-left font-bold">{point.label}</td>
                   {cells.map((r, ai) => {
@@ -68,8 +79,17 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect }: Pro
                   <td className="border border-rule p-2 text-left text-sm">{who}</td>
                 </tr>
               );
+              if (!holdsSelected || !editor) return [row];
+              return [
+                row,
+                <tr key={`${pose.id}-${point.id}-editor`}>
+                  <td colSpan={AXES.length + 3} className="border border-rule p-2 text-left">
+                    {editor}
+                  </td>
+                </tr>,
+              ];
             }),
-          )}
+          ])}
         </tbody>
       </table>
     </div>

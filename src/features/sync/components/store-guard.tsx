@@ -1,3 +1,4 @@
+import { plural } from '@shared/plural';
 import { useEffect, useState, type ReactNode } from 'react';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
@@ -56,7 +57,7 @@ export function StoreGuard({ children }: { children: ReactNode }) {
           type="button"
           className="btn border-alert text-alert"
           onClick={() => {
-            if (window.confirm(`Discard ${claim.waiting} unsent record(s) of ${claim.owner.email}? This cannot be undone.`)) {
+            if (window.confirm(`Discard ${plural(claim.waiting, 'unsent record')} of ${claim.owner.email}? This cannot be undone.`)) {
               void discardForeignStore(owner).then(() => setClaim({ kind: 'own' }));
             }
           }}

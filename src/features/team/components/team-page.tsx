@@ -2,11 +2,13 @@ import { useState, type FormEvent } from 'react';
 import type { Member, Role } from '@shared/schemas';
 import { inviteInput } from '@shared/schemas/account';
 import { QueryState } from '@/components/query-state';
-import { useMe } from '@/features/auth/api/get-me';
+import { useQueryClient } from '@tanstack/react-query';
+import { meKeys, useMe } from '@/features/auth/api/get-me';
 import { can } from '@/features/auth/can';
 import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/features/auth/components/form-bits';
 import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam, useUpdateTeamSettings } from '../api/team';
 import type { PhotoGps } from '@shared/schemas/team';
+import type { UnitSystem } from '@shared/schemas/common';
 import { roleOptions, roleSummary } from '../roles';
 
 /** /team: the members and their roles; admins invite, change roles, remove, revoke. */
@@ -31,6 +33,7 @@ export function TeamPage() {
         </QueryState>
       </section>
       {manage && <PendingInvitations />}
+      {manage && team.data && <WorkshopUnitsSetting value={team.data.team.unitSystem} />}
       {manage && team.data && <PhotoLocationSetting value={team.data.team.photoGps} />}
       <section aria-labelledby="roles" className="card">
         <h2 id="roles" className="mb-2 text-lg font-bold">Roles</h2>
@@ -64,6 +67,9 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
   const changeRole = useChangeRole();
   const remove = useRemoveMember();
   const [confirming, setConfirming] = useState(false);
+  // A role changes what a person may do at once: the admin confirms the change, then sees it saved.
+  const [newRole, setNewRole] = useState<Role | null>(null);
+  const [saved, setSaved] = useState<Role | null>(null);
   const error = changeRole.error ?? remove.error;
   return (
     <li className="card space-y-2">
@@ -79,9 +85,12 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
           <RoleSelect
             id={`role-${member.userId}`}
             label={`Role of ${member.name}`}
-            value={member.role}
+            value={newRole ?? member.role}
             disabled={changeRole.isPending}
-            onChange={(role) => changeRole.mutate({ userId: member.userId, role })}
+            onChange={(role) => {
+              setSaved(null);
+              setNewRole(role === member.role ? null : role);
+            }}
           />
           {confirming ? (
             <div className="flex gap-2">
@@ -96,6 +105,39 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
             </button>
           )}
         </div>
+      )}
+      {manage && newRole && (
+        <div role="group" aria-label={`Confirm the role of ${member.name}`} className="flex flex-wrap items-center gap-2 rounded-lg bg-signal/20 p-2">
+          <span>
+            Change {member.name} from <b>{member.role}</b> to <b>{newRole}</b>? {roleSummary[newRole]}
+          </span>
+          <button
+            type="button"
+            className="btn-primary"
+            disabled={changeRole.isPending}
+            onClick={() =>
+              changeRole.mutate(
+                { userId: member.userId, role: newRole },
+                {
+                  onSuccess: () => {
+                    setSaved(newRole);
+                    setNewRole(null);
+                  },
+                },
+              )
+            }
+          >
+            Change role
+          </button>
+          <button type="button" className="btn" onClick={() => setNewRole(null)}>
+            Cancel
+          </button>
+        </div>
+      )}
+      {saved && (
+        <p role="status" className="text-good">
+          Saved: {member.name} is now {saved === 'admin' || saved === 'engineer' ? 'an' : 'a'} {saved}.
+        </p>
       )}
       <ErrorBanner>{error?.message}</ErrorBanner>
     </li>
@@ -172,6 +214,35 @@ function PendingInvitations() {
         }
       </QueryState>
       <ErrorBanner>{revoke.error?.message}</ErrorBanner>
+    </section>
+  );
+}
+
+/** The units members see unless they chose their own (Account page): screens, sheets and CSV. */
+function WorkshopUnitsSetting({ value }: { value: UnitSystem }) {
+  const update = useUpdateTeamSettings();
+  const qc = useQueryClient();
+  const choose = (unitSystem: UnitSystem) => {
+    // Members without their own choice see the new units at once: their identity carries the workshop's.
+    if (unitSystem !== value) update.mutate({ unitSystem }, { onSuccess: () => qc.invalidateQueries({ queryKey: meKeys.all }) });
+  };
+  return (
+    <section className="card space-y-2" aria-labelledby="workshop-units">
+      <h2 id="workshop-units" className="text-xl font-bold">Workshop units</h2>
+      <p className="text-sm">What everyone in the workshop sees and types, unless they chose their own units on their Account page. Everything is stored in millimetres.</p>
+      <fieldset className="space-y-2" disabled={update.isPending}>
+        <legend className="sr-only">Workshop units</legend>
+        <label className="flex min-h-12 items-center gap-3">
+          <input type="radio" name="workshop-units" checked={value === 'mm'} onChange={() => choose('mm')} className="h-6 w-6" />
+          <span>Millimetres (mm)</span>
+        </label>
+        <label className="flex min-h-12 items-center gap-3">
+          <input type="radio" name="workshop-units" checked={value === 'in'} onChange={() => choose('in')} className="h-6 w-6" />
+          <span>Inches (in), to 0.01 in on screen; sheets also to the nearest 1/16 in</span>
+        </label>
+      </fieldset>
+      {update.isSuccess && <p role="status">Saved: the workshop now works in {value === 'in' ? 'inches' : 'millimetres'}.</p>}
+      <ErrorBanner>{update.error?.message}</ErrorBanner>
     </section>
   );
 }
