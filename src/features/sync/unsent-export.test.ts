@@ -10,8 +10,8 @@ import { saveRecord, saveRecords } from '@/lib/db/records';
 import { getMeta } from '@/lib/db/meta';
 import { addPhoto } from '@/lib/db/photos';
 import { fieldLookups, unsentRecords } from '@/lib/db/unsent';
-import { runSync } from '@/sync/sync-run';
-import type { SyncTransport } from '@/sync/transport';
+import { runSync } from './engine/sync-run';
+import type { SyncTransport } from './api/transport';
 import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
 import { unsentAsCsv, unsentAsJson } from './unsent-export';
 

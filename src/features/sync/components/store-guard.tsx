@@ -2,7 +2,7 @@ import { useEffect, useState, type ReactNode } from 'react';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { claimStore, discardForeignStore, type StoreClaim } from '@/lib/db/owner';
-import { startSyncEngine, stopSyncEngine } from '@/sync/sync-engine';
+import { startSyncEngine, stopSyncEngine } from '../engine/sync-engine';
 
 /**
  * The field store belongs to one person in one workshop. Until it is theirs, neither the pages

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { usePendingCounts, useMetaValue } from '@/lib/db/live';
 import { useLocalWrites } from '@/lib/db/writes-in-flight';
 import { barSummary } from '../bar-summary';
-import { syncNow, syncState } from '@/sync/sync-engine';
+import { syncNow, syncState } from '../engine/sync-engine';
 import { usePersistentStorage } from '../hooks/use-persistent-storage';
 
 const ago = (iso: string | null | undefined) => {

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import type { GaugePoint, Vehicle } from '@shared/schemas';
+import type { Vehicle } from '@shared/schemas';
 import { api } from '@/lib/api-client';
 
 export const vehicleKeys = {
@@ -9,12 +9,7 @@ export const vehicleKeys = {
 };
 
 export const getVehicles = () => api<Vehicle[]>('/api/vehicles');
-export const getVehicle = (id: string) => api<Vehicle & { gaugePoints: GaugePoint[] }>(`/api/vehicles/${id}`);
 
 export function useVehicles() {
   return useQuery({ queryKey: vehicleKeys.list(), queryFn: getVehicles });
-}
-
-export function useVehicle(id: string) {
-  return useQuery({ queryKey: vehicleKeys.detail(id), queryFn: () => getVehicle(id) });
 }
