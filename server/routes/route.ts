@@ -3,7 +3,7 @@
 // test can walk the same table.
 import type { Request, RequestHandler, Response, Router } from 'express';
 import type { ZodType } from 'zod';
-import { can, type Action } from '../auth/permissions';
+import { can, type Action } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
 import { loadAuth } from '../auth/context';

@@ -1,5 +1,5 @@
 // Who may change what through sync push, field by field: the same actions the REST routes check
-// (auth/permissions.ts), so a phone can do nothing the desk would refuse the same person.
+// (shared/permissions.ts), so a phone can do nothing the desk would refuse the same person.
 //
 // The rules are data (`syncAccess`, one entry per entity): the action that creates a record, the
 // action each field needs to change, and the defaults a new record must carry in every field its
@@ -15,7 +15,7 @@ import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
 import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
-import { allRoles, can, type Action } from '../auth/permissions';
+import { can, rolesThatCan, type Action } from '../../shared/permissions';
 import { Invalid, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { syncTables, type SyncColumn } from './sync-tables';
@@ -108,7 +108,7 @@ function shown(col: SyncColumn, v: unknown): unknown {
   return v;
 }
 
-const who = (action: Action) => allRoles.filter((r) => can(r, action)).join(', ');
+const who = (action: Action) => rolesThatCan(action).join(', ');
 const fieldPath = (index: number, key: string) => `body.changes.${index}.record.${key}`;
 
 const WORDS: Record<SyncEntity, string> = { vehicle: 'a vehicle', gaugePoint: 'a gauge point', testSession: 'a session', pose: 'a pose', reading: 'a reading' };

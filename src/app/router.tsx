@@ -1,5 +1,6 @@
 import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { ConfirmSignUpPage, SignUpPage } from '@/features/auth/components/sign-up-page';
 import { ForgotPasswordPage, ResetPasswordPage } from '@/features/auth/components/password-pages';
@@ -14,8 +15,9 @@ function RequireSignIn() {
 }
 
 function Home() {
-  const me = useMe();
-  return <Navigate to={me.data?.role === 'tester' ? '/field' : '/desk'} replace />;
+  const can = useCan();
+  // Who records but does not review (a tester) starts in the field; everyone else at the desk.
+  return <Navigate to={can('session.record') && !can('session.review') ? '/field' : '/desk'} replace />;
 }
 
 // The signed-out pages come with the app (a link between them must not wait on a chunk while the

@@ -14,7 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomBytes, randomUUID } from 'node:crypto';
 import { allRoutes } from '../../server/routes';
 import type { AnyRoute } from '../../server/routes/route';
-import { allRoles, can, isAction } from '../../server/auth/permissions';
+import { can, isAction, roles } from '../../shared/permissions';
 import { createTeam, sessionAgent, agentFor, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { resetThrottles } from '../../server/auth/throttle';
 import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } from '../support/db-snapshot';
@@ -93,7 +93,7 @@ async function buildFixture(): Promise<Fixture> {
     token_hash: randomBytes(32).toString('hex'), invited_by: team.members.admin.userId, expires_at: new Date(Date.now() + 86_400_000),
   });
   const agents = { signedOut: agentFor(ts) } as Record<Caller, Agent>;
-  for (const role of allRoles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
+  for (const role of roles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
   agents.otherTeam = await sessionAgent(ts, other.members.admin.userId, other.teamId);
   return { team, other, ids, agents };
 }

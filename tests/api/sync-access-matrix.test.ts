@@ -20,6 +20,7 @@ import { rowToRecord, syncTables } from '../../server/services/sync-tables';
 import { syncAccess } from '../../server/services/sync-access';
 import type { SyncEntity } from '../../shared/schemas/sync';
 import type { Role } from '../../shared/schemas';
+import { roles as allRoles } from '../../shared/permissions';
 
 let ts: TestServer;
 let tables: ScopedTable[];
@@ -33,7 +34,7 @@ afterAll(async () => ts?.close());
 
 type Patch = Record<string, unknown>;
 const entities: SyncEntity[] = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'];
-const roles: Role[] = ['admin', 'engineer', 'tester', 'viewer'];
+const roles: Role[] = [...allRoles];
 
 /** What the product promises, in words (see the file's head). */
 function promised(role: Role, entity: SyncEntity, fields: string[], inSignedSession: boolean): 'allowed' | 'refused' | 'forbidden' {

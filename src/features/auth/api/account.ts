@@ -12,7 +12,7 @@ import type {
   UpdateMeInput,
 } from '@shared/schemas/account';
 import { api } from '@/lib/api-client';
-import { meKeys } from './get-me';
+import { meKeys } from '@/lib/auth/get-me';
 
 /** A new person is signed in on this phone: nothing cached for the last one may show. */
 async function startFresh(qc: QueryClient) {

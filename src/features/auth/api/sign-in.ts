@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { signInInput, type SignInInput } from '@shared/schemas';
 import { api } from '@/lib/api-client';
-import { meKeys } from './get-me';
+import { meKeys } from '@/lib/auth/get-me';
 
 export { signInInput };
 export type { SignInInput };

@@ -3,7 +3,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { newPassword, personName } from '@shared/schemas/account';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account';
 import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from './form-bits';
-import { roleSummary } from '@/features/team/roles';
+import { roleTable } from '@shared/permissions';
 
 /** /invite/:token — join a workshop: a new person chooses a name and password. */
 export function AcceptInvitationPage() {
@@ -55,7 +55,7 @@ export function AcceptInvitationPage() {
     <AuthFrame title={`Join ${inv.teamName}`}>
       <p>
         {inv.invitedByName ? `${inv.invitedByName} invited you` : 'You are invited'} to join <strong>{inv.teamName}</strong> on Twistlog
-        as <strong>{inv.role}</strong>: {roleSummary[inv.role]}
+        as <strong>{inv.role}</strong>: {roleTable[inv.role].summary}
       </p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="E-mail" name="email" type="email" defaultValue={inv.email} readOnly autoComplete="username" />

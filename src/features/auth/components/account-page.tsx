@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import type { UnitSystem } from '@shared/schemas';
 import { changePasswordInput } from '@shared/schemas/account';
-import { useMe } from '../api/get-me';
+import { useMe } from '@/lib/auth/get-me';
 import { useChangePassword, useSignOutEverywhere, useUpdateMe } from '../api/account';
 import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
 

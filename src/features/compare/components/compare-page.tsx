@@ -2,7 +2,7 @@ import { lazy, Suspense } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { AXIS_NAMES, formatDegValue, formatLengthValue, formatSlopeValue } from '@shared/format';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
 import { useSessions } from '@/features/sessions/api/get-sessions';
 import { useComparison } from '../api/get-comparison';
 

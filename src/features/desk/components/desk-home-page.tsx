@@ -2,7 +2,8 @@ import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { formatLength } from '@shared/units';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
 import { SessionListPage } from '@/features/sessions/components/session-list-page';
 import { SignedEnvelopesList } from '@/features/envelope/components/signed-envelopes-list';
@@ -12,7 +13,9 @@ export function DeskHomePage() {
   const me = useMe();
   const vehicles = useVehicles();
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  if (me.data?.role === 'viewer')
+  const can = useCan();
+  // Who cannot see sessions (a viewer) sees the signed-off envelopes alone.
+  if (me.data && !can('session.read'))
     return (
       <div className="space-y-6">
         <SafetyNotice compact />

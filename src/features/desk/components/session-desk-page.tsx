@@ -3,7 +3,8 @@ import { useParams, useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
 import { useReview, type SessionReview } from '@/features/review/api/get-review';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
 import { ReadingsTable } from '@/features/review/components/readings-table';
@@ -31,9 +32,8 @@ export function SessionDeskPage() {
 
 function SessionDesk({ review }: { review: SessionReview }) {
   const me = useMe();
-  const role = me.data?.role;
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  const isDesigner = role === 'engineer' || role === 'admin';
+  const can = useCan();
   const [search, setSearch] = useSearchParams();
   const section = (SECTIONS.find((s) => s.id === search.get('section'))?.id ?? 'readings') as Section;
   const [selected, setSelected] = useState<string | null>(null);
@@ -74,7 +74,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
       {section === 'readings' && (
         <div className="space-y-3">
           {selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
-          <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={isDesigner ? setSelected : undefined} />
+          <ReadingsTable review={review} flags={fit.flags} unit={unit} selectedId={selected} onSelect={can('session.review') ? setSelected : undefined} />
           {fit.result && fit.result.readingNotes.length > 0 && (
             <section className="card" aria-label="Remarks on the readings and the fit">
               <h2 className="font-bold">Remarks on the readings and the fit</h2>
@@ -103,7 +103,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
           <p className="text-sm">The charts here use the default parameters; the envelope section shows them with the draft's design twist and confidence.</p>
         </div>
       )}
-      {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={isDesigner} canSign={isDesigner} />}
+      {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={can('envelope.design')} canSign={can('envelope.signOff')} />}
       {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} />}
     </div>
   );

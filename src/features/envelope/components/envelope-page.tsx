@@ -2,7 +2,8 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { formatDeg, formatLength, formatPercent, formatTimestamp } from '@shared/format';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { Can, useCan } from '@/lib/auth/can';
 import { useEnvelope } from '../api/get-envelopes';
 import { useReopenEnvelope } from '../api/reopen';
 import { EnvelopeResults } from './envelope-results';
@@ -15,9 +16,8 @@ export function EnvelopePage() {
   const me = useMe();
   const reopen = useReopenEnvelope();
   const navigate = useNavigate();
-  const role = me.data?.role;
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  const isDesigner = role === 'engineer' || role === 'admin';
+  const can = useCan();
   return (
     <QueryState query={envelope}>
       {(e) => {
@@ -32,7 +32,7 @@ export function EnvelopePage() {
               <p>
                 Session "{e.sessionTitle}" of {e.testedOn} ·{' '}
                 <b className={e.status === 'signed' ? 'text-good' : e.status === 'superseded' ? 'text-alert' : ''}>{e.status}</b>
-                {role !== 'viewer' && (
+                {can('session.read') && (
                   <>
                     {' '}
                     · <Link className="underline" to={`/desk/sessions/${e.sessionId}`}>back to the session</Link>
@@ -69,14 +69,18 @@ export function EnvelopePage() {
                   <a className="btn" href={`/api/envelopes/${e.id}/envelope.csv?unit=${unit}`} download>
                     Envelope (CSV)
                   </a>
-                  {isDesigner && e.status === 'signed' && (
+                  {can('envelope.design') && e.status === 'signed' && (
                     <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate(`/desk/sessions/${e.sessionId}?section=envelope`) })}>
                       Re-open as revision {e.revision + 1}
                     </button>
                   )}
                 </p>
                 {reopen.isError && <p role="alert" className="text-alert">{reopen.error.message}</p>}
-                {isDesigner && e.status === 'signed' && <SendSheetForm envelopeId={e.id} />}
+                {e.status === 'signed' && (
+                  <Can action="envelope.send">
+                    <SendSheetForm envelopeId={e.id} />
+                  </Can>
+                )}
                 {e.sends.length > 0 && (
                   <section>
                     <h3 className="font-bold">Sent</h3>

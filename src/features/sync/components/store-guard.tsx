@@ -1,6 +1,6 @@
 import { useEffect, useState, type ReactNode } from 'react';
-import { useMe } from '@/features/auth/api/get-me';
-import { useSignOut } from '@/features/auth/api/sign-out';
+import { useMe } from '@/lib/auth/get-me';
+import { useSignOut } from '@/lib/auth/sign-out';
 import { claimStore, discardForeignStore, type StoreClaim } from '@/lib/db/owner';
 import { startSyncEngine, stopSyncEngine } from '../engine/sync-engine';
 
