@@ -43,6 +43,8 @@ export interface PublicRouteDef<B = unknown, P = unknown, Q = unknown> extends O
   handler: (input: HandlerInput<B, P, Q, AuthContext | undefined>) => Promise<unknown>;
 }
 
+// The route table holds routes of every body, params and query type; each was checked where it was declared.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type AnyRoute = RouteDef<any, any, any> | PublicRouteDef<any, any, any>;
 
 /** Typed helpers: inference of body/params/query from the schemas given. */

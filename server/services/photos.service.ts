@@ -17,7 +17,6 @@ import { photoPath, removePhotoFiles, writePhotoFiles } from '../storage/photo-s
 import type { AuthContext } from '../auth/context';
 import { withTeamChanges } from './team-changes';
 import type { Photo } from '../../shared/schemas';
-import type { PhotoUploadFields } from '../../shared/schemas/sync';
 
 /** Largest upload: a full-resolution phone photo is 3–12 MB (common practice). */
 export const MAX_PHOTO_BYTES = 20 * 1024 * 1024;

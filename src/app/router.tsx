@@ -34,7 +34,7 @@ export const router = createBrowserRouter([
     element: <RequireSignIn />,
     children: [
       {
-        lazy: async () => ({ Component: (await import('@/components/layout')).Layout }),
+        lazy: async () => ({ Component: (await import('@/app/layout')).Layout }),
         children: [
           { index: true, element: <Home /> },
           { path: 'field', lazy: async () => ({ Component: (await import('@/features/sessions/components/field-sessions-page')).FieldSessionsPage }) },
@@ -44,9 +44,9 @@ export const router = createBrowserRouter([
           { path: 'field/vehicles', lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-list-page')).VehicleListPage }) },
           { path: 'field/vehicles/:id', lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-setup-page')).VehicleSetupPage }) },
           { path: 'field/sync', lazy: async () => ({ Component: (await import('@/features/sync/components/sync-page')).SyncPage }) },
-          { path: 'desk', lazy: async () => ({ Component: (await import('@/features/desk/components/desk-home-page')).DeskHomePage }) },
+          { path: 'desk', lazy: async () => ({ Component: (await import('@/app/desk/desk-home-page')).DeskHomePage }) },
           // Desk pages load on demand so the field's first load stays small.
-          { path: 'desk/sessions/:id', lazy: async () => ({ Component: (await import('@/features/desk/components/session-desk-page')).SessionDeskPage }) },
+          { path: 'desk/sessions/:id', lazy: async () => ({ Component: (await import('@/app/desk/session-desk-page')).SessionDeskPage }) },
           { path: 'desk/envelopes/:id', lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
           { path: 'desk/compare', lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
           { path: 'account', lazy: async () => ({ Component: (await import('@/features/auth/components/account-page')).AccountPage }) },

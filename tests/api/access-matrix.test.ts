@@ -99,7 +99,8 @@ async function buildFixture(): Promise<Fixture> {
 }
 
 /** Which fixture a path word names: "vehicles" → vehicle, "gauge-points" → gaugePoint, … */
-const kinds: [RegExp, keyof ReturnType<typeof idKeys>][] = [
+type IdKind = 'vehicle' | 'gaugePoint' | 'session' | 'pose' | 'reading' | 'photo' | 'envelope' | 'send' | 'conflict' | 'invitation' | 'member' | 'team';
+const kinds: [RegExp, IdKind][] = [
   [/^vehicles?$/, 'vehicle'],
   [/^gauge-?points?$/, 'gaugePoint'],
   [/^(test-?)?sessions?$/, 'session'],
@@ -113,7 +114,6 @@ const kinds: [RegExp, keyof ReturnType<typeof idKeys>][] = [
   [/^(members?|users?|people)$/, 'member'],
   [/^teams?$/, 'team'],
 ];
-const idKeys = () => ({ vehicle: '', gaugePoint: '', session: '', pose: '', reading: '', photo: '', envelope: '', send: '', conflict: '', invitation: '', member: '', team: '' });
 
 function kindOf(word: string): string | undefined {
   const w = word.replace(/([a-z])([A-Z])/g, '$1-$2').toLowerCase();

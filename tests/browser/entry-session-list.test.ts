@@ -25,7 +25,7 @@ describe('session list', () => {
     const engineer = await signedInAgent(ts, team.members.engineer.email);
     const draft = (await engineer.post(`/api/sessions/${desk.sessionId}/envelopes`).send({}).expect(201)).body;
     await engineer.post(`/api/envelopes/${draft.id}/sign`).send({ version: draft.version }).expect(200);
-    const field = await sessionWithPoses(await signedInAgent(ts, team.members.tester.email));
+    await sessionWithPoses(await signedInAgent(ts, team.members.tester.email));
 
     const context = await browser.newContext(PHONE);
     const page = await context.newPage();

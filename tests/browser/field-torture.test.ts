@@ -6,7 +6,7 @@
 // does, with no conflict kept. TORTURE_SEED=<n> replays another seed; a failure prints its seed
 // and the last actions.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
 import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
 import { launchBrowser } from '../support/browser';
@@ -233,6 +233,7 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
           const label = await page.getByLabel('Pose name').inputValue();
           typed.set(current, { label, notes: '', lifts: { liftFlMm: 0, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0 }, readings: new Map() });
           say(`new pose ${current.slice(0, 8)} "${label}"`);
+        // eslint-disable-next-line no-dupe-else-if -- each rnd.chance() is a new draw, not the same condition
         } else if (typed.size > 1 && rnd.chance(0.3)) {
           const other = rnd.pick([...typed.keys()].filter((id) => id !== current));
           say(`open pose ${other.slice(0, 8)}`);

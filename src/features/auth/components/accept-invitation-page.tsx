@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { newPassword, personName } from '@shared/schemas/account';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account';
-import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from './form-bits';
+import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from '@/components/form-bits';
 import { roleTable } from '@shared/permissions';
 
 /** /invite/:token — join a workshop: a new person chooses a name and password. */

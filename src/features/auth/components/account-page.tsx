@@ -4,7 +4,7 @@ import type { UnitSystem } from '@shared/schemas';
 import { changePasswordInput } from '@shared/schemas/account';
 import { useMe } from '@/lib/auth/get-me';
 import { useChangePassword, useSignOutEverywhere, useUpdateMe } from '../api/account';
-import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 
 /** The signed-in person's own page: units, password, signing out of every device. */
 export function AccountPage() {

@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { emailAddress, newPassword } from '@shared/schemas/account';
 import { useRequestPasswordReset, useResetPassword } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 
 const backToSignIn = <Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Back to sign in</Link>;
 

@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { signUpInput } from '@shared/schemas/account';
 import { useConfirmSignUp, useSignUp } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 
 /** Create a workshop and become its first admin: confirmed by the link in an e-mail. */
 export function SignUpPage() {

@@ -3,7 +3,7 @@ import { useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { AXIS_NAMES, formatDegValue, formatLengthValue, formatSlopeValue } from '@shared/format';
 import { useMe } from '@/lib/auth/get-me';
-import { useSessions } from '@/features/sessions/api/get-sessions';
+import { useSessions } from '@/lib/api/get-sessions';
 import { useComparison } from '../api/get-comparison';
 
 const CompareChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.CompareChart })));

@@ -4,8 +4,8 @@ import type { Pose, TestSession } from '@shared/schemas';
 import { crossAxleTwistDeg } from '@shared/flex/twist';
 import { useLocalSession } from '@/lib/db/live';
 import { patchRecord, type ItemResult } from '@/lib/db/records';
-import { SaveProblems } from '@/features/field/components/save-problems';
-import { addPose, nextPose, restorePose, type DeletedPose } from '@/features/field/pose-actions';
+import { SaveProblems } from '@/components/field/save-problems';
+import { addPose, nextPose, restorePose, type DeletedPose } from '@/lib/field/pose-actions';
 import { SafetyChecklist } from './safety-checklist';
 import { SessionFields, type SessionDetails } from './session-fields';
 

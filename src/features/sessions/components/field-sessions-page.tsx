@@ -2,7 +2,7 @@ import { useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { onlineManager } from '@tanstack/react-query';
 import { useLocalSessions } from '@/lib/db/live';
-import { useSessions } from '../api/get-sessions';
+import { useSessions } from '@/lib/api/get-sessions';
 
 const time = (ms: number) => new Date(ms).toLocaleString([], { dateStyle: 'short', timeStyle: 'short' });
 

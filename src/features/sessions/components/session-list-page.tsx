@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
-import { useSessions } from '../api/get-sessions';
+import { useSessions } from '@/lib/api/get-sessions';
 
 /** The team's test sessions, newest first, with the latest signed-off revision of each. */
 export function SessionListPage({ base = '/field' }: { base?: string }) {

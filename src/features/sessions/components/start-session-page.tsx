@@ -3,7 +3,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import type { TestSession } from '@shared/schemas';
 import { useLocalVehicles } from '@/lib/db/live';
 import { saveRecord, type ItemResult } from '@/lib/db/records';
-import { SaveProblems } from '@/features/field/components/save-problems';
+import { SaveProblems } from '@/components/field/save-problems';
 import { SAFETY_ITEMS, SafetyChecklist, safetyItemsLeft } from './safety-checklist';
 import { SessionFields, type SessionDetails } from './session-fields';
 

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { useOpenConflicts, useRefusedPhotos } from '@/lib/db/live';
 import { useUnsentRecords, type FieldLookups, type UnsentRecord } from '@/lib/db/unsent';
-import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
+import { useFieldUnit } from '@/lib/field/use-field-unit';
 import { syncNow } from '../engine/sync-engine';
 import { useResolveConflict } from '../api/resolve-conflict';
 import { differences, differenceSentence, recordTitle, valuesLine } from '../describe';

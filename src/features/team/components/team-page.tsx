@@ -4,7 +4,7 @@ import { inviteInput } from '@shared/schemas/account';
 import { QueryState } from '@/components/query-state';
 import { useMe } from '@/lib/auth/get-me';
 import { useCan } from '@/lib/auth/can';
-import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/features/auth/components/form-bits';
+import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam, useUpdateTeamSettings } from '../api/team';
 import type { PhotoGps } from '@shared/schemas/team';
 import { roles, roleTable } from '@shared/permissions';

@@ -3,11 +3,11 @@ import { useNavigate, useParams } from 'react-router-dom';
 import { gaugePoint as gaugePointSchema, opening as openingSchema, vehicle as vehicleSchema, type GaugePoint, type Vehicle } from '@shared/schemas';
 import { useLocalVehicle } from '@/lib/db/live';
 import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
-import { LengthInput, limitsOf } from '@/features/field/components/length-input';
-import type { LengthLimits } from '@/features/field/parse-length';
-import { UnitToggle } from '@/features/field/components/unit-toggle';
-import { SaveProblems } from '@/features/field/components/save-problems';
-import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
+import { LengthInput, limitsOf } from '@/components/field/length-input';
+import type { LengthLimits } from '@/lib/field/parse-length';
+import { UnitToggle } from '@/components/field/unit-toggle';
+import { SaveProblems } from '@/components/field/save-problems';
+import { useFieldUnit } from '@/lib/field/use-field-unit';
 import { OpeningDrawing } from './opening-drawing';
 
 const blank = (): Vehicle => ({
