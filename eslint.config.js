@@ -20,6 +20,18 @@ const featureZones = features.map((name) => ({
 
 // esquery's regular expressions cannot hold a slash: 'api.sync' stands for /api/sync.
 const SYNC_ROUTE = 'api.sync';
+const syncRouteCalls = [
+  { selector: `Literal[value=/${SYNC_ROUTE}/]`, message: 'only src/features/sync/api calls the sync routes (/api/sync…).' },
+  { selector: `TemplateElement[value.raw=/${SYNC_ROUTE}/]`, message: 'only src/features/sync/api calls the sync routes (/api/sync…).' },
+];
+
+/** A link to a page is built with pathTo (src/paths.ts), so it names a page the router mounts. */
+const PATHS = "build the link with pathTo('<page>', { …ids }) from src/paths.ts, so it names a page the router mounts.";
+const handWrittenLinks = [
+  { selector: "JSXAttribute[name.name='to'] > Literal", message: PATHS },
+  { selector: "JSXAttribute[name.name='to'] > JSXExpressionContainer > :matches(Literal, TemplateLiteral)", message: PATHS },
+  { selector: "CallExpression[callee.name='navigate'] > :matches(Literal, TemplateLiteral).arguments:first-child", message: PATHS },
+];
 
 export default tseslint.config(
   { ignores: ['node_modules/', 'dist/', '.data/', 'bench-results/', 'public/', 'fonts/', 'docs/'] },
@@ -76,12 +88,10 @@ export default tseslint.config(
   {
     files: ['src/**/*.{ts,tsx}'],
     ignores: ['src/features/sync/api/**'],
-    rules: {
-      'no-restricted-syntax': [
-        'error',
-        { selector: `Literal[value=/${SYNC_ROUTE}/]`, message: 'only src/features/sync/api calls the sync routes (/api/sync…).' },
-        { selector: `TemplateElement[value.raw=/${SYNC_ROUTE}/]`, message: 'only src/features/sync/api calls the sync routes (/api/sync…).' },
-      ],
-    },
+    rules: { 'no-restricted-syntax': ['error', ...syncRouteCalls, ...handWrittenLinks] },
+  },
+  {
+    files: ['src/features/sync/api/**/*.{ts,tsx}'],
+    rules: { 'no-restricted-syntax': ['error', ...handWrittenLinks] },
   },
 );

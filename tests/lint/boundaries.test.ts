@@ -76,3 +76,13 @@ describe('import cycles', { timeout: 60_000 }, () => {
     expect(result.messages.map((m) => m.ruleId)).toContain('import-x/no-cycle');
   });
 });
+
+describe('links', { timeout: 60_000 }, () => {
+  it('are built with pathTo, never written by hand', async () => {
+    const fired = (code: string) => rulesFiring('src/features/vehicles/components/x.tsx', code);
+    expect(await fired("import { Link } from 'react-router-dom';\nexport const A = () => <Link to=\"/desk\">Desk</Link>;\n")).toContain('no-restricted-syntax');
+    expect(await fired("import { Link } from 'react-router-dom';\nexport const A = ({ id }: { id: string }) => <Link to={`/desk/vehicles/${id}`}>Truck</Link>;\n")).toContain('no-restricted-syntax');
+    expect(await fired("export const go = (navigate: (to: string) => void) => navigate('/field');\n")).toContain('no-restricted-syntax');
+    expect(await fired("import { Link } from 'react-router-dom';\nimport { pathTo } from '@/paths';\nexport const A = () => <Link to={pathTo('desk')}>Desk</Link>;\n")).toEqual([]);
+  });
+});

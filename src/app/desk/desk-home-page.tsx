@@ -7,6 +7,7 @@ import { useCan } from '@/lib/auth/can';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
 import { SessionListPage } from '@/features/sessions/components/session-list-page';
 import { SignedEnvelopesList } from '@/features/envelope/components/signed-envelopes-list';
+import { pathTo } from '@/paths';
 
 /** Desk: the team's vehicles and sessions, the starting point for review. */
 export function DeskHomePage() {
@@ -32,7 +33,7 @@ export function DeskHomePage() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((v) => (
                 <li key={v.id} className="card">
-                  <Link to={`/desk/vehicles/${v.id}`} className="text-lg font-bold underline">{v.name}</Link>
+                  <Link to={pathTo('vehicle', { id: v.id })} className="text-lg font-bold underline">{v.name}</Link>
                   <p className="text-sm">{v.chassis}</p>
                   <p className="text-sm">
                     Wheelbase {formatLength(v.wheelbaseMm, unit, 0)} · track {formatLength(v.trackFrontMm, unit, 0)} /{' '}
@@ -44,9 +45,9 @@ export function DeskHomePage() {
           )}
         </QueryState>
       </section>
-      <SessionListPage base="/desk" />
+      <SessionListPage />
       <p>
-        <Link to="/desk/compare" className="btn">Compare sessions and vehicles</Link>
+        <Link to={pathTo('compare')} className="btn">Compare sessions and vehicles</Link>
       </p>
       <SignedEnvelopesList />
     </div>

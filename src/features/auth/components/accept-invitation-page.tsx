@@ -4,6 +4,7 @@ import { newPassword, personName } from '@shared/schemas/account';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account';
 import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from '@/components/form-bits';
 import { roleTable } from '@shared/permissions';
+import { pathTo } from '@/paths';
 
 /** /invite/:token — join a workshop: a new person chooses a name and password. */
 export function AcceptInvitationPage() {
@@ -22,7 +23,7 @@ export function AcceptInvitationPage() {
   }
   if (preview.isError) {
     return (
-      <AuthFrame title="Join a workshop" footer={<Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Go to sign in</Link>}>
+      <AuthFrame title="Join a workshop" footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Go to sign in</Link>}>
         <ErrorBanner>{preview.error.message}</ErrorBanner>
         <p>Ask the workshop’s admin to invite you again.</p>
       </AuthFrame>
@@ -47,7 +48,7 @@ export function AcceptInvitationPage() {
     if (Object.keys(next).length) return;
     accept.mutate(
       { token, name, password },
-      { onSuccess: () => navigate('/', { replace: true }), onError: (err) => setErrors(fieldErrors(err)) },
+      { onSuccess: () => navigate(pathTo('home'), { replace: true }), onError: (err) => setErrors(fieldErrors(err)) },
     );
   }
 

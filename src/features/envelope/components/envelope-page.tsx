@@ -8,6 +8,7 @@ import { useEnvelope } from '../api/get-envelopes';
 import { useReopenEnvelope } from '../api/reopen';
 import { EnvelopeResults } from './envelope-results';
 import { SendSheetForm } from './send-sheet-form';
+import { pathTo } from '@/paths';
 
 /** One envelope revision: the frozen snapshot, its hash check, the sheet and CSV, sending, re-opening. */
 export function EnvelopePage() {
@@ -35,7 +36,7 @@ export function EnvelopePage() {
                 {can('session.read') && (
                   <>
                     {' '}
-                    · <Link className="underline" to={`/desk/sessions/${e.sessionId}`}>back to the session</Link>
+                    · <Link className="underline" to={pathTo('deskSession', { id: e.sessionId })}>back to the session</Link>
                   </>
                 )}
               </p>
@@ -70,7 +71,7 @@ export function EnvelopePage() {
                     Envelope (CSV)
                   </a>
                   {can('envelope.design') && e.status === 'signed' && (
-                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate(`/desk/sessions/${e.sessionId}?section=envelope`) })}>
+                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate({ pathname: pathTo('deskSession', { id: e.sessionId }), search: '?section=envelope' }) })}>
                       Re-open as revision {e.revision + 1}
                     </button>
                   )}

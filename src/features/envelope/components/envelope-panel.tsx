@@ -13,6 +13,7 @@ import { useReopenEnvelope } from '../api/reopen';
 import { useLiveEnvelope } from '../hooks/use-live-envelope';
 import { EnvelopeResults } from './envelope-results';
 import { ParamsForm, fromFormState, toFormState, type ParamsFormState } from './params-form';
+import { pathTo } from '@/paths';
 
 const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
 
@@ -46,7 +47,7 @@ export function EnvelopePanel({ data, unit, canDesign, canSign }: Props) {
                 <ul className="space-y-1">
                   {signed.map((e) => (
                     <li key={e.id}>
-                      <Link className="font-bold underline" to={`/desk/envelopes/${e.id}`}>
+                      <Link className="font-bold underline" to={pathTo('envelope', { id: e.id })}>
                         Revision {e.revision}
                       </Link>{' '}
                       · {e.status} · signed by {e.signedBy?.name} on {formatTimestamp(e.signedAt!)}
@@ -106,7 +107,7 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
     const version = dirty && params ? (await save.mutateAsync({ id: draft.id, version: draft.version, params })).version : draft.version;
     const acknowledgements = flags.map((f) => ({ readingId: f.readingId, note: kept[f.readingId]?.note ?? '' }));
     const signed = await sign.mutateAsync({ id: draft.id, version, acknowledgements });
-    navigate(`/desk/envelopes/${signed.id}`);
+    navigate(pathTo('envelope', { id: signed.id }));
   };
 
   return (

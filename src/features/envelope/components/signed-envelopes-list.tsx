@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { formatTimestamp } from '@shared/format';
 import { useSignedEnvelopes } from '../api/get-envelopes';
+import { pathTo } from '@/paths';
 
 /** Every signed-off envelope of the workshop, newest first, with its sheet. */
 export function SignedEnvelopesList() {
@@ -18,7 +19,7 @@ export function SignedEnvelopesList() {
               {list.map((e) => (
                 <li key={e.id} className="card">
                   <p className="text-lg font-bold">{e.vehicleName}</p>
-                  <Link className="font-bold underline" to={`/desk/envelopes/${e.id}`}>
+                  <Link className="font-bold underline" to={pathTo('envelope', { id: e.id })}>
                     Envelope revision {e.revision}
                   </Link>
                   <p className="text-sm">

@@ -9,6 +9,7 @@ import { UnitToggle } from '@/components/field/unit-toggle';
 import { SaveProblems } from '@/components/field/save-problems';
 import { useFieldUnit } from '@/lib/field/use-field-unit';
 import { OpeningDrawing } from './opening-drawing';
+import { pathTo } from '@/paths';
 
 const blank = (): Vehicle => ({
   id: crypto.randomUUID(),
@@ -65,7 +66,7 @@ export function VehicleSetupPage() {
       setProblems([r]);
       if (r.ok) {
         setLoaded(draft);
-        navigate(`/field/vehicles/${draft.id}`, { replace: true });
+        navigate(pathTo('vehicle', { id: draft.id }), { replace: true });
       }
       return;
     }
