@@ -6,6 +6,7 @@ import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel, UserModel
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
+import type { SessionReview } from '../../shared/desk-responses';
 import { getSessionDetail } from './sessions.service';
 import { readingOut } from './serialize';
 import { withTeamChanges } from './team-changes';
@@ -33,7 +34,7 @@ export async function sessionHistory(teamId: string, sessionId: string): Promise
 }
 
 /** The session as getSessionDetail gives it, plus the names of the people in it and its history. */
-export async function getReview(auth: Reviewer, sessionId: string) {
+export async function getReview(auth: Reviewer, sessionId: string): Promise<SessionReview> {
   const detail = await getSessionDetail(auth, sessionId);
   const [names, history] = await Promise.all([people(detail.readings.map((r) => r.enteredBy)), sessionHistory(auth.teamId, sessionId)]);
   return { ...detail, people: names, history };

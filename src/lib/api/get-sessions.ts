@@ -1,18 +1,14 @@
-import { useQuery } from '@tanstack/react-query';
-import type { TestSession } from '@shared/schemas';
+// The team's sessions as the server lists them: read by the field's and the desk's session lists
+// and by Compare, so it sits here rather than in one feature.
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { SessionSummary } from '@shared/desk-responses';
 import { api } from '@/lib/api-client';
-
-export const sessionKeys = {
-  all: ['sessions'] as const,
-  list: () => [...sessionKeys.all, 'list'] as const,
-  detail: (id: string) => [...sessionKeys.all, 'detail', id] as const,
-};
-
-/** A session as the server lists it: with its vehicle's name and its latest signed-off envelope revision. */
-export type SessionSummary = TestSession & { vehicleName: string; signed: { revision: number; signedAt: string } | null };
 
 export const getSessions = () => api<SessionSummary[]>('/api/sessions');
 
-export function useSessions() {
-  return useQuery({ queryKey: sessionKeys.list(), queryFn: getSessions });
-}
+export const sessionQueries = {
+  all: () => ['sessions'] as const,
+  list: () => queryOptions({ queryKey: [...sessionQueries.all(), 'list'], queryFn: getSessions }),
+};
+
+export const useSessions = () => useQuery(sessionQueries.list());

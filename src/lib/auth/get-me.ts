@@ -1,8 +1,7 @@
-import { useQuery } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Me } from '@shared/schemas';
 import { api, ApiError } from '@/lib/api-client';
 
-export const meKeys = { all: ['me'] as const };
 
 /** Who is signed in; null when nobody is. */
 export async function getMe(): Promise<Me | null> {
@@ -14,6 +13,7 @@ export async function getMe(): Promise<Me | null> {
   }
 }
 
-export function useMe() {
-  return useQuery({ queryKey: meKeys.all, queryFn: getMe, staleTime: 5 * 60_000 });
-}
+/** Who is signed in: one query, kept five minutes; sign-in and account changes refresh it through `meQuery().queryKey`. */
+export const meQuery = () => queryOptions({ queryKey: ['me'] as const, queryFn: getMe, staleTime: 5 * 60_000 });
+
+export const useMe = () => useQuery(meQuery());
