@@ -10,6 +10,7 @@ import { SaveProblems } from '@/components/field/save-problems';
 import { useFieldUnit } from '@/lib/field/use-field-unit';
 import { OpeningDrawing } from './opening-drawing';
 import { pathTo } from '@/paths';
+import { nextPointLabel } from '../next-point-label';
 
 const blank = (): Vehicle => ({
   id: crypto.randomUUID(),
@@ -28,14 +29,6 @@ const blank = (): Vehicle => ({
 const v = vehicleSchema.shape;
 const o = openingSchema.shape;
 const POINT_LIMITS = limitsOf(gaugePointSchema.shape.yMm);
-
-const nextLabel = (points: GaugePoint[]) => {
-  for (let i = 0; i < 64; i++) {
-    const l = i < 26 ? String.fromCharCode(65 + i) : `P${i + 1}`;
-    if (!points.some((p) => p.label === l)) return l;
-  }
-  return `P${points.length + 1}`;
-};
 
 /** Vehicle setup: dimensions, the opening outline and the gauge points placed on its drawing. */
 export function VehicleSetupPage() {
@@ -120,7 +113,7 @@ export function VehicleSetupPage() {
           <OpeningDrawing
             opening={draft.opening}
             points={points}
-            onPlace={(yMm, zMm) => void addPoint({ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextLabel(points), yMm, zMm })}
+            onPlace={(yMm, zMm) => void addPoint({ id: crypto.randomUUID(), version: 1, vehicleId: draft.id, label: nextPointLabel(points), yMm, zMm })}
           />
           <ul className="space-y-2">
             {points.map((p) => (
