@@ -18,7 +18,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'unit',
-          include: ['shared/**/*.test.ts', 'src/**/*.test.ts', 'server/**/*.test.ts'],
+          include: ['shared/**/*.test.ts', 'src/**/*.test.ts', 'server/**/*.test.ts', 'tests/lint/**/*.test.ts'],
           environment: 'node',
         },
       },

@@ -1,12 +1,20 @@
-// Prints the README's "Roles and permissions" table from permissions.ts, or with --write puts it
-// into README.md between its markers. `npx tsx server/auth/print-permissions.ts --write`
+// Prints the README's "Roles and permissions" table from shared/permissions.ts, or with --write
+// puts it into README.md between its markers. `npx tsx server/auth/print-permissions.ts --write`
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { permissionsMarkdown } from './permissions';
+import { actions, can, permissionTable, roles } from '../../shared/permissions';
 
-export const BEGIN = '<!-- permissions-table:begin (generated from server/auth/permissions.ts) -->';
+export const BEGIN = '<!-- permissions-table:begin (generated from shared/permissions.ts) -->';
 export const END = '<!-- permissions-table:end -->';
+
+/** The README's table: one row per action, one column per role. */
+export function permissionsMarkdown(): string {
+  const head = `| action | lets a person | ${roles.join(' | ')} |`;
+  const rule = `| --- | --- | ${roles.map(() => ':---:').join(' | ')} |`;
+  const rows = actions.map((a) => `| \`${a}\` | ${permissionTable[a].lets} | ${roles.map((r) => (can(r, a) ? '✓' : '—')).join(' | ')} |`);
+  return [head, rule, ...rows].join('\n');
+}
 
 export function withTable(readme: string): string {
   const a = readme.indexOf(BEGIN);

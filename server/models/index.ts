@@ -15,7 +15,6 @@ import { initPhoto, PhotoModel } from './photo.model';
 import { initEnvelope, EnvelopeModel } from './envelope.model';
 import { initEnvelopeSend, EnvelopeSendModel } from './envelope-send.model';
 import { initHistoryEvent } from './history-event.model';
-import { initSyncBatch } from './sync-batch.model';
 import { initSyncConflict } from './sync-conflict.model';
 
 export { TeamModel } from './team.model';
@@ -33,14 +32,13 @@ export { PhotoModel } from './photo.model';
 export { EnvelopeModel } from './envelope.model';
 export { EnvelopeSendModel } from './envelope-send.model';
 export { HistoryEventModel } from './history-event.model';
-export { SyncBatchModel } from './sync-batch.model';
 export { SyncConflictModel } from './sync-conflict.model';
 
 export function initModels(sequelize: Sequelize) {
   for (const init of [
     initTeam, initUser, initMembership, initUserSession, initInvitation, initPasswordReset,
     initVehicle, initGaugePoint, initTestSession, initPose, initReading, initPhoto,
-    initEnvelope, initEnvelopeSend, initHistoryEvent, initSyncBatch, initSyncConflict,
+    initEnvelope, initEnvelopeSend, initHistoryEvent, initSyncConflict,
   ]) init(sequelize);
 
   MembershipModel.belongsTo(UserModel, { foreignKey: 'userId', as: 'user' });

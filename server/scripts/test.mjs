@@ -27,6 +27,9 @@ try {
   // The gate checks types first: a type error anywhere in the tree fails the run.
   log('type-checking the whole tree (tsc --noEmit)…');
   run('npx', ['tsc', '--noEmit', '-p', 'tsconfig.json'], { cwd: repoRoot });
+  // Then the linter: the import boundaries of DEVELOPERS.md ("Boundaries") and the code rules.
+  log('linting the whole tree (eslint)…');
+  run('npx', ['eslint', '--max-warnings', '0', '.'], { cwd: repoRoot });
   // Port-specific folders let two runs (e.g. two developers on one machine) proceed side by side.
   cluster = await startCluster({ dataDir: path.join(repoRoot, '.data', `pg-test-${pgPort}`), port: pgPort, fresh: true });
   ensureDatabase(cluster, 'twistlog_test');

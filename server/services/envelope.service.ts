@@ -13,7 +13,7 @@
 // Roles without 'envelope.read' (viewers) see signed revisions only; anything else is a 404 to them.
 import { Op, Transaction } from 'sequelize';
 import { EnvelopeModel, EnvelopeSendModel, HistoryEventModel, TestSessionModel, UserModel, VehicleModel } from '../models';
-import { can } from '../auth/permissions';
+import { can } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
 import { FlexInputError } from '../../shared/flex';

@@ -16,7 +16,6 @@ import { readPhotoFile, removePhotoFiles, writePhotoFiles, type StoredObject } f
 import type { AuthContext } from '../auth/context';
 import { withTeamChanges } from './team-changes';
 import type { Photo } from '../../shared/schemas';
-import type { PhotoUploadFields } from '../../shared/schemas/sync';
 
 /** Largest upload: a full-resolution phone photo is 3–12 MB (common practice). */
 export const MAX_PHOTO_BYTES = 20 * 1024 * 1024;

@@ -4,11 +4,11 @@
 // is a 409) and leaves a history event in the same transaction.
 import { QueryTypes } from 'sequelize';
 import { HistoryEventModel, PoseModel, ReadingModel, TestSessionModel } from '../models';
-import type { Photo } from '../../shared/schemas';
 import type { AuthContext } from '../auth/context';
 import { Conflict, Invalid, NotFound } from '../http/errors';
-import type { HistoryEventRecord, ReadingReviewInput } from '../../shared/schemas/envelope';
-import { readingOut, type getSessionDetail } from './sessions.service';
+import type { ReadingReviewInput } from '../../shared/schemas/envelope';
+import type { SessionReview } from '../../shared/desk-responses';
+import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { etagOf, teamCursorSql } from '../http/validator';
@@ -17,12 +17,6 @@ type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
 /** How many of a session's latest history events the review carries. */
 const HISTORY_SHOWN = 200;
-
-export type SessionReview = Awaited<ReturnType<typeof getSessionDetail>> & {
-  photos: (Photo & { changeSeq: number })[];
-  people: Record<string, string>;
-  history: HistoryEventRecord[];
-};
 
 // The whole answer in one statement: the session, its vehicle and gauge points, poses and readings
 // (as getSessionDetail gives them), its photos (the engineer judges a reading by the pose's photos

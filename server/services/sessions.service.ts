@@ -3,9 +3,10 @@ import { NotFound } from '../http/errors';
 import { toRecord } from './to-record';
 import type { AuthContext } from '../auth/context';
 import type { Transaction } from 'sequelize';
+import type { SessionDetail, SessionSummary } from '../../shared/desk-responses';
 
 /** The team's sessions, newest first, each with its vehicle's name and its latest signed-off envelope revision (or null). */
-export async function listSessions(auth: AuthContext) {
+export async function listSessions(auth: AuthContext): Promise<SessionSummary[]> {
   const rows = await TestSessionModel.findAll({
     where: { teamId: auth.teamId, deletedAt: null },
     order: [['testedOn', 'DESC'], ['createdAt', 'DESC']],
@@ -29,7 +30,7 @@ export const readingOut = (r: ReadingModel) => ({ ...toRecord('reading', r), ent
 
 /** A whole session with its vehicle, gauge points, poses and readings: what review and the envelope need. */
 // `transaction` lets a sign-off read the readings it freezes inside its own transaction.
-export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: string, { transaction }: { transaction?: Transaction } = {}) {
+export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: string, { transaction }: { transaction?: Transaction } = {}): Promise<SessionDetail> {
   const s = await TestSessionModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, transaction });
   if (!s) throw new NotFound('session');
   // One after another: queries of one transaction share its connection.

@@ -1,5 +1,5 @@
 // Who may change what through sync push, field by field: the same actions the REST routes check
-// (auth/permissions.ts), so a phone can do nothing the desk would refuse the same person.
+// (shared/permissions.ts), so a phone can do nothing the desk would refuse the same person.
 //
 // The rules are data (`syncAccess`, one entry per entity): the action that creates a record, the
 // action each field needs to change, and the defaults a new record must carry in every field its
@@ -15,7 +15,7 @@ import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
 import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
-import { can, whoMay, type Action } from '../auth/permissions';
+import { can, whoMay, type Action } from '../../shared/permissions';
 import { Invalid, type FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
 import { syncTables } from './sync-tables';

@@ -10,13 +10,14 @@ import { hashToken, LinkInvalid, newToken, TOKEN_TTL } from '../auth/tokens';
 import { AppError, Conflict, Invalid, NotFound } from '../http/errors';
 import { sendWithinQuota } from '../mail/quotas';
 import { invitationMail } from '../mail/templates';
-import type { Member, Role, Team } from '../../shared/schemas';
+import type { Member, Role } from '../../shared/schemas';
 import type { TeamSettingsInput } from '../../shared/schemas/team';
+import type { TeamDetail } from '../../shared/desk-responses';
 import type { AcceptInvitationInput, Invitation, InvitationPreview, InviteInput } from '../../shared/schemas/account';
 
 const roleOrder: Record<Role, number> = { admin: 0, engineer: 1, tester: 2, viewer: 3 };
 
-export async function getTeam(auth: AuthContext): Promise<{ team: Team; members: Member[] }> {
+export async function getTeam(auth: AuthContext): Promise<TeamDetail> {
   const team = await TeamModel.findByPk(auth.teamId);
   if (!team) throw new NotFound('workshop');
   const memberships = await MembershipModel.findAll({

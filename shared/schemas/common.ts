@@ -1,10 +1,10 @@
 // Building blocks of every record schema: the one place for ids, roles, axes and limits.
 import * as z from 'zod';
+import { roles } from '../permissions';
 
 export const id = z.uuid();
-export const roles = ['admin', 'engineer', 'tester', 'viewer'] as const;
+export type { Role } from '../permissions';
 export const role = z.enum(roles);
-export type Role = z.infer<typeof role>;
 
 export const axes = ['foreAft', 'lateral', 'vertical'] as const;
 export const axis = z.enum(axes);

@@ -1,5 +1,7 @@
 import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
+import { pathTo, routes } from '@/paths';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { ConfirmSignUpPage, SignUpPage } from '@/features/auth/components/sign-up-page';
 import { ForgotPasswordPage, ResetPasswordPage } from '@/features/auth/components/password-pages';
@@ -9,46 +11,48 @@ import { AcceptInvitationPage } from '@/features/auth/components/accept-invitati
 function RequireSignIn() {
   const me = useMe();
   if (me.isPending) return <p className="p-6" role="status">Loading…</p>;
-  if (!me.data) return <Navigate to="/sign-in" replace />;
+  if (!me.data) return <Navigate to={pathTo('signIn')} replace />;
   return <Outlet />;
 }
 
 function Home() {
-  const me = useMe();
-  return <Navigate to={me.data?.role === 'tester' ? '/field' : '/desk'} replace />;
+  const can = useCan();
+  // Who records but does not review (a tester) starts in the field; everyone else at the desk.
+  return <Navigate to={pathTo(can('session.record') && !can('session.review') ? 'fieldSessions' : 'desk')} replace />;
 }
 
 // The signed-out pages come with the app (a link between them must not wait on a chunk while the
 // old page still takes typing); the signed-in shell and its pages load on demand, precached by the
 // service worker (vite.config.ts) except the charts, so each opens offline too.
+// Every path comes from src/paths.ts, where links are built from the same table.
 export const router = createBrowserRouter([
-  { path: '/sign-in', element: <SignInPage /> },
-  { path: '/sign-up', element: <SignUpPage /> },
-  { path: '/sign-up/confirm/:token', element: <ConfirmSignUpPage /> },
-  { path: '/forgot-password', element: <ForgotPasswordPage /> },
-  { path: '/reset-password/:token', element: <ResetPasswordPage /> },
-  { path: '/invite/:token', element: <AcceptInvitationPage /> },
+  { path: routes.signIn, element: <SignInPage /> },
+  { path: routes.signUp, element: <SignUpPage /> },
+  { path: routes.confirmSignUp, element: <ConfirmSignUpPage /> },
+  { path: routes.forgotPassword, element: <ForgotPasswordPage /> },
+  { path: routes.resetPassword, element: <ResetPasswordPage /> },
+  { path: routes.invitation, element: <AcceptInvitationPage /> },
   {
     element: <RequireSignIn />,
     children: [
       {
-        lazy: async () => ({ Component: (await import('@/components/layout')).Layout }),
+        lazy: async () => ({ Component: (await import('@/app/layout')).Layout }),
         children: [
-          { index: true, element: <Home /> },
-          { path: 'field', lazy: async () => ({ Component: (await import('@/features/sessions/components/field-sessions-page')).FieldSessionsPage }) },
-          { path: 'field/sessions/new', lazy: async () => ({ Component: (await import('@/features/sessions/components/start-session-page')).StartSessionPage }) },
-          { path: 'field/sessions/:id', lazy: async () => ({ Component: (await import('@/features/sessions/components/field-session-page')).FieldSessionPage }) },
-          { path: 'field/sessions/:id/poses/:poseId', lazy: async () => ({ Component: (await import('@/features/poses/components/pose-recorder-page')).PoseRecorderPage }) },
-          { path: 'field/vehicles', lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-list-page')).VehicleListPage }) },
-          { path: 'field/vehicles/:id', lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-setup-page')).VehicleSetupPage }) },
-          { path: 'field/sync', lazy: async () => ({ Component: (await import('@/features/sync/components/sync-page')).SyncPage }) },
-          { path: 'desk', lazy: async () => ({ Component: (await import('@/features/desk/components/desk-home-page')).DeskHomePage }) },
+          { path: routes.home, element: <Home /> },
+          { path: routes.fieldSessions, lazy: async () => ({ Component: (await import('@/features/sessions/components/field-sessions-page')).FieldSessionsPage }) },
+          { path: routes.newSession, lazy: async () => ({ Component: (await import('@/features/sessions/components/start-session-page')).StartSessionPage }) },
+          { path: routes.fieldSession, lazy: async () => ({ Component: (await import('@/features/sessions/components/field-session-page')).FieldSessionPage }) },
+          { path: routes.fieldPose, lazy: async () => ({ Component: (await import('@/features/poses/components/pose-recorder-page')).PoseRecorderPage }) },
+          { path: routes.vehicles, lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-list-page')).VehicleListPage }) },
+          { path: routes.vehicle, lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-setup-page')).VehicleSetupPage }) },
+          { path: routes.sync, lazy: async () => ({ Component: (await import('@/features/sync/components/sync-page')).SyncPage }) },
+          { path: routes.desk, lazy: async () => ({ Component: (await import('@/app/desk/desk-home-page')).DeskHomePage }) },
           // Desk pages load on demand so the field's first load stays small.
-          { path: 'desk/sessions/:id', lazy: async () => ({ Component: (await import('@/features/desk/components/session-desk-page')).SessionDeskPage }) },
-          { path: 'desk/envelopes/:id', lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
-          { path: 'desk/compare', lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
-          { path: 'account', lazy: async () => ({ Component: (await import('@/features/auth/components/account-page')).AccountPage }) },
-          { path: 'team', lazy: async () => ({ Component: (await import('@/features/team/components/team-page')).TeamPage }) },
+          { path: routes.deskSession, lazy: async () => ({ Component: (await import('@/app/desk/session-desk-page')).SessionDeskPage }) },
+          { path: routes.envelope, lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
+          { path: routes.compare, lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },
+          { path: routes.account, lazy: async () => ({ Component: (await import('@/features/auth/components/account-page')).AccountPage }) },
+          { path: routes.team, lazy: async () => ({ Component: (await import('@/features/team/components/team-page')).TeamPage }) },
           // Any other address: an app page with the header and a way back, not the router's own error.
           { path: '*', lazy: async () => ({ Component: (await import('@/components/not-found-page')).NotFoundPage }) },
         ],

@@ -1,4 +1,5 @@
 import { Link, useLocation } from 'react-router-dom';
+import { pathTo } from '@/paths';
 
 /** An address the app does not know: said plainly, inside the app's frame, with ways back. */
 export function NotFoundPage() {
@@ -12,7 +13,7 @@ export function NotFoundPage() {
         Nothing in Twistlog lives at <code className="break-all">{location.pathname}</code>. The link may be old, or the address mistyped.
       </p>
       <p className="flex flex-wrap gap-2">
-        <Link className="btn-primary" to="/">
+        <Link className="btn-primary" to={pathTo('home')}>
           Back to the start
         </Link>
         <button type="button" className="btn" onClick={() => window.history.back()}>

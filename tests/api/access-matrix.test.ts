@@ -14,7 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomBytes, randomUUID } from 'node:crypto';
 import { allRoutes } from '../../server/routes';
 import type { AnyRoute } from '../../server/routes/route';
-import { allRoles, can, isAction } from '../../server/auth/permissions';
+import { can, isAction, roles } from '../../shared/permissions';
 import { createTeam, sessionAgent, agentFor, startTestServer, type Agent, type TestServer, type TestTeam } from '../support/test-app';
 import { resetThrottles } from '../../server/auth/throttle';
 import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } from '../support/db-snapshot';
@@ -93,13 +93,14 @@ async function buildFixture(): Promise<Fixture> {
     token_hash: randomBytes(32).toString('hex'), invited_by: team.members.admin.userId, expires_at: new Date(Date.now() + 86_400_000),
   });
   const agents = { signedOut: agentFor(ts) } as Record<Caller, Agent>;
-  for (const role of allRoles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
+  for (const role of roles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
   agents.otherTeam = await sessionAgent(ts, other.members.admin.userId, other.teamId);
   return { team, other, ids, agents };
 }
 
 /** Which fixture a path word names: "vehicles" → vehicle, "gauge-points" → gaugePoint, … */
-const kinds: [RegExp, keyof ReturnType<typeof idKeys>][] = [
+type IdKind = 'vehicle' | 'gaugePoint' | 'session' | 'pose' | 'reading' | 'photo' | 'envelope' | 'send' | 'conflict' | 'invitation' | 'member' | 'team';
+const kinds: [RegExp, IdKind][] = [
   [/^vehicles?$/, 'vehicle'],
   [/^gauge-?points?$/, 'gaugePoint'],
   [/^(test-?)?sessions?$/, 'session'],
@@ -113,7 +114,6 @@ const kinds: [RegExp, keyof ReturnType<typeof idKeys>][] = [
   [/^(members?|users?|people)$/, 'member'],
   [/^teams?$/, 'team'],
 ];
-const idKeys = () => ({ vehicle: '', gaugePoint: '', session: '', pose: '', reading: '', photo: '', envelope: '', send: '', conflict: '', invitation: '', member: '', team: '' });
 
 function kindOf(word: string): string | undefined {
   const w = word.replace(/([a-z])([A-Z])/g, '$1-$2').toLowerCase();

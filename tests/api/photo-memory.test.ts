@@ -79,7 +79,6 @@ describe('photo uploads and memory', () => {
     const before = memoryOf(server.child.pid!);
     const results = await Promise.all(['admin', 'engineer', 'tester', 'tester2'].map((who) => upload(who, bigJpeg)));
     const after = memoryOf(server.child.pid!);
-    // eslint-disable-next-line no-console
     console.log(`photo memory: RSS ${Math.round(before.rss / MB)} MB before, peak ${Math.round(after.peak / MB)} MB during 4 concurrent ${bigJpeg.length} B uploads`);
     expect(results.map((r) => r.status)).toEqual([201, 201, 201, 201]);
     expect(after.peak - before.rss).toBeLessThan(photoLimits.memoryBudgetMb * MB);

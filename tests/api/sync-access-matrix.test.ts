@@ -22,6 +22,7 @@ import { syncAccess } from '../../server/services/sync-access';
 import type { SyncEntity } from '../../shared/schemas/sync';
 import type { Role } from '../../shared/schemas';
 import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
+import { roles as allRoles } from '../../shared/permissions';
 
 let ts: TestServer;
 let tables: ScopedTable[];
@@ -35,7 +36,7 @@ afterAll(async () => ts?.close());
 
 type Patch = Record<string, unknown>;
 const entities: SyncEntity[] = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'];
-const roles: Role[] = ['admin', 'engineer', 'tester', 'viewer'];
+const roles: Role[] = [...allRoles];
 
 /** What the product promises, in words (see the file's head). */
 function promised(role: Role, entity: SyncEntity, fields: string[], inSignedSession: boolean): 'allowed' | 'refused' | 'forbidden' {

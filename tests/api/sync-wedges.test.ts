@@ -2,7 +2,6 @@
 // retried the same batch forever: each is now refused with a 400 naming the record and field,
 // accepted, or kept as a conflict, and never a 500.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { randomUUID } from 'node:crypto';
 import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { GaugePointModel, PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';

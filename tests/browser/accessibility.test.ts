@@ -2,34 +2,21 @@
 // critical violation (WCAG 2.x A and AA rules), every control is reachable with the Tab key, and
 // every touch target on a phone-sized screen is at least 44 × 44 CSS px (WCAG 2.2 SC 2.5.5 asks
 // 44 px; inline links inside a sentence are exempt, as that criterion allows).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
-import { seedDemo, DEMO_PASSWORD, DEMO_PEOPLE } from '../../server/seed/demo';
+import type { Page } from 'playwright-core';
+import { browserHarness } from '../support/browser';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../server/seed/demo';
 
 const axePath = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
 const DEMO_SESSION = '0d3c5a10-0000-4000-8003-000000000001';
 const DEMO_POSE = '0d3c5a10-0000-4000-8004-000000000002';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  await seedDemo();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness({ seedDemo: true });
 
 async function signedInPage(role: 'admin' | 'engineer' | 'tester'): Promise<Page> {
   // bypassCSP: axe is injected by this test as an inline script; the app's own policy is checked by content-security-policy.test.ts.
-  const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, bypassCSP: true });
-  const page = await context.newPage();
-  await signInAs(page, ts.baseUrl, DEMO_PEOPLE.find((p) => p.role === role)!.email, DEMO_PASSWORD);
+  const { page } = await h.open(DEMO_PEOPLE.find((p) => p.role === role)!.email, { viewport: { width: 390, height: 844 }, hasTouch: true, bypassCSP: true, password: DEMO_PASSWORD });
   return page;
 }
 
@@ -102,7 +89,7 @@ async function unreachableByKeyboard(page: Page): Promise<string[]> {
 }
 
 async function check(page: Page, path: string, ready: (p: Page) => Promise<unknown>) {
-  await page.goto(ts.baseUrl + path);
+  await page.goto(h.ts.baseUrl + path);
   await ready(page);
   // Let the first sync finish: its button is disabled while it runs, and skipped by Tab.
   await page.waitForLoadState('networkidle');
@@ -116,7 +103,7 @@ const heading = (p: Page) => p.getByRole('heading').first().waitFor();
 
 describe('accessibility of the main screens', () => {
   it('sign-in (signed out)', async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 }, bypassCSP: true });
+    const page = await h.browser.newPage({ viewport: { width: 390, height: 844 }, bypassCSP: true });
     const r = await check(page, '/sign-in', heading);
     expect(r).toEqual({ path: '/sign-in', findings: [], small: [], unreachable: [] });
   });

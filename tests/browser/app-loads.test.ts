@@ -1,27 +1,15 @@
 // The built app in a real browser: sign in with the demo engineer and find the demo session.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import path from 'node:path';
-import type { Browser } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser, screenshotDir } from '../support/browser';
-import { seedDemo, DEMO_SIGN_IN } from '../../server/seed/demo';
+import { screenshotDir, browserHarness } from '../support/browser';
+import { DEMO_SIGN_IN } from '../../server/seed/demo';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  await seedDemo();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness({ seedDemo: true });
 
 describe('the built app', () => {
   it('loads, signs in the demo engineer and shows the demo session readings', async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
-    await page.goto(ts.baseUrl + '/');
+    const page = await h.browser.newPage({ viewport: { width: 390, height: 844 } });
+    await page.goto(h.ts.baseUrl + '/');
     await page.waitForURL('**/sign-in');
     await page.getByLabel('E-mail').fill(DEMO_SIGN_IN.email);
     await page.getByLabel('Password').fill(DEMO_SIGN_IN.password);

@@ -2,29 +2,18 @@
 // desk and the admin (with the lazily loaded charts), the service worker's registration and its
 // control of the page, all without one CSP violation. Violations are caught both as the browser
 // reports them in the console and as `securitypolicyviolation` events.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
-import { seedDemo, DEMO_PASSWORD, DEMO_PEOPLE, DEMO_TEAM_ID } from '../../server/seed/demo';
+import type { Page } from 'playwright-core';
+import { browserHarness } from '../support/browser';
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_TEAM_ID } from '../../server/seed/demo';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  await seedDemo();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness({ seedDemo: true });
 
 /** A page that records every CSP violation, however the browser reports it. */
 async function watchedPage(): Promise<{ page: Page; violations: string[] }> {
   const violations: string[] = [];
-  const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  const page = await h.browser.newPage({ viewport: { width: 1280, height: 900 } });
   await page.addInitScript(() => {
     document.addEventListener('securitypolicyviolation', (e) => {
       (window as unknown as { __csp?: string[] }).__csp ??= [];
@@ -43,16 +32,13 @@ async function eventsOn(page: Page): Promise<string[]> {
 }
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${ts.baseUrl}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await h.signIn(page, email, DEMO_PASSWORD);
   await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }
 
 describe('the built app under its Content-Security-Policy', () => {
   it('serves the policy with the shell', async () => {
-    const res = await fetch(`${ts.baseUrl}/sign-in`);
+    const res = await fetch(`${h.ts.baseUrl}/sign-in`);
     const csp = res.headers.get('content-security-policy') ?? '';
     expect(csp).toMatch(/script-src 'self'(;|$)/);
     expect(csp).toMatch(/frame-ancestors 'none'/);
@@ -60,9 +46,9 @@ describe('the built app under its Content-Security-Policy', () => {
   });
 
   it('loads every screen and the service worker without a violation', async () => {
-    const [session] = await ts.sequelize.query<{ id: string }>(`SELECT id FROM test_sessions WHERE team_id = :t ORDER BY created_at LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
-    const [pose] = await ts.sequelize.query<{ id: string }>(`SELECT id FROM poses WHERE session_id = :s ORDER BY seq LIMIT 1`, { replacements: { s: session.id }, type: QueryTypes.SELECT });
-    const [envelope] = await ts.sequelize.query<{ id: string }>(`SELECT id FROM envelopes WHERE team_id = :t AND status = 'signed' LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
+    const [session] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM test_sessions WHERE team_id = :t ORDER BY created_at LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
+    const [pose] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM poses WHERE session_id = :s ORDER BY seq LIMIT 1`, { replacements: { s: session.id }, type: QueryTypes.SELECT });
+    const [envelope] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM envelopes WHERE team_id = :t AND status = 'signed' LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
     const admin = DEMO_PEOPLE.find((p) => p.role === 'admin')!;
     const { page, violations } = await watchedPage();
     await signIn(page, admin.email);
@@ -82,7 +68,7 @@ describe('the built app under its Content-Security-Policy', () => {
       ['/field/sync', /sync|sent|phone/i],
     ] as const;
     for (const [path, text] of screens) {
-      await page.goto(`${ts.baseUrl}${path}`);
+      await page.goto(`${h.ts.baseUrl}${path}`);
       await page.getByText(text).first().waitFor({ timeout: 30_000 });
       // Charts and other on-demand parts get their moment to load.
       await page.waitForLoadState('networkidle');

@@ -4,39 +4,23 @@
 // reading it keeps, confirm the sign-off, check the numbers on screen against the PDF and the CSV,
 // read the sheet in inches as the engineer chose, send it to a fabricator, and compare the two
 // demo vehicles.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import path from 'node:path';
 import Papa from 'papaparse';
 import { PDFParse } from 'pdf-parse';
-import type { Browser } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser, screenshotDir } from '../support/browser';
+import { screenshotDir, browserHarness } from '../support/browser';
 import { waitForMail } from '../support/mail';
-import { seedDemo, DEMO_SIGN_IN } from '../../server/seed/demo';
+import { DEMO_SIGN_IN } from '../../server/seed/demo';
 import { buildLines } from '../../shared/build-sheet';
 import type { EnvelopeRecord } from '../../shared/schemas/envelope';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  await seedDemo();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness({ seedDemo: true });
 
 const MEASURES = ['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical'] as const;
 
 describe('the engineer desk', () => {
   it('goes from review to sign-off to a sent sheet, with the same numbers on screen, in the PDF and in the CSV', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-    await page.goto(ts.baseUrl + '/sign-in');
-    await page.getByLabel('E-mail').fill(DEMO_SIGN_IN.email);
-    await page.getByLabel('Password').fill(DEMO_SIGN_IN.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    const { page } = await h.open(DEMO_SIGN_IN.email, { viewport: { width: 1280, height: 900 }, password: DEMO_SIGN_IN.password });
     await page.waitForURL('**/desk');
 
     // Review: the session's conditions, and per pose the wheels or ramp, the tester's note and photos.
@@ -143,7 +127,7 @@ describe('the engineer desk', () => {
     await page.getByRole('list', { name: 'Acknowledged flagged readings' }).getByText(/Ramp 20°, FL up · point D · vertical: .* acknowledged: Crew re-read it after re-seating the gauge/).waitFor();
 
     // The PDF and the CSV carry the numbers shown on screen.
-    const pdf = await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf?unit=mm`);
+    const pdf = await page.request.get(`${h.ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf?unit=mm`);
     expect(pdf.status()).toBe(200);
     const parser = new PDFParse({ data: new Uint8Array(await pdf.body()) });
     const text = (await parser.getText()).text.replace(/\s+/g, ' ');
@@ -152,7 +136,7 @@ describe('the engineer desk', () => {
     expect(text).toContain('Design twist 26.0°');
     expect(text).toMatch(/Flagged readings kept in the computation.*Ramp 20°, FL up D vertical .* acknowledged: Crew re-read it after re-seating the gauge/);
     expect(text).toContain('Mara Venn');
-    const csv = await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}/envelope.csv?unit=mm`);
+    const csv = await page.request.get(`${h.ts.baseUrl}/api/envelopes/${envelopeId}/envelope.csv?unit=mm`);
     const rows = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true }).data;
     expect(rows.filter((r) => r.kind === 'envelope').map((r) => r.envelope_mm)).toEqual(MEASURES.map((m) => screen[m].replace(/^[+−±]/, '')));
 
@@ -160,9 +144,9 @@ describe('the engineer desk', () => {
     // "page x of y" and the signature on every page.
     await page.getByRole('link', { name: 'Account' }).click();
     await page.getByRole('radio', { name: 'Inches (in)' }).check();
-    await expect.poll(async () => (await (await page.request.get(`${ts.baseUrl}/api/me`)).json()).user.unitSystem).toBe('in');
-    const record = (await (await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}`)).json()) as EnvelopeRecord;
-    const inches = await page.request.get(`${ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf`);
+    await expect.poll(async () => (await (await page.request.get(`${h.ts.baseUrl}/api/me`)).json()).user.unitSystem).toBe('in');
+    const record = (await (await page.request.get(`${h.ts.baseUrl}/api/envelopes/${envelopeId}`)).json()) as EnvelopeRecord;
+    const inches = await page.request.get(`${h.ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf`);
     const sheet = new PDFParse({ data: new Uint8Array(await inches.body()) });
     const pages = (await sheet.getText()).pages.map((p) => p.text.replace(/\s+/g, ' '));
     await sheet.destroy();
@@ -182,7 +166,7 @@ describe('the engineer desk', () => {
     await page.getByLabel("Fabricator's e-mail").fill('stitch@fernbootworks.test');
     await page.getByRole('button', { name: 'Send sheet' }).click();
     await page.getByText('Sent to stitch@fernbootworks.test.').waitFor();
-    const mail = await waitForMail(ts, 'stitch@fernbootworks.test', /Fabrication sheet/);
+    const mail = await waitForMail(h.ts, 'stitch@fernbootworks.test', /Fabrication sheet/);
     expect(mail.attachments.map((a) => a.contentType)).toEqual(['application/pdf']);
     await page.getByRole('list', { name: 'Sheets sent' }).getByText(/stitch@fernbootworks\.test · by Mara Venn/).waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'desk-envelope.png'), fullPage: true });

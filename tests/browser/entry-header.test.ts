@@ -1,21 +1,12 @@
 // On a phone (390 × 844) the app's header and the sync state take at most about 15 % of the first
 // screen, so the pose in hand gets the rest; everything the sync bar says stays one tap away.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
-import { PHONE, sessionWithPoses } from '../support/field-entry';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { createTeam, signedInAgent } from '../support/test-app';
+import { browserHarness } from '../support/browser';
+import { sessionWithPoses } from '../support/field-entry';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 /** Share of the first screen above the page's own content: the header and the sync state. */
 const chromeShare = (page: Page) =>
@@ -27,12 +18,10 @@ const chromeShare = (page: Page) =>
 describe('header on a phone', () => {
   it('takes at most 15 % of the first screen, for every role that records, and keeps the sync details a tap away', async () => {
     const team = await createTeam('Header workshop with a long name for a small screen');
-    const { sessionId, poseId } = await sessionWithPoses(await signedInAgent(ts, team.members.tester.email));
+    const { sessionId, poseId } = await sessionWithPoses(await signedInAgent(h.ts, team.members.tester.email));
     for (const role of ['tester', 'admin'] as const) {
-      const context = await browser.newContext(PHONE);
-      const page = await context.newPage();
-      await signInAs(page, ts.baseUrl, team.members[role].email, TEST_PASSWORD);
-      await page.goto(`${ts.baseUrl}/field/sessions/${sessionId}/poses/${poseId}`);
+      const { context, page } = await h.open(team.members[role].email);
+      await page.goto(`${h.ts.baseUrl}/field/sessions/${sessionId}/poses/${poseId}`);
       await page.getByLabel('Pose name').waitFor();
       await page.getByText('All saved on the server').waitFor({ timeout: 30_000 });
       const share = await chromeShare(page);

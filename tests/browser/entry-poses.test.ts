@@ -1,23 +1,14 @@
 // Poses on a phone: a ramp pose asks for the wheel on the ramp and derives its lift; Next pose,
 // Repeat this pose and Delete pose (with Undo) sit at the bottom of a pose; the session's details
 // can be changed after the start. Everything ends up in PostgreSQL as the screens showed it.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, createTeam, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
-import { PHONE, settled, testerOnPose, typeInto } from '../support/field-entry';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { createTeam } from '../support/test-app';
+import { browserHarness } from '../support/browser';
+import { settled, testerOnPose, typeInto } from '../support/field-entry';
 import { GaugePointModel, PoseModel, TestSessionModel, VehicleModel } from '../../server/models';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 /** Everything typed has reached the server: the bar shows something waiting, then nothing. */
 async function synced(page: Page) {
@@ -28,7 +19,7 @@ async function synced(page: Page) {
 
 describe('poses', () => {
   it('derives the lift of the wheel on a ramp from the distance and the angle', async () => {
-    const { poseId, context, page } = await testerOnPose(ts, browser, 'Ramp workshop');
+    const { poseId, context, page } = await testerOnPose(h, 'Ramp workshop');
     await page.getByRole('button', { name: 'Ramp', exact: true }).tap();
     await page.getByText('Which wheel is on the ramp?').waitFor();
     await page.getByRole('button', { name: 'Front right', exact: true }).tap();
@@ -58,7 +49,7 @@ describe('poses', () => {
   });
 
   it('goes on to the next pose, repeats one, and deletes one with an undo', async () => {
-    const { sessionId, poseId, context, page } = await testerOnPose(ts, browser, 'Pose list workshop');
+    const { sessionId, poseId, context, page } = await testerOnPose(h, 'Pose list workshop');
     await typeInto(page, 'Lift front left', '300');
     await settled(page);
 
@@ -106,7 +97,7 @@ describe('poses', () => {
   });
 
   it('changes the session details after the start', async () => {
-    const { sessionId, context, page } = await testerOnPose(ts, browser, 'Details workshop');
+    const { sessionId, context, page } = await testerOnPose(h, 'Details workshop');
     await page.getByRole('link', { name: /all poses/ }).tap();
     await page.getByRole('button', { name: 'Edit details' }).tap();
     await page.getByLabel('Title').fill('Yard flex, second run');
@@ -131,10 +122,8 @@ describe('poses', () => {
 
   it('sets up a vehicle with the same entry: refused text is named, a minus comes from ±, and later edits are saved', async () => {
     const team = await createTeam('Vehicle workshop');
-    const context = await browser.newContext(PHONE);
-    const page = await context.newPage();
-    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
-    await page.goto(`${ts.baseUrl}/field/vehicles/new`);
+    const { context, page } = await h.open(team.members.tester.email);
+    await page.goto(`${h.ts.baseUrl}/field/vehicles/new`);
     await page.getByLabel('Name').fill('Alder rig');
     await typeInto(page, 'Wheelbase', '4200');
     await typeInto(page, 'Nominal gap', '3 5/8');

@@ -1,35 +1,23 @@
 // The field's session list on a phone says each session's state: its poses, what still waits to be
 // sent, and whether its envelope is signed off; offline it says since when the sign-off is known.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { createTeam, signedInAgent } from '../support/test-app';
+import { browserHarness } from '../support/browser';
 import { createDeskSession } from '../support/desk';
-import { PHONE, sessionWithPoses, settled, typeInto } from '../support/field-entry';
+import { sessionWithPoses, settled, typeInto } from '../support/field-entry';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('session list', () => {
   it('shows poses, unsent records and sign-off per session, and what it knows offline', async () => {
     const team = await createTeam('State workshop');
     const desk = await createDeskSession(team, { name: 'Signed truck' });
-    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const engineer = await signedInAgent(h.ts, team.members.engineer.email);
     const draft = (await engineer.post(`/api/sessions/${desk.sessionId}/envelopes`).send({}).expect(201)).body;
     await engineer.post(`/api/envelopes/${draft.id}/sign`).send({ version: draft.version }).expect(200);
-    const field = await sessionWithPoses(await signedInAgent(ts, team.members.tester.email));
+    await sessionWithPoses(await signedInAgent(h.ts, team.members.tester.email));
 
-    const context = await browser.newContext(PHONE);
-    const page = await context.newPage();
-    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
+    const { context, page } = await h.open(team.members.tester.email);
     // The service worker serves the pages offline once it controls the page (after a reload).
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
     await page.reload();

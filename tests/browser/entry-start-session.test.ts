@@ -1,32 +1,20 @@
 // Start a session on a phone, as a tester does it: open the page and choose the vehicle at once,
 // while the first sync is still bringing vehicles down (a vehicle added at the desk arrives and
 // sorts before the chosen one). The choice stays, and a disabled button says what is missing.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { createTeam, signedInAgent } from '../support/test-app';
+import { browserHarness } from '../support/browser';
 import { change, pushAccepted, vehicleRecord, vehicleWithPoints } from '../support/sync';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('start a session', () => {
   it('keeps the vehicle chosen right after the page opens, and the disabled button says what is missing', async () => {
     const team = await createTeam('Start workshop');
-    const desk = await signedInAgent(ts, team.members.tester.email);
+    const desk = await signedInAgent(h.ts, team.members.tester.email);
     await vehicleWithPoints(desk);
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-    const page = await context.newPage();
-    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
-    await page.goto(`${ts.baseUrl}/field/sessions/new`);
+    const { context, page } = await h.open(team.members.tester.email);
+    await page.goto(`${h.ts.baseUrl}/field/sessions/new`);
     const vehicle = page.getByLabel('Vehicle', { exact: true });
     const start = page.getByRole('button', { name: /start/i });
     await vehicle.selectOption({ label: 'Test truck' });
@@ -61,12 +49,10 @@ describe('start a session', () => {
 
   it('keeps a choice made in the phone’s picker while the first sync re-draws the page', async () => {
     const team = await createTeam('Picker workshop');
-    const desk = await signedInAgent(ts, team.members.tester.email);
+    const desk = await signedInAgent(h.ts, team.members.tester.email);
     await vehicleWithPoints(desk);
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-    const page = await context.newPage();
-    await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
-    await page.goto(`${ts.baseUrl}/field/sessions/new`);
+    const { context, page } = await h.open(team.members.tester.email);
+    await page.goto(`${h.ts.baseUrl}/field/sessions/new`);
     const vehicle = page.getByLabel('Vehicle', { exact: true });
     await vehicle.locator('option', { hasText: 'Test truck' }).waitFor({ state: 'attached' });
 

@@ -2,27 +2,16 @@
 // writes is stored exactly; anything else is refused beside the field and never stored as
 // something else; the ± key types the minus a decimal keypad lacks; Enter walks the readings in
 // order; focus selects; an implausible value waits for the tester to confirm it.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { browserHarness } from '../support/browser';
 import { settled, testerOnPose, typeInto } from '../support/field-entry';
 import { PoseModel, ReadingModel } from '../../server/models';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('typing readings', () => {
   it('stores what the trade writes exactly and refuses the rest beside the field, never a prefix of it', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Typing workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(h, 'Typing workshop');
 
     // Millimetres: a comma decimal is a decimal; letters are refused, whatever came before them.
     await typeInto(page, 'A fore-aft', '92,5');
@@ -64,7 +53,7 @@ describe('typing readings', () => {
   });
 
   it('types a minus with the ± key on a phone, and walks the readings with Enter', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Sign workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(h, 'Sign workshop');
 
     // The ± key of A lateral: big enough for a gloved thumb, and it keeps the field's focus.
     const lateral = page.getByLabel('A lateral');
@@ -116,7 +105,7 @@ describe('typing readings', () => {
   });
 
   it('holds an implausible value back until the tester keeps it', async () => {
-    const { poseId, pointIds, context, page } = await testerOnPose(ts, browser, 'Doubt workshop');
+    const { poseId, pointIds, context, page } = await testerOnPose(h, 'Doubt workshop');
 
     // The test truck's nominal gap is 90 mm: a raw gap of 900 is a slipped digit, or it is real.
     await typeInto(page, 'B fore-aft', '900');

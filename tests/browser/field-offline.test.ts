@@ -1,40 +1,27 @@
 // A whole field session offline on a phone-sized screen, then sync: everything typed survives a
 // reload while offline (served by the service worker), and arrives intact in PostgreSQL and on disk.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import path from 'node:path';
 import sharp from 'sharp';
-import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, screenshotDir } from '../support/browser';
+import { createTeam, signedInAgent } from '../support/test-app';
+import { screenshotDir, browserHarness } from '../support/browser';
 import { vehicleWithPoints } from '../support/sync';
 import { PhotoModel, PoseModel, ReadingModel, TestSessionModel } from '../../server/models';
 import { storedPhotoBytes } from '../support/photos';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('field recorder offline', () => {
   it('records a session offline, keeps it through a reload, and syncs it all when back online', async () => {
     const team = await createTeam('Offline workshop');
-    const setup = await signedInAgent(ts, team.members.tester.email);
+    const setup = await signedInAgent(h.ts, team.members.tester.email);
     const { pointIds } = await vehicleWithPoints(setup, ['A', 'B', 'C', 'D']);
     const vehicleName = 'Test truck';
 
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-    const page = await context.newPage();
-    await page.goto(ts.baseUrl + '/');
+    const { context, page } = await h.open();
+    await page.goto(h.ts.baseUrl + '/');
     await page.waitForURL('**/sign-in');
-    await page.getByLabel('E-mail').fill(team.members.tester.email);
-    await page.getByLabel('Password').fill(TEST_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await h.signIn(page, team.members.tester.email);
     await page.waitForURL('**/field');
     // The service worker installs on this first load and controls the page after a reload.
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));

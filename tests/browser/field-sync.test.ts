@@ -1,31 +1,21 @@
 // Sync as a tester meets it on one phone, online: edits between syncs never conflict with the
 // phone's own earlier edits, and the bar says "All saved on the server" only when it is true.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { createTeam } from '../support/test-app';
+import { browserHarness } from '../support/browser';
 import { allSaved, barText, fieldSession, openConflicts, openPhone } from '../support/field-phone';
 import { signedInAgent } from '../support/test-app';
 import { batchKey, change, pushAccepted } from '../support/sync';
 import { newGaugePoint } from '../../shared/records';
 import { GaugePointModel, PoseModel, ReadingModel } from '../../server/models';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('one phone, online', () => {
   it('names a pose, syncs, types a note, syncs, renames it, syncs: no conflict with itself', async () => {
     const team = await createTeam('One-phone workshop');
-    const f = await fieldSession(ts, team);
-    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
+    const f = await fieldSession(h.ts, team);
+    const { context, page } = await openPhone(h, team.members.tester.email);
     await page.goto(f.poseUrl(f.levelPoseId));
     const stored = async () => (await PoseModel.findByPk(f.levelPoseId))?.get({ plain: true });
 
@@ -42,7 +32,7 @@ describe('one phone, online', () => {
     await allSaved(page);
 
     expect(await stored()).toMatchObject({ label: 'Level, tyres warm', notes: 'Chocks at the rear wheels' });
-    expect(await openConflicts(ts, team.teamId)).toBe(0);
+    expect(await openConflicts(h.ts, team.teamId)).toBe(0);
     expect(await barText(page)).toBe('All saved on the server');
     expect(await page.getByText(/conflict/).count()).toBe(0);
     await context.close();
@@ -50,8 +40,8 @@ describe('one phone, online', () => {
 
   it('shows a real conflict with another device in the trade\'s words, and keeps this phone\'s value once', async () => {
     const team = await createTeam('Conflict workshop');
-    const f = await fieldSession(ts, team);
-    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
+    const f = await fieldSession(h.ts, team);
+    const { context, page } = await openPhone(h, team.members.tester.email);
     await page.goto(f.poseUrl(f.levelPoseId));
     await page.getByLabel('Pose name').waitFor();
 
@@ -60,7 +50,7 @@ describe('one phone, online', () => {
     await page.getByRole('button', { name: /wheel front right$/ }).click();
     await page.keyboard.type('410', { delay: 60 });
     // …while the engineer renames the same pose at the desk.
-    const desk = await signedInAgent(ts, team.members.engineer.email);
+    const desk = await signedInAgent(h.ts, team.members.engineer.email);
     const p = (await PoseModel.findByPk(f.levelPoseId))!;
     const deskRecord = {
       id: p.id, version: p.version, sessionId: p.sessionId, seq: p.seq, label: 'Level (desk)', kind: p.kind, liftFlMm: p.liftFlMm, liftFrMm: p.liftFrMm, liftRlMm: p.liftRlMm,
@@ -78,15 +68,15 @@ describe('one phone, online', () => {
     await page.getByText('No conflicts.').waitFor();
     await allSaved(page);
     expect(await PoseModel.findByPk(f.levelPoseId)).toMatchObject({ liftFrMm: 410, label: 'Pose 1', version: 3 });
-    expect(await openConflicts(ts, team.teamId)).toBe(0);
+    expect(await openConflicts(h.ts, team.teamId)).toBe(0);
     await context.close();
   });
 
   it('holds back a gauge point the server refuses, sends everything else, and sends the point once the tester renames it', async () => {
     const team = await createTeam('Held workshop');
-    const f = await fieldSession(ts, team, ['A', 'B']);
-    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
-    await page.goto(`${ts.baseUrl}/field/vehicles/${f.vehicleId}`);
+    const f = await fieldSession(h.ts, team, ['A', 'B']);
+    const { context, page } = await openPhone(h, team.members.tester.email);
+    await page.goto(`${h.ts.baseUrl}/field/vehicles/${f.vehicleId}`);
     await page.getByLabel('Opening drawing: tap to place a gauge point').waitFor();
 
     // Offline, the tester places a third point (it gets the next free label, C)…
@@ -94,7 +84,7 @@ describe('one phone, online', () => {
     await page.getByLabel('Opening drawing: tap to place a gauge point').click({ position: { x: 60, y: 60 } });
     await page.getByRole('button', { name: 'Remove point C' }).waitFor();
     // …while the desk places its own point C on the same vehicle.
-    const desk = await signedInAgent(ts, team.members.engineer.email);
+    const desk = await signedInAgent(h.ts, team.members.engineer.email);
     await pushAccepted(desk, [change('gaugePoint', newGaugePoint({ vehicleId: f.vehicleId, label: 'C', yMm: 0, zMm: 600 }))]);
 
     await context.setOffline(false);

@@ -5,28 +5,18 @@
 // the bar says "All saved on the server", PostgreSQL holds exactly what was typed; at the end it
 // does, with no conflict kept. TORTURE_SEED=<n> replays another seed; a failure prints its seed
 // and the last actions.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { readingDoubt, liftDoubt } from '@/features/poses/plausible';
-import { clientDir, createTeam, startTestServer, type TestServer } from '../support/test-app';
+import { createTeam, type TestServer } from '../support/test-app';
 import { vehicleRecord } from '../support/sync';
-import { launchBrowser } from '../support/browser';
+import { browserHarness } from '../support/browser';
 import { barText, fieldSession, openConflicts, openPhone, type FieldSession } from '../support/field-phone';
 
 const SEED = Number(process.env.TORTURE_SEED ?? 20261211);
 const ROUNDS = 20;
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 /** mulberry32: a small seeded generator, so every run types the same keys at the same pace. */
 function generator(seed: number) {
@@ -82,8 +72,8 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
   it(`keeps every keystroke and tells the truth (seed ${SEED}, ${ROUNDS} rounds)`, async () => {
     const rnd = generator(SEED);
     const team = await createTeam('Torture workshop');
-    const f = await fieldSession(ts, team);
-    const { context, page } = await openPhone(browser, ts, team.members.tester.email);
+    const f = await fieldSession(h.ts, team);
+    const { context, page } = await openPhone(h, team.members.tester.email);
     const typed = new Map<string, TypedPose>();
     typed.set(f.levelPoseId, { label: 'Pose 1', notes: '', lifts: { liftFlMm: 0, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0 }, readings: new Map() });
     const log: string[] = [];
@@ -249,7 +239,7 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
         expect(await page.getByText(/conflicts? to resolve/).count(), 'a conflict on one phone').toBe(0);
         if (bar.includes('All saved on the server')) {
           allSavedChecks += 1;
-          expect(await serverHolds(ts, f), `the bar said "${bar}"`).toEqual(expectedOnServer(typed));
+          expect(await serverHolds(h.ts, f), `the bar said "${bar}"`).toEqual(expectedOnServer(typed));
         }
       };
 
@@ -264,6 +254,7 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
           const label = await page.getByLabel('Pose name').inputValue();
           typed.set(current, { label, notes: '', lifts: { liftFlMm: 0, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0 }, readings: new Map() });
           say(`new pose ${current.slice(0, 8)} "${label}"`);
+        // eslint-disable-next-line no-dupe-else-if -- each rnd.chance() is a new draw, not the same condition
         } else if (typed.size > 1 && rnd.chance(0.3)) {
           const other = rnd.pick([...typed.keys()].filter((id) => id !== current));
           say(`open pose ${other.slice(0, 8)}`);
@@ -288,8 +279,8 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
       if (offline) await context.setOffline(false);
       await page.getByTestId('sync-pending').getByText('All saved on the server').waitFor({ timeout: 60_000 });
       await barTellsTruth();
-      expect(await serverHolds(ts, f)).toEqual(expectedOnServer(typed));
-      expect(await openConflicts(ts, team.teamId)).toBe(0);
+      expect(await serverHolds(h.ts, f)).toEqual(expectedOnServer(typed));
+      expect(await openConflicts(h.ts, team.teamId)).toBe(0);
       await page.reload();
       await page.getByLabel('Pose name').waitFor();
       await screenShowsTyped();
@@ -307,11 +298,11 @@ type ServerPose = { label: string; notes: string; lifts: Record<LiftKey, number>
 
 /** What PostgreSQL holds for the session: live poses and readings. */
 async function serverHolds(ts: TestServer, f: FieldSession): Promise<Record<string, ServerPose>> {
-  const poses = await ts.sequelize.query<{ id: string; label: string; notes: string; lift_fl_mm: number; lift_fr_mm: number; lift_rl_mm: number; lift_rr_mm: number }>(
+  const poses = await h.ts.sequelize.query<{ id: string; label: string; notes: string; lift_fl_mm: number; lift_fr_mm: number; lift_rl_mm: number; lift_rr_mm: number }>(
     'SELECT id, label, notes, lift_fl_mm, lift_fr_mm, lift_rl_mm, lift_rr_mm FROM poses WHERE session_id = $1 AND deleted_at IS NULL',
     { bind: [f.sessionId], type: QueryTypes.SELECT },
   );
-  const readings = await ts.sequelize.query<{ pose_id: string; gauge_point_id: string; axis: string; value_mm: number }>(
+  const readings = await h.ts.sequelize.query<{ pose_id: string; gauge_point_id: string; axis: string; value_mm: number }>(
     'SELECT r.pose_id, r.gauge_point_id, r.axis, r.value_mm FROM readings r JOIN poses p ON p.id = r.pose_id WHERE p.session_id = $1 AND r.deleted_at IS NULL',
     { bind: [f.sessionId], type: QueryTypes.SELECT },
   );

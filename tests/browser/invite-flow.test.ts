@@ -1,30 +1,20 @@
 // The newcomer's path in a real browser, e-mail included: sign up a workshop, follow the
 // confirmation link from the development mailbox, invite a teammate as a tester, follow the
 // invitation from the mailbox, join, and sign in again as that teammate with the tester's role.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
-import type { Browser, Page } from 'playwright-core';
-import { clientDir, startTestServer, type TestServer } from '../support/test-app';
-import { launchBrowser, screenshotDir } from '../support/browser';
+import type { Page } from 'playwright-core';
+import { screenshotDir, browserHarness } from '../support/browser';
 import { waitForMail } from '../support/mail';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 const shot = (page: Page, name: string) => page.screenshot({ path: path.join(screenshotDir(), `invite-flow-${name}.png`), fullPage: true });
 
 /** A phone as a person holds it: the "works offline now" notice is dismissed when it shows up. */
 async function newPhone(): Promise<Page> {
-  const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+  const page = await h.browser.newPage({ viewport: { width: 390, height: 844 } });
   const notice = page.getByRole('status').filter({ hasText: 'works offline on this device' });
   await page.addLocatorHandler(notice, async () => {
     await notice.getByRole('button', { name: 'OK' }).click();
@@ -34,8 +24,8 @@ async function newPhone(): Promise<Page> {
 
 /** Open the mailbox page and follow the link of the newest message to `to` whose subject matches. */
 async function followFromMailbox(page: Page, to: string, subject: RegExp, linkPath: string) {
-  await waitForMail(ts, to, subject);
-  await page.goto(`${ts.baseUrl}/dev/mailbox`);
+  await waitForMail(h.ts, to, subject);
+  await page.goto(`${h.ts.baseUrl}/dev/mailbox`);
   const message = page.locator('li').filter({ hasText: to }).filter({ has: page.locator('h2', { hasText: subject }) }).first();
   await message.waitFor();
   await message.getByRole('link', { name: new RegExp(linkPath) }).click();
@@ -50,7 +40,7 @@ describe('a newcomer', () => {
     const page = await newPhone();
 
     // Sign up from the sign-in page.
-    await page.goto(`${ts.baseUrl}/sign-in`);
+    await page.goto(`${h.ts.baseUrl}/sign-in`);
     await page.getByRole('link', { name: 'New workshop? Create an account' }).click();
     await page.getByLabel('Workshop name').fill('Quarry Lane Campers');
     await page.getByLabel('Your name').fill('Bram Oakes');
@@ -60,7 +50,7 @@ describe('a newcomer', () => {
     await page.getByRole('button', { name: 'Create workshop' }).click();
     await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
     await shot(page, '2-check-mail');
-    await waitForMail(ts, founder.email, /Confirm your e-mail/);
+    await waitForMail(h.ts, founder.email, /Confirm your e-mail/);
 
     // The mailbox page is linked from there; follow the confirmation link.
     await page.getByRole('link', { name: 'open the development mailbox' }).click();
@@ -80,7 +70,7 @@ describe('a newcomer', () => {
     await page.getByText(`Invitation sent to ${teammate.email}`).waitFor();
     await page.getByRole('button', { name: `Revoke the invitation of ${teammate.email}` }).waitFor();
     await shot(page, '4-team');
-    await waitForMail(ts, teammate.email, /invited you/);
+    await waitForMail(h.ts, teammate.email, /invited you/);
 
     // The founder signs out; the teammate follows the invitation from the mailbox.
     await page.getByRole('button', { name: 'Sign out' }).click();
@@ -125,7 +115,7 @@ describe('a newcomer', () => {
     const email = `forgetful-${tag}@camper.test`;
     const page = await newPhone();
     // An account made through sign-up in the API, to keep this test about the reset screens.
-    await page.goto(`${ts.baseUrl}/sign-up`);
+    await page.goto(`${h.ts.baseUrl}/sign-up`);
     await page.getByLabel('Workshop name').fill('Reset Works');
     await page.getByLabel('Your name').fill('Ivo Penn');
     await page.getByLabel('E-mail').fill(email);
@@ -142,7 +132,7 @@ describe('a newcomer', () => {
     await page.getByLabel('E-mail').fill(email);
     await page.getByRole('button', { name: 'Send reset link' }).click();
     await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
-    await waitForMail(ts, email, /Reset your Twistlog password/);
+    await waitForMail(h.ts, email, /Reset your Twistlog password/);
     await followFromMailbox(page, email, /Reset your Twistlog password/, '/reset-password/');
     await page.getByLabel('New password', { exact: true }).fill('second passphrase here');
     await page.getByLabel('Repeat the new password').fill('second passphrase here');

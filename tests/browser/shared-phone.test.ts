@@ -1,32 +1,22 @@
 // One phone, two accounts: records one person left unsent are never shown to, nor sent under,
 // the next person who signs in; that person can sign out again or discard them.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { clientDir, createTeam, signedInAgent, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-app';
-import { launchBrowser, signInAs } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { createTeam, signedInAgent } from '../support/test-app';
+import { browserHarness } from '../support/browser';
 import { vehicleWithPoints } from '../support/sync';
 import { TestSessionModel } from '../../server/models';
 
-let ts: TestServer;
-let browser: Browser;
-beforeAll(async () => {
-  ts = await startTestServer({ clientDir });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await ts?.close();
-});
+const h = browserHarness();
 
 describe('a phone shared by two accounts', () => {
   it("keeps one account's unsent records away from the next, until discarded on purpose", async () => {
     const first = await createTeam('First workshop');
     const second = await createTeam('Second workshop');
-    await vehicleWithPoints(await signedInAgent(ts, first.members.tester.email), ['A', 'B']);
+    await vehicleWithPoints(await signedInAgent(h.ts, first.members.tester.email), ['A', 'B']);
 
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+    const context = await h.browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
     const page = await context.newPage();
-    const signIn = (email: string) => signInAs(page, ts.baseUrl, email, TEST_PASSWORD);
+    const signIn = (email: string) => h.signIn(page, email);
 
     // The first tester records a session while pushes fail: it stays on the phone, unsent.
     await signIn(first.members.tester.email);
@@ -57,7 +47,7 @@ describe('a phone shared by two accounts', () => {
     page.once('dialog', (d) => void d.accept());
     await page.getByRole('button', { name: 'Discard them' }).click();
     await page.getByText('All saved on the server').waitFor();
-    await page.goto(ts.baseUrl + '/field');
+    await page.goto(h.ts.baseUrl + '/field');
     await page.getByRole('link', { name: 'Start a session' }).waitFor();
     expect(await page.getByText('Unsent yard test').count()).toBe(0);
     expect(await TestSessionModel.count({ where: { id: sessionId } })).toBe(0);

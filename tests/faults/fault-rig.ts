@@ -6,7 +6,7 @@ import net from 'node:net';
 import path from 'node:path';
 import { ApiError } from '@/lib/api-client';
 import { pullResponse, type PushRequest, type PushResponse } from '@shared/schemas/sync';
-import type { SyncTransport } from '@/sync/transport';
+import type { SyncTransport } from '@/features/sync/api/transport';
 import { ensureDatabase, startCluster, stopClusterNow, type Cluster } from '../../server/scripts/system.mjs';
 import { repoRoot } from '../support/test-app';
 

@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { FieldDb } from '@/lib/db/field-db';
 import { saveRecords } from '@/lib/db/records';
-import { runSync } from '@/sync/sync-run';
+import { runSync } from '@/features/sync/engine/sync-run';
 import { createSequelize } from '../../server/db';
 import { initModels } from '../../server/models';
 import { migrate } from '../../server/migrate';

@@ -1,12 +1,10 @@
 // A tester on a phone (390 × 844, touch) in a session the phone pulls at once: the start of the
 // field-entry browser tests. The session, its level pose and a second pose are pushed as a phone
 // would push them, then the browser signs in and opens the second pose.
-import type { Browser, Page } from 'playwright-core';
-import { createTeam, signedInAgent, TEST_PASSWORD, type Agent, type TestServer } from './test-app';
-import { signInAs } from './browser';
+import type { Page } from 'playwright-core';
+import { createTeam, signedInAgent, type Agent } from './test-app';
+import type { BrowserHarness } from './browser';
 import { batchKey, change, poseRecord, sessionRecord, vehicleWithPoints } from './sync';
-
-export const PHONE = { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true };
 
 /** A session with a level pose and one pose with wheels, pushed as a phone would, for the browser to pull. */
 export async function sessionWithPoses(agent: Agent, readingMode: 'gap' | 'displacement' = 'gap') {
@@ -20,14 +18,12 @@ export async function sessionWithPoses(agent: Agent, readingMode: 'gap' | 'displ
 }
 
 /** A tester of a new team on a phone, on the second pose of a session the phone pulls at once. */
-export async function testerOnPose(ts: TestServer, browser: Browser, teamName: string) {
+export async function testerOnPose(h: BrowserHarness, teamName: string) {
   const team = await createTeam(teamName);
-  const agent = await signedInAgent(ts, team.members.tester.email);
+  const agent = await signedInAgent(h.ts, team.members.tester.email);
   const ids = await sessionWithPoses(agent);
-  const context = await browser.newContext(PHONE);
-  const page = await context.newPage();
-  await signInAs(page, ts.baseUrl, team.members.tester.email, TEST_PASSWORD);
-  await page.goto(`${ts.baseUrl}/field/sessions/${ids.sessionId}/poses/${ids.poseId}`);
+  const { context, page } = await h.open(team.members.tester.email);
+  await page.goto(`${h.ts.baseUrl}/field/sessions/${ids.sessionId}/poses/${ids.poseId}`);
   await page.getByLabel('Pose name').waitFor();
   return { ...ids, team, agent, context, page };
 }

@@ -2,11 +2,11 @@
 // with the app's service worker installed (so it reloads offline), and a session with its level
 // pose already on the server (pushed by the same tester, as another of their phones would), so a
 // test starts in the pose recorder without depending on the start-a-session screens.
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { signInAs } from './browser';
+import type { BrowserHarness } from './browser';
 import { batchKey, change, poseRecord, sessionRecord, vehicleWithPoints } from './sync';
-import { signedInAgent, TEST_PASSWORD, type TestServer, type TestTeam } from './test-app';
+import { signedInAgent, type TestServer, type TestTeam } from './test-app';
 
 export interface Phone {
   context: BrowserContext;
@@ -14,10 +14,8 @@ export interface Phone {
 }
 
 /** A phone signed in as `email`, its first pull done and the service worker in control. */
-export async function openPhone(browser: Browser, ts: TestServer, email: string): Promise<Phone> {
-  const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-  const page = await context.newPage();
-  await signInAs(page, ts.baseUrl, email, TEST_PASSWORD);
+export async function openPhone(h: BrowserHarness, email: string): Promise<Phone> {
+  const { context, page } = await h.open(email);
   await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
   await page.reload();
   await page.waitForFunction(() => !!navigator.serviceWorker.controller);

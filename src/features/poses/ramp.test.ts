@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { pose as poseSchema } from '@shared/schemas';
-import { nextPose } from '@/features/field/pose-actions';
+import { nextPose } from '@/lib/field/pose-actions';
 import { rampPatch } from './ramp';
 
 const none = { rampAngleDeg: 20, rampDistanceMm: 0, rampWheel: null };

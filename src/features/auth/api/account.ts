@@ -1,7 +1,7 @@
 // The account calls: sign-up and its confirmation, password reset and change, sign out of all
 // devices, the person's own settings, and the invitee's side of an invitation. Inputs are the
 // shared schemas the server validates with.
-import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { Me } from '@shared/schemas';
 import type {
   AcceptInvitationInput,
@@ -12,12 +12,12 @@ import type {
   UpdateMeInput,
 } from '@shared/schemas/account';
 import { api } from '@/lib/api-client';
-import { meKeys } from './get-me';
+import { meQuery } from '@/lib/auth/get-me';
 
 /** A new person is signed in on this phone: nothing cached for the last one may show. */
 async function startFresh(qc: QueryClient) {
   qc.clear();
-  await qc.invalidateQueries({ queryKey: meKeys.all });
+  await qc.invalidateQueries({ queryKey: meQuery().queryKey });
 }
 
 export const signUp = (input: SignUpInput) => api<CheckYourMail>('/api/auth/sign-up', { method: 'POST', body: input });
@@ -58,23 +58,22 @@ export function useUpdateMe() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (input: UpdateMeInput) => api<Me>('/api/me', { method: 'PATCH', body: input }),
-    onSuccess: (me) => qc.setQueryData(meKeys.all, me),
+    onSuccess: (me) => qc.setQueryData(meQuery().queryKey, me),
   });
 }
 
-export const invitationKeys = { preview: (token: string) => ['invitation-preview', token] as const };
-
 /** What an invitation link offers; not kept in the offline cache. */
-export function useInvitationPreview(token: string) {
-  return useQuery({
-    queryKey: invitationKeys.preview(token),
+export const invitationPreviewQuery = (token: string) =>
+  queryOptions({
+    queryKey: ['invitation-preview', token],
     queryFn: () => api<InvitationPreview>('/api/invitations/preview', { method: 'POST', body: { token } }),
     gcTime: 0,
     staleTime: Infinity,
     retry: false,
     networkMode: 'online',
   });
-}
+
+export const useInvitationPreview = (token: string) => useQuery(invitationPreviewQuery(token));
 
 export function useAcceptInvitation() {
   const qc = useQueryClient();

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { signInInput, type SignInInput } from '@shared/schemas';
 import { api } from '@/lib/api-client';
-import { meKeys } from './get-me';
+import { meQuery } from '@/lib/auth/get-me';
 
 export { signInInput };
 export type { SignInInput };
@@ -15,7 +15,7 @@ export function useSignIn() {
     // Another person may sign in on this phone: nothing cached for the last one may show.
     onSuccess: async () => {
       qc.clear();
-      await qc.invalidateQueries({ queryKey: meKeys.all });
+      await qc.invalidateQueries({ queryKey: meQuery().queryKey });
     },
   });
 }

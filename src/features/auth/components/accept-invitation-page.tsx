@@ -2,8 +2,9 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { newPassword, personName } from '@shared/schemas/account';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account';
-import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from './form-bits';
-import { roleSummary } from '@/features/team/roles';
+import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from '@/components/form-bits';
+import { roleTable } from '@shared/permissions';
+import { pathTo } from '@/paths';
 
 /** /invite/:token — join a workshop: a new person chooses a name and password. */
 export function AcceptInvitationPage() {
@@ -22,7 +23,7 @@ export function AcceptInvitationPage() {
   }
   if (preview.isError) {
     return (
-      <AuthFrame title="Join a workshop" footer={<Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Go to sign in</Link>}>
+      <AuthFrame title="Join a workshop" footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Go to sign in</Link>}>
         <ErrorBanner>{preview.error.message}</ErrorBanner>
         <p>Ask the workshop’s admin to invite you again.</p>
       </AuthFrame>
@@ -47,7 +48,7 @@ export function AcceptInvitationPage() {
     if (Object.keys(next).length) return;
     accept.mutate(
       { token, name, password },
-      { onSuccess: () => navigate('/', { replace: true }), onError: (err) => setErrors(fieldErrors(err)) },
+      { onSuccess: () => navigate(pathTo('home'), { replace: true }), onError: (err) => setErrors(fieldErrors(err)) },
     );
   }
 
@@ -55,7 +56,7 @@ export function AcceptInvitationPage() {
     <AuthFrame title={`Join ${inv.teamName}`}>
       <p>
         {inv.invitedByName ? `${inv.invitedByName} invited you` : 'You are invited'} to join <strong>{inv.teamName}</strong> on Twistlog
-        as <strong>{inv.role}</strong>: {roleSummary[inv.role]}
+        as <strong>{inv.role}</strong>: {roleTable[inv.role].summary}
       </p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="E-mail" name="email" type="email" defaultValue={inv.email} readOnly autoComplete="username" />

@@ -2,9 +2,10 @@ import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import type { UnitSystem } from '@shared/schemas';
 import { changePasswordInput } from '@shared/schemas/account';
-import { useMe } from '../api/get-me';
+import { useMe } from '@/lib/auth/get-me';
 import { useChangePassword, useSignOutEverywhere, useUpdateMe } from '../api/account';
-import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { pathTo } from '@/paths';
 
 /** The signed-in person's own page: units, password, signing out of every device. */
 export function AccountPage() {
@@ -118,7 +119,7 @@ function SignOutEverywhereSection() {
         type="button"
         className="btn w-full border-alert text-alert"
         disabled={signOutAll.isPending}
-        onClick={() => signOutAll.mutate(undefined, { onSuccess: () => navigate('/sign-in', { replace: true }) })}
+        onClick={() => signOutAll.mutate(undefined, { onSuccess: () => navigate(pathTo('signIn'), { replace: true }) })}
       >
         Sign out of all devices
       </button>

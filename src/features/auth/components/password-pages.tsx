@@ -2,9 +2,10 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { emailAddress, newPassword } from '@shared/schemas/account';
 import { useRequestPasswordReset, useResetPassword } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { pathTo } from '@/paths';
 
-const backToSignIn = <Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Back to sign in</Link>;
+const backToSignIn = <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Back to sign in</Link>;
 
 /** Ask for a reset link. The answer is the same whether or not the address has an account. */
 export function ForgotPasswordPage() {
@@ -79,7 +80,7 @@ export function ResetPasswordPage() {
         <ErrorBanner>{bannerText(reset.error, errors)}</ErrorBanner>
         {reset.error && !Object.keys(errors).length && (
           <p>
-            <Link to="/forgot-password" className="font-bold underline">Ask for a new link</Link>
+            <Link to={pathTo('forgotPassword')} className="font-bold underline">Ask for a new link</Link>
           </p>
         )}
         <button type="submit" className="btn-primary w-full" disabled={reset.isPending}>

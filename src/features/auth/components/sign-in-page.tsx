@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { signInInput, useSignIn } from '../api/sign-in';
+import { pathTo } from '@/paths';
 
 export function SignInPage() {
   const signIn = useSignIn();
@@ -16,7 +17,7 @@ export function SignInPage() {
       return;
     }
     setError(null);
-    signIn.mutate(parsed.data, { onSuccess: () => navigate('/') });
+    signIn.mutate(parsed.data, { onSuccess: () => navigate(pathTo('home')) });
   }
 
   return (
@@ -41,8 +42,8 @@ export function SignInPage() {
         </button>
       </form>
       <nav aria-label="Account" className="mt-4 flex flex-col gap-1">
-        <Link to="/forgot-password" className="inline-flex min-h-touch items-center font-bold underline">Forgot your password?</Link>
-        <Link to="/sign-up" className="inline-flex min-h-touch items-center font-bold underline">New workshop? Create an account</Link>
+        <Link to={pathTo('forgotPassword')} className="inline-flex min-h-touch items-center font-bold underline">Forgot your password?</Link>
+        <Link to={pathTo('signUp')} className="inline-flex min-h-touch items-center font-bold underline">New workshop? Create an account</Link>
       </nav>
     </div>
   );

@@ -2,7 +2,8 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { signUpInput } from '@shared/schemas/account';
 import { useConfirmSignUp, useSignUp } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from './form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { pathTo } from '@/paths';
 
 /** Create a workshop and become its first admin: confirmed by the link in an e-mail. */
 export function SignUpPage() {
@@ -39,7 +40,7 @@ export function SignUpPage() {
   return (
     <AuthFrame
       title="Create your workshop"
-      footer={<Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Have an account? Sign in</Link>}
+      footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Have an account? Sign in</Link>}
     >
       <p>You become the workshop’s admin and can then invite your engineers, testers and viewers.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
@@ -64,20 +65,20 @@ export function ConfirmSignUpPage() {
   return (
     <AuthFrame
       title="Create your workshop"
-      footer={<Link to="/sign-in" className="inline-flex min-h-touch items-center font-bold underline">Sign in instead</Link>}
+      footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Sign in instead</Link>}
     >
       <p>Your e-mail address is confirmed by this link. Create the workshop now, with you as its admin.</p>
       <ErrorBanner>{confirm.error?.message}</ErrorBanner>
       {confirm.isError && (
         <p>
-          <Link to="/sign-up" className="font-bold underline">Sign up again</Link> for a new link.
+          <Link to={pathTo('signUp')} className="font-bold underline">Sign up again</Link> for a new link.
         </p>
       )}
       <button
         type="button"
         className="btn-primary w-full"
         disabled={confirm.isPending || confirm.isSuccess}
-        onClick={() => confirm.mutate(token, { onSuccess: () => navigate('/', { replace: true }) })}
+        onClick={() => confirm.mutate(token, { onSuccess: () => navigate(pathTo('home'), { replace: true }) })}
       >
         {confirm.isPending ? 'Creating…' : 'Create my workshop'}
       </button>

@@ -1,14 +1,14 @@
-import { useQuery } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ComparedSession } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
 
-export const comparisonKeys = {
-  all: ['comparison'] as const,
-  of: (sessionIds: string[]) => [...comparisonKeys.all, [...sessionIds].sort().join(',')] as const,
-};
-
 export const getComparison = (sessionIds: string[]) => api<ComparedSession[]>(`/api/compare?sessionIds=${sessionIds.map(encodeURIComponent).join(',')}`);
 
-export function useComparison(sessionIds: string[]) {
-  return useQuery({ queryKey: comparisonKeys.of(sessionIds), queryFn: () => getComparison(sessionIds), enabled: sessionIds.length > 0 });
-}
+export const comparisonQueries = {
+  all: () => ['comparison'] as const,
+  /** One comparison per set of sessions, whatever order they were picked in. */
+  of: (sessionIds: string[]) =>
+    queryOptions({ queryKey: [...comparisonQueries.all(), [...sessionIds].sort().join(',')], queryFn: () => getComparison(sessionIds), enabled: sessionIds.length > 0 }),
+};
+
+export const useComparison = (sessionIds: string[]) => useQuery(comparisonQueries.of(sessionIds));

@@ -2,8 +2,8 @@ import { lazy, Suspense } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { AXIS_NAMES, formatDegValue, formatLengthValue, formatSlopeValue } from '@shared/format';
-import { useMe } from '@/features/auth/api/get-me';
-import { useSessions } from '@/features/sessions/api/get-sessions';
+import { useMe } from '@/lib/auth/get-me';
+import { useSessions } from '@/lib/api/get-sessions';
 import { useComparison } from '../api/get-comparison';
 
 const CompareChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.CompareChart })));

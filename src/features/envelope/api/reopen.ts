@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { EnvelopeRecord } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
-import { envelopeKeys } from './get-envelopes';
+import { envelopeQueries } from './get-envelopes';
 
 /** A new draft revision with a signed revision's parameters; the signed one stays signed. */
 export const reopenEnvelope = (id: string) => api<EnvelopeRecord>(`/api/envelopes/${id}/reopen`, { method: 'POST' });
@@ -10,6 +10,6 @@ export function useReopenEnvelope() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: reopenEnvelope,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeKeys.all }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeQueries.all() }),
   });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SendSheetInput } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
-import { envelopeKeys } from './get-envelopes';
+import { envelopeQueries } from './get-envelopes';
 
 export const sendSheet = (id: string, input: SendSheetInput) =>
   api<{ id: string; toEmail: string }>(`/api/envelopes/${id}/send`, { method: 'POST', body: input });
@@ -10,6 +10,6 @@ export function useSendSheet(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: SendSheetInput) => sendSheet(id, input),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeKeys.detail(id) }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeQueries.detail(id).queryKey }),
   });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { EnvelopeRecord, SignOffInput } from '@shared/schemas/envelope';
 import { api } from '@/lib/api-client';
-import { envelopeKeys } from './get-envelopes';
+import { envelopeQueries } from './get-envelopes';
 
 /**
  * The server computes and freezes the snapshot from its own copy of the readings; every reading it
@@ -13,6 +13,6 @@ export function useSignOff() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, ...input }: SignOffInput & { id: string }) => signOff(id, input),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeKeys.all }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: envelopeQueries.all() }),
   });
 }

@@ -2,7 +2,8 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { formatDeg, formatLength, formatPercent, formatTimestamp } from '@shared/format';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { Can, useCan } from '@/lib/auth/can';
 import { useEnvelope } from '../api/get-envelopes';
 import { useReopenEnvelope } from '../api/reopen';
 import { EnvelopeResults } from './envelope-results';
@@ -11,6 +12,7 @@ import { RevisionState } from './revision-state';
 import { revisionName } from '@shared/revision-name';
 import { OptionsTable } from './pass-through-options';
 import { OPTION_NAMES } from '@shared/pass-through-rows';
+import { pathTo } from '@/paths';
 
 /** One envelope revision: the frozen snapshot, its hash check, the sheet and CSV, sending, re-opening. */
 export function EnvelopePage() {
@@ -19,9 +21,8 @@ export function EnvelopePage() {
   const me = useMe();
   const reopen = useReopenEnvelope();
   const navigate = useNavigate();
-  const role = me.data?.role;
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  const isDesigner = role === 'engineer' || role === 'admin';
+  const can = useCan();
   return (
     <QueryState query={envelope}>
       {(e) => {
@@ -35,10 +36,10 @@ export function EnvelopePage() {
               </h1>
               <p>
                 Envelope of the session of {e.testedOn} · <RevisionState status={e.status} />
-                {role !== 'viewer' && (
+                {can('session.read') && (
                   <>
                     {' '}
-                    · <Link className="underline" to={`/desk/sessions/${e.sessionId}`}>back to the session</Link>
+                    · <Link className="underline" to={pathTo('deskSession', { id: e.sessionId })}>back to the session</Link>
                   </>
                 )}
               </p>
@@ -79,14 +80,18 @@ export function EnvelopePage() {
                   <a className="btn" href={`/api/envelopes/${e.id}/envelope.csv?unit=${unit}`} download>
                     Envelope (CSV)
                   </a>
-                  {isDesigner && e.status === 'signed' && (
-                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate(`/desk/sessions/${e.sessionId}?section=envelope`) })}>
+                  {can('envelope.design') && e.status === 'signed' && (
+                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate({ pathname: pathTo('deskSession', { id: e.sessionId }), search: '?section=envelope' }) })}>
                       Re-open as revision {e.revision + 1}
                     </button>
                   )}
                 </p>
                 {reopen.isError && <p role="alert" className="text-alert">{reopen.error.message}</p>}
-                {isDesigner && e.status === 'signed' && <SendSheetForm envelopeId={e.id} />}
+                {e.status === 'signed' && (
+                  <Can action="envelope.send">
+                    <SendSheetForm envelopeId={e.id} />
+                  </Can>
+                )}
                 {e.sends.length > 0 && (
                   <section>
                     <h3 className="font-bold">Sent</h3>

@@ -21,6 +21,7 @@ import { revisionName } from '@shared/revision-name';
 import { PassThroughOptions } from './pass-through-options';
 import { ParamsForm } from './params-form';
 import { fromFormState, toFormState, type ParamsFormState } from './params-form-state';
+import { pathTo } from '@/paths';
 
 const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
 
@@ -54,7 +55,7 @@ export function EnvelopePanel({ data, unit, canDesign, canSign }: Props) {
                 <ul className="space-y-1">
                   {signed.map((e) => (
                     <li key={e.id}>
-                      <Link className="font-bold underline" to={`/desk/envelopes/${e.id}`}>
+                      <Link className="font-bold underline" to={pathTo('envelope', { id: e.id })}>
                         {revisionName(e)}
                       </Link>{' '}
                       <RevisionState status={e.status} /> · signed by {e.signedBy?.name} on {formatTimestamp(e.signedAt!)}
@@ -123,7 +124,7 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
     const version = dirty && params ? (await save.mutateAsync({ id: draft.id, version: draft.version, params })).version : draft.version;
     const acknowledgements = flags.map((f) => ({ readingId: f.readingId, note: kept[f.readingId]?.note ?? '' }));
     const signed = await sign.mutateAsync({ id: draft.id, version, acknowledgements });
-    navigate(`/desk/envelopes/${signed.id}`);
+    navigate(pathTo('envelope', { id: signed.id }));
   };
 
   return (

@@ -4,6 +4,7 @@ import { formatTimestamp } from '@shared/format';
 import { useSignedEnvelopes } from '../api/get-envelopes';
 import { RevisionState } from './revision-state';
 import { revisionName } from '@shared/revision-name';
+import { pathTo } from '@/paths';
 
 /** Every signed-off envelope of the workshop, newest first, with its sheet. */
 export function SignedEnvelopesList() {
@@ -19,7 +20,7 @@ export function SignedEnvelopesList() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((e) => (
                 <li key={e.id} className="card">
-                  <Link className="text-lg font-bold underline" to={`/desk/envelopes/${e.id}`}>
+                  <Link className="text-lg font-bold underline" to={pathTo('envelope', { id: e.id })}>
                     {revisionName(e)}
                   </Link>{' '}
                   <RevisionState status="signed" />

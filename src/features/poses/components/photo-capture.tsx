@@ -3,7 +3,7 @@ import { useSessionPhotos } from '@/lib/db/live';
 import { addPhoto } from '@/lib/db/photos';
 import { shrinkPhoto } from '@/lib/photo-shrink';
 import type { ItemResult } from '@/lib/db/records';
-import { SaveProblems } from '@/features/field/components/save-problems';
+import { SaveProblems } from '@/components/field/save-problems';
 import type { StoredPhoto } from '@/lib/db/field-db';
 
 function Thumb({ photo }: { photo: StoredPhoto }) {

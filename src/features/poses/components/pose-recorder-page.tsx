@@ -4,19 +4,20 @@ import { axes, liftKeyOf, pose as poseSchema, wheels, type Axis, type Pose, type
 import { useLocalSession, type LocalSession } from '@/lib/db/live';
 import { patchRecord, setReadingValue, type ItemResult } from '@/lib/db/records';
 import { useWritesInFlight } from '@/lib/db/writes-in-flight';
-import { LengthInput, limitsOf } from '@/features/field/components/length-input';
-import { AngleInput } from '@/features/field/components/angle-input';
-import { UnitToggle } from '@/features/field/components/unit-toggle';
-import { SaveProblems } from '@/features/field/components/save-problems';
-import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
-import { focusNextEntry } from '@/features/field/entry-order';
-import { addPose, deletePose, nextPose, repeatOf, type DeletedPose } from '@/features/field/pose-actions';
-import { showLength } from '@/features/field/parse-length';
+import { LengthInput, limitsOf } from '@/components/field/length-input';
+import { AngleInput } from '@/components/field/angle-input';
+import { UnitToggle } from '@/components/field/unit-toggle';
+import { SaveProblems } from '@/components/field/save-problems';
+import { useFieldUnit } from '@/lib/field/use-field-unit';
+import { focusNextEntry } from '@/lib/field/entry-order';
+import { addPose, deletePose, nextPose, repeatOf, type DeletedPose } from '@/lib/field/pose-actions';
+import { showLength } from '@/lib/field/parse-length';
 import { TruckTopView, WHEEL_NAMES } from './truck-top-view';
 import { checkPose, PoseCheck } from './pose-check';
 import { PhotoCapture } from './photo-capture';
 import { liftDoubt, readingDoubt } from '../plausible';
 import { rampPatch, USUAL_RAMP_DEG, type RampState } from '../ramp';
+import { pathTo } from '@/paths';
 
 const axisLabel: Record<Axis, string> = { foreAft: 'fore-aft', lateral: 'lateral', vertical: 'vertical' };
 const RAMP_LIMITS = limitsOf(poseSchema.shape.rampDistanceMm.unwrap());
@@ -77,23 +78,23 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
   const later = poses.find((p) => p.seq > pose.seq);
 
   const goNext = async () => {
-    if (later) return navigate(`/field/sessions/${session.id}/poses/${later.id}`);
+    if (later) return navigate(pathTo('fieldPose', { id: session.id, poseId: later.id }));
     const next = nextPose(session.id, poses);
     const result = await addPose(next);
-    if (result.ok) navigate(`/field/sessions/${session.id}/poses/${next.id}`);
+    if (result.ok) navigate(pathTo('fieldPose', { id: session.id, poseId: next.id }));
     else report(result);
   };
   const repeat = async () => {
     const again = repeatOf(pose, poses);
     const result = await addPose(again);
-    if (result.ok) navigate(`/field/sessions/${session.id}/poses/${again.id}`);
+    if (result.ok) navigate(pathTo('fieldPose', { id: session.id, poseId: again.id }));
     else report(result);
   };
   const remove = async () => {
     const result = await deletePose(pose.id);
     if (!result.ok) return report(result);
     const deleted: DeletedPose = { id: pose.id, label: pose.label || `Pose ${pose.seq}`, wasBaseline: pose.kind === 'level' && !poses.some((p) => p.kind === 'level' && p.seq < pose.seq) };
-    navigate(`/field/sessions/${session.id}`, { state: { deleted } });
+    navigate(pathTo('fieldSession', { id: session.id }), { state: { deleted } });
   };
 
   // The order of the entries below is the order Enter / Next walks (entry-order.ts): the pose's
@@ -104,7 +105,7 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
   return (
     <section className="space-y-4">
       <nav>
-        <Link to={`/field/sessions/${session.id}`} className="inline-flex min-h-touch items-center font-bold underline">
+        <Link to={pathTo('fieldSession', { id: session.id })} className="inline-flex min-h-touch items-center font-bold underline">
           ← {vehicle.name}, all poses
         </Link>
       </nav>
@@ -202,7 +203,7 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
       <h2 className="text-xl font-bold">Readings ({session.readingMode === 'gap' ? 'gaps' : 'displacements'})</h2>
       {gaugePoints.length === 0 && (
         <p>
-          This vehicle has no gauge points yet. <Link className="underline" to={`/field/vehicles/${vehicle.id}`}>Place them</Link>.
+          This vehicle has no gauge points yet. <Link className="underline" to={pathTo('vehicle', { id: vehicle.id })}>Place them</Link>.
         </p>
       )}
       <div className="space-y-3">

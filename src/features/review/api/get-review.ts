@@ -1,28 +1,17 @@
-import { useQuery } from '@tanstack/react-query';
-import type { GaugePoint, Photo, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
-import type { HistoryEventRecord } from '@shared/schemas/envelope';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { SessionReview } from '@shared/desk-responses';
 import { api } from '@/lib/api-client';
 
-export const reviewKeys = {
-  all: ['review'] as const,
-  detail: (sessionId: string) => [...reviewKeys.all, 'detail', sessionId] as const,
-};
-
-export interface SessionReview {
-  session: TestSession;
-  vehicle: Vehicle;
-  gaugePoints: GaugePoint[];
-  poses: Pose[];
-  readings: (Reading & { enteredBy: string })[];
-  /** The session's photos, each with the pose it belongs to (or none). */
-  photos: Photo[];
-  /** Names of the people who entered readings, by user id. */
-  people: Record<string, string>;
-  history: HistoryEventRecord[];
-}
+export type { SessionReview };
 
 export const getReview = (sessionId: string) => api<SessionReview>(`/api/sessions/${sessionId}/review`);
 
+/** The review queries: `reviewQueries.detail(id)` is the query, `.queryKey` what a mutation invalidates. */
+export const reviewQueries = {
+  all: () => ['review'] as const,
+  detail: (sessionId: string) => queryOptions({ queryKey: [...reviewQueries.all(), 'detail', sessionId], queryFn: () => getReview(sessionId) }),
+};
+
 export function useReview(sessionId: string) {
-  return useQuery({ queryKey: reviewKeys.detail(sessionId), queryFn: () => getReview(sessionId) });
+  return useQuery(reviewQueries.detail(sessionId));
 }

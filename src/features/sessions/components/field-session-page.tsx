@@ -4,10 +4,11 @@ import type { Pose, TestSession } from '@shared/schemas';
 import { crossAxleTwistDeg } from '@shared/flex/twist';
 import { useLocalSession } from '@/lib/db/live';
 import { patchRecord, type ItemResult } from '@/lib/db/records';
-import { SaveProblems } from '@/features/field/components/save-problems';
-import { addPose, nextPose, restorePose, type DeletedPose } from '@/features/field/pose-actions';
+import { SaveProblems } from '@/components/field/save-problems';
+import { addPose, nextPose, restorePose, type DeletedPose } from '@/lib/field/pose-actions';
 import { SafetyChecklist } from './safety-checklist';
 import { SessionFields, type SessionDetails } from './session-fields';
+import { pathTo } from '@/paths';
 
 const detailsOf = (s: TestSession): SessionDetails => ({
   title: s.title,
@@ -37,7 +38,7 @@ export function FieldSessionPage() {
   const recordPose = async () => {
     const pose = nextPose(session.id, poses);
     const result = await addPose(pose);
-    if (result.ok) navigate(`/field/sessions/${session.id}/poses/${pose.id}`);
+    if (result.ok) navigate(pathTo('fieldPose', { id: session.id, poseId: pose.id }));
     else report(result);
   };
   const undoDelete = async () => {
@@ -114,7 +115,7 @@ export function FieldSessionPage() {
               const t = twist(p);
               return (
                 <li key={p.id}>
-                  <Link to={`/field/sessions/${session.id}/poses/${p.id}`} className="card flex min-h-touch flex-wrap gap-x-3 hover:border-slate">
+                  <Link to={pathTo('fieldPose', { id: session.id, poseId: p.id })} className="card flex min-h-touch flex-wrap gap-x-3 hover:border-slate">
                     <span className="font-bold">{p.label || `Pose ${p.seq}`}</span>
                     <span>{t == null ? '' : `twist ${t.toFixed(1)}°`}</span>
                     <span>{readings.filter((r) => r.poseId === p.id && !r.deletedAt).length} readings</span>

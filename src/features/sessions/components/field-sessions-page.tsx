@@ -3,7 +3,8 @@ import { useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { onlineManager } from '@tanstack/react-query';
 import { useLocalSessions } from '@/lib/db/live';
-import { useSessions } from '../api/get-sessions';
+import { useSessions } from '@/lib/api/get-sessions';
+import { pathTo } from '@/paths';
 
 const time = (ms: number) => new Date(ms).toLocaleString([], { dateStyle: 'short', timeStyle: 'short' });
 
@@ -25,10 +26,10 @@ export function FieldSessionsPage() {
     <section className="space-y-3">
       <div className="flex flex-wrap items-center gap-2">
         <h1 className="mr-auto text-2xl font-bold">Sessions</h1>
-        <Link to="/field/vehicles" className="btn">
+        <Link to={pathTo('vehicles')} className="btn">
           Vehicles
         </Link>
-        <Link to="/field/sessions/new" className="btn-primary">
+        <Link to={pathTo('newSession')} className="btn-primary">
           Start a session
         </Link>
       </div>
@@ -45,7 +46,7 @@ export function FieldSessionsPage() {
           const signed = signedOf.get(s.id);
           return (
             <li key={s.id}>
-              <Link to={`/field/sessions/${s.id}`} className="card flex min-h-touch flex-col hover:border-slate" aria-describedby={`state-${s.id}`}>
+              <Link to={pathTo('fieldSession', { id: s.id })} className="card flex min-h-touch flex-col hover:border-slate" aria-describedby={`state-${s.id}`}>
                 <span className="text-lg font-bold">{s.vehicleName}</span>
                 <span>
                   {s.testedOn} · {s.title || 'Flex test'}

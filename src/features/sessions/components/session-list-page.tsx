@@ -1,9 +1,10 @@
 import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
-import { useSessions } from '../api/get-sessions';
+import { useSessions } from '@/lib/api/get-sessions';
+import { pathTo } from '@/paths';
 
-/** The team's test sessions, newest first, with the latest signed-off revision of each. */
-export function SessionListPage({ base = '/field' }: { base?: string }) {
+/** The team's test sessions at the desk, newest first, with the latest signed-off revision of each. */
+export function SessionListPage() {
   const sessions = useSessions();
   return (
     <section>
@@ -16,7 +17,7 @@ export function SessionListPage({ base = '/field' }: { base?: string }) {
             <ul className="space-y-2">
               {list.map((s) => (
                 <li key={s.id}>
-                  <Link to={`${base}/sessions/${s.id}`} className="card flex min-h-touch flex-col hover:border-slate">
+                  <Link to={pathTo('deskSession', { id: s.id })} className="card flex min-h-touch flex-col hover:border-slate">
                     <span className="text-lg font-bold">{s.vehicleName}</span>
                     <span>
                       {s.testedOn} · {s.title || 'Flex test'}

@@ -4,9 +4,10 @@ import type { TestSession } from '@shared/schemas';
 import { newTestSession } from '@shared/records';
 import { useLocalVehicles } from '@/lib/db/live';
 import { saveRecord, type ItemResult } from '@/lib/db/records';
-import { SaveProblems } from '@/features/field/components/save-problems';
+import { SaveProblems } from '@/components/field/save-problems';
 import { SAFETY_ITEMS, SafetyChecklist, safetyItemsLeft } from './safety-checklist';
 import { SessionFields, type SessionDetails } from './session-fields';
+import { pathTo } from '@/paths';
 
 /** Today on the phone's own calendar (toISOString would give the UTC date, a day off near midnight). */
 const localToday = () => {
@@ -33,7 +34,7 @@ export function StartSessionPage() {
   if (vehicles.vehicles.length === 0) {
     return (
       <p>
-        No vehicle on this phone yet. <Link to="/field/vehicles/new" className="font-bold underline">Set one up</Link> first (or sync while online).
+        No vehicle on this phone yet. <Link to={pathTo('vehicle', { id: 'new' })} className="font-bold underline">Set one up</Link> first (or sync while online).
       </p>
     );
   }
@@ -44,7 +45,7 @@ export function StartSessionPage() {
     if (missing.length) return;
     const session = newTestSession({ ...form, safetyAckAt: new Date().toISOString() });
     const result = await saveRecord('testSession', session);
-    if (result.ok) navigate(`/field/sessions/${session.id}`, { replace: true });
+    if (result.ok) navigate(pathTo('fieldSession', { id: session.id }), { replace: true });
     else setProblems([result]);
   };
 

@@ -2,7 +2,7 @@ import { useMutation } from '@tanstack/react-query';
 import { resolveConflictInput, syncConflict, type ResolveConflictInput } from '@shared/schemas/sync';
 import { api } from '@/lib/api-client';
 import { keepResolvedConflict } from '@/lib/db/conflicts';
-import { syncNow } from '@/sync/sync-engine';
+import { syncNow } from '../engine/sync-engine';
 
 export const resolveConflict = async (id: string, input: ResolveConflictInput) =>
   syncConflict.parse(await api<unknown>(`/api/sync/conflicts/${id}/resolve`, { method: 'POST', body: resolveConflictInput.parse(input) }));

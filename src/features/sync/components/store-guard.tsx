@@ -1,9 +1,9 @@
 import { plural } from '@shared/plural';
 import { useEffect, useState, type ReactNode } from 'react';
-import { useMe } from '@/features/auth/api/get-me';
-import { useSignOut } from '@/features/auth/api/sign-out';
+import { useMe } from '@/lib/auth/get-me';
+import { useSignOut } from '@/lib/auth/sign-out';
 import { claimStore, discardForeignStore, type StoreClaim } from '@/lib/db/owner';
-import { startSyncEngine, stopSyncEngine } from '@/sync/sync-engine';
+import { startSyncEngine, stopSyncEngine } from '../engine/sync-engine';
 
 /**
  * The field store belongs to one person in one workshop. Until it is theirs, neither the pages

@@ -2,17 +2,18 @@ import { Link } from 'react-router-dom';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { useOpenConflicts, useRefusedPhotos } from '@/lib/db/live';
 import { useUnsentRecords, type FieldLookups, type UnsentRecord } from '@/lib/db/unsent';
-import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
-import { syncNow } from '@/sync/sync-engine';
+import { useFieldUnit } from '@/lib/field/use-field-unit';
+import { syncNow } from '../engine/sync-engine';
 import { useResolveConflict } from '../api/resolve-conflict';
 import { differences, differenceSentence, recordTitle, valuesLine } from '../describe';
 import { exportFileName, unsentAsCsv, unsentAsJson } from '../unsent-export';
+import { pathTo } from '@/paths';
 
 /** Where the tester fixes a record: its own page in the field. */
 function pageOf(entity: SyncEntity, r: Record<string, unknown>, look: FieldLookups): string | null {
   const poseUrl = (poseId: string) => {
     const pose = look.poses.get(poseId);
-    return pose ? `/field/sessions/${pose.sessionId}/poses/${pose.id}` : null;
+    return pose ? pathTo('fieldPose', { id: pose.sessionId, poseId: pose.id }) : null;
   };
   switch (entity) {
     case 'reading':
@@ -20,11 +21,11 @@ function pageOf(entity: SyncEntity, r: Record<string, unknown>, look: FieldLooku
     case 'pose':
       return poseUrl(String(r.id));
     case 'testSession':
-      return `/field/sessions/${String(r.id)}`;
+      return pathTo('fieldSession', { id: String(r.id) });
     case 'gaugePoint':
-      return `/field/vehicles/${String(r.vehicleId)}`;
+      return pathTo('vehicle', { id: String(r.vehicleId) });
     case 'vehicle':
-      return `/field/vehicles/${String(r.id)}`;
+      return pathTo('vehicle', { id: String(r.id) });
   }
 }
 

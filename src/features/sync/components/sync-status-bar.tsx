@@ -3,8 +3,9 @@ import { Link } from 'react-router-dom';
 import { usePendingCounts, useMetaValue } from '@/lib/db/live';
 import { useLocalWrites } from '@/lib/db/writes-in-flight';
 import { barSummary } from '../bar-summary';
-import { syncNow, syncState } from '@/sync/sync-engine';
+import { syncNow, syncState } from '../engine/sync-engine';
 import { usePersistentStorage } from '../hooks/use-persistent-storage';
+import { pathTo } from '@/paths';
 
 const ago = (iso: string | null | undefined) => {
   if (!iso) return 'never';
@@ -48,17 +49,17 @@ export function SyncStatusBar() {
           </span>
         </button>
         {!!counts?.conflicts && (
-          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
+          <Link to={pathTo('sync')} className="flex min-h-touch items-center font-bold text-alert underline">
             {counts.conflicts} conflict{counts.conflicts > 1 ? 's' : ''} to resolve
           </Link>
         )}
         {!!counts?.held && (
-          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
+          <Link to={pathTo('sync')} className="flex min-h-touch items-center font-bold text-alert underline">
             See the held records
           </Link>
         )}
         {!!counts?.failedPhotos && (
-          <Link to="/field/sync" className="flex min-h-touch items-center font-bold text-alert underline">
+          <Link to={pathTo('sync')} className="flex min-h-touch items-center font-bold text-alert underline">
             {counts.failedPhotos} photo{counts.failedPhotos > 1 ? 's' : ''} refused
           </Link>
         )}

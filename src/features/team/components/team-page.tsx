@@ -3,19 +3,19 @@ import type { Member, Role } from '@shared/schemas';
 import { inviteInput } from '@shared/schemas/account';
 import { QueryState } from '@/components/query-state';
 import { useQueryClient } from '@tanstack/react-query';
-import { meKeys, useMe } from '@/features/auth/api/get-me';
-import { can } from '@/features/auth/can';
-import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/features/auth/components/form-bits';
+import { meQuery, useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
+import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { useChangeRole, useInvitations, useInvite, useRemoveMember, useRevokeInvitation, useTeam, useUpdateTeamSettings } from '../api/team';
 import type { PhotoGps } from '@shared/schemas/team';
+import { roles, roleTable } from '@shared/permissions';
 import type { UnitSystem } from '@shared/schemas/common';
-import { roleOptions, roleSummary } from '../roles';
 
 /** /team: the members and their roles; admins invite, change roles, remove, revoke. */
 export function TeamPage() {
   const me = useMe();
   const team = useTeam();
-  const manage = can(me.data?.role, 'team.manage');
+  const manage = useCan()('team.manage');
   return (
     <div className="mx-auto max-w-3xl space-y-6">
       <h1 className="text-2xl font-bold">Team{team.data ? ` · ${team.data.team.name}` : ''}</h1>
@@ -38,10 +38,10 @@ export function TeamPage() {
       <section aria-labelledby="roles" className="card">
         <h2 id="roles" className="mb-2 text-lg font-bold">Roles</h2>
         <dl className="space-y-1">
-          {roleOptions.map((r) => (
+          {roles.map((r) => (
             <div key={r}>
               <dt className="inline font-bold">{r}: </dt>
-              <dd className="inline">{roleSummary[r]}</dd>
+              <dd className="inline">{roleTable[r].summary}</dd>
             </div>
           ))}
         </dl>
@@ -55,7 +55,7 @@ function RoleSelect({ id, value, onChange, disabled, label }: { id: string; valu
     <div>
       <label htmlFor={id} className="field-label">{label}</label>
       <select id={id} value={value} disabled={disabled} onChange={(e) => onChange(e.target.value as Role)} className="input">
-        {roleOptions.map((r) => (
+        {roles.map((r) => (
           <option key={r} value={r}>{r}</option>
         ))}
       </select>
@@ -109,7 +109,7 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
       {manage && newRole && (
         <div role="group" aria-label={`Confirm the role of ${member.name}`} className="flex flex-wrap items-center gap-2 rounded-lg bg-signal/20 p-2">
           <span>
-            Change {member.name} from <b>{member.role}</b> to <b>{newRole}</b>? {roleSummary[newRole]}
+            Change {member.name} from <b>{member.role}</b> to <b>{newRole}</b>? {roleTable[newRole].summary}
           </span>
           <button
             type="button"
@@ -173,7 +173,7 @@ function InviteSection() {
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="E-mail address" name="email" type="email" autoComplete="off" error={errors.email} />
         <RoleSelect id="invite-role" label="Role" value={role} onChange={setRole} />
-        <p className="text-sm">{role}: {roleSummary[role]}</p>
+        <p className="text-sm">{role}: {roleTable[role].summary}</p>
         <ErrorBanner>{bannerText(invite.error, errors)}</ErrorBanner>
         {sentTo && <Notice>Invitation sent to {sentTo}.</Notice>}
         <button type="submit" className="btn-primary w-full" disabled={invite.isPending}>
@@ -224,7 +224,7 @@ function WorkshopUnitsSetting({ value }: { value: UnitSystem }) {
   const qc = useQueryClient();
   const choose = (unitSystem: UnitSystem) => {
     // Members without their own choice see the new units at once: their identity carries the workshop's.
-    if (unitSystem !== value) update.mutate({ unitSystem }, { onSuccess: () => qc.invalidateQueries({ queryKey: meKeys.all }) });
+    if (unitSystem !== value) update.mutate({ unitSystem }, { onSuccess: () => qc.invalidateQueries({ queryKey: meQuery().queryKey }) });
   };
   return (
     <section className="card space-y-2" aria-labelledby="workshop-units">

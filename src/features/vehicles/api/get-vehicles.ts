@@ -1,14 +1,12 @@
-import { useQuery } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Vehicle } from '@shared/schemas';
 import { api } from '@/lib/api-client';
 
-export const vehicleKeys = {
-  all: ['vehicles'] as const,
-  list: () => [...vehicleKeys.all, 'list'] as const,
-};
-
 export const getVehicles = () => api<Vehicle[]>('/api/vehicles');
 
-export function useVehicles() {
-  return useQuery({ queryKey: vehicleKeys.list(), queryFn: getVehicles });
-}
+export const vehicleQueries = {
+  all: () => ['vehicles'] as const,
+  list: () => queryOptions({ queryKey: [...vehicleQueries.all(), 'list'], queryFn: getVehicles }),
+};
+
+export const useVehicles = () => useQuery(vehicleQueries.list());

@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { useLocalVehicles } from '@/lib/db/live';
+import { pathTo } from '@/paths';
 
 export function VehicleListPage() {
   const data = useLocalVehicles();
@@ -7,7 +8,7 @@ export function VehicleListPage() {
     <section className="space-y-3">
       <div className="flex items-center gap-2">
         <h1 className="mr-auto text-2xl font-bold">Vehicles</h1>
-        <Link to="/field/vehicles/new" className="btn-primary">
+        <Link to={pathTo('vehicle', { id: 'new' })} className="btn-primary">
           New vehicle
         </Link>
       </div>
@@ -15,7 +16,7 @@ export function VehicleListPage() {
       <ul className="space-y-2">
         {data?.vehicles.map((v) => (
           <li key={v.id}>
-            <Link to={`/field/vehicles/${v.id}`} className="card flex min-h-touch flex-col hover:border-slate">
+            <Link to={pathTo('vehicle', { id: v.id })} className="card flex min-h-touch flex-col hover:border-slate">
               <span className="text-lg font-bold">{v.name}</span>
               <span>{v.chassis}</span>
             </Link>

@@ -4,24 +4,18 @@ import { gaugePoint as gaugePointSchema, opening as openingSchema, vehicle as ve
 import { newGaugePoint, newVehicle } from '@shared/records';
 import { useLocalVehicle } from '@/lib/db/live';
 import { changedFields, patchRecord, saveRecord, saveRecords, type ItemResult } from '@/lib/db/records';
-import { LengthInput, limitsOf } from '@/features/field/components/length-input';
-import type { LengthLimits } from '@/features/field/parse-length';
-import { UnitToggle } from '@/features/field/components/unit-toggle';
-import { SaveProblems } from '@/features/field/components/save-problems';
-import { useFieldUnit } from '@/features/field/hooks/use-field-unit';
+import { LengthInput, limitsOf } from '@/components/field/length-input';
+import type { LengthLimits } from '@/lib/field/parse-length';
+import { UnitToggle } from '@/components/field/unit-toggle';
+import { SaveProblems } from '@/components/field/save-problems';
+import { useFieldUnit } from '@/lib/field/use-field-unit';
 import { OpeningDrawing } from './opening-drawing';
+import { pathTo } from '@/paths';
+import { nextPointLabel } from '../next-point-label';
 
 const v = vehicleSchema.shape;
 const o = openingSchema.shape;
 const POINT_LIMITS = limitsOf(gaugePointSchema.shape.yMm);
-
-const nextLabel = (points: GaugePoint[]) => {
-  for (let i = 0; i < 64; i++) {
-    const l = i < 26 ? String.fromCharCode(65 + i) : `P${i + 1}`;
-    if (!points.some((p) => p.label === l)) return l;
-  }
-  return `P${points.length + 1}`;
-};
 
 /** Vehicle setup: dimensions, the opening outline and the gauge points placed on its drawing. */
 export function VehicleSetupPage() {
@@ -52,7 +46,7 @@ export function VehicleSetupPage() {
       setProblems([r]);
       if (r.ok) {
         setLoaded(draft);
-        navigate(`/field/vehicles/${draft.id}`, { replace: true });
+        navigate(pathTo('vehicle', { id: draft.id }), { replace: true });
       }
       return;
     }
@@ -106,7 +100,7 @@ export function VehicleSetupPage() {
           <OpeningDrawing
             opening={draft.opening}
             points={points}
-            onPlace={(yMm, zMm) => void addPoint(newGaugePoint({ vehicleId: draft.id, label: nextLabel(points), yMm, zMm }))}
+            onPlace={(yMm, zMm) => void addPoint(newGaugePoint({ vehicleId: draft.id, label: nextPointLabel(points), yMm, zMm }))}
           />
           <ul className="space-y-2">
             {points.map((p) => (

@@ -9,7 +9,7 @@ import { getMeta } from '@/lib/db/meta';
 import { addPhoto } from '@/lib/db/photos';
 import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
 import { runSync } from './sync-run';
-import type { SyncTransport } from './transport';
+import type { SyncTransport } from '../api/transport';
 import { newReading, newTestSession } from '@shared/records';
 
 let db: FieldDb;

@@ -1,8 +1,10 @@
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
-import { useMe } from '@/features/auth/api/get-me';
-import { useSignOut } from '@/features/auth/api/sign-out';
+import { useMe } from '@/lib/auth/get-me';
+import { useSignOut } from '@/lib/auth/sign-out';
+import { useCan } from '@/lib/auth/can';
 import { SyncStatusBar } from '@/features/sync/components/sync-status-bar';
 import { StoreGuard } from '@/features/sync/components/store-guard';
+import { pathTo } from '@/paths';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `flex min-h-touch shrink-0 items-center rounded-lg px-3 font-bold ${isActive ? 'bg-paper text-slate' : 'text-paper'}`;
@@ -16,18 +18,19 @@ export function Layout() {
   const me = useMe();
   const signOut = useSignOut();
   const navigate = useNavigate();
-  const role = me.data?.role;
+  const can = useCan();
+  const signedIn = !!me.data;
   return (
     <div className="min-h-dvh">
       <header className="bg-slate text-paper">
         <div className="mx-auto flex max-w-6xl items-center gap-2 px-3 py-1">
           <span className="shrink-0 text-lg font-bold tracking-tight">Twistlog</span>
           <nav aria-label="Main" className="flex min-w-0 flex-1 items-center gap-1 overflow-x-auto [scrollbar-width:none]">
-            {role && role !== 'viewer' && <NavLink to="/field" className={navClass}>Field</NavLink>}
-            {role && <NavLink to="/desk" className={navClass}>Desk</NavLink>}
-            {role && role !== 'viewer' && <NavLink to="/desk/compare" className={navClass}>Compare</NavLink>}
-            {role === 'admin' && <NavLink to="/team" className={navClass}>Team</NavLink>}
-            {role && <NavLink to="/account" className={navClass}>Account</NavLink>}
+            {can('session.record') && <NavLink to={pathTo('fieldSessions')} className={navClass}>Field</NavLink>}
+            {signedIn && <NavLink to={pathTo('desk')} className={navClass}>Desk</NavLink>}
+            {can('envelope.read') && <NavLink to={pathTo('compare')} className={navClass}>Compare</NavLink>}
+            {can('team.manage') && <NavLink to={pathTo('team')} className={navClass}>Team</NavLink>}
+            {signedIn && <NavLink to={pathTo('account')} className={navClass}>Account</NavLink>}
             {me.data && (
               <>
                 {/* Who is signed in, at the end of the line (on a phone, a sideways scroll away). */}
@@ -35,7 +38,7 @@ export function Layout() {
                 <button
                   type="button"
                   className="min-h-touch shrink-0 rounded-lg border-2 border-paper px-3 font-bold"
-                  onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+                  onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(pathTo('signIn')) })}
                 >
                   Sign out
                 </button>
@@ -44,7 +47,7 @@ export function Layout() {
           </nav>
         </div>
       </header>
-      {role && role !== 'viewer' ? (
+      {can('session.record') ? (
         // Members who record keep a field store on the phone: it must be theirs before use.
         <StoreGuard>
           <SyncStatusBar />

@@ -1,6 +1,6 @@
 import { useId, useRef, useState } from 'react';
-import { parseAngle } from '../parse-length';
-import { focusNextEntry } from '../entry-order';
+import { parseAngle } from '@/lib/field/parse-length';
+import { focusNextEntry } from '@/lib/field/entry-order';
 
 /**
  * An angle in degrees (a ramp's), saved as typed when it reads as one; otherwise the reason shows

@@ -5,7 +5,8 @@ import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
 import { envelopeRemarks } from '@shared/envelope-rows';
 import { plural } from '@shared/plural';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
+import { useCan } from '@/lib/auth/can';
 import { useReview, type SessionReview } from '@/features/review/api/get-review';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
 import { ReadingsTable } from '@/features/review/components/readings-table';
@@ -34,9 +35,8 @@ export function SessionDeskPage() {
 
 function SessionDesk({ review }: { review: SessionReview }) {
   const me = useMe();
-  const role = me.data?.role;
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
-  const isDesigner = role === 'engineer' || role === 'admin';
+  const can = useCan();
   const [search, setSearch] = useSearchParams();
   const section = (SECTIONS.find((s) => s.id === search.get('section'))?.id ?? 'readings') as Section;
   const [selected, setSelected] = useState<string | null>(null);
@@ -83,7 +83,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
             flags={fit.flags}
             unit={unit}
             selectedId={selected}
-            onSelect={isDesigner ? setSelected : undefined}
+            onSelect={can('session.review') ? setSelected : undefined}
             editor={selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
           />
           {readingRemarks.length > 0 && (
@@ -114,7 +114,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
           <p className="text-sm">The charts here use the default parameters; the envelope section shows them with the draft's design twist and confidence.</p>
         </div>
       )}
-      {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={isDesigner} canSign={isDesigner} />}
+      {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={can('envelope.design')} canSign={can('envelope.signOff')} />}
       {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} unit={unit} />}
     </div>
   );

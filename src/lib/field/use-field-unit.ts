@@ -1,5 +1,5 @@
 import type { UnitSystem } from '@shared/schemas';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/lib/auth/get-me';
 import { useMetaValue } from '@/lib/db/live';
 import { setMeta } from '@/lib/db/meta';
 

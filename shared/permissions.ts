@@ -1,13 +1,36 @@
-// The permission table: one place that says which role may do what, and says it in words. Routes
-// name an action; the access middleware looks the action up here, and a refusal is the action's
-// sentence from here (`refusal`). The README prints this table (its section "Roles and
-// permissions" is generated from here by `npx tsx server/auth/print-permissions.ts --write`, and a
-// unit test keeps the two equal). The client reads the same table to hide what a role cannot do
-// and to say why a button is off.
-import type { Role } from '../../shared/schemas/common';
-import { listInWords } from '../../shared/plural';
+// Who may do what: the one table of roles and the one table of actions, read by the server's
+// access checks (routes name an action, `server/routes/route.ts` looks it up), by sync push's
+// field rules (`server/services/sync-access.ts`) and by the client, which hides what a role
+// cannot use (`src/lib/auth/can.tsx`; the server still checks every request). A refusal is the
+// action's sentence from here (`refusal`): "Reviewing readings is for engineers and admins.". The README's
+// "Roles and permissions" table is printed from here (`npx tsx server/auth/print-permissions.ts
+// --write`; a unit test keeps the two equal).
+//
+// A new role is a row in `roleTable`, its roles in the `permissionTable` rows it may use, and a
+// migration widening the CHECK constraints on memberships.role and invitations.role (a test
+// compares those constraints with `roles`).
+import { listInWords } from './plural';
 
-interface Entry {
+interface RoleEntry {
+  /** One line that says what the role is for, as the Team page and the invitation page explain it. */
+  summary: string;
+  /** The role as a sentence names its people: "engineers". */
+  plural: string;
+}
+
+/** The roles, widest first (the order of the Team page's list and the README's columns). */
+export const roleTable = {
+  admin: { summary: 'runs the workshop account (members, invitations, roles, vehicles) and can do all an engineer can.', plural: 'admins' },
+  engineer: { summary: 'reviews readings, sets design parameters, signs off envelopes and sends fabrication sheets.', plural: 'engineers' },
+  tester: { summary: 'records flex-test sessions in the field.', plural: 'testers' },
+  viewer: { summary: 'read-only: sees signed-off envelopes.', plural: 'viewers' },
+} as const satisfies Record<string, RoleEntry>;
+
+export type Role = keyof typeof roleTable;
+export const roles = Object.keys(roleTable) as [Role, ...Role[]];
+
+interface ActionEntry {
+  /** Who may do it. */
   roles: readonly Role[];
   /** What the action lets a person do (the README's column). */
   lets: string;
@@ -38,48 +61,29 @@ export const permissionTable = {
   'envelope.design': { roles: ['admin', 'engineer'], lets: 'set design parameters of an envelope', doing: 'Setting envelope design parameters' },
   'envelope.signOff': { roles: ['admin', 'engineer'], lets: 'sign off an envelope', doing: 'Signing off an envelope' },
   'envelope.send': { roles: ['admin', 'engineer'], lets: 'send a fabrication sheet (PDF) by e-mail', doing: 'Sending a fabrication sheet' },
-} as const satisfies Record<string, Entry>;
+} as const satisfies Record<string, ActionEntry>;
 
 export type Action = keyof typeof permissionTable;
-
-/** The roles of each action. */
-export const permissions = Object.fromEntries(Object.entries(permissionTable).map(([a, e]) => [a, e.roles])) as {
-  [A in Action]: (typeof permissionTable)[A]['roles'];
-};
-
-/** What each action lets a person do, in the words of the README. */
-export const actionDescriptions = Object.fromEntries(Object.entries(permissionTable).map(([a, e]) => [a, e.lets])) as Record<Action, string>;
-
-export const allRoles: readonly Role[] = ['admin', 'engineer', 'tester', 'viewer'];
-
-/** Roles as a sentence names them, the narrowest role first: "engineers and admins". */
-const ROLE_PLURALS: Record<Role, string> = { viewer: 'viewers', tester: 'testers', engineer: 'engineers', admin: 'admins' };
+export const actions = Object.keys(permissionTable) as Action[];
 
 export function can(role: Role, action: Action): boolean {
-  return (permissions[action] as readonly Role[]).includes(role);
+  return (permissionTable[action].roles as readonly Role[]).includes(role);
 }
 
 export function isAction(name: string): name is Action {
-  return Object.prototype.hasOwnProperty.call(permissions, name);
+  return Object.prototype.hasOwnProperty.call(permissionTable, name);
 }
 
-/** Who may do an action, in words: "engineers and admins", or "everyone in the workshop". */
+/** The roles that may do an action, in the table's order. */
+export const rolesThatCan = (action: Action): Role[] => roles.filter((r) => can(r, action));
+
+/** Who may do an action, in words, narrowest role first: "engineers and admins", or "everyone in the workshop". */
 export function whoMay(action: Action): string {
-  const roles = [...allRoles].reverse().filter((r) => can(r, action));
-  return roles.length === allRoles.length ? 'everyone in the workshop' : listInWords(roles.map((r) => ROLE_PLURALS[r]));
+  const who = rolesThatCan(action).reverse();
+  return who.length === roles.length ? 'everyone in the workshop' : listInWords(who.map((r) => roleTable[r].plural));
 }
 
 /** The sentence a refusal gives: `refusal('session.review') // => 'Reviewing readings is for engineers and admins.'` */
 export function refusal(action: Action): string {
   return `${permissionTable[action].doing} is for ${whoMay(action)}.`;
-}
-
-/** The README's table: one row per action, one column per role. */
-export function permissionsMarkdown(): string {
-  const head = `| action | lets a person | ${allRoles.join(' | ')} |`;
-  const rule = `| --- | --- | ${allRoles.map(() => ':---:').join(' | ')} |`;
-  const rows = (Object.keys(permissions) as Action[]).map(
-    (a) => `| \`${a}\` | ${actionDescriptions[a]} | ${allRoles.map((r) => (can(r, a) ? '✓' : '—')).join(' | ')} |`,
-  );
-  return [head, rule, ...rows].join('\n');
 }

@@ -2,7 +2,7 @@
 // front (visibilitychange), on a timer, and shortly after the tester saves something. One run
 // at a time. Its live state (running, upload progress) is a tiny external store for React.
 import { fieldDb } from '@/lib/db/field-db';
-import { httpTransport } from './transport';
+import { httpTransport } from '../api/transport';
 import { runSync, type Progress } from './sync-run';
 
 const TIMER_MS = 30_000;

@@ -1,8 +1,8 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import type { UnitSystem } from '@shared/schemas';
 import { mm as lengthSchema } from '@shared/schemas/common';
-import { parseLength, showLength, toggleSign, type LengthLimits, type LengthParse } from '../parse-length';
-import { focusNextEntry } from '../entry-order';
+import { parseLength, showLength, toggleSign, type LengthLimits, type LengthParse } from '@/lib/field/parse-length';
+import { focusNextEntry } from '@/lib/field/entry-order';
 
 /** The range a shared schema's number field allows, for the parser to refuse beyond it by name. */
 export const limitsOf = (schema: { minValue: number | null; maxValue: number | null }): LengthLimits => ({

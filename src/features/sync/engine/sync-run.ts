@@ -6,7 +6,7 @@ import { completeBatch, formBatch, holdRecords, noteBatchFailure, releaseHolds }
 import { getMeta, setMeta } from '@/lib/db/meta';
 import { applyPull } from '@/lib/db/server-changes';
 import { markPhotoFailed, markPhotoUploaded, nextPendingPhotos, notePhotoError } from '@/lib/db/photos';
-import type { SyncTransport } from './transport';
+import type { SyncTransport } from '../api/transport';
 import { CLIENT_BATCH_CHANGES, type PushResponse } from '@shared/schemas/sync';
 import type { FieldError } from '@shared/schemas/common';
 

@@ -4,6 +4,7 @@ import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { ZodError } from 'zod';
 import { ApiError } from '@/lib/api-client';
+import { pathTo } from '@/paths';
 
 export type FieldErrors = Record<string, string>;
 
@@ -25,7 +26,7 @@ export function AuthFrame({ title, children, footer }: { title: string; children
   return (
     <div className="mx-auto max-w-md px-3 py-6">
       <p className="mb-2 text-xl font-bold tracking-tight text-slate">
-        <Link to="/" className="inline-flex min-h-touch items-center">Twistlog</Link>
+        <Link to={pathTo('home')} className="inline-flex min-h-touch items-center">Twistlog</Link>
       </p>
       <h1 className="mb-4 text-3xl font-bold">{title}</h1>
       <div className="card space-y-4">{children}</div>
