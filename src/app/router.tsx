@@ -11,6 +11,19 @@ import { AcceptInvitationPage } from '@/features/auth/components/accept-invitati
 function RequireSignIn() {
   const me = useMe();
   if (me.isPending) return <p className="p-6" role="status">Loading…</p>;
+  // Only the server's answer "nobody is signed in" leads to the sign-in page; no answer at all
+  // (no signal and nothing kept on this phone) says so, and what is stored here stays.
+  if (me.data === undefined) {
+    return (
+      <div className="p-6" role="alert">
+        <p className="font-bold">Twistlog cannot reach the server to check who is signed in.</p>
+        <p>Everything recorded on this phone is kept. Try again when there is signal.</p>
+        <button type="button" className="btn mt-2" onClick={() => void me.refetch()}>
+          Try again
+        </button>
+      </div>
+    );
+  }
   if (!me.data) return <Navigate to={pathTo('signIn')} replace />;
   return <Outlet />;
 }

@@ -89,6 +89,23 @@ describe('field recorder offline', () => {
     await page.goto(sessionUrl).catch(() => undefined);
     await page.getByRole('link', { name: /Level/ }).waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'field-offline-session.png'), fullPage: true });
+
+    // Each reload asks the server who is signed in, and offline that fails. Once the failure has
+    // been stored with the rest of the app's cache, a further reload must still open the field
+    // pages from the identity kept on the phone, not send the tester to sign in.
+    await expect
+      .poll(() =>
+        page.evaluate(() => {
+          const cache = JSON.parse(localStorage.getItem('twistlog-query-cache') ?? '{}');
+          const me = cache.clientState?.queries?.find((q: { queryKey: unknown[] }) => q.queryKey[0] === 'me');
+          return !me || me.state.status === 'error';
+        }),
+        { timeout: 30_000 },
+      )
+      .toBe(true);
+    await page.reload();
+    await page.getByRole('link', { name: /Level/ }).waitFor();
+    expect(page.url()).toBe(sessionUrl);
     expect(await TestSessionModel.count({ where: { id: sessionId } })).toBe(0);
 
     // Back online: sync starts by itself.
