@@ -2,24 +2,15 @@
 // tests), the real server as a child process (so it can be killed), a team with a tester signed
 // in, and a Node transport for the field client's sync run.
 import { spawn, type ChildProcess } from 'node:child_process';
-import net from 'node:net';
 import path from 'node:path';
 import { ApiError } from '@/lib/api-client';
 import { pullResponse, type PushRequest, type PushResponse } from '@shared/schemas/sync';
 import type { SyncTransport } from '@/features/sync/api/transport';
 import { ensureDatabase, startCluster, stopClusterNow, type Cluster } from '../../server/scripts/system.mjs';
 import { repoRoot } from '../support/test-app';
+import { freePort } from '../../server/scripts/bench/fixture';
 
-export async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
+export { freePort };
 
 export async function startPrivateCluster(name: string): Promise<{ cluster: Cluster; url: string; restart(): Promise<void>; crash(): void }> {
   const port = await freePort();
