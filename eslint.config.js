@@ -8,7 +8,10 @@ import { importX } from 'eslint-plugin-import-x';
 import reactHooks from 'eslint-plugin-react-hooks';
 import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
 
-const features = fs.readdirSync(new URL('./src/features', import.meta.url), { withFileTypes: true }).filter((d) => d.isDirectory()).map((d) => d.name);
+const features = fs
+  .readdirSync(new URL('./src/features', import.meta.url), { withFileTypes: true })
+  .filter((d) => d.isDirectory())
+  .map((d) => d.name);
 
 /** A feature imports no other feature: what two features share moves up to src/components, src/lib or shared/. */
 const featureZones = features.map((name) => ({

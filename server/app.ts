@@ -84,8 +84,7 @@ function cacheRules(res: express.Response, file: string) {
 }
 
 function withoutCookies(header: string) {
-  return (r: { headers?: Record<string, unknown> }) =>
-    r?.headers?.[header] ? { ...r, headers: { ...r.headers, [header]: '[redacted]' } } : r;
+  return (r: { headers?: Record<string, unknown> }) => (r?.headers?.[header] ? { ...r, headers: { ...r.headers, [header]: '[redacted]' } } : r);
 }
 
 function parseTrustProxy(v: string): boolean | number | string {

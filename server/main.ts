@@ -66,7 +66,8 @@ async function main() {
   const url = config.publicUrl;
   process.stdout.write(`\nTwistlog is running at ${url}\n`);
   if (extraRouters.length) process.stdout.write(`Mailbox (every e-mail the app sends): ${url}/dev/mailbox\n`);
-  if (process.argv.includes('--seed-demo')) process.stdout.write(`Demo sign-in: ${DEMO_SIGN_IN.email} / ${DEMO_SIGN_IN.password} (engineer; more in the README)\n\n`);
+  if (process.argv.includes('--seed-demo'))
+    process.stdout.write(`Demo sign-in: ${DEMO_SIGN_IN.email} / ${DEMO_SIGN_IN.password} (engineer; more in the README)\n\n`);
 
   let stopping = false;
   const stop = async () => {

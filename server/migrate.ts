@@ -57,7 +57,9 @@ export async function migrate(sequelize: Sequelize): Promise<string[]> {
 /** Whether a migration file has no row in umzug's SequelizeMeta table (or the table is missing). */
 async function anyPending(db: pg.Client): Promise<boolean> {
   const files = fs.readdirSync(migrationsDir).filter((f) => /^[0-9].*\.ts$/.test(f));
-  const { rows: [table] } = await db.query<{ present: boolean }>(`SELECT to_regclass('"SequelizeMeta"') IS NOT NULL AS present`);
+  const {
+    rows: [table],
+  } = await db.query<{ present: boolean }>(`SELECT to_regclass('"SequelizeMeta"') IS NOT NULL AS present`);
   if (!table.present) return files.length > 0;
   const { rows } = await db.query<{ name: string }>('SELECT name FROM "SequelizeMeta"');
   const applied = new Set(rows.map((r) => r.name));

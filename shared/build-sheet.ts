@@ -67,7 +67,8 @@ export function buildToSentence(s: EnvelopeSnapshot, unit: UnitSystem): string {
     s.format === 2
       ? `the cab moves against the body by up to ${L(s.result.measures.lateral.envelopeMm)} either way sideways and ${L(s.result.measures.vertical.envelopeMm)} either way up and down; the fore-aft gap of ${L(s.vehicle.nominalGapMm)} opens by up to ${L(s.result.measures.foreAftOpening.envelopeMm)} and closes by up to ${L(s.result.measures.foreAftClosing.envelopeMm)}`
       : `the cab moves against the body by up to ${L(s.result.axes.lateral.envelopeMm)} sideways, ${L(s.result.axes.vertical.envelopeMm)} up and down and ${L(s.result.axes.foreAft.envelopeMm)} fore-aft`;
-  const option = design.option === null ? 'No closing option was chosen at sign-off.' : `Chosen: ${OPTION_NAMES[design.option]}, built as listed under "Build".`;
+  const option =
+    design.option === null ? 'No closing option was chosen at sign-off.' : `Chosen: ${OPTION_NAMES[design.option]}, built as listed under "Build".`;
   return `Build to: ${movement}. ${option}`;
 }
 
@@ -82,8 +83,16 @@ export function buildLines(s: EnvelopeSnapshot, unit: UnitSystem): BuildLine[] {
     const frames = pass.frames;
     const boot = design.option === 'both' ? pass.both.boot : pass.boot;
     if (design.option !== 'boot') {
-      lines.push({ part: 'frames', item: 'cab-side frame, inner edge (the opening)', figure: `${L(o.widthMm)} × ${L(o.heightMm)}, corner radius ${L(o.cornerRadiusMm)}` });
-      lines.push({ part: 'frames', item: 'body-side frame, inner edge (the clear opening)', figure: `${L(frames.clear.widthMm)} × ${L(frames.clear.heightMm)}` });
+      lines.push({
+        part: 'frames',
+        item: 'cab-side frame, inner edge (the opening)',
+        figure: `${L(o.widthMm)} × ${L(o.heightMm)}, corner radius ${L(o.cornerRadiusMm)}`,
+      });
+      lines.push({
+        part: 'frames',
+        item: 'body-side frame, inner edge (the clear opening)',
+        figure: `${L(frames.clear.widthMm)} × ${L(frames.clear.heightMm)}`,
+      });
       lines.push({ part: 'frames', item: `frame overlap, ${SIDE_NAMES.left} and ${SIDE_NAMES.right}`, figure: L(frames.overlapMm.left) });
       lines.push({ part: 'frames', item: 'frame overlap, top and bottom', figure: L(frames.overlapMm.top) });
       const seal = frames.seal?.freeHeightMm ?? startingSealFreeHeight(frames.sealFreeHeightRangeMm);
@@ -94,7 +103,9 @@ export function buildLines(s: EnvelopeSnapshot, unit: UnitSystem): BuildLine[] {
           seal === null
             ? 'no single seal follows this gap range'
             : `${L(seal)}, compressed ${(((seal - frames.gapMaxMm) / seal) * 100).toFixed(0)} % at the widest gap and ${(((seal - frames.gapMinMm) / seal) * 100).toFixed(0)} % at the narrowest` +
-              (frames.seal && !frames.seal.follows ? `: outside the ${frames.seal.minCompressionPercent}–${frames.seal.maxCompressionPercent} % allowed, so it does NOT follow` : ''),
+              (frames.seal && !frames.seal.follows
+                ? `: outside the ${frames.seal.minCompressionPercent}–${frames.seal.maxCompressionPercent} % allowed, so it does NOT follow`
+                : ''),
       });
     }
     if (design.option !== 'frames') {
@@ -104,13 +115,23 @@ export function buildLines(s: EnvelopeSnapshot, unit: UnitSystem): BuildLine[] {
         const name = side === 'left' || side === 'right' ? sideWords(side, design.driverSide) : side;
         lines.push({ part: 'boot', item: `${name} panel, cut flat (across the gap × along the side)`, figure: `${L(p.flatLengthMm)} × ${L(p.flatWidthMm)}` });
       }
-      lines.push({ part: 'boot', item: 'folds in each panel', figure: `${plural(top.folds, 'fold')} of ${L(design.foldDepthMm)} depth, taking up ${L(top.foldUpMm)}` });
+      lines.push({
+        part: 'boot',
+        item: 'folds in each panel',
+        figure: `${plural(top.folds, 'fold')} of ${L(design.foldDepthMm)} depth, taking up ${L(top.foldUpMm)}`,
+      });
       lines.push({
         part: 'boot',
         item: 'span between the frames',
-        figure: boot.contact ? 'the gap closes fully: cab and body touch' : `${L(top.shortestSpanMm)} to ${L(top.longestSpanMm)} (extension ratio ${formatRatio(top.extensionRatio)})`,
+        figure: boot.contact
+          ? 'the gap closes fully: cab and body touch'
+          : `${L(top.shortestSpanMm)} to ${L(top.longestSpanMm)} (extension ratio ${formatRatio(top.extensionRatio)})`,
       });
-      lines.push({ part: 'boot', item: 'slack and seam allowance included', figure: `${design.slackPercent} % slack, ${L(design.seamAllowanceMm)} seam allowance at each side edge` });
+      lines.push({
+        part: 'boot',
+        item: 'slack and seam allowance included',
+        figure: `${design.slackPercent} % slack, ${L(design.seamAllowanceMm)} seam allowance at each side edge`,
+      });
     }
     lines.push({ part: 'attachment', item: 'flange width (each edge fastens to one)', figure: L(design.flangeWidthMm) });
     lines.push({ part: 'attachment', item: 'fastening', figure: FASTENING_NAMES[design.fastening] });

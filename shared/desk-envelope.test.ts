@@ -7,11 +7,38 @@ function session(): DeskSessionData {
   const s = buildSyntheticSession({ poses: 4, gaugePoints: 6, mode: 'gap', nominalGapMm: 90, seed: 3 });
   return {
     session: { id: 's', title: 'Yard', testedOn: '2026-11-18', readingMode: 'gap' },
-    vehicle: { id: 'v', name: 'Truck', wheelbaseMm: 3800, trackFrontMm: 1900, trackRearMm: 1850, nominalGapMm: 90, opening: { widthMm: 700, heightMm: 900, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 600 } },
+    vehicle: {
+      id: 'v',
+      name: 'Truck',
+      wheelbaseMm: 3800,
+      trackFrontMm: 1900,
+      trackRearMm: 1850,
+      nominalGapMm: 90,
+      opening: { widthMm: 700, heightMm: 900, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 600 },
+    },
     gaugePoints: s.gaugePoints.map((g) => ({ id: `gp-${g.id}`, label: g.id, yMm: g.y, zMm: g.z })),
-    poses: s.poses.map((p, i) => ({ id: `pose-id-${i}`, seq: i, label: i === 0 ? 'Level' : 'Diagonal', kind: i === 0 ? 'level' : 'wheels', liftFlMm: p.lifts.fl, liftFrMm: p.lifts.fr, liftRlMm: p.lifts.rl, liftRrMm: p.lifts.rr })),
+    poses: s.poses.map((p, i) => ({
+      id: `pose-id-${i}`,
+      seq: i,
+      label: i === 0 ? 'Level' : 'Diagonal',
+      kind: i === 0 ? 'level' : 'wheels',
+      liftFlMm: p.lifts.fl,
+      liftFrMm: p.lifts.fr,
+      liftRlMm: p.lifts.rl,
+      liftRrMm: p.lifts.rr,
+    })),
     readings: s.poses.flatMap((p, i) =>
-      p.readings.map((r, k) => ({ id: `r-${i}-${k}`, poseId: `pose-id-${i}`, gaugePointId: `gp-${r.pointId}`, axis: r.axis, valueMm: r.value, excluded: false, excludeReason: null, version: 1, deletedAt: null })),
+      p.readings.map((r, k) => ({
+        id: `r-${i}-${k}`,
+        poseId: `pose-id-${i}`,
+        gaugePointId: `gp-${r.pointId}`,
+        axis: r.axis,
+        valueMm: r.value,
+        excluded: false,
+        excludeReason: null,
+        version: 1,
+        deletedAt: null,
+      })),
     ),
   };
 }
@@ -46,7 +73,9 @@ describe('desk envelope input', () => {
     const bad = data.readings.findIndex((r) => r.poseId === 'pose-id-2' && r.gaugePointId === 'gp-P03' && r.axis === 'lateral');
     data.readings[bad] = { ...data.readings[bad], valueMm: data.readings[bad].valueMm + 20 };
     const flags = deskFlags(data, computeDeskEnvelope(data, DEFAULT_DRAFT_PARAMS).result);
-    expect(flags.map((f) => [f.readingId, f.poseLabel, f.pointLabel, f.flag.axis, f.flag.kind])).toEqual([[data.readings[bad].id, 'Diagonal', 'P03', 'lateral', 'outlier']]);
+    expect(flags.map((f) => [f.readingId, f.poseLabel, f.pointLabel, f.flag.axis, f.flag.kind])).toEqual([
+      [data.readings[bad].id, 'Diagonal', 'P03', 'lateral', 'outlier'],
+    ]);
     expect(f0(flags).enteredMm).toBe(data.readings[bad].valueMm);
     // excluded, it is no longer in the computation, so no longer flagged
     data.readings[bad] = { ...data.readings[bad], excluded: true, excludeReason: 'misread' };
@@ -63,7 +92,14 @@ describe('desk envelope input', () => {
     const snapshot = buildSnapshot(data, DEFAULT_DRAFT_PARAMS, signature, envelope, new Map([[data.readings[bad].id, 'checked twice']]));
     expect(snapshot.format).toBe(2);
     expect(snapshot.acknowledgedFlags).toEqual([
-      expect.objectContaining({ readingId: data.readings[bad].id, poseLabel: 'Diagonal', pointLabel: 'P05', axis: 'vertical', kind: 'outlier', note: 'checked twice' }),
+      expect.objectContaining({
+        readingId: data.readings[bad].id,
+        poseLabel: 'Diagonal',
+        pointLabel: 'P05',
+        axis: 'vertical',
+        kind: 'outlier',
+        note: 'checked twice',
+      }),
     ]);
   });
 });

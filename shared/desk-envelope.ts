@@ -106,7 +106,16 @@ export interface DeskEnvelope {
 /** The pass-through options for a computed envelope: its design movement on the vehicle's opening. */
 export function passThroughOf(vehicle: DeskSessionData['vehicle'], params: EnvelopeParams, result: EnvelopeResult): PassThroughResult | null {
   if (!(vehicle.nominalGapMm > 0)) return null;
-  const { option: _option, driverSide: _side, fastening: _f, material: _m, drain: _d, fabricToleranceMm: _ft, frameToleranceMm: _fr, ...allowances } = params.design;
+  const {
+    option: _option,
+    driverSide: _side,
+    fastening: _f,
+    material: _m,
+    drain: _d,
+    fabricToleranceMm: _ft,
+    frameToleranceMm: _fr,
+    ...allowances
+  } = params.design;
   return passThroughOptions({
     opening: { widthMm: vehicle.opening.widthMm, heightMm: vehicle.opening.heightMm, cornerRadiusMm: vehicle.opening.cornerRadiusMm },
     nominalGapMm: vehicle.nominalGapMm,
@@ -229,7 +238,14 @@ export function buildSnapshot(
     session: { id: session.id, title: session.title, testedOn: session.testedOn, readingMode: session.readingMode },
     gaugePoints: data.gaugePoints.map((g) => ({ id: g.id, label: g.label, yMm: g.yMm, zMm: g.zMm })),
     poses,
-    readings: usedReadings(data).map((r) => ({ id: r.id, poseId: r.poseId, gaugePointId: r.gaugePointId, axis: r.axis, valueMm: r.valueMm, version: r.version })),
+    readings: usedReadings(data).map((r) => ({
+      id: r.id,
+      poseId: r.poseId,
+      gaugePointId: r.gaugePointId,
+      axis: r.axis,
+      valueMm: r.valueMm,
+      version: r.version,
+    })),
     excludedReadings: data.readings.filter((r) => r.excluded && !r.deletedAt).map((r) => ({ id: r.id, reason: r.excludeReason ?? '' })),
     params,
     result,

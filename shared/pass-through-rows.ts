@@ -30,7 +30,10 @@ function clearText(o: FramesOption | BootOption, unit: UnitSystem): string {
 function shortText(o: FramesOption | BootOption, unit: UnitSystem): string {
   const c = o.clear;
   if (c.meetsMinimum) return 'meets the minimum';
-  const parts = [c.shortOfWidthMm > 0 ? `${formatLength(c.shortOfWidthMm, unit)} too narrow` : '', c.shortOfHeightMm > 0 ? `${formatLength(c.shortOfHeightMm, unit)} too low` : ''];
+  const parts = [
+    c.shortOfWidthMm > 0 ? `${formatLength(c.shortOfWidthMm, unit)} too narrow` : '',
+    c.shortOfHeightMm > 0 ? `${formatLength(c.shortOfHeightMm, unit)} too low` : '',
+  ];
   return parts.filter(Boolean).join(', ');
 }
 
@@ -64,7 +67,11 @@ export function optionRows(r: PassThroughResult, unit: UnitSystem): OptionRow[] 
     {
       key: 'lost',
       label: 'Share of the opening lost',
-      values: { frames: `${frames.clear.lostPercent.toFixed(1)} %`, boot: `${boot.clear.lostPercent.toFixed(1)} %`, both: `${both.boot.clear.lostPercent.toFixed(1)} %` },
+      values: {
+        frames: `${frames.clear.lostPercent.toFixed(1)} %`,
+        boot: `${boot.clear.lostPercent.toFixed(1)} %`,
+        both: `${both.boot.clear.lostPercent.toFixed(1)} %`,
+      },
       problem: {},
     },
     {
@@ -82,19 +89,28 @@ export function optionRows(r: PassThroughResult, unit: UnitSystem): OptionRow[] 
     {
       key: 'gap',
       label: 'Fore-aft gap, narrowest to widest',
-      values: { frames: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}`, boot: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}`, both: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}` },
+      values: {
+        frames: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}`,
+        boot: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}`,
+        both: `${formatLengthValue(frames.gapMinMm, unit)} to ${L(frames.gapMaxMm)}`,
+      },
       problem: {},
     },
     {
       key: 'seal',
       label: 'Seal compression',
       values: frameCells((f) => sealText(f, unit)),
-      problem: { frames: frames.seal ? !frames.seal.follows : frames.sealFreeHeightRangeMm === null, both: frames.seal ? !frames.seal.follows : frames.sealFreeHeightRangeMm === null },
+      problem: {
+        frames: frames.seal ? !frames.seal.follows : frames.sealFreeHeightRangeMm === null,
+        both: frames.seal ? !frames.seal.follows : frames.sealFreeHeightRangeMm === null,
+      },
     },
     {
       key: 'span',
       label: 'Boot span, shortest to longest (every side)',
-      values: bootCells((b) => (b.contact ? 'the gap closes fully: cab and body touch' : `${formatLengthValue(panel(b).shortestSpanMm, unit)} to ${L(panel(b).longestSpanMm)}`)),
+      values: bootCells((b) =>
+        b.contact ? 'the gap closes fully: cab and body touch' : `${formatLengthValue(panel(b).shortestSpanMm, unit)} to ${L(panel(b).longestSpanMm)}`,
+      ),
       problem: { boot: boot.contact, both: both.boot.contact },
     },
     {
@@ -107,7 +123,9 @@ export function optionRows(r: PassThroughResult, unit: UnitSystem): OptionRow[] 
       key: 'panels',
       label: 'Boot panels, cut flat (across the gap × along the side)',
       values: bootCells((b) =>
-        (['top', 'bottom', 'left', 'right'] as const).map((side) => `${side} ${formatLengthValue(b.panels[side].flatLengthMm, unit)} × ${L(b.panels[side].flatWidthMm)}`).join('; '),
+        (['top', 'bottom', 'left', 'right'] as const)
+          .map((side) => `${side} ${formatLengthValue(b.panels[side].flatLengthMm, unit)} × ${L(b.panels[side].flatWidthMm)}`)
+          .join('; '),
       ),
       problem: {},
     },

@@ -56,7 +56,11 @@ export const permissionTable = {
     doing: 'Reviewing readings',
   },
   'session.delete': { roles: ['admin', 'engineer'], lets: 'delete a test session', doing: 'Deleting a test session' },
-  'envelope.read': { roles: ['admin', 'engineer', 'tester'], lets: 'see draft and signed envelopes, compare trucks', doing: 'Seeing draft envelopes and comparisons' },
+  'envelope.read': {
+    roles: ['admin', 'engineer', 'tester'],
+    lets: 'see draft and signed envelopes, compare trucks',
+    doing: 'Seeing draft envelopes and comparisons',
+  },
   'envelope.readSigned': { roles: ['admin', 'engineer', 'tester', 'viewer'], lets: 'see signed-off envelopes', doing: 'Seeing signed-off envelopes' },
   'envelope.design': { roles: ['admin', 'engineer'], lets: 'set design parameters of an envelope', doing: 'Setting envelope design parameters' },
   'envelope.signOff': { roles: ['admin', 'engineer'], lets: 'sign off an envelope', doing: 'Signing off an envelope' },

@@ -59,7 +59,12 @@ const sequelizeAdapter: Adapter = {
     );
     if (!row) return [null, null];
     const team = { id: row.team_id, name: row.team_name, unitSystem: row.team_unit_system, photoGps: row.photo_gps };
-    const session: DatabaseSession = { id: sessionId, userId: row.user_id, expiresAt: row.expires_at, attributes: { teamId: row.team_id, role: row.role, team } };
+    const session: DatabaseSession = {
+      id: sessionId,
+      userId: row.user_id,
+      expiresAt: row.expires_at,
+      attributes: { teamId: row.team_id, role: row.role, team },
+    };
     const user: DatabaseUser = { id: row.user_id, attributes: { email: row.email, name: row.name, unitSystem: row.user_unit_system } };
     return [session, user];
   },
@@ -175,7 +180,16 @@ export async function validateSessionCookie(cookieHeader: string | undefined): P
   if (!session) return { session: null, setCookies: [blankSessionCookie()] };
   const setCookies = session.fresh ? [lucia.createSessionCookie(session.id).serialize()] : [];
   return {
-    session: { sessionId: session.id, userId: user.id, teamId: session.teamId, role: session.role, email: user.email, name: user.name, unitSystem: user.unitSystem, team: session.team! },
+    session: {
+      sessionId: session.id,
+      userId: user.id,
+      teamId: session.teamId,
+      role: session.role,
+      email: user.email,
+      name: user.name,
+      unitSystem: user.unitSystem,
+      team: session.team!,
+    },
     setCookies,
   };
 }

@@ -47,7 +47,9 @@ export function jsonBody(limit = DEFAULT_BODY_LIMIT): RequestHandler {
     limit,
     verify: (_req, _res, buf) => {
       if (nestsDeeperThan(buf, MAX_JSON_DEPTH)) {
-        throw new Invalid(`request body is nested deeper than ${MAX_JSON_DEPTH} levels`, [{ field: 'body', message: `nested deeper than ${MAX_JSON_DEPTH} levels` }]);
+        throw new Invalid(`request body is nested deeper than ${MAX_JSON_DEPTH} levels`, [
+          { field: 'body', message: `nested deeper than ${MAX_JSON_DEPTH} levels` },
+        ]);
       }
     },
   });

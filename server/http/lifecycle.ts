@@ -42,8 +42,16 @@ export const trackRequests: RequestHandler = (_req, res, next) => {
 export async function readiness(): Promise<{ status: number; body: Record<string, unknown> }> {
   if (state !== 'ready') return { status: 503, body: { ready: false, state } };
   const [database, photos] = await Promise.all([
-    VehicleModel.sequelize!.query('SELECT 1').then(() => 'up', () => 'down'),
-    photoStore().check().then(() => 'up', () => 'down'),
+    VehicleModel.sequelize!.query('SELECT 1').then(
+      () => 'up',
+      () => 'down',
+    ),
+    photoStore()
+      .check()
+      .then(
+        () => 'up',
+        () => 'down',
+      ),
   ]);
   const ok = database === 'up' && photos === 'up';
   return { status: ok ? 200 : 503, body: { ready: ok, state, database, photos } };

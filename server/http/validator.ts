@@ -16,7 +16,11 @@ const SYNCED_TABLES = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 're
 export const teamCursorSql = `greatest(0, ${SYNCED_TABLES.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = $1)`).join(', ')})`;
 
 export async function teamCursor(teamId: string, transaction?: Transaction): Promise<number> {
-  const [row] = await VehicleModel.sequelize!.query<{ cursor: number }>(`SELECT ${teamCursorSql} AS cursor`, { bind: [teamId], type: QueryTypes.SELECT, transaction });
+  const [row] = await VehicleModel.sequelize!.query<{ cursor: number }>(`SELECT ${teamCursorSql} AS cursor`, {
+    bind: [teamId],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return Number(row.cursor);
 }
 

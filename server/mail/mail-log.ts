@@ -19,10 +19,10 @@ const db = () => TeamModel.sequelize!;
 /** A row for one e-mail about to go out ('sending'); returns its id. */
 export async function logMail(mail: Pick<OutgoingMail, 'to' | 'subject'>, meta: MailMeta, transaction?: Transaction): Promise<string> {
   const id = randomUUID();
-  await db().query(
-    `INSERT INTO mail_log (id, team_id, user_id, kind, to_email, subject) VALUES ($1, $2, $3, $4, $5, $6)`,
-    { bind: [id, meta.teamId ?? null, meta.userId ?? null, meta.kind, mail.to.toLowerCase(), mail.subject], transaction },
-  );
+  await db().query(`INSERT INTO mail_log (id, team_id, user_id, kind, to_email, subject) VALUES ($1, $2, $3, $4, $5, $6)`, {
+    bind: [id, meta.teamId ?? null, meta.userId ?? null, meta.kind, mail.to.toLowerCase(), mail.subject],
+    transaction,
+  });
   return id;
 }
 
@@ -40,7 +40,9 @@ export async function sendLoggedRow(id: string, mail: OutgoingMail): Promise<{ m
 
 /** Note that an e-mail of the log did not go out, and why. */
 export async function failMail(id: string, err: unknown): Promise<void> {
-  await db().query(`UPDATE mail_log SET status = 'failed', error = $2, updated_at = now() WHERE id = $1`, { bind: [id, String((err as Error)?.message ?? err).slice(0, 500)] });
+  await db().query(`UPDATE mail_log SET status = 'failed', error = $2, updated_at = now() WHERE id = $1`, {
+    bind: [id, String((err as Error)?.message ?? err).slice(0, 500)],
+  });
 }
 
 /** Log, then send. */

@@ -7,8 +7,7 @@ import { Router, type RequestHandler } from 'express';
 import type { CaughtMessage, MailboxSource } from './sink';
 import { publicAppUrl } from './templates';
 
-const escapeHtml = (s: string) =>
-  s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+const escapeHtml = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
 
 /** Escape a text body and make its http(s) links clickable. */
 export function linkify(text: string): string {

@@ -51,7 +51,15 @@ async function isEstablished(teamId: string, transaction: Transaction): Promise<
 }
 
 /** Seconds until the sends counted in the window drop below the limit (the oldest ones leave it). */
-async function secondsUntilFree(scope: 'team_id' | 'user_id', id: string, kind: CountedKind, window: keyof typeof WINDOW, limit: number, count: number, transaction: Transaction) {
+async function secondsUntilFree(
+  scope: 'team_id' | 'user_id',
+  id: string,
+  kind: CountedKind,
+  window: keyof typeof WINDOW,
+  limit: number,
+  count: number,
+  transaction: Transaction,
+) {
   const [row] = await db().query<{ wait: number }>(
     `SELECT extract(epoch FROM created_at + make_interval(secs => $4) - now())::float8 AS wait
      FROM mail_log WHERE ${scope} = $1 AND kind = $2 AND created_at > now() - make_interval(secs => $4)
@@ -90,7 +98,9 @@ async function reserve(auth: Pick<AuthContext, 'teamId' | 'userId'>, kind: Count
         const limit = s.limits[window];
         if (n[window] < limit) continue;
         const wait = await secondsUntilFree(s.scope, s.id, kind, window, limit, n[window], transaction);
-        const standing = established ? s.most : `${s.most} from a new workshop, until it has confirmed its first e-mail address and signed off its first envelope`;
+        const standing = established
+          ? s.most
+          : `${s.most} from a new workshop, until it has confirmed its first e-mail address and signed off its first envelope`;
         const said = `${s.who} sent ${n[window]} ${NOUN[kind][1]} in ${WINDOW[window].words}, the most ${standing}`;
         throw new TooManyRequests(`${said[0].toUpperCase()}${said.slice(1)}. Nothing was sent: try again in ${waitText(wait)}.`, wait);
       }

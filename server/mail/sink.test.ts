@@ -19,7 +19,12 @@ describe('the mail sink', () => {
   it('catches what the mailer sends, parsed, and waits for what is still on its way', async () => {
     const waiting = sink.waitFor((m) => m.subject === 'Second');
     await sendMail({ to: 'First.Person@Example.test', subject: 'First', text: 'Open https://app.test/invite/abc?x=1&y=<2> now — ünïcode' });
-    await sendMail({ to: 'two@example.test', subject: 'Second', text: 'plain', attachments: [{ filename: 'sheet.pdf', content: Buffer.from('%PDF-1.4'), contentType: 'application/pdf' }] });
+    await sendMail({
+      to: 'two@example.test',
+      subject: 'Second',
+      text: 'plain',
+      attachments: [{ filename: 'sheet.pdf', content: Buffer.from('%PDF-1.4'), contentType: 'application/pdf' }],
+    });
     const second = await waiting;
     expect(second.attachments).toEqual([{ filename: 'sheet.pdf', contentType: 'application/pdf', size: 8 }]);
     const first = sink.messages.find((m) => m.subject === 'First')!;

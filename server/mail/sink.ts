@@ -40,8 +40,7 @@ export interface MailSink extends MailboxSource {
   close(): Promise<void>;
 }
 
-const addressText = (a: AddressObject | AddressObject[] | undefined) =>
-  (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');
+const addressText = (a: AddressObject | AddressObject[] | undefined) => (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');
 
 export async function startMailSink(opts: { port?: number; host?: string; httpPort?: number } = {}): Promise<MailSink> {
   const host = opts.host ?? '127.0.0.1';
@@ -93,7 +92,7 @@ export async function startMailSink(opts: { port?: number; host?: string; httpPo
   });
   // Keep serving after a client misbehaves.
   server.on('error', () => {});
-  const port = ((server as unknown as { server: { address(): AddressInfo } }).server.address()).port;
+  const port = (server as unknown as { server: { address(): AddressInfo } }).server.address().port;
 
   // Other processes (every app instance's mailbox page) read the list here.
   let lister: http.Server | undefined;
@@ -121,7 +120,11 @@ export async function startMailSink(opts: { port?: number; host?: string; httpPo
         const w = { match, resolve: (m: CaughtMessage) => (clearTimeout(timer), resolve(m)) };
         const timer = setTimeout(() => {
           waiters.delete(w);
-          reject(new Error(`no matching e-mail reached the sink within ${timeoutMs} ms (caught: ${messages.map((x) => `"${x.subject}" to ${x.to.join(',')}`).join('; ') || 'none'})`));
+          reject(
+            new Error(
+              `no matching e-mail reached the sink within ${timeoutMs} ms (caught: ${messages.map((x) => `"${x.subject}" to ${x.to.join(',')}`).join('; ') || 'none'})`,
+            ),
+          );
         }, timeoutMs);
         waiters.add(w);
       });

@@ -36,10 +36,24 @@ export { SyncConflictModel } from './sync-conflict.model';
 
 export function initModels(sequelize: Sequelize) {
   for (const init of [
-    initTeam, initUser, initMembership, initUserSession, initInvitation, initPasswordReset,
-    initVehicle, initGaugePoint, initTestSession, initPose, initReading, initPhoto,
-    initEnvelope, initEnvelopeSend, initHistoryEvent, initSyncConflict,
-  ]) init(sequelize);
+    initTeam,
+    initUser,
+    initMembership,
+    initUserSession,
+    initInvitation,
+    initPasswordReset,
+    initVehicle,
+    initGaugePoint,
+    initTestSession,
+    initPose,
+    initReading,
+    initPhoto,
+    initEnvelope,
+    initEnvelopeSend,
+    initHistoryEvent,
+    initSyncConflict,
+  ])
+    init(sequelize);
 
   MembershipModel.belongsTo(UserModel, { foreignKey: 'userId', as: 'user' });
   MembershipModel.belongsTo(TeamModel, { foreignKey: 'teamId', as: 'team' });

@@ -33,7 +33,15 @@ export function syncedAttributes(def: RecordDefinition): Record<string, ModelAtt
   );
 }
 
-type TsOf<T extends ColumnType> = T extends 'uuid' | 'text' | 'date' ? string : T extends 'float8' | 'int4' | 'int8' ? number : T extends 'bool' ? boolean : T extends 'timestamptz' ? Date : unknown;
+type TsOf<T extends ColumnType> = T extends 'uuid' | 'text' | 'date'
+  ? string
+  : T extends 'float8' | 'int4' | 'int8'
+    ? number
+    : T extends 'bool'
+      ? boolean
+      : T extends 'timestamptz'
+        ? Date
+        : unknown;
 type Output<D extends RecordDefinition> = z.output<D['schema']>;
 /** Fields whose column is a timestamptz: a Date on the model, an ISO string in the record. */
 type Instants<D extends RecordDefinition> = { [K in keyof D['columns']]: D['columns'][K] extends 'timestamptz' ? K : never }[keyof D['columns']];

@@ -2,15 +2,7 @@ import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { createDraftInput, saveDraftInput, sendSheetInput, signOffInput } from '../../shared/schemas/envelope';
-import {
-  createDraft,
-  getEnvelope,
-  listSessionEnvelopes,
-  listSignedEnvelopes,
-  reopen,
-  saveDraft,
-  signOff,
-} from '../services/envelope.service';
+import { createDraft, getEnvelope, listSessionEnvelopes, listSignedEnvelopes, reopen, saveDraft, signOff } from '../services/envelope.service';
 import { sendSheet } from '../services/envelope-send.service';
 
 const byId = z.object({ id });

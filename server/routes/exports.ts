@@ -22,7 +22,10 @@ export const exportRoutes = [
     handler: async ({ auth, params, query, res }) => {
       const review = await getReview(auth, params.id);
       const csv = readingsCsv(review, await unitFor(auth, query.unit));
-      res.attachment(`readings-${review.session.testedOn}-${params.id.slice(0, 8)}.csv`).type('text/csv; charset=utf-8').send(csv);
+      res
+        .attachment(`readings-${review.session.testedOn}-${params.id.slice(0, 8)}.csv`)
+        .type('text/csv; charset=utf-8')
+        .send(csv);
       return undefined;
     },
   }),
@@ -35,7 +38,10 @@ export const exportRoutes = [
     handler: async ({ auth, params, query, res }) => {
       const envelope = await getSignedEnvelope(auth, params.id);
       const csv = envelopeCsv(envelope.snapshot, envelope.contentHash, await unitFor(auth, query.unit));
-      res.attachment(`envelope-rev${envelope.revision}-${params.id.slice(0, 8)}.csv`).type('text/csv; charset=utf-8').send(csv);
+      res
+        .attachment(`envelope-rev${envelope.revision}-${params.id.slice(0, 8)}.csv`)
+        .type('text/csv; charset=utf-8')
+        .send(csv);
       return undefined;
     },
   }),

@@ -12,4 +12,16 @@ import { envelopeRoutes } from './envelopes';
 import { compareRoutes } from './compare';
 import { exportRoutes } from './exports';
 
-export const allRoutes: AnyRoute[] = [...healthRoutes, ...authRoutes, ...teamRoutes, ...vehicleRoutes, ...sessionRoutes, ...syncRoutes, ...photoRoutes, ...reviewRoutes, ...envelopeRoutes, ...compareRoutes, ...exportRoutes];
+export const allRoutes: AnyRoute[] = [
+  ...healthRoutes,
+  ...authRoutes,
+  ...teamRoutes,
+  ...vehicleRoutes,
+  ...sessionRoutes,
+  ...syncRoutes,
+  ...photoRoutes,
+  ...reviewRoutes,
+  ...envelopeRoutes,
+  ...compareRoutes,
+  ...exportRoutes,
+];

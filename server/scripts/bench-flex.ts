@@ -35,7 +35,13 @@ function predictionInput(poses: number): EnvelopeInput {
 /** Repeated runs of one diagonal pose (the same lifts each time, fresh reading noise). */
 function toleranceInput(runs: number): EnvelopeInput {
   // The same twist every run (repeats of one pose), fresh reading noise and 5 % scatter of the response.
-  const session = buildSyntheticSession({ twistsDeg: Array.from({ length: runs }, () => 16), gaugePoints: GAUGE_POINTS, seed: 2027, mode: 'gap', proportionalScatter: 0.05 });
+  const session = buildSyntheticSession({
+    twistsDeg: Array.from({ length: runs }, () => 16),
+    gaugePoints: GAUGE_POINTS,
+    seed: 2027,
+    mode: 'gap',
+    proportionalScatter: 0.05,
+  });
   return syntheticEnvelopeInput(session, { designTwistDeg: 20, method: 'tolerance' }, 'gap');
 }
 

@@ -13,8 +13,24 @@ import { repoRoot } from './system.mjs';
 export const serverBuildDir = path.join(repoRoot, 'dist-server');
 
 const external = [
-  'sharp', '@node-rs/*', 'exifr', 'pdfkit', '@aws-sdk/*', 'umzug', 'mailparser', 'pino', 'pino-http',
-  'pg-native', 'pg-query-stream', 'tedious', 'mysql2', 'mariadb', 'sqlite3', 'oracledb', 'ibm_db', 'snowflake-sdk',
+  'sharp',
+  '@node-rs/*',
+  'exifr',
+  'pdfkit',
+  '@aws-sdk/*',
+  'umzug',
+  'mailparser',
+  'pino',
+  'pino-http',
+  'pg-native',
+  'pg-query-stream',
+  'tedious',
+  'mysql2',
+  'mariadb',
+  'sqlite3',
+  'oracledb',
+  'ibm_db',
+  'snowflake-sdk',
 ];
 
 export async function buildServer(outdir = serverBuildDir) {

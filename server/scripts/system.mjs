@@ -56,9 +56,7 @@ export function ensureDebPackages(pkgs) {
 
 export function postgresBinDir() {
   const base = '/usr/lib/postgresql';
-  const versions = fs.existsSync(base)
-    ? fs.readdirSync(base).filter((v) => fs.existsSync(path.join(base, v, 'bin', 'initdb')))
-    : [];
+  const versions = fs.existsSync(base) ? fs.readdirSync(base).filter((v) => fs.existsSync(path.join(base, v, 'bin', 'initdb'))) : [];
   versions.sort((a, b) => Number(b) - Number(a));
   if (!versions.length) throw new Error('PostgreSQL server binaries not found under /usr/lib/postgresql');
   return path.join(base, versions[0], 'bin');
@@ -109,11 +107,22 @@ export async function startCluster({ dataDir, port, fresh = false }) {
   if (fs.existsSync(pidFile)) pgRun(path.join(bin, 'pg_ctl'), ['-D', dir, '-m', 'fast', 'stop'], { quiet: true, allowFail: true });
   if (!(await portFree(port))) throw new Error(`port ${port} on 127.0.0.1 is taken; set TWISTLOG_PG_PORT to another port`);
   const logFile = path.join(dir, 'server.log');
-  pgRun(path.join(bin, 'pg_ctl'), [
-    '-D', dir, '-l', logFile, '-w', '-t', '60',
-    '-o', `-c listen_addresses=127.0.0.1 -c port=${port} -c unix_socket_directories=${dir} -c max_connections=200 -c fsync=${fresh ? 'off' : 'on'}`,
-    'start',
-  ], { quiet: true });
+  pgRun(
+    path.join(bin, 'pg_ctl'),
+    [
+      '-D',
+      dir,
+      '-l',
+      logFile,
+      '-w',
+      '-t',
+      '60',
+      '-o',
+      `-c listen_addresses=127.0.0.1 -c port=${port} -c unix_socket_directories=${dir} -c max_connections=200 -c fsync=${fresh ? 'off' : 'on'}`,
+      'start',
+    ],
+    { quiet: true },
+  );
   const stop = () => pgRun(path.join(bin, 'pg_ctl'), ['-D', dir, '-m', 'fast', '-w', 'stop'], { quiet: true, allowFail: true });
   return { dir, port, bin, stop, url: (db) => `postgres://postgres@127.0.0.1:${port}/${db}` };
 }
@@ -126,7 +135,9 @@ export function stopClusterNow(cluster) {
 /** Create the database if it does not exist yet. */
 export function ensureDatabase(cluster, name) {
   const psql = path.join(cluster.bin, 'psql');
-  const q = spawnSync(psql, ['-h', '127.0.0.1', '-p', String(cluster.port), '-U', 'postgres', '-tAc', `SELECT 1 FROM pg_database WHERE datname='${name}'`], { encoding: 'utf8' });
+  const q = spawnSync(psql, ['-h', '127.0.0.1', '-p', String(cluster.port), '-U', 'postgres', '-tAc', `SELECT 1 FROM pg_database WHERE datname='${name}'`], {
+    encoding: 'utf8',
+  });
   if (q.status !== 0) throw new Error(`psql failed: ${q.stderr}`);
   if (q.stdout.trim() === '1') return;
   run(psql, ['-h', '127.0.0.1', '-p', String(cluster.port), '-U', 'postgres', '-qc', `CREATE DATABASE "${name}"`], { quiet: true });

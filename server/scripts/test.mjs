@@ -30,6 +30,9 @@ try {
   // Then the linter: the import boundaries of DEVELOPERS.md ("Boundaries") and the code rules.
   log('linting the whole tree (eslint)…');
   run('npx', ['eslint', '--max-warnings', '0', '.'], { cwd: repoRoot });
+  // And the layout: one Prettier style for the tree (`npm run format` rewrites it).
+  log('checking the layout (prettier --check)…');
+  run('npx', ['prettier', '--check', '--log-level', 'warn', '.'], { cwd: repoRoot });
   // Port-specific folders let two runs (e.g. two developers on one machine) proceed side by side.
   cluster = await startCluster({ dataDir: path.join(repoRoot, '.data', `pg-test-${pgPort}`), port: pgPort, fresh: true });
   ensureDatabase(cluster, 'twistlog_test');
@@ -49,11 +52,14 @@ try {
     PHOTO_DIR: path.join(repoRoot, '.data', `photos-test-${pgPort}`),
     CLIENT_DIR: clientDir,
     SMTP_PORT: String(pgPort + 1),
-    LOG_LEVEL: process.env.LOG_LEVEL ?? "silent",
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'silent',
     CHROMIUM_PATH: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     TWISTLOG_TEST_SUMMARY: report,
   };
-  const { done } = spawnChild('npx', ['vitest', 'run', '--reporter=default', '--reporter=./server/scripts/test-summary-reporter.ts', ...extraArgs], { cwd: repoRoot, env });
+  const { done } = spawnChild('npx', ['vitest', 'run', '--reporter=default', '--reporter=./server/scripts/test-summary-reporter.ts', ...extraArgs], {
+    cwd: repoRoot,
+    env,
+  });
   code = await done;
 } catch (err) {
   console.error(err.message);
@@ -62,7 +68,10 @@ try {
   cluster?.stop();
 }
 
-let passed = 0, failed = 0, skipped = 0, onRetry = [];
+let passed = 0,
+  failed = 0,
+  skipped = 0,
+  onRetry = [];
 if (fs.existsSync(report)) {
   const r = JSON.parse(fs.readFileSync(report, 'utf8'));
   ({ passed, failed, skipped } = r);

@@ -120,7 +120,13 @@ async function seedWorkshop(): Promise<boolean> {
       const pointIds = points.map((_, pi) => id(vi * 100 + pi + 1, '002'));
       for (const [pi, p] of points.entries()) {
         const zScale = v.opening.heightMm / 500;
-        const point = newGaugePoint({ id: pointIds[pi], vehicleId: v.id, label: p.label, yMm: Math.round(p.y * (v.opening.widthMm / 700)), zMm: Math.round(v.opening.bottomZMm + (p.z - 350) * zScale) });
+        const point = newGaugePoint({
+          id: pointIds[pi],
+          vehicleId: v.id,
+          label: p.label,
+          yMm: Math.round(p.y * (v.opening.widthMm / 700)),
+          zMm: Math.round(v.opening.bottomZMm + (p.z - 350) * zScale),
+        });
         await GaugePointModel.create({ ...point, teamId: DEMO_TEAM_ID }, { transaction });
       }
       const sessionId = id(vi + 1, '003');
@@ -172,8 +178,7 @@ async function seedWorkshop(): Promise<boolean> {
         );
         // Cross-axle twist imposed at the wheels (degrees), then a small rigid motion of the cab
         // against the body: lateral shear and roll grow with twist, fore-aft and vertical less so.
-        const twist =
-          (Math.atan((p.fl - p.fr) / v.trackFrontMm) - Math.atan((p.rl - p.rr) / v.trackRearMm)) * (180 / Math.PI);
+        const twist = (Math.atan((p.fl - p.fr) / v.trackFrontMm) - Math.atan((p.rl - p.rr) / v.trackRearMm)) * (180 / Math.PI);
         const ty = shearPerDeg * twist;
         const tz = 2.2 * Math.abs(twist);
         const wx = rollPerDeg * twist;
@@ -189,7 +194,13 @@ async function seedWorkshop(): Promise<boolean> {
           };
           for (const [ai, axis] of (['foreAft', 'lateral', 'vertical'] as const).entries()) {
             const value = si === 0 ? baseline[axis] : baseline[axis] + d[axis] + rand();
-            const reading = newReading({ id: id(vi * 10000 + si * 100 + pi * 3 + ai + 1, '005'), poseId, gaugePointId: pointIds[pi], axis, valueMm: Math.round(value * 2) / 2 });
+            const reading = newReading({
+              id: id(vi * 10000 + si * 100 + pi * 3 + ai + 1, '005'),
+              poseId,
+              gaugePointId: pointIds[pi],
+              axis,
+              valueMm: Math.round(value * 2) / 2,
+            });
             await ReadingModel.create({ ...reading, teamId: DEMO_TEAM_ID, enteredBy: tester }, { transaction });
           }
         }
@@ -215,7 +226,11 @@ async function seedDemoEnvelope(): Promise<boolean> {
   // on the desk, and the crew noted that they had re-read it.
   const flagged = await ReadingModel.findByPk(DEMO_FLAGGED_READING_ID);
   if (flagged && flagged.flagNote === null) {
-    await flagged.update({ valueMm: flagged.valueMm + 8, version: flagged.version + 1, flagNote: 'Dial gauge bracket may have flexed on the ramp; re-seated and read again, same value' });
+    await flagged.update({
+      valueMm: flagged.valueMm + 8,
+      version: flagged.version + 1,
+      flagNote: 'Dial gauge bracket may have flexed on the ramp; re-seated and read again, same value',
+    });
   }
   const params: EnvelopeParams = {
     ...DEFAULT_DRAFT_PARAMS,
@@ -223,7 +238,15 @@ async function seedDemoEnvelope(): Promise<boolean> {
     seal: { freeHeightMm: 150, minCompressionPercent: 25, maxCompressionPercent: 50 },
     design: { ...DEFAULT_DRAFT_PARAMS.design, option: 'boot', driverSide: 'left' },
   };
-  await EnvelopeModel.create({ id: DEMO_ENVELOPE_ID, teamId: DEMO_TEAM_ID, vehicleId: vehicle.id, sessionId: id(1, '003'), revision: 1, params, createdBy: engineer.id });
+  await EnvelopeModel.create({
+    id: DEMO_ENVELOPE_ID,
+    teamId: DEMO_TEAM_ID,
+    vehicleId: vehicle.id,
+    sessionId: id(1, '003'),
+    revision: 1,
+    params,
+    createdBy: engineer.id,
+  });
   // The engineer kept the flagged reading after the crew's note, and said so at sign-off.
   const auth = { teamId: DEMO_TEAM_ID, userId: engineer.id, name: engineer.name };
   const detail = await getSessionDetail(auth, id(1, '003'));
@@ -256,6 +279,10 @@ async function seedDemoPhoto(): Promise<boolean> {
   // Loaded here, not at the top: the server's cold start does not wait for sharp.
   const { default: sharp } = await import('sharp');
   const jpeg = await sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
-  await savePhoto({ teamId: DEMO_TEAM_ID, userId: tester.id }, { id: DEMO_PHOTO_ID, sessionId: id(1, '003'), poseId: rampPose, caption: 'Gauge D across the gap, ramp pose' }, jpeg);
+  await savePhoto(
+    { teamId: DEMO_TEAM_ID, userId: tester.id },
+    { id: DEMO_PHOTO_ID, sessionId: id(1, '003'), poseId: rampPose, caption: 'Gauge D across the gap, ramp pose' },
+    jpeg,
+  );
   return true;
 }

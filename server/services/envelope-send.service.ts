@@ -22,7 +22,11 @@ export async function unitFor(auth: Pick<AuthContext, 'userId' | 'teamId'>, over
 }
 
 export function sheetFileName(vehicleName: string, revision: number) {
-  const slug = vehicleName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'vehicle';
+  const slug =
+    vehicleName
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'vehicle';
   return `fabrication-sheet-${slug}-rev${revision}.pdf`;
 }
 

@@ -163,7 +163,8 @@ export async function saveDraft(auth: Signer, id: string, input: { version: numb
   await sequelize.transaction(async (transaction) => {
     const row = await envelopeRow(auth.teamId, id, transaction);
     if (row.status !== 'draft') throw new Conflict(`revision ${row.revision} is ${row.status}: its parameters are frozen; re-open it as a new revision`);
-    if (row.version !== input.version) throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);
+    if (row.version !== input.version)
+      throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);
     const before = row.params;
     await row.update({ params: input.params, version: row.version + 1 }, { transaction });
     await history(auth.teamId, row.sessionId, row.id, 'envelope.params', auth.userId, { before, after: input.params }, transaction);
@@ -176,20 +177,27 @@ export async function saveDraft(auth: Signer, id: string, input: { version: numb
  * boot check with shared/flex, checks that every flagged reading kept in the computation is
  * acknowledged, freezes the snapshot with its hash, supersedes earlier signed revisions.
  */
-export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput, 'version'> & Partial<SignOffInput>, now = new Date()): Promise<EnvelopeRecord> {
+export async function signOff(
+  auth: Signer,
+  id: string,
+  input: Pick<SignOffInput, 'version'> & Partial<SignOffInput>,
+  now = new Date(),
+): Promise<EnvelopeRecord> {
   const sequelize = EnvelopeModel.sequelize!;
   // One snapshot of the database for every read: an edit committing mid-way cannot mix in.
   await sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (transaction) => {
     const row = await envelopeRow(auth.teamId, id, transaction);
     if (row.status !== 'draft') throw new Conflict(`revision ${row.revision} is already ${row.status}`);
-    if (row.version !== input.version) throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);
+    if (row.version !== input.version)
+      throw new Conflict(`the envelope changed since you opened it (version ${row.version}, yours ${input.version}); reload it`);
     const params = envelopeParams.parse(row.params);
     const detail = await getSessionDetail(auth, row.sessionId, { transaction });
     let envelope: DeskEnvelope;
     try {
       envelope = computeDeskEnvelope(detail, params);
     } catch (error) {
-      if (error instanceof FlexInputError) throw new Invalid(`the envelope cannot be computed from this session: ${error.message}`, [{ field: error.field, message: error.problem }]);
+      if (error instanceof FlexInputError)
+        throw new Invalid(`the envelope cannot be computed from this session: ${error.message}`, [{ field: error.field, message: error.problem }]);
       throw error;
     }
     const acknowledged = new Map((input.acknowledgements ?? []).map((a) => [a.readingId, a.note ?? '']));
@@ -207,7 +215,13 @@ export async function signOff(auth: Signer, id: string, input: Pick<SignOffInput
       transaction,
     });
     const snapshot = {
-      ...buildSnapshot(detail, params, { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision }, envelope, acknowledged),
+      ...buildSnapshot(
+        detail,
+        params,
+        { signedBy: { id: auth.userId, name: auth.name }, signedAt: now.toISOString(), revision: row.revision },
+        envelope,
+        acknowledged,
+      ),
       supersedesRevision: standing.length === 0 ? null : Math.max(...standing.map((e) => e.revision)),
     };
     // Stored exactly as hashed, so reading it back re-hashes to the same value.

@@ -69,9 +69,17 @@ function table(doc: Doc, columns: { title: string; width: number; align?: 'left'
     });
     doc.x = MARGIN;
     doc.y = y + height + 3;
-    doc.moveTo(MARGIN, doc.y - 1.5).lineTo(x, doc.y - 1.5).lineWidth(0.3).strokeColor(bold ? LINE : '#c9c3b3').stroke();
+    doc
+      .moveTo(MARGIN, doc.y - 1.5)
+      .lineTo(x, doc.y - 1.5)
+      .lineWidth(0.3)
+      .strokeColor(bold ? LINE : '#c9c3b3')
+      .stroke();
   };
-  draw(columns.map((c) => c.title), true);
+  draw(
+    columns.map((c) => c.title),
+    true,
+  );
   for (const row of rows) draw(row, false);
   doc.font('regular');
 }
@@ -79,7 +87,10 @@ function table(doc: Doc, columns: { title: string; width: number; align?: 'left'
 function arrowLine(doc: Doc, x1: number, y1: number, x2: number, y2: number) {
   doc.moveTo(x1, y1).lineTo(x2, y2).lineWidth(0.6).strokeColor(LINE).stroke();
   const a = Math.atan2(y2 - y1, x2 - x1);
-  for (const [x, y, dir] of [[x1, y1, a], [x2, y2, a + Math.PI]] as const) {
+  for (const [x, y, dir] of [
+    [x1, y1, a],
+    [x2, y2, a + Math.PI],
+  ] as const) {
     doc
       .moveTo(x, y)
       .lineTo(x + 5 * Math.cos(dir + 0.35), y + 5 * Math.sin(dir + 0.35))
@@ -95,7 +106,12 @@ function arrowLine(doc: Doc, x1: number, y1: number, x2: number, y2: number) {
  * right), with its outline dimensioned, the gauge points by label, L and R marked, and for the
  * body-side frame of an overlapping design its inner (clear) edge.
  */
-function frameDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem, at: { left: number; top: number; title: string; inner: { widthMm: number; heightMm: number } | null }) {
+function frameDrawing(
+  doc: Doc,
+  s: EnvelopeSnapshot,
+  unit: UnitSystem,
+  at: { left: number; top: number; title: string; inner: { widthMm: number; heightMm: number } | null },
+) {
   const o = s.vehicle.opening;
   const boxW = 190;
   const boxH = 150;
@@ -105,27 +121,52 @@ function frameDrawing(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem, at: { lef
   const left = at.left + 22;
   const top = at.top + 36;
   const driver = designOf(s).driverSide;
-  doc.font('bold').fontSize(10).fillColor(LINE).text(at.title, at.left, at.top, { width: boxW + 60 });
-  doc.roundedRect(left, top, w, h, o.cornerRadiusMm * scale).lineWidth(1.5).strokeColor(INK).stroke();
+  doc
+    .font('bold')
+    .fontSize(10)
+    .fillColor(LINE)
+    .text(at.title, at.left, at.top, { width: boxW + 60 });
+  doc
+    .roundedRect(left, top, w, h, o.cornerRadiusMm * scale)
+    .lineWidth(1.5)
+    .strokeColor(INK)
+    .stroke();
   if (at.inner) {
     const iw = at.inner.widthMm * scale;
     const ih = at.inner.heightMm * scale;
-    doc.rect(left + (w - iw) / 2, top + (h - ih) / 2, iw, ih).lineWidth(0.8).dash(3, { space: 2 }).strokeColor(LINE).stroke().undash();
+    doc
+      .rect(left + (w - iw) / 2, top + (h - ih) / 2, iw, ih)
+      .lineWidth(0.8)
+      .dash(3, { space: 2 })
+      .strokeColor(LINE)
+      .stroke()
+      .undash();
   }
   const px = (y: number) => left + w / 2 + (y - o.centreYMm) * scale;
   const py = (z: number) => top + h - (z - o.bottomZMm) * scale;
   for (const g of s.gaugePoints) {
     doc.circle(px(g.yMm), py(g.zMm), 3).fillColor('#8a4b00').fill();
-    doc.font('bold').fontSize(8).fillColor(INK).text(g.label, px(g.yMm) + 4, py(g.zMm) - 10, { lineBreak: false });
+    doc
+      .font('bold')
+      .fontSize(8)
+      .fillColor(INK)
+      .text(g.label, px(g.yMm) + 4, py(g.zMm) - 10, { lineBreak: false });
   }
   arrowLine(doc, left, top - 8, left + w, top - 8);
-  doc.font('regular').fontSize(8).fillColor(INK).text(formatBuildLength(o.widthMm, unit), left, top - 19, { width: w, align: 'center' });
+  doc
+    .font('regular')
+    .fontSize(8)
+    .fillColor(INK)
+    .text(formatBuildLength(o.widthMm, unit), left, top - 19, { width: w, align: 'center' });
   arrowLine(doc, left - 10, top, left - 10, top + h);
   doc.save().rotate(-90, { origin: [left - 14, top + h / 2] });
   doc.text(formatBuildLength(o.heightMm, unit), left - 14 - h / 2, top + h / 2 - 9, { width: h, align: 'center' });
   doc.restore();
   // Each side's mark under its edge, one line each so they never run together on a narrow opening.
-  doc.font('bold').fontSize(8).text(sideWords('right', driver), left - 10, top + h + 4, { lineBreak: false });
+  doc
+    .font('bold')
+    .fontSize(8)
+    .text(sideWords('right', driver), left - 10, top + h + 4, { lineBreak: false });
   doc.text(sideWords('left', driver), left - 10, top + h + 15, { width: w + 20, align: 'right', lineBreak: false });
   doc.font('regular');
   return top + h + 30;
@@ -149,8 +190,8 @@ function framesSection(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
   doc.text(
     `Both seen from the cab, looking rearward: the vehicle's left (+y) is on the right of each drawing. Corner radius ${formatBuildLength(o.cornerRadiusMm, unit)}; ` +
       `the opening's centre is ${formatLength(o.centreYMm, unit)} from the vehicle centreline (+ = left) and its bottom edge ${formatLength(o.bottomZMm, unit)} above the top of the frame rail; ` +
-      `nominal fore-aft gap ${formatBuildLength(s.vehicle.nominalGapMm, unit)}.${overlapping ? ' Dashed: the body-side frame\'s inner edge (the clear opening).' : ''}` +
-      (design.driverSide === null ? ' The driver\'s side was not set: L and R are the vehicle\'s left and right.' : ''),
+      `nominal fore-aft gap ${formatBuildLength(s.vehicle.nominalGapMm, unit)}.${overlapping ? " Dashed: the body-side frame's inner edge (the clear opening)." : ''}` +
+      (design.driverSide === null ? " The driver's side was not set: L and R are the vehicle's left and right." : ''),
     MARGIN,
     doc.y,
     { width: doc.page.width - 2 * MARGIN },
@@ -189,13 +230,23 @@ function buildSection(doc: Doc, s: EnvelopeSnapshot, unit: UnitSystem) {
  */
 function signOffFooters(doc: Doc, s: EnvelopeSnapshot, contentHash: string, status: SheetInput['status']) {
   const range = doc.bufferedPageRange();
-  const supersedes = s.format === 2 && s.supersedesRevision !== undefined ? (s.supersedesRevision === null ? 'supersedes none' : `supersedes revision ${s.supersedesRevision}`) : 'supersedes: not recorded';
+  const supersedes =
+    s.format === 2 && s.supersedesRevision !== undefined
+      ? s.supersedesRevision === null
+        ? 'supersedes none'
+        : `supersedes revision ${s.supersedesRevision}`
+      : 'supersedes: not recorded';
   for (let i = range.start; i < range.start + range.count; i++) {
     doc.switchToPage(i);
     const bottomMargin = doc.page.margins.bottom;
     doc.page.margins.bottom = 0;
     const y = doc.page.height - MARGIN + 8;
-    doc.moveTo(MARGIN, y - 4).lineTo(doc.page.width - MARGIN, y - 4).lineWidth(0.5).strokeColor(LINE).stroke();
+    doc
+      .moveTo(MARGIN, y - 4)
+      .lineTo(doc.page.width - MARGIN, y - 4)
+      .lineWidth(0.5)
+      .strokeColor(LINE)
+      .stroke();
     doc.font('regular').fontSize(7.5).fillColor(INK);
     doc.text(
       `Drawing ${drawingNumber(s)} revision ${s.revision} (${supersedes})${status === 'superseded' ? ' · SUPERSEDED' : ''} · signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)} · hash ${contentHash.slice(0, 16)}…`,
@@ -217,7 +268,12 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
     // Kept until the end, so each page's footer can say "page x of y".
     bufferPages: true,
     // Dated at the sign-off, so the same revision always prints to the same file.
-    info: { Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`, Author: s.signedBy.name, Creator: 'Twistlog', CreationDate: new Date(s.signedAt) },
+    info: {
+      Title: `Fabrication sheet: ${s.vehicle.name}, revision ${s.revision}`,
+      Author: s.signedBy.name,
+      Creator: 'Twistlog',
+      CreationDate: new Date(s.signedAt),
+    },
   });
   doc.registerFont('regular', REGULAR);
   doc.registerFont('bold', BOLD);
@@ -231,16 +287,27 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   doc.font('bold').fontSize(18).fillColor(LINE).text('Fabrication sheet: pass-through boot and seal');
   doc.font('regular').fontSize(10).fillColor(INK);
   doc.text(`${revisionName({ vehicleName: s.vehicle.name, sessionTitle: s.session.title, revision: s.revision })} · tested ${s.session.testedOn}`);
-  doc.text(`Drawing ${drawingNumber(s)}, revision ${s.revision}${s.format === 2 && s.supersedesRevision != null ? `, supersedes revision ${s.supersedesRevision}` : ''}.`);
+  doc.text(
+    `Drawing ${drawingNumber(s)}, revision ${s.revision}${s.format === 2 && s.supersedesRevision != null ? `, supersedes revision ${s.supersedesRevision}` : ''}.`,
+  );
   doc.text(
     `All lengths in ${UNIT_WORDS[unit]}${unit === 'in' ? ', to 0.01 in, with build figures also to the nearest 1/16 in' : ''}. Axes: fore-aft (+ = gap opens), lateral (+ = cab moves left), vertical (+ = cab moves up).`,
   );
   if (status === 'superseded') {
-    doc.moveDown(0.3).font('bold').fillColor('#b3261e').text('SUPERSEDED: a later revision of this envelope has been signed off. Do not fabricate from this sheet.');
+    doc
+      .moveDown(0.3)
+      .font('bold')
+      .fillColor('#b3261e')
+      .text('SUPERSEDED: a later revision of this envelope has been signed off. Do not fabricate from this sheet.');
     doc.font('regular').fillColor(INK);
   }
 
-  doc.moveDown(0.5).font('bold').fontSize(11).fillColor(LINE).text(buildToSentence(s, unit), MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
+  doc
+    .moveDown(0.5)
+    .font('bold')
+    .fontSize(11)
+    .fillColor(LINE)
+    .text(buildToSentence(s, unit), MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
   doc.font('regular').fontSize(9).fillColor(INK);
 
   heading(doc, 'Frames and gauge points');
@@ -323,7 +390,9 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
       ],
       (['top', 'bottom', 'left', 'right'] as const).map((side) => {
         const b = boot[side];
-        const range = b.sealFreeHeightRangeMm ? `${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)}` : 'none';
+        const range = b.sealFreeHeightRangeMm
+          ? `${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)}`
+          : 'none';
         const check = b.seal ? `${b.seal.follows ? 'follows' : 'does NOT follow'}: ${sealReason(b.seal, b.gapMinMm, b.gapMaxMm, lengthWords(unit))}` : '—';
         return [SIDE_NAMES[side], range, check];
       }),
@@ -340,7 +409,10 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   doc.text(`Margin ${formatPercent(p.margin)}; allowance ${formatLength(p.allowanceMm, unit)}; rounded up to ${formatIncrement(p.incrementMm, unit)}.`);
   doc.text(`${s.poses.length} poses, ${s.readings.length} readings used, ${s.excludedReadings.length} excluded by the engineer.`);
   const remarks = envelopeRemarks(s.result, unit);
-  for (const [title, list] of [['Remarks on the readings and the fit', remarks.readings], ['Remarks on the bound', remarks.bound]] as const) {
+  for (const [title, list] of [
+    ['Remarks on the readings and the fit', remarks.readings],
+    ['Remarks on the bound', remarks.bound],
+  ] as const) {
     if (list.length === 0) continue;
     heading(doc, title);
     doc.fontSize(8).fillColor(MUTED);
@@ -375,7 +447,11 @@ export async function buildSheetPdf({ snapshot: s, contentHash, status, unit }: 
   doc.text(`Signed off by ${s.signedBy.name} on ${formatTimestamp(s.signedAt)}, revision ${s.revision}.`, MARGIN);
   doc.fontSize(8).text(`Content hash (SHA-256 of the snapshot's canonical JSON): ${contentHash}`);
 
-  doc.moveDown(0.8).fontSize(9).font('bold').text(PLANNING_AID_NOTICE, MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
+  doc
+    .moveDown(0.8)
+    .fontSize(9)
+    .font('bold')
+    .text(PLANNING_AID_NOTICE, MARGIN, doc.y, { width: doc.page.width - 2 * MARGIN });
   signOffFooters(doc, s, contentHash, status);
   doc.end();
   return done;

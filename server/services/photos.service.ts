@@ -137,7 +137,11 @@ export const photoOut = (p: PhotoModel): Photo & { changeSeq: number } => ({
  * Stores one uploaded photo. The client's id makes a retried upload (lost answer) return the
  * photo already stored instead of storing it twice.
  */
-export async function savePhoto(auth: Pick<AuthContext, 'teamId' | 'userId'>, fields: { id: string; sessionId: string; poseId: string | null; caption: string }, file: Buffer | undefined) {
+export async function savePhoto(
+  auth: Pick<AuthContext, 'teamId' | 'userId'>,
+  fields: { id: string; sessionId: string; poseId: string | null; caption: string },
+  file: Buffer | undefined,
+) {
   if (!file) throw new Invalid('photo: no file was sent', [{ field: 'photo', message: 'required' }]);
   const existing = await PhotoModel.findByPk(fields.id);
   if (existing) {
@@ -167,20 +171,25 @@ export async function savePhoto(auth: Pick<AuthContext, 'teamId' | 'userId'>, fi
   const { stored, thumb } = await decodeQueue(() => reencode(file));
   const files = await writePhotoFiles(stored.data, thumb);
   try {
-    const row = await withTeamChanges(auth.teamId, (transaction) => PhotoModel.create({
-      id: fields.id,
-      teamId: auth.teamId,
-      sessionId: fields.sessionId,
-      poseId: fields.poseId,
-      caption: fields.caption,
-      ...files,
-      mime: 'image/jpeg',
-      width: stored.info.width,
-      height: stored.info.height,
-      bytes: stored.data.length,
-      ...meta,
-      createdBy: auth.userId,
-    }, { transaction }));
+    const row = await withTeamChanges(auth.teamId, (transaction) =>
+      PhotoModel.create(
+        {
+          id: fields.id,
+          teamId: auth.teamId,
+          sessionId: fields.sessionId,
+          poseId: fields.poseId,
+          caption: fields.caption,
+          ...files,
+          mime: 'image/jpeg',
+          width: stored.info.width,
+          height: stored.info.height,
+          bytes: stored.data.length,
+          ...meta,
+          createdBy: auth.userId,
+        },
+        { transaction },
+      ),
+    );
     return { photo: photoOut(row), created: true };
   } catch (err) {
     await removePhotoFiles(files);
@@ -199,7 +208,11 @@ async function checkStorage(teamId: string, incoming: number) {
   );
   const limit = photoLimits.storagePerWorkshopMb * 1024 * 1024;
   if (used + incoming > limit) {
-    throw new AppError(507, 'storage_full', `the workshop's photo storage is full (${Math.round(used / 1024 / 1024)} of ${photoLimits.storagePerWorkshopMb} MB): the photo stays on the phone until there is room`);
+    throw new AppError(
+      507,
+      'storage_full',
+      `the workshop's photo storage is full (${Math.round(used / 1024 / 1024)} of ${photoLimits.storagePerWorkshopMb} MB): the photo stays on the phone until there is room`,
+    );
   }
 }
 
@@ -212,4 +225,5 @@ export async function photoFile(auth: AuthContext, id: string, size: 'full' | 't
   return file;
 }
 
-export const tooLarge = () => new AppError(413, 'too_large', `photo is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB`, [{ field: 'photo', message: 'file too large' }]);
+export const tooLarge = () =>
+  new AppError(413, 'too_large', `photo is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB`, [{ field: 'photo', message: 'file too large' }]);

@@ -30,12 +30,21 @@ export const pullSql = () => {
   const page = (table: string) => `SELECT * FROM ${table} WHERE team_id = $1 AND change_seq > $2 ORDER BY change_seq LIMIT $3`;
   // [answer key, alias, the alias's rows, one row's JSON]: the synced records of the registry, then photos and conflicts.
   const tables: [string, string, string, string][] = [
-    ...syncEntities.map((entity, i): [string, string, string, string] => [records[entity].pullKey, `t${i}`, page(syncTables[entity].table), syncedRecordJsonSql(entity, `t${i}`)]),
+    ...syncEntities.map((entity, i): [string, string, string, string] => [
+      records[entity].pullKey,
+      `t${i}`,
+      page(syncTables[entity].table),
+      syncedRecordJsonSql(entity, `t${i}`),
+    ]),
     ['photos', 'ph', page('photos'), photoJsonSql('ph')],
-    ['conflicts', 'c', 'SELECT * FROM sync_conflicts WHERE team_id = $1 AND user_id = $4 AND change_seq > $2 ORDER BY change_seq LIMIT $3',
+    [
+      'conflicts',
+      'c',
+      'SELECT * FROM sync_conflicts WHERE team_id = $1 AND user_id = $4 AND change_seq > $2 ORDER BY change_seq LIMIT $3',
       `json_build_object('id', c.id, 'entity', c.entity, 'entityId', c.entity_id, 'baseVersion', c.base_version,
       'serverVersion', c.server_version, 'clientRecord', c.client_record, 'serverRecord', c.server_record,
-      'createdAt', ${isoSql('c.created_at')}, 'resolvedAt', ${isoSql('c.resolved_at')}, 'resolution', c.resolution)`],
+      'createdAt', ${isoSql('c.created_at')}, 'resolvedAt', ${isoSql('c.resolved_at')}, 'resolution', c.resolution)`,
+    ],
   ];
   const aliases = tables.map(([, alias]) => alias);
   return (pullSqlText = `

@@ -24,7 +24,8 @@ const HISTORY_SHOWN = 200;
 // history. PostgreSQL builds the JSON and the route passes the text through (see record-json.ts).
 // Written once the models are initialised, from their column names.
 let reviewSqlText: string | undefined;
-export const reviewSql = () => (reviewSqlText ??= `
+export const reviewSql = () =>
+  (reviewSqlText ??= `
 WITH s AS (SELECT * FROM test_sessions WHERE id = $2 AND team_id = $1 AND deleted_at IS NULL),
 v AS (SELECT v.* FROM vehicles v JOIN s ON v.id = s.vehicle_id WHERE v.team_id = $1),
 g AS (SELECT g.* FROM gauge_points g JOIN s ON g.vehicle_id = s.vehicle_id WHERE g.team_id = $1 AND g.deleted_at IS NULL),
@@ -46,7 +47,10 @@ SELECT (SELECT count(*) FROM s)::int AS sessions, (SELECT count(*) FROM v)::int 
 
 /** The review as JSON text, built by PostgreSQL. */
 export async function getReviewJson(auth: Pick<AuthContext, 'teamId'>, sessionId: string): Promise<string> {
-  const [row] = await TestSessionModel.sequelize!.query<{ sessions: number; vehicles: number; body: string }>(reviewSql(), { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT });
+  const [row] = await TestSessionModel.sequelize!.query<{ sessions: number; vehicles: number; body: string }>(reviewSql(), {
+    bind: [auth.teamId, sessionId],
+    type: QueryTypes.SELECT,
+  });
   if (!row.sessions) throw new NotFound('session');
   if (!row.vehicles) throw new NotFound('vehicle');
   return row.body;
@@ -97,7 +101,10 @@ export async function reviewReading(auth: Reviewer, readingId: string, input: Re
     };
     // Including a reading again keeps no stale reason; excluding one always has a reason.
     if (!next.excluded) next.excludeReason = null;
-    if (next.excluded && !next.excludeReason) throw new Invalid('body.excludeReason: excluding a reading needs a reason', [{ field: 'body.excludeReason', message: 'excluding a reading needs a reason' }]);
+    if (next.excluded && !next.excludeReason)
+      throw new Invalid('body.excludeReason: excluding a reading needs a reason', [
+        { field: 'body.excludeReason', message: 'excluding a reading needs a reason' },
+      ]);
 
     const changes: Record<string, { before: unknown; after: unknown }> = {};
     for (const key of ['excluded', 'excludeReason', 'flagNote', 'valueMm'] as const) {
@@ -106,7 +113,15 @@ export async function reviewReading(auth: Reviewer, readingId: string, input: Re
     if (Object.keys(changes).length === 0) return readingOut(reading);
     await reading.update({ ...next, version: reading.version + 1 }, { transaction });
     await HistoryEventModel.create(
-      { teamId: auth.teamId, sessionId: session.id, entity: 'reading', entityId: reading.id, action: readingEditAction(changes, next.excluded), userId: auth.userId, detail: changes },
+      {
+        teamId: auth.teamId,
+        sessionId: session.id,
+        entity: 'reading',
+        entityId: reading.id,
+        action: readingEditAction(changes, next.excluded),
+        userId: auth.userId,
+        detail: changes,
+      },
       { transaction },
     );
     return readingOut(reading);

@@ -9,7 +9,10 @@ import type { SessionDetail, SessionSummary } from '../../shared/desk-responses'
 export async function listSessions(auth: AuthContext): Promise<SessionSummary[]> {
   const rows = await TestSessionModel.findAll({
     where: { teamId: auth.teamId, deletedAt: null },
-    order: [['testedOn', 'DESC'], ['createdAt', 'DESC']],
+    order: [
+      ['testedOn', 'DESC'],
+      ['createdAt', 'DESC'],
+    ],
     include: [{ model: VehicleModel, as: 'vehicle', attributes: ['name'] }],
   });
   const signed = await EnvelopeModel.findAll({
@@ -30,17 +33,40 @@ export const readingOut = (r: ReadingModel) => ({ ...toRecord('reading', r), ent
 
 /** A whole session with its vehicle, gauge points, poses and readings: what review and the envelope need. */
 // `transaction` lets a sign-off read the readings it freezes inside its own transaction.
-export async function getSessionDetail(auth: Pick<AuthContext, 'teamId'>, id: string, { transaction }: { transaction?: Transaction } = {}): Promise<SessionDetail> {
+export async function getSessionDetail(
+  auth: Pick<AuthContext, 'teamId'>,
+  id: string,
+  { transaction }: { transaction?: Transaction } = {},
+): Promise<SessionDetail> {
   const s = await TestSessionModel.findOne({ where: { id, teamId: auth.teamId, deletedAt: null }, transaction });
   if (!s) throw new NotFound('session');
   // One after another: queries of one transaction share its connection.
   const v = await VehicleModel.findOne({ where: { id: s.vehicleId, teamId: auth.teamId }, transaction });
-  const points = await GaugePointModel.findAll({ where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null }, order: [['label', 'ASC']], transaction });
+  const points = await GaugePointModel.findAll({
+    where: { vehicleId: s.vehicleId, teamId: auth.teamId, deletedAt: null },
+    order: [['label', 'ASC']],
+    transaction,
+  });
   // Plain rows for the many: building a model instance per reading costs more than the query.
-  const poses = await PoseModel.findAll({ where: { sessionId: id, teamId: auth.teamId, deletedAt: null }, order: [['seq', 'ASC']], transaction, raw: true, attributes: { exclude: ['createdAt', 'updatedAt'] } });
+  const poses = await PoseModel.findAll({
+    where: { sessionId: id, teamId: auth.teamId, deletedAt: null },
+    order: [['seq', 'ASC']],
+    transaction,
+    raw: true,
+    attributes: { exclude: ['createdAt', 'updatedAt'] },
+  });
   if (!v) throw new NotFound('vehicle');
   const readings = poses.length
-    ? await ReadingModel.findAll({ where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null }, order: [['createdAt', 'ASC'], ['id', 'ASC']], transaction, raw: true, attributes: { exclude: ['createdAt', 'updatedAt'] } })
+    ? await ReadingModel.findAll({
+        where: { teamId: auth.teamId, poseId: poses.map((p) => p.id), deletedAt: null },
+        order: [
+          ['createdAt', 'ASC'],
+          ['id', 'ASC'],
+        ],
+        transaction,
+        raw: true,
+        attributes: { exclude: ['createdAt', 'updatedAt'] },
+      })
     : [];
   return {
     session: toRecord('testSession', s),

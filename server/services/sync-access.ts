@@ -200,7 +200,11 @@ async function sessionResolver(auth: AuthContext, items: AccessItem[], rows: Map
   }
   const unknown = [...poseIds].filter((id) => !poseSession.has(id));
   if (unknown.length) {
-    const found = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])', [auth.teamId, unknown], transaction);
+    const found = await select<{ id: string; session_id: string }>(
+      'SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])',
+      [auth.teamId, unknown],
+      transaction,
+    );
     for (const p of found) poseSession.set(p.id, p.session_id);
   }
   return (item: AccessItem): string[] => {
@@ -218,7 +222,11 @@ async function sessionResolver(auth: AuthContext, items: AccessItem[], rows: Map
 }
 
 /** One history event per changed record, with each field's before and after (as the desk's review leaves them). */
-async function recordChanges(auth: AuthContext, history: { item: AccessItem; sessionId: string | null; changes: Record<string, { before: unknown; after: unknown }> }[], transaction: Transaction) {
+async function recordChanges(
+  auth: AuthContext,
+  history: { item: AccessItem; sessionId: string | null; changes: Record<string, { before: unknown; after: unknown }> }[],
+  transaction: Transaction,
+) {
   if (!history.length) return;
   const action = (h: (typeof history)[number]) =>
     h.item.entity === 'reading' ? readingEditAction(h.changes, h.item.record.excluded as boolean) : `${h.item.entity}.edit`;

@@ -123,7 +123,10 @@ export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item
   const src = unnestSource(spec, items, needsUser ? 3 : 2);
   const cols = spec.columns.map((col) => col.column);
   const extraCols = [...(spec.createdByColumn ? [spec.createdByColumn] : []), ...(spec.entity === 'testSession' ? ['safety_ack_by'] : [])];
-  const extraVals = [...(spec.createdByColumn ? ['$2::uuid'] : []), ...(spec.entity === 'testSession' ? ['CASE WHEN u.safety_ack_at IS NULL THEN NULL ELSE $2::uuid END'] : [])];
+  const extraVals = [
+    ...(spec.createdByColumn ? ['$2::uuid'] : []),
+    ...(spec.entity === 'testSession' ? ['CASE WHEN u.safety_ack_at IS NULL THEN NULL ELSE $2::uuid END'] : []),
+  ];
   const sql = `INSERT INTO ${spec.table} (id, team_id, version, ${[...cols, ...extraCols].join(', ')})
     SELECT u.id, $1::uuid, 1, ${[...cols.map((c) => `u.${c}`), ...extraVals].join(', ')} FROM ${src.sql}`;
   await db().query(sql, { bind: [auth.teamId, ...(needsUser ? [auth.userId] : []), ...src.bind], transaction });

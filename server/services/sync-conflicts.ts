@@ -113,13 +113,20 @@ async function writeClientSide(auth: AuthContext, conflict: Row, transaction: Tr
   const parsed = syncChange.safeParse({ entity, record: merged });
   if (!parsed.success) throw Invalid.fromZod('clientRecord', parsed.error);
   const item: Item = { index: 0, entity, record: parsed.data.record as Item['record'] };
-  const plan: Plan = { inserts: new Map(syncOrder.map((e) => [e, []])), updates: new Map(syncOrder.map((e) => [e, e === entity ? [item] : []])), conflicts: [] };
+  const plan: Plan = {
+    inserts: new Map(syncOrder.map((e) => [e, []])),
+    updates: new Map(syncOrder.map((e) => [e, e === entity ? [item] : []])),
+    conflicts: [],
+  };
   const errors: FieldError[] = [];
   const fieldOf: FieldOf = (_item, key) => `clientRecord.${key}`;
   await checkReadingSlots(auth, plan, errors, transaction, fieldOf);
   await checkGaugeLabels(auth, plan, errors, transaction, fieldOf);
   for (const taken of plan.conflicts) {
-    errors.push({ field: 'clientRecord.axis', message: `its slot now holds another reading (${short(taken.targetId)}): keep the server's version, or clear one of them first` });
+    errors.push({
+      field: 'clientRecord.axis',
+      message: `its slot now holds another reading (${short(taken.targetId)}): keep the server's version, or clear one of them first`,
+    });
   }
   if (errors.length) throw new Invalid(`this phone's version cannot be kept: ${errors[0].message}`, errors);
   // Keeping the phone's version is a change like a push: the same field-by-field role checks.

@@ -64,10 +64,10 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
     await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
-    await db().query(
-      'INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)',
-      { bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)], transaction },
-    );
+    await db().query('INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)', {
+      bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)],
+      transaction,
+    });
     return response;
   });
 }
@@ -104,7 +104,10 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
       const row = rowMap.get(item.record.id);
       if (!row) {
         if (item.record.version !== 1) {
-          errors.push({ field: field(item, 'version'), message: `${entity} ${short(item.record.id)} is not on the server, so its version must be 1, got ${item.record.version}` });
+          errors.push({
+            field: field(item, 'version'),
+            message: `${entity} ${short(item.record.id)} is not on the server, so its version must be 1, got ${item.record.version}`,
+          });
         } else inserts.push(item);
       } else if (row.team_id !== auth.teamId) {
         errors.push({ field: field(item, 'id'), message: `${entity} id ${item.record.id} is already taken` });
@@ -122,7 +125,10 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
 
   if (errors.length) {
     errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
-    throw new Invalid(`batch rejected, nothing was written: ${errors.length} problem${errors.length > 1 ? 's' : ''}, first ${errors[0].field}: ${errors[0].message}`, errors);
+    throw new Invalid(
+      `batch rejected, nothing was written: ${errors.length} problem${errors.length > 1 ? 's' : ''}, first ${errors[0].field}: ${errors[0].message}`,
+      errors,
+    );
   }
   return plan;
 }
@@ -160,7 +166,10 @@ async function checkReferences(
       for (const item of byEntity.get(entity)!) {
         const target = item.record[ref.key] as string;
         if (!known.get(ref.entity)!.has(target)) {
-          errors.push({ field: field(item, ref.key), message: `${entity} ${short(item.record.id)} refers to ${ref.entity} ${target}, which is neither in this batch nor on the server` });
+          errors.push({
+            field: field(item, ref.key),
+            message: `${entity} ${short(item.record.id)} refers to ${ref.entity} ${target}, which is neither in this batch nor on the server`,
+          });
         }
       }
     }
@@ -194,14 +203,24 @@ async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Tr
   const items = (m: Map<SyncEntity, Item[]>, e: SyncEntity) => m.get(e) ?? [];
   const poseSession = new Map<string, string>();
   for (const p of [...items(plan.inserts, 'pose'), ...items(plan.updates, 'pose')]) poseSession.set(p.record.id, p.record.sessionId as string);
-  const readings = [...items(plan.inserts, 'reading'), ...items(plan.updates, 'reading'), ...plan.conflicts.filter((c) => c.item.entity === 'reading').map((c) => c.item)];
+  const readings = [
+    ...items(plan.inserts, 'reading'),
+    ...items(plan.updates, 'reading'),
+    ...plan.conflicts.filter((c) => c.item.entity === 'reading').map((c) => c.item),
+  ];
   const unknownPoses = [...new Set(readings.map((r) => r.record.poseId as string))].filter((id) => !poseSession.has(id));
   if (unknownPoses.length) {
     const rows = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE id = ANY($1::uuid[])', [unknownPoses], transaction);
     for (const r of rows) poseSession.set(r.id, r.session_id);
   }
   const sessionOf = (item: Item): string | undefined =>
-    item.entity === 'testSession' ? item.record.id : item.entity === 'pose' ? (item.record.sessionId as string) : item.entity === 'reading' ? poseSession.get(item.record.poseId as string) : undefined;
+    item.entity === 'testSession'
+      ? item.record.id
+      : item.entity === 'pose'
+        ? (item.record.sessionId as string)
+        : item.entity === 'reading'
+          ? poseSession.get(item.record.poseId as string)
+          : undefined;
   const bySession = new Map<string, Tally>();
   const tally = (item: Item, bump: (t: Tally) => void) => {
     const sessionId = sessionOf(item);

@@ -24,4 +24,3 @@ export function withTeamChanges<T>(teamId: string, fn: (transaction: Transaction
     return fn(transaction);
   });
 }
-

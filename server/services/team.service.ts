@@ -39,7 +39,10 @@ export async function getTeam(auth: AuthContext): Promise<TeamDetail> {
  */
 export async function updateTeamSettings(auth: AuthContext, input: TeamSettingsInput) {
   await withTeamChanges(auth.teamId, async (transaction) => {
-    await TeamModel.update({ ...(input.photoGps && { photoGps: input.photoGps }), ...(input.unitSystem && { unitSystem: input.unitSystem }) }, { where: { id: auth.teamId }, transaction });
+    await TeamModel.update(
+      { ...(input.photoGps && { photoGps: input.photoGps }), ...(input.unitSystem && { unitSystem: input.unitSystem }) },
+      { where: { id: auth.teamId }, transaction },
+    );
     if (input.photoGps === 'drop') {
       await PhotoModel.sequelize!.query(
         'UPDATE photos SET gps_lat = NULL, gps_lon = NULL, version = version + 1 WHERE team_id = $1 AND (gps_lat IS NOT NULL OR gps_lon IS NOT NULL)',
@@ -180,10 +183,7 @@ export async function acceptInvitation(input: AcceptInvitationInput): Promise<{ 
     newUser = { id: randomUUID(), passwordHash: await hashPassword(input.password), name: input.name };
   }
   return InvitationModel.sequelize!.transaction(async (transaction) => {
-    const [, rows] = await InvitationModel.update(
-      { usedAt: new Date() },
-      { where: { id: invitation.id, ...pending() }, returning: true, transaction },
-    );
+    const [, rows] = await InvitationModel.update({ usedAt: new Date() }, { where: { id: invitation.id, ...pending() }, returning: true, transaction });
     const used = rows[0];
     if (!used) throw new LinkInvalid();
     let userId = existing?.id;

@@ -21,7 +21,13 @@ export interface S3Fake {
 
 export async function startS3Fake(opts: { dir: string; bucket: string; port?: number; host?: string }): Promise<S3Fake> {
   const host = opts.host ?? '127.0.0.1';
-  const fake = new S3rver({ directory: opts.dir, silent: true, vhostBuckets: false, allowMismatchedSignatures: true, configureBuckets: [{ name: opts.bucket }] });
+  const fake = new S3rver({
+    directory: opts.dir,
+    silent: true,
+    vhostBuckets: false,
+    allowMismatchedSignatures: true,
+    configureBuckets: [{ name: opts.bucket }],
+  });
   await fake.configureBuckets();
   const handle = fake.callback();
   const server = http.createServer((req, res) => {

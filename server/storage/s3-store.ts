@@ -44,7 +44,8 @@ export function s3Store(settings: S3Settings): PhotoStore {
         region: settings.region,
         endpoint: settings.endpoint,
         forcePathStyle: settings.forcePathStyle,
-        credentials: settings.accessKeyId && settings.secretAccessKey ? { accessKeyId: settings.accessKeyId, secretAccessKey: settings.secretAccessKey } : undefined,
+        credentials:
+          settings.accessKeyId && settings.secretAccessKey ? { accessKeyId: settings.accessKeyId, secretAccessKey: settings.secretAccessKey } : undefined,
         // Photos are written once and read whole: a short wait for a busy service, then an error
         // (the phone keeps the photo and sends it again).
         maxAttempts: 3,

@@ -54,7 +54,9 @@ describe('bootSpan', () => {
     const small = bootSpan({ outline, nominalGapMm: 40, motions: [motion({ x: 10 })], seal: { freeHeightMm: 15 } });
     expect(small.top.seal?.follows).toBe(false);
     expect(small.top.seal?.reason).not.toMatch(/−|-\d/);
-    expect(small.top.seal?.reason).toBe('the seal (free height 15.0 mm) is shorter than the gap it must fill (40.0 mm to 50.0 mm): it does not touch both faces; choose a free height of 66.7 mm to 80.0 mm');
+    expect(small.top.seal?.reason).toBe(
+      'the seal (free height 15.0 mm) is shorter than the gap it must fill (40.0 mm to 50.0 mm): it does not touch both faces; choose a free height of 66.7 mm to 80.0 mm',
+    );
   });
 
   it('separates the sides under a pitch of the cab', () => {
@@ -80,7 +82,13 @@ describe('bootSpan', () => {
     const turn = fc.double({ min: -0.05, max: 0.05, noNaN: true });
     fc.assert(
       fc.property(shift, shift, shift, turn, turn, turn, fc.double({ min: 1, max: 200, noNaN: true }), (x, y, z, wx, wy, wz, g) => {
-        const result = bootSpan({ outline, nominalGapMm: g, motions: [motion({ x, y, z }, { x: wx, y: wy, z: wz })], seal: { freeHeightMm: 2 * g }, stepMm: 25 });
+        const result = bootSpan({
+          outline,
+          nominalGapMm: g,
+          motions: [motion({ x, y, z }, { x: wx, y: wy, z: wz })],
+          seal: { freeHeightMm: 2 * g },
+          stepMm: 25,
+        });
         for (const side of Object.values(result)) {
           const numbers = [side.shortestMm, side.longestMm, side.gapMinMm, side.gapMaxMm, side.largestShearMm, side.extensionRatio ?? 0];
           numbers.push(side.seal?.compressionAtWidestPercent ?? 0, side.seal?.compressionAtNarrowestPercent ?? 0);

@@ -36,8 +36,8 @@ describe('compareSessions', () => {
 
   it('throws FlexInputError for bad input', () => {
     expect(() => compareSessions([{ sessionId: 's', poses: [] }])).toThrowError(/compareSessions: sessions\[0\].poses/);
-    expect(() =>
-      compareSessions([{ sessionId: 's', poses: [{ twistDeg: NaN, worstMm: { foreAft: 0, lateral: 0, vertical: 0 } }] }]),
-    ).toThrowError(FlexInputError);
+    expect(() => compareSessions([{ sessionId: 's', poses: [{ twistDeg: NaN, worstMm: { foreAft: 0, lateral: 0, vertical: 0 } }] }])).toThrowError(
+      FlexInputError,
+    );
   });
 });

@@ -28,7 +28,9 @@ describe('predictionDirectionBound', () => {
 
   it('says why there is no bound', () => {
     expect(predictionDirectionBound('negative', [12], [100], settings).unavailable).toBe('needs at least 2 poses twisted this way by 1° or more, has 1');
-    expect(predictionDirectionBound('negative', [12, 12, 12], [100, 101, 99], { ...settings, throughOrigin: false }).unavailable).toMatch(/two different twists/);
+    expect(predictionDirectionBound('negative', [12, 12, 12], [100, 101, 99], { ...settings, throughOrigin: false }).unavailable).toMatch(
+      /two different twists/,
+    );
   });
 });
 

@@ -67,7 +67,8 @@ describe('designEnvelope: coverage of the 95 % prediction bound (seeded Monte Ca
               const fit = m.directions[direction].fit;
               if (fit === null) throw new Error('every direction has 3 poses: a fit is expected');
               if (!tCache.has(fit.df)) tCache.set(fit.df, studentTQuantile(CONFIDENCE, fit.df));
-              const bound = factor === 1 ? (m.directions[direction].upperBoundMm as number) : upperPredictionBoundAt(fit, design, CONFIDENCE, tCache.get(fit.df));
+              const bound =
+                factor === 1 ? (m.directions[direction].upperBoundMm as number) : upperPredictionBoundAt(fit, design, CONFIDENCE, tCache.get(fit.df));
               const value = truth.poses[1 + 2 * k + (direction === 'positive' ? 0 : 1)].measures![measure].valueMm;
               if (value <= bound) count(`${measure}|${factor}|${direction}`);
               envelopeBound = Math.max(envelopeBound, bound);

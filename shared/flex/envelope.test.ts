@@ -47,7 +47,15 @@ function poseAt(id: string, twistDeg: number, motion: RigidMotion, pts: GaugeLoc
 }
 
 function inputOf(poses: EnvelopePose[], parameters: EnvelopeInput['parameters'], pts: GaugeLocation[] = six): EnvelopeInput {
-  return { tracks, gaugePoints: pts, outline, readingMode: 'displacement', baselinePoseId: 'level', poses: [poseAt('level', 0, still, pts), ...poses], parameters };
+  return {
+    tracks,
+    gaugePoints: pts,
+    outline,
+    readingMode: 'displacement',
+    baselinePoseId: 'level',
+    poses: [poseAt('level', 0, still, pts), ...poses],
+    parameters,
+  };
 }
 
 describe('designEnvelope', () => {
@@ -160,13 +168,23 @@ describe('designEnvelope', () => {
   it('takes twist relative to a baseline that is not level (6.71°), and says so', () => {
     const base = 6.71;
     const poses = [10, 14, 18, 22].map((t) => ({ id: `p${t}`, lifts: liftsFor(t), readings: readingsOf(shear(9 * (t - base))) }));
-    const input: EnvelopeInput = { tracks, gaugePoints: six, outline, readingMode: 'displacement', baselinePoseId: 'level', poses: [{ id: 'level', lifts: liftsFor(base), readings: readingsOf(still) }, ...poses], parameters: { designTwistDeg: 30 } };
+    const input: EnvelopeInput = {
+      tracks,
+      gaugePoints: six,
+      outline,
+      readingMode: 'displacement',
+      baselinePoseId: 'level',
+      poses: [{ id: 'level', lifts: liftsFor(base), readings: readingsOf(still) }, ...poses],
+      parameters: { designTwistDeg: 30 },
+    };
     const result = designEnvelope(input);
     // 9 mm/° relative to the baseline, projected to 30°: 270 mm (the absolute twist gave 165 mm)
     expect(result.measures.lateral.projectedMm).toBeCloseTo(270, 6);
     expect(result.baselineTwistDeg).toBeCloseTo(base, 9);
     expect(result.poses[1].twistDeg).toBeCloseTo(10 - base, 9);
-    expect(result.readingNotes.some((n) => /the baseline pose \(level\) is twisted 6\.7° by its lifts: every twist is taken relative to it/.test(n))).toBe(true);
+    expect(result.readingNotes.some((n) => /the baseline pose \(level\) is twisted 6\.7° by its lifts: every twist is taken relative to it/.test(n))).toBe(
+      true,
+    );
   });
 
   it('reports the fore-aft opening and closing apart, each with its own envelope', () => {
@@ -212,7 +230,9 @@ describe('designEnvelope', () => {
     const fewer = poses.map((p) => ({ ...p, readings: p.readings.filter((r) => r.pointId !== 'g') }));
     const misfit = designEnvelope(inputOf(fewer, { designTwistDeg: 20 }, four));
     expect(misfit.flags.filter((f) => f.kind === 'misfit').map((f) => f.pointId)).toEqual(['a', 'b', 'c', 'd']);
-    expect(misfit.readingNotes).toContain('p12: the fore-aft readings do not fit one rigid motion, but with 4 readings for 3 unknowns the misread cannot be singled out; review them');
+    expect(misfit.readingNotes).toContain(
+      'p12: the fore-aft readings do not fit one rigid motion, but with 4 readings for 3 unknowns the misread cannot be singled out; review them',
+    );
   });
 
   it('simulation: in sessions of 6 poses at six points, catches a 10 mm misread in ≥ 95 % and flags ≤ 1 % of noise-only poses', () => {
@@ -240,7 +260,9 @@ describe('designEnvelope', () => {
         if (result.flags.some((f) => f.poseId === pose.id)) falseFlags++;
       }
     }
-    console.log(`designEnvelope, 6 poses × 6 points: 10 mm misread caught in ${((100 * caught) / sessions).toFixed(1)} % of ${sessions} sessions; ${((100 * falseFlags) / noisePoses).toFixed(2)} % of ${noisePoses} noise-only poses flagged`);
+    console.log(
+      `designEnvelope, 6 poses × 6 points: 10 mm misread caught in ${((100 * caught) / sessions).toFixed(1)} % of ${sessions} sessions; ${((100 * falseFlags) / noisePoses).toFixed(2)} % of ${noisePoses} noise-only poses flagged`,
+    );
     expect(caught / sessions).toBeGreaterThanOrEqual(0.95);
     expect(falseFlags / noisePoses).toBeLessThanOrEqual(0.01);
   }, 60_000);
@@ -250,7 +272,11 @@ describe('designEnvelope', () => {
     const result = designEnvelope(input);
     expect(result.scatterMm.inPlane).toBeGreaterThan(1.5);
     expect(result.scatterMm.inPlane).toBeLessThan(2.5);
-    expect(result.readingNotes.some((n) => /the lateral and vertical readings scatter about their fits by \d\.\d\d mm \(robust SD\), more than the 0\.50 mm a gauge is read to/.test(n))).toBe(true);
+    expect(
+      result.readingNotes.some((n) =>
+        /the lateral and vertical readings scatter about their fits by \d\.\d\d mm \(robust SD\), more than the 0\.50 mm a gauge is read to/.test(n),
+      ),
+    ).toBe(true);
     expect(result.flags).toEqual([]);
   });
 
@@ -317,7 +343,9 @@ describe('designEnvelope', () => {
     expect(result.notes.some((n) => /below the largest twist reached/.test(n))).toBe(true);
     expect(result.readingNotes.some((n) => n.startsWith(`${pose.id}: reading at ${pose.readings[4].pointId}`))).toBe(true);
     expect(result.poses[3].fit?.outliers).toHaveLength(1);
-    expect(result.flags).toEqual([expect.objectContaining({ poseId: pose.id, pointId: pose.readings[4].pointId, axis: pose.readings[4].axis, kind: 'outlier' })]);
+    expect(result.flags).toEqual([
+      expect.objectContaining({ poseId: pose.id, pointId: pose.readings[4].pointId, axis: pose.readings[4].axis, kind: 'outlier' }),
+    ]);
   });
 
   it('carries each fit part uncertainty to the measure at the outline', () => {
@@ -327,7 +355,9 @@ describe('designEnvelope', () => {
       for (const measure of ENVELOPE_MEASURES) {
         // at least the reading SD over n readings (the translation alone), at most 10 × the reading SD
         expect(m[measure].uncertaintyMm).toBeGreaterThan(0.5 / Math.sqrt(12) - 1e-9);
-        expect(m[measure].uncertaintyMm).toBeLessThanOrEqual(10 * Math.max(0.5, pose.fit!.inPlane.residualSdMm ?? 0, pose.fit!.outOfPlane.residualSdMm ?? 0) + 1e-9);
+        expect(m[measure].uncertaintyMm).toBeLessThanOrEqual(
+          10 * Math.max(0.5, pose.fit!.inPlane.residualSdMm ?? 0, pose.fit!.outOfPlane.residualSdMm ?? 0) + 1e-9,
+        );
       }
     }
     expect(result.measures.lateral.fitUncertaintyMm).toBeGreaterThan(0);
@@ -371,22 +401,27 @@ describe('designEnvelope', () => {
       readings: fc.uniqueArray(reading, { maxLength: 12, selector: (r) => `${r.pointId}|${r.axis}` }),
     });
     fc.assert(
-      fc.property(fc.array(pose, { minLength: 1, maxLength: 6 }), fc.boolean(), fc.constantFrom('prediction' as const, 'tolerance' as const), (poses, throughOrigin, method) => {
-        const input: EnvelopeInput = {
-          tracks: session.tracks,
-          gaugePoints: session.gaugePoints,
-          outline: session.outline,
-          readingMode: 'displacement',
-          poses: poses.map((p, i) => ({ ...p, id: `p${i}` })),
-          parameters: { designTwistDeg: 15, throughOrigin, method },
-        };
-        try {
-          const result = designEnvelope(input);
-          expect(allFinite(result.measures)).toBe(true);
-        } catch (error) {
-          expect(error).toBeInstanceOf(FlexInputError);
-        }
-      }),
+      fc.property(
+        fc.array(pose, { minLength: 1, maxLength: 6 }),
+        fc.boolean(),
+        fc.constantFrom('prediction' as const, 'tolerance' as const),
+        (poses, throughOrigin, method) => {
+          const input: EnvelopeInput = {
+            tracks: session.tracks,
+            gaugePoints: session.gaugePoints,
+            outline: session.outline,
+            readingMode: 'displacement',
+            poses: poses.map((p, i) => ({ ...p, id: `p${i}` })),
+            parameters: { designTwistDeg: 15, throughOrigin, method },
+          };
+          try {
+            const result = designEnvelope(input);
+            expect(allFinite(result.measures)).toBe(true);
+          } catch (error) {
+            expect(error).toBeInstanceOf(FlexInputError);
+          }
+        },
+      ),
       { numRuns: 60 },
     );
   });
@@ -403,7 +438,9 @@ describe('designEnvelope', () => {
       expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: -3 } })).toThrowError(FlexInputError);
       expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, confidence: 1 } })).toThrowError(/parameters.confidence/);
       // below 0.5 a "bound" lies under the mean (k1 = −0.0044 at coverage 0.49 was accepted)
-      expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, confidence: 0.3 } })).toThrowError(/parameters.confidence must be at least 0.5/);
+      expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, confidence: 0.3 } })).toThrowError(
+        /parameters.confidence must be at least 0.5/,
+      );
       expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, coverage: 0.49 } })).toThrowError(/parameters.coverage must be at least 0.5/);
       expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, incrementMm: 0 } })).toThrowError(/parameters.incrementMm/);
       expect(() => designEnvelope({ ...good(), parameters: { designTwistDeg: 12, repeatBandDeg: 0 } })).toThrowError(/parameters.repeatBandDeg/);
@@ -414,7 +451,9 @@ describe('designEnvelope', () => {
 
     it('tracks: a vehicle track, not 1e-9 mm', () => {
       expect(() => designEnvelope({ ...good(), tracks: { frontMm: 0, rearMm: 1800 } })).toThrowError(/tracks.frontMm/);
-      expect(() => designEnvelope({ ...good(), tracks: { frontMm: 1e-9, rearMm: 1800 } })).toThrowError(/designEnvelope: tracks.frontMm must be a vehicle's track, 500–4000 mm, got 1e-9/);
+      expect(() => designEnvelope({ ...good(), tracks: { frontMm: 1e-9, rearMm: 1800 } })).toThrowError(
+        /designEnvelope: tracks.frontMm must be a vehicle's track, 500–4000 mm, got 1e-9/,
+      );
       expect(() => designEnvelope({ ...good(), tracks: { frontMm: 1800, rearMm: 90_000 } })).toThrowError(/tracks.rearMm/);
     });
 
@@ -434,7 +473,9 @@ describe('designEnvelope', () => {
       const bad = good().poses.map((pose, i) => (i === 2 ? { ...pose, readings: [pose.readings[0], { ...pose.readings[1], value: NaN }] } : pose));
       expect(() => designEnvelope({ ...good(), poses: bad })).toThrowError(/designEnvelope: poses\[2\]\.readings\[1\]\.value must be a finite number/);
       // a gauge point's position is the gauge point's field, not a pose's
-      expect(() => designEnvelope({ ...good(), gaugePoints: six.map((p, i) => (i === 2 ? { ...p, y: NaN } : p)) })).toThrowError(/designEnvelope: gaugePoints\[2\]\.y/);
+      expect(() => designEnvelope({ ...good(), gaugePoints: six.map((p, i) => (i === 2 ? { ...p, y: NaN } : p)) })).toThrowError(
+        /designEnvelope: gaugePoints\[2\]\.y/,
+      );
       // gap mode: a reading without a baseline reading before it must not shift the index of the next
       const poses = good().poses.map((p) => ({ ...p, readings: [...p.readings] }));
       poses[0].readings = poses[0].readings.filter((r) => !(r.pointId === 'b' && r.axis === 'foreAft'));

@@ -33,7 +33,14 @@ import {
   requireNonNegative,
   requirePositiveLength,
 } from './errors';
-import { MIN_FIT_TWIST_DEG, predictionDirectionBound, toleranceDirectionBound, type BoundSettings, type DirectionBound, type TwistDirection } from './direction-bound';
+import {
+  MIN_FIT_TWIST_DEG,
+  predictionDirectionBound,
+  toleranceDirectionBound,
+  type BoundSettings,
+  type DirectionBound,
+  type TwistDirection,
+} from './direction-bound';
 import { packFit, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
@@ -268,7 +275,11 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
       throw error;
     }
     if (Math.abs(twist) > MAX_TWIST_DEG) {
-      throw new FlexInputError(FN, `poses[${i}].lifts`, `give a cross-axle twist of ${twist.toFixed(1)}°, beyond the ±${MAX_TWIST_DEG}° a vehicle on its wheels can reach: check the lifts and the tracks`);
+      throw new FlexInputError(
+        FN,
+        `poses[${i}].lifts`,
+        `give a cross-axle twist of ${twist.toFixed(1)}°, beyond the ±${MAX_TWIST_DEG}° a vehicle on its wheels can reach: check the lifts and the tracks`,
+      );
     }
     const readings = pose.readings;
     if (!Array.isArray(readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
@@ -497,7 +508,11 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
     }
     const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
     if (!(rotation <= MAX_ROTATION_RAD)) {
-      throw new FlexInputError(FN, `poses[${i}].readings`, `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`);
+      throw new FlexInputError(
+        FN,
+        `poses[${i}].readings`,
+        `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
+      );
     }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
@@ -519,7 +534,15 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
       for (let k = flat.start[i]; k < end; k++) {
         if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
         const index = flat.inputIndex[k];
-        flags.push({ poseId: pose.id, pointId: readings[index].pointId, axis: AXIS_OF_CODE[flat.buffer.axis[k]], valueMm: flat.buffer.value[k], residualMm: flat.buffer.residual[k], score: null, kind: 'misfit' });
+        flags.push({
+          poseId: pose.id,
+          pointId: readings[index].pointId,
+          axis: AXIS_OF_CODE[flat.buffer.axis[k]],
+          valueMm: flat.buffer.value[k],
+          residualMm: flat.buffer.residual[k],
+          score: null,
+          kind: 'misfit',
+        });
       }
     }
     return result;
@@ -539,7 +562,10 @@ interface DirectionData {
 
 /** The fitted poses of each twist direction, checked as repeats for the tolerance method. */
 function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: EnvelopeParameters, notes: string[]): Record<TwistDirection, DirectionData> {
-  const data: Record<TwistDirection, DirectionData> = { positive: { poseIndexes: [], xs: [], medianTwistDeg: 0 }, negative: { poseIndexes: [], xs: [], medianTwistDeg: 0 } };
+  const data: Record<TwistDirection, DirectionData> = {
+    positive: { poseIndexes: [], xs: [], medianTwistDeg: 0 },
+    negative: { poseIndexes: [], xs: [], medianTwistDeg: 0 },
+  };
   const slight: string[] = [];
   poses.forEach((pose, i) => {
     if (pose.measures === null) return;
@@ -552,7 +578,8 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
     d.poseIndexes.push(i);
     d.xs.push(magnitude);
   });
-  if (slight.length > 0) notes.push(`${slight.join(', ')}: twisted less than ${MIN_FIT_TWIST_DEG}° from the baseline: measured, but not used for the twist lines`);
+  if (slight.length > 0)
+    notes.push(`${slight.join(', ')}: twisted less than ${MIN_FIT_TWIST_DEG}° from the baseline: measured, but not used for the twist lines`);
   for (const direction of TWIST_DIRECTIONS) {
     const d = data[direction];
     const sorted = [...d.xs].sort((a, b) => a - b);
@@ -572,7 +599,9 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
     }
     if (d.xs.length === 0) {
       const other = direction === 'positive' ? 'negative' : 'positive';
-      notes.push(`no pose twisted ${directionName(direction)} by ${MIN_FIT_TWIST_DEG}° or more: the bound covers ${directionName(other)} only; test the other diagonal too`);
+      notes.push(
+        `no pose twisted ${directionName(direction)} by ${MIN_FIT_TWIST_DEG}° or more: the bound covers ${directionName(other)} only; test the other diagonal too`,
+      );
     } else if (p.designTwistDeg < d.medianTwistDeg && p.method === 'tolerance') {
       notes.push(`the design twist (${p.designTwistDeg}°) is below the repeated runs' twist ${directionName(direction)} (${d.medianTwistDeg.toFixed(1)}°)`);
     } else {
@@ -610,7 +639,9 @@ function measureEnvelope(
     const d = data[direction];
     const ys = d.poseIndexes.map((i) => (poses[i].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure].valueMm);
     directions[direction] =
-      p.method === 'prediction' ? predictionDirectionBound(direction, d.xs, ys, settings) : toleranceDirectionBound(direction, d.xs, ys, d.medianTwistDeg, settings);
+      p.method === 'prediction'
+        ? predictionDirectionBound(direction, d.xs, ys, settings)
+        : toleranceDirectionBound(direction, d.xs, ys, d.medianTwistDeg, settings);
   }
   let governingDirection: TwistDirection | null = null;
   for (const direction of TWIST_DIRECTIONS) {
@@ -689,7 +720,11 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   const relativeTwists = liftTwists.map((twist, i) => {
     const relative = twist - baselineTwistDeg;
     if (Math.abs(relative) > MAX_TWIST_DEG) {
-      throw new FlexInputError(FN, `poses[${i}].lifts`, `give a twist of ${relative.toFixed(1)}° relative to the baseline pose, beyond ±${MAX_TWIST_DEG}°: check the lifts`);
+      throw new FlexInputError(
+        FN,
+        `poses[${i}].lifts`,
+        `give a twist of ${relative.toFixed(1)}° relative to the baseline pose, beyond ±${MAX_TWIST_DEG}°: check the lifts`,
+      );
     }
     return relative;
   });

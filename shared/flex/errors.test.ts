@@ -17,7 +17,7 @@ describe('FlexInputError', () => {
     expect(() => requireProbability('f', 'p', 1)).toThrowError(FlexInputError);
   });
 
-  it('accepts a design probability from 0.5, and names a motion\'s bad component', () => {
+  it("accepts a design probability from 0.5, and names a motion's bad component", () => {
     expect(requireDesignProbability('f', 'confidence', 0.5)).toBe(0.5);
     expect(() => requireDesignProbability('f', 'confidence', 0.4999)).toThrowError('f: confidence must be at least 0.5 and below 1 (e.g. 0.95), got 0.4999');
     const motion = { t: { x: 0, y: 5, z: 0 }, omega: { x: 0, y: 0, z: 0 } };

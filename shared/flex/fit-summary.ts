@@ -87,7 +87,10 @@ function partReason(kind: 'outOfPlane' | 'inPlane', core: PartCore, counts: { la
   if (counts.vertical === 0) missing.push('no vertical readings: tz set to 0');
   if (core.limitation === 'none') return 'no lateral or vertical readings: in-plane motion set to 0';
   if (core.limitation === 'noRotation') {
-    const refused = core.refusedEdgeErrorRatio === null ? '' : `; from these points it would carry a reading's error to the opening's edge ${magnified(core.refusedEdgeErrorRatio)} (the limit is ${MAX_EDGE_ERROR_RATIO})`;
+    const refused =
+      core.refusedEdgeErrorRatio === null
+        ? ''
+        : `; from these points it would carry a reading's error to the opening's edge ${magnified(core.refusedEdgeErrorRatio)} (the limit is ${MAX_EDGE_ERROR_RATIO})`;
     return [
       `rotation about x not identifiable: needs lateral readings at different heights or vertical readings at different lateral positions${refused}; set to 0`,
       ...missing,
@@ -188,4 +191,3 @@ export function packFit(
     outliers,
   };
 }
-

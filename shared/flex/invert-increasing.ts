@@ -22,13 +22,7 @@ const MAX_EVALUATIONS = 2000;
  * @returns x with f(x) = target to about 1e-13 relative in x.
  * @example invertIncreasing((x) => x * x * x, 8, 1, 1, (x) => 3 * x * x) // => 2
  */
-export function invertIncreasing(
-  f: (x: number) => number,
-  target: number,
-  start: number,
-  step: number,
-  derivative?: (x: number) => number,
-): number {
+export function invertIncreasing(f: (x: number) => number, target: number, start: number, step: number, derivative?: (x: number) => number): number {
   let lo = -Infinity;
   let hi = Infinity;
   let x = start;

@@ -71,10 +71,7 @@ describe('linearFit', () => {
     expect(fit.residualSd).toBeCloseTo(Math.sqrt(ssr / 3), 12);
     expect(fit.leverage(10)).toBeCloseTo(100 / 120, 12);
     // Draper & Smith §3.1: ŷ + t(0.95, df)·s·√(1 + h)
-    expect(fit.upperPredictionBound(10, 0.95)).toBeCloseTo(
-      fit.slope * 10 + studentTQuantile(0.95, 3) * fit.residualSd * Math.sqrt(1 + 100 / 120),
-      12,
-    );
+    expect(fit.upperPredictionBound(10, 0.95)).toBeCloseTo(fit.slope * 10 + studentTQuantile(0.95, 3) * fit.residualSd * Math.sqrt(1 + 100 / 120), 12);
     expect(fit.upperPredictionBound(10, 0.95)).toBeGreaterThan(fit.predict(10));
   });
 
@@ -103,7 +100,9 @@ describe('linearFit', () => {
   });
 
   it('refuses x ≤ 0 with proportional scatter, and an unknown scatter model', () => {
-    expect(() => linearFit([0, 1, 2], [0, 1, 2], { scatter: 'proportional' })).toThrowError(/linearFit: xs\[0\] must be greater than 0 with proportional scatter/);
+    expect(() => linearFit([0, 1, 2], [0, 1, 2], { scatter: 'proportional' })).toThrowError(
+      /linearFit: xs\[0\] must be greater than 0 with proportional scatter/,
+    );
     expect(() => linearFit([1, 2, 3], [1, 2, 3], { scatter: 'cubic' as never })).toThrowError(/options.scatter/);
   });
 

@@ -7,7 +7,10 @@ import { lengthWords } from '../format';
 const terms: MeasureTerms = {
   measuredWorstMm: 100,
   measuredWorstPoseId: 'Ramp (#6)',
-  directions: { positive: { upperBoundMm: 120, unavailable: null }, negative: { upperBoundMm: null, unavailable: 'needs at least 2 poses twisted this way by 1° or more, has 1' } },
+  directions: {
+    positive: { upperBoundMm: 120, unavailable: null },
+    negative: { upperBoundMm: null, unavailable: 'needs at least 2 poses twisted this way by 1° or more, has 1' },
+  },
   governingDirection: 'positive',
   upperBoundMm: 120,
   governing: 'upperBound',
@@ -16,7 +19,15 @@ const terms: MeasureTerms = {
   withAllowanceMm: 147.525,
   envelopeMm: 152.4,
 };
-const params: ReasonParameters = { method: 'prediction', confidence: 0.95, coverage: 0.9, designTwistDeg: 20, margin: 0.15, allowanceMm: 9.525, incrementMm: 6.35 };
+const params: ReasonParameters = {
+  method: 'prediction',
+  confidence: 0.95,
+  coverage: 0.9,
+  designTwistDeg: 20,
+  margin: 0.15,
+  allowanceMm: 9.525,
+  incrementMm: 6.35,
+};
 
 describe('measureReasons', () => {
   it('reads in mm by default, with the margin in percent', () => {

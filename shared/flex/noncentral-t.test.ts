@@ -19,13 +19,25 @@ describe('noncentral t', () => {
   });
 
   it('agrees with the same probability integrated over Z and the chi-square tail, to 1e-8', () => {
-    for (const [t, df, delta] of [[2.5, 1, 1.8], [40, 1, 1.8], [3.1, 4, 2.9], [2.2, 9, 4.05], [12.6, 39, 8.1], [3.0, 199, 2.5]]) {
+    for (const [t, df, delta] of [
+      [2.5, 1, 1.8],
+      [40, 1, 1.8],
+      [3.1, 4, 2.9],
+      [2.2, 9, 4.05],
+      [12.6, 39, 8.1],
+      [3.0, 199, 2.5],
+    ]) {
       expect(Math.abs(noncentralTCdf(t, df, delta) - noncentralTCdfByZ(t, df, delta))).toBeLessThan(1e-8);
     }
   });
 
   it('has a quantile that inverts the CDF', () => {
-    for (const [p, df, delta] of [[0.95, 1, 1.81], [0.99, 4, 2.87], [0.5, 30, 0], [0.9, 299, 22.1]]) {
+    for (const [p, df, delta] of [
+      [0.95, 1, 1.81],
+      [0.99, 4, 2.87],
+      [0.5, 30, 0],
+      [0.9, 299, 22.1],
+    ]) {
       expect(noncentralTCdf(noncentralTQuantile(p, df, delta), df, delta)).toBeCloseTo(p, 10);
     }
   });

@@ -16,7 +16,12 @@ describe('normal distribution', () => {
     // scipy.stats.norm.ppf([0.95, 0.975, 0.99, 0.90]) (R: qnorm(c(0.95, 0.975, 0.99, 0.90))) =
     // 1.644853627, 1.959963985, 2.326347874, 1.281551566 — quoted from memory, so checked here by
     // integrating the density: Φ at each value is its p to 1e-9
-    for (const [p, z] of [[0.95, 1.644853627], [0.975, 1.959963985], [0.99, 2.326347874], [0.9, 1.281551566]]) {
+    for (const [p, z] of [
+      [0.95, 1.644853627],
+      [0.975, 1.959963985],
+      [0.99, 2.326347874],
+      [0.9, 1.281551566],
+    ]) {
       expect(Math.abs(phiByIntegration(z) - p)).toBeLessThan(1e-9);
     }
     expect(normalQuantile(0.95)).toBeCloseTo(1.644853627, 8);

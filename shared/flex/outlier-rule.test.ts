@@ -18,7 +18,14 @@ function foreAft(points: [number, number][], values: number[]): PoseBuffer {
   return b;
 }
 
-const six: [number, number][] = [[320, 1470], [-320, 1470], [-320, 1050], [-320, 630], [320, 630], [320, 1050]];
+const six: [number, number][] = [
+  [320, 1470],
+  [-320, 1470],
+  [-320, 1050],
+  [-320, 630],
+  [320, 630],
+  [320, 1050],
+];
 
 describe('judgeOutliers', () => {
   it('scores each reading by its deleted residual over its standard error, the reading SD or s₍ᵢ₎ whichever is larger', () => {
@@ -49,7 +56,9 @@ describe('judgeOutliers', () => {
     expect(misfit.flagged).toEqual([]);
     expect(Array.from(four.score).every(Number.isNaN)).toBe(true);
     // with one reading to spare the standardized residuals are all equal in size (one residual direction)
-    const sizes = Array.from(four.standardized).filter((r) => !Number.isNaN(r)).map(Math.abs);
+    const sizes = Array.from(four.standardized)
+      .filter((r) => !Number.isNaN(r))
+      .map(Math.abs);
     for (const size of sizes) expect(size).toBeCloseTo(sizes[0], 9);
     const three = foreAft(six.slice(0, 3), [1, 2, 30]);
     const none = judgeOutliers(three, fitPoseParts(three, corners), { outOfPlane: 0.5, inPlane: 0.5 }, bonferroni);

@@ -48,7 +48,9 @@ describe('passThroughOptions', () => {
     expect(sealed.compressionAtNarrowestPercent).toBeCloseTo(48.148, 3);
     expect(sealed.follows).toBe(true);
     // A 120 mm seal is compressed only 16.7 % at the widest gap: it leaves the far face.
-    expect(passThroughOptions({ ...example, seal: { freeHeightMm: 120, minCompressionPercent: 25, maxCompressionPercent: 50 } }).frames.seal!.follows).toBe(false);
+    expect(passThroughOptions({ ...example, seal: { freeHeightMm: 120, minCompressionPercent: 25, maxCompressionPercent: 50 } }).frames.seal!.follows).toBe(
+      false,
+    );
   });
 
   it('gives the boot’s spans, extension ratio, cut panels and folds of the hand-worked example', () => {

@@ -270,7 +270,8 @@ export function passThroughOptions(input: PassThroughInput): PassThroughResult {
   requireLength(FN, 'opening.cornerRadiusMm', opening.cornerRadiusMm);
   requirePositiveLength(FN, 'nominalGapMm', input.nominalGapMm);
   for (const key of ['foreAftOpeningMm', 'foreAftClosingMm', 'lateralMm', 'verticalMm'] as const) requireNonNegative(FN, `movement.${key}`, movement[key]);
-  for (const key of Object.keys(DEFAULT_PASS_THROUGH_ALLOWANCES) as (keyof PassThroughAllowances)[]) requireNonNegative(FN, `allowances.${key}`, allowances[key]);
+  for (const key of Object.keys(DEFAULT_PASS_THROUGH_ALLOWANCES) as (keyof PassThroughAllowances)[])
+    requireNonNegative(FN, `allowances.${key}`, allowances[key]);
   requirePositiveLength(FN, 'allowances.foldDepthMm', allowances.foldDepthMm);
   const openingArea = opening.widthMm * opening.heightMm;
   const frames = framesOption(input, openingArea);

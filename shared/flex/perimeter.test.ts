@@ -23,9 +23,7 @@ describe('sampleOutline', () => {
     expect(Math.max(...points.map((p) => p.y))).toBeCloseTo(350, 9);
     expect(Math.min(...points.map((p) => p.z))).toBeCloseTo(600, 9);
     expect(Math.max(...points.map((p) => p.z))).toBeCloseTo(1500, 9);
-    expect(new Set(points.map((p) => p.side))).toEqual(
-      new Set(['top', 'bottom', 'left', 'right', 'topLeft', 'topRight', 'bottomLeft', 'bottomRight']),
-    );
+    expect(new Set(points.map((p) => p.side))).toEqual(new Set(['top', 'bottom', 'left', 'right', 'topLeft', 'topRight', 'bottomLeft', 'bottomRight']));
   });
 
   it('keeps every point on the rounded rectangle', () => {

@@ -122,7 +122,6 @@ export function outlineCorners(outline: OpeningOutline): number[] {
   return [g.left, g.bottom, g.left, g.top, g.right, g.top, g.right, g.bottom];
 }
 
-
 /** The point of the outline that is farthest in the direction (dy, dz), with the value there. */
 function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz: number): OutlineValue {
   let y: number;

@@ -358,11 +358,7 @@ function fitInPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): void
   const vL = nL > 0 ? 1 / nL : 0;
   const vV = nV > 0 ? 1 / nV : 0;
   const vW = rotation ? 1 / s3 : 0;
-  part.covariance = [
-    vL + zRef * zRef * vW, -zRef * yRef * vW, zRef * vW,
-    -zRef * yRef * vW, vV + yRef * yRef * vW, -yRef * vW,
-    zRef * vW, -yRef * vW, vW,
-  ];
+  part.covariance = [vL + zRef * zRef * vW, -zRef * yRef * vW, zRef * vW, -zRef * yRef * vW, vV + yRef * yRef * vW, -yRef * vW, zRef * vW, -yRef * vW, vW];
 }
 
 function emptyPart(): PartCore {

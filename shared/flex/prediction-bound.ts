@@ -60,4 +60,3 @@ export function upperPredictionBoundAt(fit: LinearFitSummary, x: number, confide
   const newVariance = fit.scatter === 'proportional' ? x * x : 1;
   return fit.intercept + fit.slope * x + t * fit.residualSd * Math.sqrt(newVariance + predictionLeverage(fit, x));
 }
-

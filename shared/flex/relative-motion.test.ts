@@ -49,7 +49,11 @@ describe('fitRelativeMotion', () => {
 
   it('solves the documented three-point example', () => {
     const fit = fitRelativeMotion(
-      [{ id: 'A', y: 300, z: 700 }, { id: 'B', y: -300, z: 700 }, { id: 'C', y: 300, z: 1300 }],
+      [
+        { id: 'A', y: 300, z: 700 },
+        { id: 'B', y: -300, z: 700 },
+        { id: 'C', y: 300, z: 1300 },
+      ],
       [
         { pointId: 'A', axis: 'foreAft', value: 2 },
         { pointId: 'B', axis: 'foreAft', value: 2 },
@@ -95,7 +99,11 @@ describe('fitRelativeMotion', () => {
     // a(320, 1470) read 27.3 where the others read about 2: the leave-one-out residual of a is 25.5 mm,
     // while its ordinary residual is only 0.417 × that (leverage 0.583, hand-checked: 1/6 + 1/4 + 1/6).
     const values = [27.3, 1.6, 2.4, 1.8, 2.1, 1.9];
-    const fit = fitRelativeMotion(six, six.map((p, i) => ({ pointId: p.id, axis: 'foreAft' as const, value: values[i] })), outline);
+    const fit = fitRelativeMotion(
+      six,
+      six.map((p, i) => ({ pointId: p.id, axis: 'foreAft' as const, value: values[i] })),
+      outline,
+    );
     expect(fit.outliers.map((o) => o.pointId)).toEqual(['a']);
     expect(fit.outliers[0].residual / (1 - 7 / 12)).toBeCloseTo(25.5, 1);
     expect(fit.outOfPlane.outlierCheck).toBe('checked');
@@ -139,17 +147,35 @@ describe('fitRelativeMotion', () => {
   it('keeps only the translation when the points cover a 30 mm patch of the opening, and says why', () => {
     // A ±0.5 mm tape on a true 2 mm at three points 30 mm apart: fitting rotations would carry the
     // tape's error about 50 times over to the far edge of a 700 × 900 mm opening (−31.9 mm here).
-    const tri = [{ id: 'p', y: 300, z: 1450 }, { id: 'q', y: 270, z: 1450 }, { id: 'r', y: 285, z: 1424 }];
-    const fit = fitRelativeMotion(tri, [2.5, 2.0, 1.5].map((value, i) => ({ pointId: tri[i].id, axis: 'foreAft' as const, value })), outline);
+    const tri = [
+      { id: 'p', y: 300, z: 1450 },
+      { id: 'q', y: 270, z: 1450 },
+      { id: 'r', y: 285, z: 1424 },
+    ];
+    const fit = fitRelativeMotion(
+      tri,
+      [2.5, 2.0, 1.5].map((value, i) => ({ pointId: tri[i].id, axis: 'foreAft' as const, value })),
+      outline,
+    );
     expect(fit.outOfPlane.status).toBe('translationOnly');
-    expect(fit.outOfPlane.reason).toMatch(/too close together for this opening: rotations about y and z would carry a reading's error to its edge (\d+)\.\d times over \(the limit is 10\)/);
+    expect(fit.outOfPlane.reason).toMatch(
+      /too close together for this opening: rotations about y and z would carry a reading's error to its edge (\d+)\.\d times over \(the limit is 10\)/,
+    );
     expect(Number(/edge (\d+\.\d) times/.exec(fit.outOfPlane.reason ?? '')?.[1])).toBeGreaterThan(40);
     expect(fit.motion.t.x).toBeCloseTo(2, 12);
     expect(perimeterWorst(fit.motion, outline).foreAft.valueMm).toBeCloseTo(2, 12);
     // the same three points in a 60 × 60 mm opening are enough to fit the tilt
-    const small = fitRelativeMotion(tri, [2.5, 2.0, 1.5].map((value, i) => ({ pointId: tri[i].id, axis: 'foreAft' as const, value })), {
-      width: 60, height: 60, cornerRadius: 5, centreY: 285, bottomZ: 1410,
-    });
+    const small = fitRelativeMotion(
+      tri,
+      [2.5, 2.0, 1.5].map((value, i) => ({ pointId: tri[i].id, axis: 'foreAft' as const, value })),
+      {
+        width: 60,
+        height: 60,
+        cornerRadius: 5,
+        centreY: 285,
+        bottomZ: 1410,
+      },
+    );
     expect(small.outOfPlane.status).toBe('full');
     expect(small.outOfPlane.edgeErrorRatio).toBeLessThanOrEqual(10);
   });
@@ -211,7 +237,7 @@ describe('fitRelativeMotion', () => {
     expect(fit.outOfPlane.misfit).toBe(true);
     // b, c and d stand on one vertical line, so a alone sets the tilt about z and nothing checks it
     expect(fit.outOfPlane.outlierNote).toBe(
-      "fore-aft readings judged together only (4 readings for 3 unknowns; 5 are needed to single out a misread); the fore-aft reading at a alone fixes part of the fit, so nothing checks it",
+      'fore-aft readings judged together only (4 readings for 3 unknowns; 5 are needed to single out a misread); the fore-aft reading at a alone fixes part of the fit, so nothing checks it',
     );
   });
 
@@ -228,15 +254,25 @@ describe('fitRelativeMotion', () => {
     const readings = readingsOf(motion, points).map((r) => ({ ...r, value: r.value + normal() }));
     const reference = fitRelativeMotion(points, readings, outline);
     fc.assert(
-      fc.property(fc.shuffledSubarray(readings.map((_, i) => i), { minLength: readings.length, maxLength: readings.length }), (order) => {
-        const fit = fitRelativeMotion(points, order.map((i) => readings[i]), outline);
-        for (const k of ['x', 'y', 'z'] as const) {
-          expectClose(fit.motion.t[k], reference.motion.t[k], 1e-9);
-          expectClose(fit.motion.omega[k], reference.motion.omega[k], 1e-9);
-        }
-        expectClose(fit.residualRms, reference.residualRms, 1e-9);
-        expect(fit.outliers.length).toBe(reference.outliers.length);
-      }),
+      fc.property(
+        fc.shuffledSubarray(
+          readings.map((_, i) => i),
+          { minLength: readings.length, maxLength: readings.length },
+        ),
+        (order) => {
+          const fit = fitRelativeMotion(
+            points,
+            order.map((i) => readings[i]),
+            outline,
+          );
+          for (const k of ['x', 'y', 'z'] as const) {
+            expectClose(fit.motion.t[k], reference.motion.t[k], 1e-9);
+            expectClose(fit.motion.omega[k], reference.motion.omega[k], 1e-9);
+          }
+          expectClose(fit.residualRms, reference.residualRms, 1e-9);
+          expect(fit.outliers.length).toBe(reference.outliers.length);
+        },
+      ),
       { numRuns: 30 },
     );
   });
@@ -273,7 +309,9 @@ describe('fitRelativeMotion', () => {
     expect(() => fitRelativeMotion(points, [{ ...good[0], value: NaN }], outline)).toThrowError(FlexInputError);
     expect(() => fitRelativeMotion([...points, points[0]], good, outline)).toThrowError(/repeats gauge point id/);
     expect(() => fitRelativeMotion([{ id: 'A', y: Infinity, z: 0 }], good.slice(0, 1), outline)).toThrowError(/points\[0\].y/);
-    expect(() => fitRelativeMotion(points, [good[0], good[1], good[0]], outline)).toThrowError(/readings\[2\] repeats the reading of point 'A' on axis foreAft/);
+    expect(() => fitRelativeMotion(points, [good[0], good[1], good[0]], outline)).toThrowError(
+      /readings\[2\] repeats the reading of point 'A' on axis foreAft/,
+    );
     expect(() => fitRelativeMotion(points, good, { ...outline, width: -1 })).toThrowError(/fitRelativeMotion: outline.width/);
     expect(() => fitRelativeMotion(points, good, outline, { readingSdMm: 0 })).toThrowError(/options.readingSdMm/);
   });

@@ -78,7 +78,8 @@ export function fitRelativeMotion(
     requireLength(FN, `readings[${i}].value`, reading.value);
     const key = `${reading.pointId}\u0000${reading.axis}`;
     const first = seen.get(key);
-    if (first !== undefined) throw new FlexInputError(FN, `readings[${i}]`, `repeats the reading of point '${reading.pointId}' on axis ${reading.axis} (readings[${first}])`);
+    if (first !== undefined)
+      throw new FlexInputError(FN, `readings[${i}]`, `repeats the reading of point '${reading.pointId}' on axis ${reading.axis} (readings[${first}])`);
     seen.set(key, i);
     buffer.axis[i] = AXIS_CODE[reading.axis as Axis];
     buffer.y[i] = points[at].y;
@@ -86,6 +87,8 @@ export function fitRelativeMotion(
     buffer.value[i] = reading.value;
   });
   const core = fitPoseParts(buffer, outlineCorners(outline));
-  const judgement = judgeOutliers(buffer, core, { outOfPlane: scatterMm, inPlane: scatterMm }, (tests) => normalQuantile(1 - OUTLIER_FALSE_ALARM_RATE / (2 * tests)));
+  const judgement = judgeOutliers(buffer, core, { outOfPlane: scatterMm, inPlane: scatterMm }, (tests) =>
+    normalQuantile(1 - OUTLIER_FALSE_ALARM_RATE / (2 * tests)),
+  );
   return packFit(buffer, core, judgement, (i) => ({ pointId: readings[i].pointId, axis: readings[i].axis, index: i }));
 }

@@ -38,7 +38,7 @@ describe('residualScale', () => {
     );
   });
 
-  it('in place: the same value, on the caller\'s array', () => {
+  it("in place: the same value, on the caller's array", () => {
     const values = Float64Array.of(4, -1, 3, -2, 9);
     expect(residualScaleInPlace(values)).toBeCloseTo(residualScale([4, -1, 3, -2, 9]), 15);
     expect(() => residualScaleInPlace(new Float64Array(0))).toThrowError(/residualScaleInPlace: values/);

@@ -30,15 +30,18 @@ export function sealReason(seal: SealFacts, gapMinMm: number, gapMaxMm: number, 
   if (gapMinMm <= 0) return `the gap closes fully (down to ${L(gapMinMm)}): cab and body touch, and no seal can follow that`;
   const lowest = gapMaxMm / (1 - minPct / 100);
   const highest = gapMinMm / (1 - maxPct / 100);
-  const follows = lowest <= highest ? `choose a free height of ${L(lowest)} to ${L(highest)}` : `no free height follows this range at ${minPct}–${maxPct} % compression`;
+  const follows =
+    lowest <= highest ? `choose a free height of ${L(lowest)} to ${L(highest)}` : `no free height follows this range at ${minPct}–${maxPct} % compression`;
   if (free <= gapMaxMm) {
     return `the seal (free height ${L(free)}) is shorter than the gap it must fill (${L(gapMinMm)} to ${L(gapMaxMm)}): it does not touch both faces; ${follows}`;
   }
   const atWidest = ((free - gapMaxMm) / free) * 100;
   const atNarrowest = ((free - gapMinMm) / free) * 100;
   const problems: string[] = [];
-  if (atWidest < minPct) problems.push(`at the widest gap (${L(gapMaxMm)}) it is compressed only ${atWidest.toFixed(0)} %, less than the ${minPct} % it needs to seal`);
-  if (atNarrowest > maxPct) problems.push(`at the narrowest gap (${L(gapMinMm)}) it is compressed ${atNarrowest.toFixed(0)} %, more than the ${maxPct} % it takes without damage`);
+  if (atWidest < minPct)
+    problems.push(`at the widest gap (${L(gapMaxMm)}) it is compressed only ${atWidest.toFixed(0)} %, less than the ${minPct} % it needs to seal`);
+  if (atNarrowest > maxPct)
+    problems.push(`at the narrowest gap (${L(gapMinMm)}) it is compressed ${atNarrowest.toFixed(0)} %, more than the ${maxPct} % it takes without damage`);
   if (problems.length > 0) return `${problems.join('; ')}; ${follows}`;
   return `stays within ${minPct}–${maxPct} % compression over the fore-aft range (${atWidest.toFixed(0)} % at the widest gap, ${atNarrowest.toFixed(0)} % at the narrowest)`;
 }

@@ -47,7 +47,7 @@ describe('buildSyntheticSession', () => {
     expect(designEnvelope(syntheticEnvelopeInput(s, { designTwistDeg: 10 })).baselineTwistDeg).toBeCloseTo(base, 12);
   });
 
-  it('scatters each pose\'s response in proportion to it, or by a constant, only when asked', () => {
+  it("scatters each pose's response in proportion to it, or by a constant, only when asked", () => {
     const plain = buildSyntheticSession({ seed: 4, poses: 3 });
     const again = buildSyntheticSession({ seed: 4, poses: 3, proportionalScatter: 0, constantScatterMm: 0 });
     expect(again).toEqual(plain);

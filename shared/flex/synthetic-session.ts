@@ -186,7 +186,9 @@ export function buildSyntheticSession(options: SyntheticSessionOptions = {}): Sy
 
   const poses: SyntheticPose[] = [{ id: 'level', lifts: baselineLifts, readings: readingsFor(0, true) }];
   if (options.twistsDeg !== undefined) {
-    options.twistsDeg.forEach((twist, i) => poses.push({ id: `pose-${i + 1}`, lifts: liftsFor(twist, baselineLifts, tracks), readings: readingsFor(twist, false) }));
+    options.twistsDeg.forEach((twist, i) =>
+      poses.push({ id: `pose-${i + 1}`, lifts: liftsFor(twist, baselineLifts, tracks), readings: readingsFor(twist, false) }),
+    );
   } else {
     for (let i = 0; i < (options.poses ?? 8); i++) {
       // Step the lift up to the maximum and alternate the diagonal, as a crew works through a flex test.
@@ -206,7 +208,11 @@ export function buildSyntheticSession(options: SyntheticSessionOptions = {}): Sy
  * @returns the input designEnvelope takes.
  * @example designEnvelope(syntheticEnvelopeInput(buildSyntheticSession({ seed: 1 }), { designTwistDeg: 20 }))
  */
-export function syntheticEnvelopeInput(session: SyntheticSession, parameters: EnvelopeInput['parameters'], readingMode: ReadingMode = 'displacement'): EnvelopeInput {
+export function syntheticEnvelopeInput(
+  session: SyntheticSession,
+  parameters: EnvelopeInput['parameters'],
+  readingMode: ReadingMode = 'displacement',
+): EnvelopeInput {
   return {
     tracks: session.tracks,
     gaugePoints: session.gaugePoints,

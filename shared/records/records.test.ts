@@ -23,7 +23,8 @@ describe('the record registry', () => {
 
   it('lists parents before children, so a batch inserts in this order', () => {
     for (const [i, entity] of syncEntities.entries()) {
-      for (const target of Object.values(records[entity].references)) expect(syncEntities.indexOf(target as SyncEntity), `${entity} → ${target}`).toBeLessThan(i);
+      for (const target of Object.values(records[entity].references))
+        expect(syncEntities.indexOf(target as SyncEntity), `${entity} → ${target}`).toBeLessThan(i);
     }
   });
 
@@ -44,8 +45,38 @@ describe('the record registry', () => {
 const FIRST_RELEASE: Record<SyncEntity, string[]> = {
   vehicle: ['id', 'version', 'deletedAt', 'name', 'chassis', 'body', 'wheelbaseMm', 'trackFrontMm', 'trackRearMm', 'opening', 'nominalGapMm', 'notes'],
   gaugePoint: ['id', 'version', 'deletedAt', 'vehicleId', 'label', 'yMm', 'zMm'],
-  testSession: ['id', 'version', 'deletedAt', 'vehicleId', 'title', 'testedOn', 'conditions', 'loadState', 'tyrePressures', 'crew', 'readingMode', 'safetyAckAt', 'notes'],
-  pose: ['id', 'version', 'deletedAt', 'sessionId', 'seq', 'label', 'kind', 'liftFlMm', 'liftFrMm', 'liftRlMm', 'liftRrMm', 'rampAngleDeg', 'rampDistanceMm', 'notes', 'recordedAt'],
+  testSession: [
+    'id',
+    'version',
+    'deletedAt',
+    'vehicleId',
+    'title',
+    'testedOn',
+    'conditions',
+    'loadState',
+    'tyrePressures',
+    'crew',
+    'readingMode',
+    'safetyAckAt',
+    'notes',
+  ],
+  pose: [
+    'id',
+    'version',
+    'deletedAt',
+    'sessionId',
+    'seq',
+    'label',
+    'kind',
+    'liftFlMm',
+    'liftFrMm',
+    'liftRlMm',
+    'liftRrMm',
+    'rampAngleDeg',
+    'rampDistanceMm',
+    'notes',
+    'recordedAt',
+  ],
   reading: ['id', 'version', 'deletedAt', 'poseId', 'gaugePointId', 'axis', 'valueMm', 'excluded', 'excludeReason', 'flagNote'],
 };
 
@@ -71,7 +102,10 @@ describe('records made before a field existed', () => {
   });
 
   it('a batch formed before the ramp wheel existed is still a valid push', () => {
-    const parsed = pushRequest.safeParse({ idempotencyKey: 'batch-formed-before-0004', changes: syncEntities.map((entity) => ({ entity, record: oldShaped(current[entity], entity) })) });
+    const parsed = pushRequest.safeParse({
+      idempotencyKey: 'batch-formed-before-0004',
+      changes: syncEntities.map((entity) => ({ entity, record: oldShaped(current[entity], entity) })),
+    });
     expect(parsed.error).toBeUndefined();
     const pose = parsed.data!.changes.find((c) => c.entity === 'pose')!.record;
     expect(pose).toMatchObject({ kind: 'ramp', rampWheel: null, liftFlMm: 513 });

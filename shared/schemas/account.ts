@@ -9,7 +9,12 @@ export const newPassword = z.string().min(10, 'use at least 10 characters').max(
 export const personName = text(120, 1, 'enter a name');
 export const teamName = text(120, 1, 'enter the workshop name');
 /** A token from an e-mailed link (base64url of 32 random bytes). */
-export const linkToken = z.string().trim().min(20).max(128).regex(/^[A-Za-z0-9_-]+$/, 'not a valid link');
+export const linkToken = z
+  .string()
+  .trim()
+  .min(20)
+  .max(128)
+  .regex(/^[A-Za-z0-9_-]+$/, 'not a valid link');
 
 export const signUpInput = z.object({ teamName, name: personName, email: emailAddress, password: newPassword });
 export type SignUpInput = z.infer<typeof signUpInput>;

@@ -130,7 +130,10 @@ export interface AcknowledgedFlag extends Omit<EnvelopeFlag, 'poseId' | 'pointId
 
 /** The result of a format-1 snapshot (signed before fore-aft opening and closing were apart): display fields only. */
 export interface LegacyEnvelopeResult {
-  axes: Record<z.infer<typeof axis>, { measuredWorstMm: number; upperBoundMm: number | null; governing: 'measured' | 'upperBound'; envelopeMm: number; reasons: string[] }>;
+  axes: Record<
+    z.infer<typeof axis>,
+    { measuredWorstMm: number; upperBoundMm: number | null; governing: 'measured' | 'upperBound'; envelopeMm: number; reasons: string[] }
+  >;
   notes: string[];
   readingNotes?: undefined;
 }
@@ -237,7 +240,10 @@ export const readingReviewInput = z
 export type ReadingReviewInput = z.infer<typeof readingReviewInput>;
 
 export const sendSheetInput = z.object({
-  to: z.email().max(254).transform((e) => e.toLowerCase()),
+  to: z
+    .email()
+    .max(254)
+    .transform((e) => e.toLowerCase()),
   note: text(2_000).optional(),
 });
 export type SendSheetInput = z.infer<typeof sendSheetInput>;

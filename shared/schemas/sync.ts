@@ -29,7 +29,11 @@ export const MAX_BATCH_CHANGES = 12_000;
 
 export const pushRequest = z.object({
   /** Printable ASCII only: the key is stored as text (a NUL in it could not be). */
-  idempotencyKey: z.string().min(8).max(100).regex(/^[\x21-\x7e]+$/, 'must be printable ASCII'),
+  idempotencyKey: z
+    .string()
+    .min(8)
+    .max(100)
+    .regex(/^[\x21-\x7e]+$/, 'must be printable ASCII'),
   changes: z.array(syncChange).min(1).max(MAX_BATCH_CHANGES),
 });
 export type PushRequest = z.infer<typeof pushRequest>;
@@ -88,7 +92,10 @@ export type ResolveConflictInput = z.infer<typeof resolveConflictInput>;
 export const photoUploadFields = z.object({
   id,
   sessionId: id,
-  poseId: z.union([id, z.literal('')]).optional().transform((v) => v || null),
+  poseId: z
+    .union([id, z.literal('')])
+    .optional()
+    .transform((v) => v || null),
   caption: text(500).default(''),
 });
 export type PhotoUploadFields = z.input<typeof photoUploadFields>;

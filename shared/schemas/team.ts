@@ -35,7 +35,10 @@ export const me = z.object({
 export type Me = z.infer<typeof me>;
 
 export const signInInput = z.object({
-  email: z.email().max(254).transform((e) => e.toLowerCase()),
+  email: z
+    .email()
+    .max(254)
+    .transform((e) => e.toLowerCase()),
   password: z.string().min(1).max(256),
 });
 export type SignInInput = z.infer<typeof signInInput>;

@@ -26,11 +26,31 @@ export function Layout() {
         <div className="mx-auto flex max-w-6xl items-center gap-2 px-3 py-1">
           <span className="shrink-0 text-lg font-bold tracking-tight">Twistlog</span>
           <nav aria-label="Main" className="flex min-w-0 flex-1 items-center gap-1 overflow-x-auto [scrollbar-width:none]">
-            {can('session.record') && <NavLink to={pathTo('fieldSessions')} className={navClass}>Field</NavLink>}
-            {signedIn && <NavLink to={pathTo('desk')} className={navClass}>Desk</NavLink>}
-            {can('envelope.read') && <NavLink to={pathTo('compare')} className={navClass}>Compare</NavLink>}
-            {can('team.manage') && <NavLink to={pathTo('team')} className={navClass}>Team</NavLink>}
-            {signedIn && <NavLink to={pathTo('account')} className={navClass}>Account</NavLink>}
+            {can('session.record') && (
+              <NavLink to={pathTo('fieldSessions')} className={navClass}>
+                Field
+              </NavLink>
+            )}
+            {signedIn && (
+              <NavLink to={pathTo('desk')} className={navClass}>
+                Desk
+              </NavLink>
+            )}
+            {can('envelope.read') && (
+              <NavLink to={pathTo('compare')} className={navClass}>
+                Compare
+              </NavLink>
+            )}
+            {can('team.manage') && (
+              <NavLink to={pathTo('team')} className={navClass}>
+                Team
+              </NavLink>
+            )}
+            {signedIn && (
+              <NavLink to={pathTo('account')} className={navClass}>
+                Account
+              </NavLink>
+            )}
             {me.data && (
               <>
                 {/* Who is signed in, at the end of the line (on a phone, a sideways scroll away). */}

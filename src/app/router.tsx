@@ -10,7 +10,12 @@ import { AcceptInvitationPage } from '@/features/auth/components/accept-invitati
 /** Pages behind sign-in. Offline with a cached identity, the app still opens. */
 function RequireSignIn() {
   const me = useMe();
-  if (me.isPending) return <p className="p-6" role="status">Loading…</p>;
+  if (me.isPending)
+    return (
+      <p className="p-6" role="status">
+        Loading…
+      </p>
+    );
   // Only the server's answer "nobody is signed in" leads to the sign-in page; no answer at all
   // (no signal and nothing kept on this phone) says so, and what is stored here stays.
   if (me.data === undefined) {
@@ -52,9 +57,15 @@ export const router = createBrowserRouter([
         lazy: async () => ({ Component: (await import('@/app/layout')).Layout }),
         children: [
           { path: routes.home, element: <Home /> },
-          { path: routes.fieldSessions, lazy: async () => ({ Component: (await import('@/features/sessions/components/field-sessions-page')).FieldSessionsPage }) },
+          {
+            path: routes.fieldSessions,
+            lazy: async () => ({ Component: (await import('@/features/sessions/components/field-sessions-page')).FieldSessionsPage }),
+          },
           { path: routes.newSession, lazy: async () => ({ Component: (await import('@/features/sessions/components/start-session-page')).StartSessionPage }) },
-          { path: routes.fieldSession, lazy: async () => ({ Component: (await import('@/features/sessions/components/field-session-page')).FieldSessionPage }) },
+          {
+            path: routes.fieldSession,
+            lazy: async () => ({ Component: (await import('@/features/sessions/components/field-session-page')).FieldSessionPage }),
+          },
           { path: routes.fieldPose, lazy: async () => ({ Component: (await import('@/features/poses/components/pose-recorder-page')).PoseRecorderPage }) },
           { path: routes.vehicles, lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-list-page')).VehicleListPage }) },
           { path: routes.vehicle, lazy: async () => ({ Component: (await import('@/features/vehicles/components/vehicle-setup-page')).VehicleSetupPage }) },

@@ -32,7 +32,11 @@ export function TwistChart({ result, unit }: { result: EnvelopeResult; unit: Uni
           const sign = direction === 'positive' ? 1 : -1;
           const data = Array.from({ length: STEPS }, (_, i) => {
             const x = (xMax * (i + 1)) / STEPS;
-            return { x: sign * x, fit: toDisplay(fit.intercept + fit.slope * x, unit), bound: toDisplay(upperPredictionBoundAt(fit, x, p.confidence, t), unit) };
+            return {
+              x: sign * x,
+              fit: toDisplay(fit.intercept + fit.slope * x, unit),
+              bound: toDisplay(upperPredictionBoundAt(fit, x, p.confidence, t), unit),
+            };
           });
           return [{ direction, data }];
         });
@@ -46,10 +50,21 @@ export function TwistChart({ result, unit }: { result: EnvelopeResult; unit: Uni
                 <CartesianGrid stroke="#c9c3b3" />
                 <XAxis type="number" dataKey="x" domain={[-Math.ceil(xMax), Math.ceil(xMax)]} unit="°" />
                 <YAxis type="number" width={48} />
-                <Tooltip formatter={(v) => (typeof v === 'number' ? v.toFixed(unit === 'mm' ? 1 : 2) : String(v))} labelFormatter={(x) => `${Number(x).toFixed(1)}°`} />
+                <Tooltip
+                  formatter={(v) => (typeof v === 'number' ? v.toFixed(unit === 'mm' ? 1 : 2) : String(v))}
+                  labelFormatter={(x) => `${Number(x).toFixed(1)}°`}
+                />
                 <Legend />
                 {lines.map(({ direction, data }) => (
-                  <Line key={`fit-${direction}`} data={data} dataKey="fit" name={`fitted line, ${TWIST_DIRECTION_NAMES[direction]}`} stroke={LINE_COLOURS[direction]} dot={false} isAnimationActive={false} />
+                  <Line
+                    key={`fit-${direction}`}
+                    data={data}
+                    dataKey="fit"
+                    name={`fitted line, ${TWIST_DIRECTION_NAMES[direction]}`}
+                    stroke={LINE_COLOURS[direction]}
+                    dot={false}
+                    isAnimationActive={false}
+                  />
                 ))}
                 {lines.map(({ direction, data }) => (
                   <Line
@@ -95,7 +110,13 @@ export function CompareChart({ rows, unit }: { rows: ComparedSession[]; unit: Un
           <Tooltip formatter={(v) => (typeof v === 'number' ? formatSlopeValue(fromDisplay(v, unit), unit) : String(v))} />
           <Legend />
           {rows.map((r, i) => (
-            <Bar key={r.sessionId} dataKey={r.sessionId} name={`${r.vehicleName} · ${r.testedOn}`} fill={COLOURS[i % COLOURS.length]} isAnimationActive={false} />
+            <Bar
+              key={r.sessionId}
+              dataKey={r.sessionId}
+              name={`${r.vehicleName} · ${r.testedOn}`}
+              fill={COLOURS[i % COLOURS.length]}
+              isAnimationActive={false}
+            />
           ))}
         </BarChart>
       </ResponsiveContainer>

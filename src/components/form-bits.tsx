@@ -26,7 +26,9 @@ export function AuthFrame({ title, children, footer }: { title: string; children
   return (
     <div className="mx-auto max-w-md px-3 py-6">
       <p className="mb-2 text-xl font-bold tracking-tight text-slate">
-        <Link to={pathTo('home')} className="inline-flex min-h-touch items-center">Twistlog</Link>
+        <Link to={pathTo('home')} className="inline-flex min-h-touch items-center">
+          Twistlog
+        </Link>
       </p>
       <h1 className="mb-4 text-3xl font-bold">{title}</h1>
       <div className="card space-y-4">{children}</div>
@@ -49,7 +51,9 @@ export function TextField(props: {
   const describedBy = [props.hint && `${id}-hint`, props.error && `${id}-error`].filter(Boolean).join(' ') || undefined;
   return (
     <div>
-      <label htmlFor={id} className="field-label">{props.label}</label>
+      <label htmlFor={id} className="field-label">
+        {props.label}
+      </label>
       <input
         id={id}
         name={props.name}
@@ -61,19 +65,35 @@ export function TextField(props: {
         aria-describedby={describedBy}
         className={`input ${props.readOnly ? 'bg-paper' : ''}`}
       />
-      {props.hint && <p id={`${id}-hint`} className="mt-1 text-sm text-slate">{props.hint}</p>}
-      {props.error && <p id={`${id}-error`} className="mt-1 font-bold text-alert">{props.error}</p>}
+      {props.hint && (
+        <p id={`${id}-hint`} className="mt-1 text-sm text-slate">
+          {props.hint}
+        </p>
+      )}
+      {props.error && (
+        <p id={`${id}-error`} className="mt-1 font-bold text-alert">
+          {props.error}
+        </p>
+      )}
     </div>
   );
 }
 
 export function ErrorBanner({ children }: { children: ReactNode }) {
   if (!children) return null;
-  return <p role="alert" className="rounded-lg bg-alert-light p-3 text-alert">{children}</p>;
+  return (
+    <p role="alert" className="rounded-lg bg-alert-light p-3 text-alert">
+      {children}
+    </p>
+  );
 }
 
 export function Notice({ children }: { children: ReactNode }) {
-  return <div role="status" className="rounded-lg bg-good-light p-3 text-good">{children}</div>;
+  return (
+    <div role="status" className="rounded-lg bg-good-light p-3 text-good">
+      {children}
+    </div>
+  );
 }
 
 /** The development mailbox is a server page, not a client route: a plain link. */
@@ -82,7 +102,10 @@ export function DevMailboxLink({ href }: { href?: string }) {
   return (
     <p>
       Running Twistlog on your own machine? Nothing is really sent:{' '}
-      <a href={href} className="font-bold underline">open the development mailbox</a>.
+      <a href={href} className="font-bold underline">
+        open the development mailbox
+      </a>
+      .
     </p>
   );
 }

@@ -23,7 +23,9 @@ describe('EXIF from the camera to the shrunk photo', () => {
     const segment = exifSegment(new Uint8Array(await cameraJpeg()));
     expect(segment).not.toBeNull();
     expect(String.fromCharCode(...segment!.subarray(4, 8))).toBe('Exif');
-    const plain = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } }).jpeg().toBuffer();
+    const plain = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } })
+      .jpeg()
+      .toBuffer();
     expect(exifSegment(new Uint8Array(plain))).toBeNull();
     expect(exifSegment(new Uint8Array([1, 2, 3]))).toBeNull();
   });
@@ -31,7 +33,9 @@ describe('EXIF from the camera to the shrunk photo', () => {
   it('carries capture time and GPS into the new JPEG with the orientation upright', async () => {
     const original = await cameraJpeg();
     expect((await exifr.parse(original, { translateValues: false })).Orientation).toBe(6);
-    const shrunk = await sharp({ create: { width: 20, height: 40, channels: 3, background: '#886644' } }).jpeg().toBuffer();
+    const shrunk = await sharp({ create: { width: 20, height: 40, channels: 3, background: '#886644' } })
+      .jpeg()
+      .toBuffer();
     const out = Buffer.from(withExif(new Uint8Array(shrunk), uprightExif(exifSegment(new Uint8Array(original))!)));
     const meta = await exifr.parse(out, { gps: true, translateValues: false });
     expect(meta.Orientation).toBe(1);

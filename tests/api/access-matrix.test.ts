@@ -71,7 +71,12 @@ async function buildFixture(): Promise<Fixture> {
     member: team.members.viewer.userId,
   };
   await insert('vehicles', {
-    id: ids.vehicle, team_id: t, name: 'Matrix truck', wheelbase_mm: 3800, track_front_mm: 1900, track_rear_mm: 1880,
+    id: ids.vehicle,
+    team_id: t,
+    name: 'Matrix truck',
+    wheelbase_mm: 3800,
+    track_front_mm: 1900,
+    track_rear_mm: 1880,
     opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
   });
   await insert('gauge_points', { id: ids.gaugePoint, team_id: t, vehicle_id: ids.vehicle, label: 'A', y_mm: 300, z_mm: 800 });
@@ -79,18 +84,38 @@ async function buildFixture(): Promise<Fixture> {
   await insert('poses', { id: ids.pose, team_id: t, session_id: ids.session, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
   await insert('readings', { id: ids.reading, team_id: t, pose_id: ids.pose, gauge_point_id: ids.gaugePoint, axis: 'lateral', value_mm: 90, entered_by: by });
   await insert('photos', {
-    id: ids.photo, team_id: t, session_id: ids.session, stored_name: `${ids.photo}.jpg`, thumb_name: `${ids.photo}-thumb.jpg`,
-    mime: 'image/jpeg', width: 10, height: 10, bytes: 100, created_by: by,
+    id: ids.photo,
+    team_id: t,
+    session_id: ids.session,
+    stored_name: `${ids.photo}.jpg`,
+    thumb_name: `${ids.photo}-thumb.jpg`,
+    mime: 'image/jpeg',
+    width: 10,
+    height: 10,
+    bytes: 100,
+    created_by: by,
   });
   await insert('envelopes', { id: ids.envelope, team_id: t, vehicle_id: ids.vehicle, session_id: ids.session, params: {}, created_by: by });
   await insert('envelope_sends', { id: ids.send, team_id: t, envelope_id: ids.envelope, to_email: 'boots@maker.test', sent_by: by });
   await insert('sync_conflicts', {
-    id: ids.conflict, team_id: t, entity: 'reading', entity_id: ids.reading, base_version: 1, server_version: 2,
-    client_record: {}, server_record: {}, user_id: by,
+    id: ids.conflict,
+    team_id: t,
+    entity: 'reading',
+    entity_id: ids.reading,
+    base_version: 1,
+    server_version: 2,
+    client_record: {},
+    server_record: {},
+    user_id: by,
   });
   await insert('invitations', {
-    id: ids.invitation, team_id: t, email: `invitee-${ids.invitation.slice(0, 8)}@workshop.test`, role: 'tester',
-    token_hash: randomBytes(32).toString('hex'), invited_by: team.members.admin.userId, expires_at: new Date(Date.now() + 86_400_000),
+    id: ids.invitation,
+    team_id: t,
+    email: `invitee-${ids.invitation.slice(0, 8)}@workshop.test`,
+    role: 'tester',
+    token_hash: randomBytes(32).toString('hex'),
+    invited_by: team.members.admin.userId,
+    expires_at: new Date(Date.now() + 86_400_000),
   });
   const agents = { signedOut: agentFor(ts) } as Record<Caller, Agent>;
   for (const role of roles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
@@ -149,7 +174,12 @@ async function loadTables() {
 /** Hashes of the rows of the given workshops and people (both workshops unless `onlyThis`). */
 async function teamSnapshot(f: Fixture, onlyThis = false): Promise<Record<string, string>> {
   const teamsOf = onlyThis ? [f.team] : [f.team, f.other];
-  return snapshot(ts.sequelize, tables, teamsOf.map((t) => t.teamId), teamsOf.flatMap((t) => Object.values(t.members).map((m) => m.userId)));
+  return snapshot(
+    ts.sequelize,
+    tables,
+    teamsOf.map((t) => t.teamId),
+    teamsOf.flatMap((t) => Object.values(t.members).map((m) => m.userId)),
+  );
 }
 
 const changed = changedTables;

@@ -87,7 +87,9 @@ describe('password reset', () => {
 
   it('refuses a made-up token and a short password', async () => {
     const team = await createTeam();
-    const made = await agentFor(ts).post('/api/auth/password-reset/confirm').send({ token: 'A'.repeat(43), password: NEW_PASSWORD });
+    const made = await agentFor(ts)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: 'A'.repeat(43), password: NEW_PASSWORD });
     expect(made.status).toBe(400);
     expect(made.body.error.code).toBe('link_invalid');
     await resetThrottles();

@@ -89,7 +89,7 @@ describe('session rotation', () => {
 });
 
 describe('stored session ids', () => {
-  it('are the SHA-256 of the cookie\'s id: a copy of the table opens no session', async () => {
+  it("are the SHA-256 of the cookie's id: a copy of the table opens no session", async () => {
     const team = await createTeam();
     const res = await agentFor(ts).post('/api/auth/sign-in').send({ email: team.members.engineer.email, password: TEST_PASSWORD });
     const id = idOf(sessionCookie(res));
@@ -179,7 +179,9 @@ describe('bad credentials', () => {
     const team = await createTeam();
     const answers = await Promise.all([
       agentFor(ts).post('/api/auth/sign-in').send({ email: team.members.admin.email, password: 'wrong password' }),
-      agentFor(ts).post('/api/auth/sign-in').send({ email: `nobody-${team.teamId.slice(0, 6)}@workshop.test`, password: 'wrong password' }),
+      agentFor(ts)
+        .post('/api/auth/sign-in')
+        .send({ email: `nobody-${team.teamId.slice(0, 6)}@workshop.test`, password: 'wrong password' }),
     ]);
     for (const a of answers) expect(a.status).toBe(401);
     expect(answers[0].body).toEqual(answers[1].body);
@@ -213,7 +215,10 @@ describe('the Origin check (CSRF)', () => {
 
   it('refuses a malformed Origin, and lets reads through without one', async () => {
     const team = await createTeam();
-    const bad = await request(ts.server).post('/api/auth/sign-in').set('Origin', 'not a url').send({ email: team.members.admin.email, password: TEST_PASSWORD });
+    const bad = await request(ts.server)
+      .post('/api/auth/sign-in')
+      .set('Origin', 'not a url')
+      .send({ email: team.members.admin.email, password: TEST_PASSWORD });
     expect(bad.status).toBe(403);
     expect((await request(ts.server).get('/api/health')).status).toBe(200);
   });

@@ -102,7 +102,9 @@ describe('sign-in throttling', () => {
     const team = await createTeam();
     const n = signInThrottle.accountsPerAddress;
     for (let i = 0; i < n; i++) {
-      expect((await from(proxied, '203.0.113.73').post('/api/auth/sign-in', { email: `stuffed-${i}-${team.teamId.slice(0, 6)}@workshop.test`, ...wrong })).status).toBe(401);
+      expect(
+        (await from(proxied, '203.0.113.73').post('/api/auth/sign-in', { email: `stuffed-${i}-${team.teamId.slice(0, 6)}@workshop.test`, ...wrong })).status,
+      ).toBe(401);
     }
     const next = await from(proxied, '203.0.113.73').post('/api/auth/sign-in', { email: team.members.admin.email, password: TEST_PASSWORD });
     expect(next.status).toBe(429);

@@ -42,7 +42,10 @@ describe('/api/compare', () => {
     const team = await createTeam();
     const s = await createDeskSession(team, { poses: 2 });
     // Many more poses of the same gauge points, three axes each, written straight into the table.
-    const [point] = await ts.sequelize.query<{ id: string }>(`SELECT id FROM gauge_points WHERE team_id = :t LIMIT 1`, { replacements: { t: team.teamId }, type: (await import('sequelize')).QueryTypes.SELECT });
+    const [point] = await ts.sequelize.query<{ id: string }>(`SELECT id FROM gauge_points WHERE team_id = :t LIMIT 1`, {
+      replacements: { t: team.teamId },
+      type: (await import('sequelize')).QueryTypes.SELECT,
+    });
     const poseCount = Math.ceil(MAX_COMPARE_READINGS / 3) + 1;
     await ts.sequelize.query(
       `INSERT INTO poses (id, team_id, session_id, seq, kind, recorded_at, created_by)

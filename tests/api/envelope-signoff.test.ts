@@ -72,7 +72,9 @@ describe('sign-off', () => {
     const saved = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: d.version, params: { ...params, design } });
     expect(saved.status).toBe(200);
     // A design the schema refuses names the field, in the engineer's terms.
-    const bad = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: saved.body.version, params: { ...params, design: { ...design, slackPercent: 300 } } });
+    const bad = await engineer
+      .put(`/api/envelopes/${d.id}/params`)
+      .send({ version: saved.body.version, params: { ...params, design: { ...design, slackPercent: 300 } } });
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toContain('body.params.design.slackPercent');
     const signed = (await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: saved.body.version })).body;
@@ -82,7 +84,9 @@ describe('sign-off', () => {
     expect(signed.snapshot.passThrough.boot.panels.top.flatLengthMm).toBeCloseTo(expected.passThrough!.boot.panels.top.flatLengthMm, 9);
     expect(signed.snapshot.passThrough.frames.clear.widthMm).toBeCloseTo(expected.passThrough!.frames.clear.widthMm, 9);
     // Frozen: the design cannot change on a signed revision.
-    const late = await engineer.put(`/api/envelopes/${d.id}/params`).send({ version: signed.version, params: { ...params, design: { ...design, option: 'frames' } } });
+    const late = await engineer
+      .put(`/api/envelopes/${d.id}/params`)
+      .send({ version: signed.version, params: { ...params, design: { ...design, option: 'frames' } } });
     expect(late.status).toBe(409);
     expect((await engineer.get(`/api/envelopes/${d.id}`)).body.snapshot.params.design.option).toBe('boot');
   });
@@ -97,7 +101,9 @@ describe('sign-off', () => {
     // Move the worst lateral reading far out and exclude another one.
     const lateral = s.readingIds.get('6:P01:lateral')!;
     expect((await engineer.patch(`/api/readings/${lateral}/review`).send({ version: 1, valueMm: 400 })).status).toBe(200);
-    expect((await engineer.patch(`/api/readings/${s.readingIds.get('5:P02:foreAft')}/review`).send({ version: 1, excluded: true, excludeReason: 'retest' })).status).toBe(200);
+    expect(
+      (await engineer.patch(`/api/readings/${s.readingIds.get('5:P02:foreAft')}/review`).send({ version: 1, excluded: true, excludeReason: 'retest' })).status,
+    ).toBe(200);
 
     const after = (await engineer.get(`/api/envelopes/${d.id}`)).body;
     expect(after.snapshot).toEqual(signed.snapshot);
@@ -122,15 +128,22 @@ describe('sign-off', () => {
     const review = (await engineer.get(`/api/sessions/${s.sessionId}/review`)).body;
     for (const [i, id] of misreads.entries()) {
       const value = review.readings.find((r: { id: string }) => r.id === id).valueMm;
-      await engineer.patch(`/api/readings/${id}/review`).send({ version: 1, valueMm: value + (i === 0 ? 18 : -25) }).expect(200);
+      await engineer
+        .patch(`/api/readings/${id}/review`)
+        .send({ version: 1, valueMm: value + (i === 0 ? 18 : -25) })
+        .expect(200);
     }
     const d = await draft(engineer, s.sessionId);
 
     const none = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });
     expect(none.status).toBe(400);
-    expect(none.body.error.message).toMatch(/^2 flagged readings are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 fore-aft/);
+    expect(none.body.error.message).toMatch(
+      /^2 flagged readings are still in the computation: acknowledge each one, or exclude it, before signing off: Diagonal 2 P03 lateral \(residual .*\); Diagonal 4 P01 fore-aft/,
+    );
     expect(none.body.error.fields.map((f: { field: string }) => f.field).sort()).toEqual(misreads.map((id) => `acknowledgements.${id}`).sort());
-    const one = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }] });
+    const one = await engineer
+      .post(`/api/envelopes/${d.id}/sign`)
+      .send({ version: d.version, acknowledgements: [{ readingId: misreads[0], note: 'tape checked' }] });
     expect(one.status).toBe(400);
     expect(one.body.error.fields.map((f: { field: string }) => f.field)).toEqual([`acknowledgements.${misreads[1]}`]);
     expect((await EnvelopeModel.findByPk(d.id))?.status).toBe('draft');
@@ -159,7 +172,10 @@ describe('sign-off', () => {
     const engineer = await signedInAgent(ts, team.members.engineer.email);
     const misread = s.readingIds.get('3:P04:vertical')!;
     const value = (await engineer.get(`/api/sessions/${s.sessionId}/review`)).body.readings.find((r: { id: string }) => r.id === misread).valueMm;
-    await engineer.patch(`/api/readings/${misread}/review`).send({ version: 1, valueMm: value + 30 }).expect(200);
+    await engineer
+      .patch(`/api/readings/${misread}/review`)
+      .send({ version: 1, valueMm: value + 30 })
+      .expect(200);
     await engineer.patch(`/api/readings/${misread}/review`).send({ version: 2, excluded: true, excludeReason: 'misread, 30 mm out' }).expect(200);
     const d = await draft(engineer, s.sessionId);
     const signed = await engineer.post(`/api/envelopes/${d.id}/sign`).send({ version: d.version });

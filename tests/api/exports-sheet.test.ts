@@ -26,12 +26,21 @@ async function signedEnvelope(): Promise<{ agent: Agent; envelope: EnvelopeRecor
   const team = await createTeam();
   const s = await createDeskSession(team);
   const agent = await signedInAgent(ts, team.members.engineer.email);
-  await agent.patch(`/api/readings/${s.readingIds.get('2:P03:vertical')}/review`).send({ version: 1, flagNote: 'read twice, "same", value' }).expect(200);
-  await agent.patch(`/api/readings/${s.readingIds.get('4:P05:lateral')}/review`).send({ version: 1, excluded: true, excludeReason: '=tape slipped, redo' }).expect(200);
+  await agent
+    .patch(`/api/readings/${s.readingIds.get('2:P03:vertical')}/review`)
+    .send({ version: 1, flagNote: 'read twice, "same", value' })
+    .expect(200);
+  await agent
+    .patch(`/api/readings/${s.readingIds.get('4:P05:lateral')}/review`)
+    .send({ version: 1, excluded: true, excludeReason: '=tape slipped, redo' })
+    .expect(200);
   // A reading 20 mm off what the others explain, kept in the computation and acknowledged at sign-off.
   const kept = s.readingIds.get('5:P02:vertical')!;
   const value = (await agent.get(`/api/sessions/${s.sessionId}/review`)).body.readings.find((r: { id: string }) => r.id === kept).valueMm;
-  await agent.patch(`/api/readings/${kept}/review`).send({ version: 1, valueMm: value + 20 }).expect(200);
+  await agent
+    .patch(`/api/readings/${kept}/review`)
+    .send({ version: 1, valueMm: value + 20 })
+    .expect(200);
   const draft = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params }).expect(201)).body;
   const envelope = (
     await agent
@@ -101,7 +110,12 @@ describe('fabrication sheet', () => {
     const s = await createDeskSession(team);
     const agent = await signedInAgent(ts, team.members.engineer.email);
     const design = { ...params.design, option: 'both' as const, driverSide: 'right' as const, fastening: 'bead' as const };
-    const first = (await agent.post(`/api/sessions/${s.sessionId}/envelopes`).send({ params: { ...params, design } }).expect(201)).body;
+    const first = (
+      await agent
+        .post(`/api/sessions/${s.sessionId}/envelopes`)
+        .send({ params: { ...params, design } })
+        .expect(201)
+    ).body;
     // Signed once (acknowledging whatever the outlier rule flags), re-opened and signed again.
     const tried = await agent.post(`/api/envelopes/${first.id}/sign`).send({ version: first.version });
     const acknowledgements: { readingId: string }[] =
@@ -109,7 +123,8 @@ describe('fabrication sheet', () => {
     if (tried.status === 400) await agent.post(`/api/envelopes/${first.id}/sign`).send({ version: first.version, acknowledgements }).expect(200);
     else expect(tried.status).toBe(200);
     const draft2 = (await agent.post(`/api/envelopes/${first.id}/reopen`).expect(201)).body;
-    const envelope = (await agent.post(`/api/envelopes/${draft2.id}/sign`).send({ version: draft2.version, acknowledgements }).expect(200)).body as EnvelopeRecord;
+    const envelope = (await agent.post(`/api/envelopes/${draft2.id}/sign`).send({ version: draft2.version, acknowledgements }).expect(200))
+      .body as EnvelopeRecord;
     const snapshot = envelope.snapshot!;
     expect(snapshot.format === 2 && snapshot.supersedesRevision).toBe(1);
 
@@ -148,7 +163,11 @@ describe('fabrication sheet', () => {
     const rows = Papa.parse<Record<string, string>>(csv.text, { header: true, skipEmptyLines: true }).data;
     const built = rows.filter((r) => r.kind === 'build');
     expect(built.map((r) => [r.name, r.figure])).toEqual(buildLines(snapshot, 'in').map((l) => [l.item, l.figure]));
-    expect(rows.find((r) => r.kind === 'drawing')).toMatchObject({ name: drawing, option: 'Both: bulb seal on the frames, fabric boot inside', supersedes_revision: '1' });
+    expect(rows.find((r) => r.kind === 'drawing')).toMatchObject({
+      name: drawing,
+      option: 'Both: bulb seal on the frames, fabric boot inside',
+      supersedes_revision: '1',
+    });
   });
 
   it('is not printed for a draft, nor shown to a viewer before sign-off', async () => {

@@ -83,7 +83,9 @@ describe('vehicles on the real database', () => {
     const stale = await push(agent, [change('vehicle', { ...body, name: 'Stale edit' })]);
     expect(stale.status).toBe(200);
     expect(stale.body.accepted).toEqual([]);
-    expect(stale.body.conflicts.map((c: { clientRecord: { name: string }; serverRecord: { name: string } }) => [c.clientRecord.name, c.serverRecord.name])).toEqual([['Stale edit', 'First edit']]);
+    expect(
+      stale.body.conflicts.map((c: { clientRecord: { name: string }; serverRecord: { name: string } }) => [c.clientRecord.name, c.serverRecord.name]),
+    ).toEqual([['Stale edit', 'First edit']]);
     expect((await VehicleModel.findByPk(body.id))?.name).toBe('First edit');
   });
 

@@ -42,11 +42,7 @@ function validBatch() {
   const p = poseRecord(s.id, 0);
   return {
     idempotencyKey: batchKey(),
-    changes: [
-      change('testSession', s),
-      change('pose', p),
-      ...base.pointIds.slice(0, 2).map((g) => change('reading', readingRecord(p.id, g, 'lateral', 12.5))),
-    ],
+    changes: [change('testSession', s), change('pose', p), ...base.pointIds.slice(0, 2).map((g) => change('reading', readingRecord(p.id, g, 'lateral', 12.5)))],
   };
 }
 
@@ -91,7 +87,7 @@ describe('sync push under generated junk', () => {
         ),
         async (body) => {
           const before = await footprint();
-          const raw = body && typeof body === 'object' && 'raw' in (body as object) ? String((body as { raw: string }).raw) : JSON.stringify(body) ?? '';
+          const raw = body && typeof body === 'object' && 'raw' in (body as object) ? String((body as { raw: string }).raw) : (JSON.stringify(body) ?? '');
           const res = await agent.post('/api/sync/push').set('Content-Type', 'application/json').send(raw);
           expect(res.status).toBeLessThan(500);
           if (res.status !== 200) {
@@ -116,7 +112,10 @@ describe('sync push under generated junk', () => {
 
   it('answers an oversized body with 413 and writes nothing', async () => {
     const before = await footprint();
-    const res = await agent.post('/api/sync/push').set('Content-Type', 'application/json').send(`{"idempotencyKey":"${'x'.repeat(5 * 1024 * 1024)}"}`);
+    const res = await agent
+      .post('/api/sync/push')
+      .set('Content-Type', 'application/json')
+      .send(`{"idempotencyKey":"${'x'.repeat(5 * 1024 * 1024)}"}`);
     expect(res.status).toBe(413);
     expect(await footprint()).toEqual(before);
   });
@@ -125,7 +124,10 @@ describe('sync push under generated junk', () => {
     const s = sessionRecord(base.vehicleId, { title: "Robert'); DROP TABLE readings; --", notes: "1' OR '1'='1" });
     const res = await agent.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', s)] });
     expect(res.status).toBe(200);
-    const [row] = await ts.sequelize.query<{ title: string; notes: string }>('SELECT title, notes FROM test_sessions WHERE id = $1', { bind: [s.id], type: QueryTypes.SELECT });
+    const [row] = await ts.sequelize.query<{ title: string; notes: string }>('SELECT title, notes FROM test_sessions WHERE id = $1', {
+      bind: [s.id],
+      type: QueryTypes.SELECT,
+    });
     expect(row).toEqual({ title: "Robert'); DROP TABLE readings; --", notes: "1' OR '1'='1" });
     const [table] = await ts.sequelize.query<{ t: string | null }>("SELECT to_regclass('readings')::text AS t", { type: QueryTypes.SELECT });
     expect(table.t).toBe('readings');
@@ -156,7 +158,12 @@ function claimedPng(width: number, height: number) {
   ihdr.writeUInt32BE(height, 4);
   ihdr.set([8, 0, 0, 0, 0], 8); // 8-bit greyscale
   const idat = zlib.deflateSync(Buffer.alloc(1 + width)); // one row of zeros; the rest is "missing"
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), pngChunk('IHDR', ihdr), pngChunk('IDAT', idat), pngChunk('IEND', Buffer.alloc(0))]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    pngChunk('IHDR', ihdr),
+    pngChunk('IDAT', idat),
+    pngChunk('IEND', Buffer.alloc(0)),
+  ]);
 }
 
 describe('photo upload under hostile input', () => {
@@ -195,7 +202,11 @@ describe('photo upload under hostile input', () => {
     const bomb = claimedPng(60_000, 60_000);
     expect(bomb.length).toBeLessThan(1_000);
     const before = await footprint();
-    const res = await agent.post('/api/photos').field('id', randomUUID()).field('sessionId', sid).attach('photo', bomb, { filename: 'bomb.png', contentType: 'image/png' });
+    const res = await agent
+      .post('/api/photos')
+      .field('id', randomUUID())
+      .field('sessionId', sid)
+      .attach('photo', bomb, { filename: 'bomb.png', contentType: 'image/png' });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/megapixels/);
     expect(await footprint()).toEqual(before);
@@ -204,11 +215,20 @@ describe('photo upload under hostile input', () => {
   it('keeps the client file name out of the file system', async () => {
     const sid = await sessionId();
     const sharp = (await import('sharp')).default;
-    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#806040' } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#806040' } })
+      .jpeg()
+      .toBuffer();
     const id = randomUUID();
-    const res = await agent.post('/api/photos').field('id', id).field('sessionId', sid).attach('photo', jpeg, { filename: '../../../owned.jpg', contentType: 'image/jpeg' });
+    const res = await agent
+      .post('/api/photos')
+      .field('id', id)
+      .field('sessionId', sid)
+      .attach('photo', jpeg, { filename: '../../../owned.jpg', contentType: 'image/jpeg' });
     expect(res.status).toBe(201);
-    const [row] = await ts.sequelize.query<{ stored_name: string; thumb_name: string }>('SELECT stored_name, thumb_name FROM photos WHERE id = $1', { bind: [id], type: QueryTypes.SELECT });
+    const [row] = await ts.sequelize.query<{ stored_name: string; thumb_name: string }>('SELECT stored_name, thumb_name FROM photos WHERE id = $1', {
+      bind: [id],
+      type: QueryTypes.SELECT,
+    });
     for (const name of [row.stored_name, row.thumb_name]) {
       expect(name).not.toMatch(/owned|\.\./);
     }

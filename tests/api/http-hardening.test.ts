@@ -21,12 +21,20 @@ const nested = (depth: number) => `${'['.repeat(depth)}${']'.repeat(depth)}`;
 
 describe('body parsing waits for access', () => {
   it('answers a signed-out push with 401 without reading its body (broken JSON is never parsed)', async () => {
-    const res = await request(ts.server).post('/api/sync/push').set('Origin', ts.origin).set('Content-Type', 'application/json').send('{"changes": [[[[ not json');
+    const res = await request(ts.server)
+      .post('/api/sync/push')
+      .set('Origin', ts.origin)
+      .set('Content-Type', 'application/json')
+      .send('{"changes": [[[[ not json');
     expect(res.status).toBe(401);
   });
 
   it('answers a foreign Origin with 403 without reading its body', async () => {
-    const res = await request(ts.server).post('/api/auth/sign-in').set('Origin', 'http://elsewhere.test').set('Content-Type', 'application/json').send('{"email": ');
+    const res = await request(ts.server)
+      .post('/api/auth/sign-in')
+      .set('Origin', 'http://elsewhere.test')
+      .set('Content-Type', 'application/json')
+      .send('{"email": ');
     expect(res.status).toBe(403);
   });
 
@@ -53,7 +61,9 @@ describe('body limits', () => {
   });
 
   it('refuses 64 kB+ on a public route too (sign-in)', async () => {
-    const res = await agentFor(ts).post('/api/auth/sign-in').send({ email: 'a@b.test', password: 'p'.repeat(70 * 1024) });
+    const res = await agentFor(ts)
+      .post('/api/auth/sign-in')
+      .send({ email: 'a@b.test', password: 'p'.repeat(70 * 1024) });
     expect(res.status).toBe(413);
   });
 
@@ -70,12 +80,18 @@ describe('body limits', () => {
   });
 
   it('refuses JSON nested deeper than the limit, naming it, on public and sync routes', async () => {
-    const pub = await agentFor(ts).post('/api/auth/sign-in').set('Content-Type', 'application/json').send(`{"email": ${nested(200)}}`);
+    const pub = await agentFor(ts)
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send(`{"email": ${nested(200)}}`);
     expect(pub.status).toBe(400);
     expect(pub.body.error.message).toMatch(/nested deeper than 32/);
     const team = await createTeam();
     const tester = await sessionAgent(ts, team.members.tester.userId, team.teamId);
-    const push = await tester.post('/api/sync/push').set('Content-Type', 'application/json').send(`{"idempotencyKey": "k-12345678", "changes": ${nested(5_000)}}`);
+    const push = await tester
+      .post('/api/sync/push')
+      .set('Content-Type', 'application/json')
+      .send(`{"idempotencyKey": "k-12345678", "changes": ${nested(5_000)}}`);
     expect(push.status).toBe(400);
     expect(push.body.error.message).toMatch(/nested deeper than 32/);
   });
@@ -83,7 +99,7 @@ describe('body limits', () => {
   it('is not fooled by brackets inside strings', async () => {
     const team = await createTeam();
     const admin = await sessionAgent(ts, team.members.admin.userId, team.teamId);
-    const res = await admin.patch('/api/me').send({ name: `Ren ${"[".repeat(40)} "quoted" \\ ${"{".repeat(10)}` });
+    const res = await admin.patch('/api/me').send({ name: `Ren ${'['.repeat(40)} "quoted" \\ ${'{'.repeat(10)}` });
     expect(res.status).toBe(200);
   });
 });

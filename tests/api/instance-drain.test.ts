@@ -53,11 +53,19 @@ describe('readiness and draining', () => {
     const url = new URL(`${server.baseUrl}/api/sync/push`);
     // The batch starts: headers and half its body are sent.
     const answer = new Promise<{ status: number; text: string }>((resolve, reject) => {
-      const req = http.request(url, { method: 'POST', agent: false, headers: { Cookie: cookie, Origin: server.baseUrl, 'Content-Type': 'application/json', 'Content-Length': Buffer.byteLength(body) } }, (res) => {
-        let text = '';
-        res.on('data', (d) => (text += d));
-        res.on('end', () => resolve({ status: res.statusCode!, text }));
-      });
+      const req = http.request(
+        url,
+        {
+          method: 'POST',
+          agent: false,
+          headers: { Cookie: cookie, Origin: server.baseUrl, 'Content-Type': 'application/json', 'Content-Length': Buffer.byteLength(body) },
+        },
+        (res) => {
+          let text = '';
+          res.on('data', (d) => (text += d));
+          res.on('end', () => resolve({ status: res.statusCode!, text }));
+        },
+      );
       req.on('error', reject);
       req.write(body.slice(0, 40));
       setTimeout(() => req.end(body.slice(40)), 3000);

@@ -77,31 +77,72 @@ async function desk(server: ServerProcess, cookie: string, method: string, path:
 /** A whole session as the phone stores it: vehicle, gauge points, poses and readings of a synthetic flex test. */
 function phoneSession() {
   const synthetic = buildSyntheticSession({
-    poses: 6, gaugePoints: 6, seed: 11, mode: 'gap', nominalGapMm: 90,
+    poses: 6,
+    gaugePoints: 6,
+    seed: 11,
+    mode: 'gap',
+    nominalGapMm: 90,
     motionPerDeg: { t: { x: 0.6, y: 9, z: 1.2 }, omega: { x: 0.0012, y: 0.0002, z: -0.0004 } },
   });
   const o = synthetic.outline;
   const vehicle = {
-    id: randomUUID(), version: 1, name: 'Two instance truck', chassis: '', body: '', wheelbaseMm: 3800,
-    trackFrontMm: synthetic.tracks.frontMm, trackRearMm: synthetic.tracks.rearMm,
+    id: randomUUID(),
+    version: 1,
+    name: 'Two instance truck',
+    chassis: '',
+    body: '',
+    wheelbaseMm: 3800,
+    trackFrontMm: synthetic.tracks.frontMm,
+    trackRearMm: synthetic.tracks.rearMm,
     opening: { widthMm: o.width, heightMm: o.height, cornerRadiusMm: o.cornerRadius, centreYMm: o.centreY ?? 0, bottomZMm: o.bottomZ ?? 0 },
-    nominalGapMm: 90, notes: '',
+    nominalGapMm: 90,
+    notes: '',
   };
   const pointIds = new Map(synthetic.gaugePoints.map((g) => [g.id, randomUUID()]));
   const points = synthetic.gaugePoints.map((g) => ({ id: pointIds.get(g.id)!, version: 1, vehicleId: vehicle.id, label: g.id, yMm: g.y, zMm: g.z }));
   const session = {
-    id: randomUUID(), version: 1, vehicleId: vehicle.id, title: 'Yard flex, two instances', testedOn: '2026-11-30', conditions: 'dry', loadState: '',
-    tyrePressures: '', crew: 'tester and spotter', readingMode: 'gap', safetyAckAt: '2026-11-30T09:00:00.000Z', notes: '',
+    id: randomUUID(),
+    version: 1,
+    vehicleId: vehicle.id,
+    title: 'Yard flex, two instances',
+    testedOn: '2026-11-30',
+    conditions: 'dry',
+    loadState: '',
+    tyrePressures: '',
+    crew: 'tester and spotter',
+    readingMode: 'gap',
+    safetyAckAt: '2026-11-30T09:00:00.000Z',
+    notes: '',
   };
   const poses = synthetic.poses.map((p, i) => ({
-    id: randomUUID(), version: 1, sessionId: session.id, seq: i, label: i === 0 ? 'Level' : `Diagonal ${i}`, kind: i === 0 ? 'level' : 'wheels',
-    liftFlMm: p.lifts.fl, liftFrMm: p.lifts.fr, liftRlMm: p.lifts.rl, liftRrMm: p.lifts.rr, rampAngleDeg: null, rampDistanceMm: null, notes: '',
+    id: randomUUID(),
+    version: 1,
+    sessionId: session.id,
+    seq: i,
+    label: i === 0 ? 'Level' : `Diagonal ${i}`,
+    kind: i === 0 ? 'level' : 'wheels',
+    liftFlMm: p.lifts.fl,
+    liftFrMm: p.lifts.fr,
+    liftRlMm: p.lifts.rl,
+    liftRrMm: p.lifts.rr,
+    rampAngleDeg: null,
+    rampDistanceMm: null,
+    notes: '',
     recordedAt: new Date(Date.parse('2026-11-30T09:00:00Z') + i * 600_000).toISOString(),
   }));
-  const readings = synthetic.poses.flatMap((p, i) => p.readings.map((r) => ({
-    id: randomUUID(), version: 1, poseId: poses[i].id, gaugePointId: pointIds.get(r.pointId)!, axis: r.axis, valueMm: Math.round(r.value * 2) / 2,
-    excluded: false, excludeReason: null, flagNote: null,
-  })));
+  const readings = synthetic.poses.flatMap((p, i) =>
+    p.readings.map((r) => ({
+      id: randomUUID(),
+      version: 1,
+      poseId: poses[i].id,
+      gaugePointId: pointIds.get(r.pointId)!,
+      axis: r.axis,
+      valueMm: Math.round(r.value * 2) / 2,
+      excluded: false,
+      excludeReason: null,
+      flagNote: null,
+    })),
+  );
   return { vehicle, points, session, poses, readings };
 }
 
@@ -116,13 +157,32 @@ describe('two instances on one database, one photo store and one mail sink', () 
     // The phone records offline, with a photo, then syncs: each call to the other instance.
     const db = new FieldDb(`two-instances-${randomUUID()}`);
     const records = phoneSession();
-    for (const [entity, list] of [['vehicle', [records.vehicle]], ['gaugePoint', records.points], ['testSession', [records.session]], ['pose', records.poses], ['reading', records.readings]] as const) {
+    for (const [entity, list] of [
+      ['vehicle', [records.vehicle]],
+      ['gaugePoint', records.points],
+      ['testSession', [records.session]],
+      ['pose', records.poses],
+      ['reading', records.readings],
+    ] as const) {
       const saved = await saveRecords(entity, list as { id: string }[], db);
       expect(saved.filter((r) => !r.ok)).toEqual([]);
     }
-    const jpeg = await sharp({ create: { width: 120, height: 90, channels: 3, background: '#5a6b3c' } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 120, height: 90, channels: 3, background: '#5a6b3c' } })
+      .jpeg()
+      .toBuffer();
     const photoId = randomUUID();
-    expect(await addPhoto({ id: photoId, sessionId: records.session.id, poseId: records.poses[2].id, caption: 'Gap at P2', file: new Blob([new Uint8Array(jpeg)], { type: 'image/jpeg' }) }, db)).toMatchObject({ ok: true });
+    expect(
+      await addPhoto(
+        {
+          id: photoId,
+          sessionId: records.session.id,
+          poseId: records.poses[2].id,
+          caption: 'Gap at P2',
+          file: new Blob([new Uint8Array(jpeg)], { type: 'image/jpeg' }),
+        },
+        db,
+      ),
+    ).toMatchObject({ ok: true });
     const phone = alternating([nodeTransport(a.baseUrl, phoneCookie), nodeTransport(b.baseUrl, phoneCookie)]);
     expect(await runSync(db, phone)).toEqual({ ok: true });
     expect(new Set(phone.calls.map((c) => c.split('@')[1]))).toEqual(new Set(['0', '1']));
@@ -146,13 +206,17 @@ describe('two instances on one database, one photo store and one mail sink', () 
 
     // The desk excludes a reading through one instance; the phone's next sync brings it back.
     const reading = records.readings[7];
-    expect((await desk(a, deskCookie, 'PATCH', `/api/readings/${reading.id}/review`, { version: 1, excluded: true, excludeReason: 'tape slipped' })).status).toBe(200);
+    expect(
+      (await desk(a, deskCookie, 'PATCH', `/api/readings/${reading.id}/review`, { version: 1, excluded: true, excludeReason: 'tape slipped' })).status,
+    ).toBe(200);
     expect((await desk(b, deskCookie, 'GET', `/api/sessions/${records.session.id}/review`, undefined, { 'If-None-Match': etag })).status).toBe(200);
     expect(await runSync(db, phone)).toEqual({ ok: true });
     expect(await db.readings.get(reading.id)).toMatchObject({ excluded: true, excludeReason: 'tape slipped', version: 2 });
 
     // Sign-off on one instance, the sheet sent from the other: one e-mail, one log row.
-    const draft = await desk(a, deskCookie, 'POST', `/api/sessions/${records.session.id}/envelopes`, { params: { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 } });
+    const draft = await desk(a, deskCookie, 'POST', `/api/sessions/${records.session.id}/envelopes`, {
+      params: { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 },
+    });
     expect(draft.status, JSON.stringify(draft.data)).toBe(201);
     const d = draft.data as { id: string; version: number };
     const signed = await desk(b, deskCookie, 'POST', `/api/envelopes/${d.id}/sign`, { version: d.version });
@@ -161,7 +225,10 @@ describe('two instances on one database, one photo store and one mail sink', () 
     expect(sent.status, JSON.stringify(sent.data)).toBe(201);
     const mail = await sink.waitFor((m) => m.to.includes('cutter@bootmakers.test'));
     expect(mail.attachments[0]).toMatchObject({ contentType: 'application/pdf' });
-    const [{ n }] = await ts.sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM mail_log WHERE team_id = $1 AND kind = 'sheet'`, { bind: [team.teamId], type: 'SELECT' as never });
+    const [{ n }] = await ts.sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM mail_log WHERE team_id = $1 AND kind = 'sheet'`, {
+      bind: [team.teamId],
+      type: 'SELECT' as never,
+    });
     expect(n).toBe(1);
     // Nothing was stored twice.
     expect(await ReadingModel.count({ where: { poseId: records.poses.map((p) => p.id) } })).toBe(records.readings.length);
@@ -171,7 +238,11 @@ describe('two instances on one database, one photo store and one mail sink', () 
   it('counts sign-in failures once for both instances', async () => {
     const email = team.members.viewer.email;
     const attempt = (server: ServerProcess, password: string) =>
-      fetch(`${server.baseUrl}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: server.baseUrl }, body: JSON.stringify({ email, password }) });
+      fetch(`${server.baseUrl}/api/auth/sign-in`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', Origin: server.baseUrl },
+        body: JSON.stringify({ email, password }),
+      });
     // The free failures and the one that starts the wait, spread over both instances (auth/throttle.ts);
     // from then on the address waits, wherever its next guess lands.
     for (let i = 0; i <= signInThrottle.freeFailures; i++) expect((await attempt(i % 2 ? b : a, `wrong-${i}`)).status).toBe(401);

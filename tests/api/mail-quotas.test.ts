@@ -24,7 +24,9 @@ const sinkCount = (domain: string) => ts.mail.messages.filter((m) => m.to.some((
 /** A workshop made the way a newcomer makes one: sign-up, then the link in the e-mail. */
 async function signUpWorkshop(): Promise<{ agent: Agent; teamId: string; email: string }> {
   const email = `founder-${randomUUID().slice(0, 8)}@harrow.test`;
-  expect((await agentFor(ts).post('/api/auth/sign-up').send({ teamName: 'Harrow Builds', name: 'Tova Reyne', email, password: 'a long enough passphrase' })).status).toBe(202);
+  expect(
+    (await agentFor(ts).post('/api/auth/sign-up').send({ teamName: 'Harrow Builds', name: 'Tova Reyne', email, password: 'a long enough passphrase' })).status,
+  ).toBe(202);
   const token = tokenIn(await waitForMail(ts, email, /Confirm/), '/sign-up/confirm/');
   const agent = agentFor(ts);
   expect((await agent.post('/api/auth/sign-up/confirm').send({ token })).status).toBe(200);
@@ -33,7 +35,12 @@ async function signUpWorkshop(): Promise<{ agent: Agent; teamId: string; email: 
 }
 
 async function signOffOne(agent: Agent, sessionId: string) {
-  const draft = (await agent.post(`/api/sessions/${sessionId}/envelopes`).send({ params: { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 } }).expect(201)).body;
+  const draft = (
+    await agent
+      .post(`/api/sessions/${sessionId}/envelopes`)
+      .send({ params: { ...DEFAULT_DRAFT_PARAMS, designTwistDeg: 20 } })
+      .expect(201)
+  ).body;
   return (await agent.post(`/api/envelopes/${draft.id}/sign`).send({ version: draft.version }).expect(200)).body as { id: string };
 }
 
@@ -57,7 +64,10 @@ describe('invitations from a new workshop', () => {
     expectQuotaAnswer(over, /new workshop/);
     await new Promise((r) => setTimeout(r, 200));
     expect(sinkCount(domain)).toBe(limit);
-    const [{ n }] = await ts.sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM invitations WHERE team_id = :teamId', { replacements: { teamId }, type: QueryTypes.SELECT });
+    const [{ n }] = await ts.sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM invitations WHERE team_id = :teamId', {
+      replacements: { teamId },
+      type: QueryTypes.SELECT,
+    });
     expect(n).toBe(limit);
   });
 

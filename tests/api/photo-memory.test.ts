@@ -34,7 +34,10 @@ async function makeBigJpeg(): Promise<Buffer> {
   const h = 189;
   const small = Buffer.alloc(w * h * 3);
   for (let i = 0; i < small.length; i++) small[i] = (Math.sin(i * 0.37) * 60 + 128 + ((i * 7919) % 50)) | 0;
-  return sharp(small, { raw: { width: w, height: h, channels: 3 } }).resize(w * 32, h * 32, { kernel: 'cubic' }).jpeg({ quality: 88, progressive: true }).toBuffer();
+  return sharp(small, { raw: { width: w, height: h, channels: 3 } })
+    .resize(w * 32, h * 32, { kernel: 'cubic' })
+    .jpeg({ quality: 88, progressive: true })
+    .toBuffer();
 }
 
 async function upload(who: string, file: Buffer, id = randomUUID()) {
@@ -53,10 +56,21 @@ beforeAll(async () => {
   const vehicleId = randomUUID();
   sessionId = randomUUID();
   await insertRow(ts.sequelize, 'vehicles', {
-    id: vehicleId, team_id: team.teamId, name: 'Photo truck', wheelbase_mm: 3800, track_front_mm: 1900, track_rear_mm: 1880,
+    id: vehicleId,
+    team_id: team.teamId,
+    name: 'Photo truck',
+    wheelbase_mm: 3800,
+    track_front_mm: 1900,
+    track_rear_mm: 1880,
     opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
   });
-  await insertRow(ts.sequelize, 'test_sessions', { id: sessionId, team_id: team.teamId, vehicle_id: vehicleId, tested_on: '2026-05-01', created_by: team.members.tester.userId });
+  await insertRow(ts.sequelize, 'test_sessions', {
+    id: sessionId,
+    team_id: team.teamId,
+    vehicle_id: vehicleId,
+    tested_on: '2026-05-01',
+    created_by: team.members.tester.userId,
+  });
   for (const role of ['admin', 'engineer', 'tester'] as const) cookies[role] = (await startSession(team.members[role].userId, team.teamId)).split(';')[0];
   // A fourth person who records: a second tester.
   const other = await createTeam('Second tester source');
@@ -74,12 +88,16 @@ afterAll(async () => {
 describe('photo uploads and memory', () => {
   it('four people uploading a 48 MP progressive JPEG at once keep the server under its memory bound', async () => {
     // Warm up: sharp and the upload path loaded, one small photo stored.
-    const small = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#7a8' } }).jpeg().toBuffer();
+    const small = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#7a8' } })
+      .jpeg()
+      .toBuffer();
     expect((await upload('tester', small)).status).toBe(201);
     const before = memoryOf(server.child.pid!);
     const results = await Promise.all(['admin', 'engineer', 'tester', 'tester2'].map((who) => upload(who, bigJpeg)));
     const after = memoryOf(server.child.pid!);
-    console.log(`photo memory: RSS ${Math.round(before.rss / MB)} MB before, peak ${Math.round(after.peak / MB)} MB during 4 concurrent ${bigJpeg.length} B uploads`);
+    console.log(
+      `photo memory: RSS ${Math.round(before.rss / MB)} MB before, peak ${Math.round(after.peak / MB)} MB during 4 concurrent ${bigJpeg.length} B uploads`,
+    );
     expect(results.map((r) => r.status)).toEqual([201, 201, 201, 201]);
     expect(after.peak - before.rss).toBeLessThan(photoLimits.memoryBudgetMb * MB);
   }, 180_000);
@@ -93,7 +111,7 @@ describe('photo uploads and memory', () => {
     expect((await upload('engineer', bigJpeg)).status).toBe(201);
   }, 180_000);
 
-  it('refuses a photo past the workshop\'s storage, keeping it on the phone (507, not a permanent refusal)', async () => {
+  it("refuses a photo past the workshop's storage, keeping it on the phone (507, not a permanent refusal)", async () => {
     const [{ used }] = await ts.sequelize.query<{ used: number }>(`SELECT coalesce(sum(bytes), 0)::float8 AS used FROM photos WHERE team_id = :t`, {
       replacements: { t: team.teamId },
       type: (await import('sequelize')).QueryTypes.SELECT,
@@ -101,11 +119,21 @@ describe('photo uploads and memory', () => {
     // Fill the workshop up to its ceiling with records of large stored photos (at most 1 GB a row).
     for (let left = photoLimits.storagePerWorkshopMb * MB - used; left > 0; left -= 1024 * MB) {
       await insertRow(ts.sequelize, 'photos', {
-        id: randomUUID(), team_id: team.teamId, session_id: sessionId, stored_name: `${randomUUID()}.jpg`, thumb_name: `${randomUUID()}.thumb.jpg`,
-        mime: 'image/jpeg', width: 10, height: 10, bytes: Math.min(left, 1024 * MB), created_by: team.members.tester.userId,
+        id: randomUUID(),
+        team_id: team.teamId,
+        session_id: sessionId,
+        stored_name: `${randomUUID()}.jpg`,
+        thumb_name: `${randomUUID()}.thumb.jpg`,
+        mime: 'image/jpeg',
+        width: 10,
+        height: 10,
+        bytes: Math.min(left, 1024 * MB),
+        created_by: team.members.tester.userId,
       });
     }
-    const small = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#345' } }).jpeg().toBuffer();
+    const small = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#345' } })
+      .jpeg()
+      .toBuffer();
     const res = await upload('tester', small);
     expect(res.status).toBe(507);
     expect(res.body.error!.message).toMatch(/storage/);

@@ -22,9 +22,15 @@ async function uploaded() {
   const { vehicleId } = await vehicleWithPoints(tester);
   const session = sessionRecord(vehicleId);
   expect((await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session)] })).status).toBe(200);
-  const jpeg = await sharp({ create: { width: 80, height: 60, channels: 3, background: '#705030' } }).jpeg().toBuffer();
+  const jpeg = await sharp({ create: { width: 80, height: 60, channels: 3, background: '#705030' } })
+    .jpeg()
+    .toBuffer();
   const id = randomUUID();
-  const res = await tester.post('/api/photos').field('id', id).field('sessionId', session.id).attach('photo', jpeg, { filename: 'gap.jpg', contentType: 'image/jpeg' });
+  const res = await tester
+    .post('/api/photos')
+    .field('id', id)
+    .field('sessionId', session.id)
+    .attach('photo', jpeg, { filename: 'gap.jpg', contentType: 'image/jpeg' });
   expect(res.status).toBe(201);
   const row = (await PhotoModel.findByPk(id))!;
   return { team, tester, id, row, answer: res.body as Record<string, unknown> };

@@ -58,7 +58,7 @@ describe('GPS in photos follows the workshop setting', () => {
     expect([row?.gpsLat, row?.gpsLon]).toEqual([null, null]);
   });
 
-  it('is the admin\'s to change; switching to drop erases positions already kept', async () => {
+  it("is the admin's to change; switching to drop erases positions already kept", async () => {
     const { team, admin, tester, sessionId } = await setup('keep');
     const id = randomUUID();
     expect((await upload(tester, { id, sessionId }, await jpegWithGps())).body).toMatchObject({ hasGps: true });
@@ -139,7 +139,9 @@ describe('photo upload', () => {
 
   it('refuses an image that claims more pixels than the limit (decompression bomb)', async () => {
     const { tester, sessionId } = await setup();
-    const small = await sharp({ create: { width: 16, height: 16, channels: 3, background: '#888' } }).jpeg().toBuffer();
+    const small = await sharp({ create: { width: 16, height: 16, channels: 3, background: '#888' } })
+      .jpeg()
+      .toBuffer();
     // Rewrite the frame header (SOF0: FF C0, length, precision, height, width) to claim 30000 × 30000.
     const sof = small.indexOf(Buffer.from([0xff, 0xc0]));
     expect(sof).toBeGreaterThan(0);

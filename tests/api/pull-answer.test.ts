@@ -34,14 +34,23 @@ async function recordedSession() {
   const { vehicleId, pointIds } = await vehicleWithPoints(tester);
   const session = sessionRecord(vehicleId);
   const level = poseRecord(session.id, 0);
-  const ramp = poseRecord(session.id, 1, { kind: 'ramp', rampAngleDeg: 20, rampDistanceMm: 1250.5, rampWheel: 'fl', liftFlMm: 1250.5 * Math.sin(Math.PI / 9), notes: 'front left on the ramp' });
+  const ramp = poseRecord(session.id, 1, {
+    kind: 'ramp',
+    rampAngleDeg: 20,
+    rampDistanceMm: 1250.5,
+    rampWheel: 'fl',
+    liftFlMm: 1250.5 * Math.sin(Math.PI / 9),
+    notes: 'front left on the ramp',
+  });
   const readings = pointIds.flatMap((p, i) => [readingRecord(level.id, p, 'lateral', 90 + i), readingRecord(ramp.id, p, 'lateral', 90.25 + i * 1.1)]);
   const pushed = await tester.post('/api/sync/push').send({
     idempotencyKey: batchKey(),
     changes: [change('testSession', session), change('pose', level), change('pose', ramp), ...readings.map((r) => change('reading', r))],
   });
   expect(pushed.status).toBe(200);
-  const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#6b5a3c' } }).jpeg().toBuffer();
+  const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#6b5a3c' } })
+    .jpeg()
+    .toBuffer();
   const photoId = randomUUID();
   const uploaded = await tester.post('/api/photos').field('id', photoId).field('sessionId', session.id).field('poseId', ramp.id).attach('photo', jpeg, 'a.jpg');
   expect(uploaded.status).toBe(201);
@@ -53,7 +62,10 @@ async function recordedSession() {
 }
 
 async function rows(table: string, teamId: string) {
-  return ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${table} WHERE team_id = $1 ORDER BY change_seq`, { bind: [teamId], type: QueryTypes.SELECT });
+  return ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${table} WHERE team_id = $1 ORDER BY change_seq`, {
+    bind: [teamId],
+    type: QueryTypes.SELECT,
+  });
 }
 
 describe('the pull answer', () => {
@@ -73,10 +85,13 @@ describe('the pull answer', () => {
     expect(res.body.photos).toEqual([photoOut((await PhotoModel.findByPk(f.photoId))!)]);
     expect(res.body.conflicts).toEqual([f.conflict]);
     const tables = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'sync_conflicts'];
-    const [{ top }] = await ts.sequelize.query<{ top: number }>(`SELECT greatest(${tables.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = $1)`).join(', ')}) AS top`, {
-      bind: [f.team.teamId],
-      type: QueryTypes.SELECT,
-    });
+    const [{ top }] = await ts.sequelize.query<{ top: number }>(
+      `SELECT greatest(${tables.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = $1)`).join(', ')}) AS top`,
+      {
+        bind: [f.team.teamId],
+        type: QueryTypes.SELECT,
+      },
+    );
     expect(res.body).toMatchObject({ cursor: Number(top), hasMore: false });
     // The conflict is the tester's alone.
     expect((await pull(f.engineer, 'since=0')).body.conflicts).toEqual([]);
@@ -142,7 +157,9 @@ describe('the pull answer', () => {
     // A photo from another phone of the workshop.
     const etag3 = afterResolve.headers.etag;
     const other = await signedInAgent(ts, f.team.members.admin.email);
-    const jpeg = await sharp({ create: { width: 32, height: 32, channels: 3, background: '#333333' } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 32, height: 32, channels: 3, background: '#333333' } })
+      .jpeg()
+      .toBuffer();
     expect((await other.post('/api/photos').field('id', randomUUID()).field('sessionId', f.session.id).attach('photo', jpeg, 'b.jpg')).status).toBe(201);
     expect((await pull(f.tester, 'since=0', etag3)).status).toBe(200);
   });

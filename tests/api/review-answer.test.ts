@@ -26,16 +26,18 @@ const reviewOf = (agent: Agent, sessionId: string, etag?: string) => {
 /** The raw bytes on the wire for an Accept-Encoding, and the decoded JSON. */
 function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; json: unknown }> {
   return new Promise((resolve, reject) => {
-    http.get(`${ts.baseUrl}${path}`, { headers: { Cookie: cookie, 'Accept-Encoding': encoding } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c) => chunks.push(c));
-      res.on('end', () => {
-        const raw = Buffer.concat(chunks);
-        const enc = res.headers['content-encoding'];
-        const text = enc === 'br' ? zlib.brotliDecompressSync(raw) : enc === 'gzip' ? zlib.gunzipSync(raw) : raw;
-        resolve({ bytes: raw.length, encoding: enc, json: JSON.parse(text.toString('utf8')) });
-      });
-    }).on('error', reject);
+    http
+      .get(`${ts.baseUrl}${path}`, { headers: { Cookie: cookie, 'Accept-Encoding': encoding } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c) => chunks.push(c));
+        res.on('end', () => {
+          const raw = Buffer.concat(chunks);
+          const enc = res.headers['content-encoding'];
+          const text = enc === 'br' ? zlib.brotliDecompressSync(raw) : enc === 'gzip' ? zlib.gunzipSync(raw) : raw;
+          resolve({ bytes: raw.length, encoding: enc, json: JSON.parse(text.toString('utf8')) });
+        });
+      })
+      .on('error', reject);
   });
 }
 
@@ -51,9 +53,16 @@ describe('the review answer', () => {
 
     // A photo of the session, as the tester uploads it: the review carries it as the pull does.
     const tester = await signedInAgent(ts, team.members.tester.email);
-    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#778877' } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#778877' } })
+      .jpeg()
+      .toBuffer();
     const photoId = randomUUID();
-    const uploaded = await tester.post('/api/photos').field('id', photoId).field('sessionId', s.sessionId).field('poseId', s.poseIds[1]).attach('photo', jpeg, { filename: 'gauge.jpg', contentType: 'image/jpeg' });
+    const uploaded = await tester
+      .post('/api/photos')
+      .field('id', photoId)
+      .field('sessionId', s.sessionId)
+      .field('poseId', s.poseIds[1])
+      .attach('photo', jpeg, { filename: 'gauge.jpg', contentType: 'image/jpeg' });
     expect(uploaded.status).toBe(201);
 
     const review = await reviewOf(engineer, s.sessionId);
@@ -71,7 +80,13 @@ describe('the review answer', () => {
     expect(Object.keys(review.body).sort()).toEqual(['gaugePoints', 'history', 'people', 'photos', 'poses', 'readings', 'session', 'vehicle']);
     expect(review.body.people).toEqual({ [team.members.tester.userId]: `tester ${team.members.tester.userId.slice(0, 4)}` });
     expect(review.body.history).toEqual([
-      expect.objectContaining({ entity: 'reading', entityId: excluded, action: 'reading.exclude', userName: `engineer ${team.members.engineer.userId.slice(0, 4)}`, detail: expect.objectContaining({ excluded: { before: false, after: true } }) }),
+      expect.objectContaining({
+        entity: 'reading',
+        entityId: excluded,
+        action: 'reading.exclude',
+        userName: `engineer ${team.members.engineer.userId.slice(0, 4)}`,
+        detail: expect.objectContaining({ excluded: { before: false, after: true } }),
+      }),
     ]);
     expect(review.body.history[0].createdAt).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
     expect(typeof review.body.history[0].id).toBe('number');
@@ -111,7 +126,9 @@ describe('the review answer', () => {
     const tester = await signedInAgent(ts, team.members.tester.email);
     const pulled = (await tester.get('/api/sync/pull?since=0')).body;
     const pose = pulled.poses.find((p: { id: string }) => p.id === s.poseIds[1]);
-    const pushed = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', { ...pose, notes: 'spotter moved the block' })] });
+    const pushed = await tester
+      .post('/api/sync/push')
+      .send({ idempotencyKey: batchKey(), changes: [change('pose', { ...pose, notes: 'spotter moved the block' })] });
     expect(pushed.status).toBe(200);
     const afterPush = await reviewOf(engineer, s.sessionId, etag2);
     expect(afterPush.status).toBe(200);
@@ -124,7 +141,7 @@ describe('the review answer', () => {
     expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
   });
 
-  it('shows a person renamed since the desk\'s copy under the new name', async () => {
+  it("shows a person renamed since the desk's copy under the new name", async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
     const engineer = await signedInAgent(ts, team.members.engineer.email);

@@ -53,7 +53,12 @@ describe('password reset', () => {
     try {
       const [a, b] = await Promise.all([
         within(agentFor(ts).post('/api/auth/password-reset').send({ email: known }), 1_500),
-        within(agentFor(ts).post('/api/auth/password-reset').send({ email: `nobody-${randomUUID().slice(0, 8)}@workshop.test` }), 1_500),
+        within(
+          agentFor(ts)
+            .post('/api/auth/password-reset')
+            .send({ email: `nobody-${randomUUID().slice(0, 8)}@workshop.test` }),
+          1_500,
+        ),
       ]);
       expect(a === 'still waiting' ? a : a.status).toBe(202);
       expect(b === 'still waiting' ? b : b.status).toBe(202);
@@ -81,7 +86,15 @@ describe('database time limits', () => {
     const ids = { v: randomUUID(), g: randomUUID(), s: randomUUID(), p: randomUUID(), r: randomUUID() };
     const t = team.teamId;
     const by = team.members.engineer.userId;
-    await insertRow(ts.sequelize, 'vehicles', { id: ids.v, team_id: t, name: 'Locked truck', wheelbase_mm: 3800, track_front_mm: 1900, track_rear_mm: 1880, opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 } });
+    await insertRow(ts.sequelize, 'vehicles', {
+      id: ids.v,
+      team_id: t,
+      name: 'Locked truck',
+      wheelbase_mm: 3800,
+      track_front_mm: 1900,
+      track_rear_mm: 1880,
+      opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
+    });
     await insertRow(ts.sequelize, 'gauge_points', { id: ids.g, team_id: t, vehicle_id: ids.v, label: 'A', y_mm: 300, z_mm: 800 });
     await insertRow(ts.sequelize, 'test_sessions', { id: ids.s, team_id: t, vehicle_id: ids.v, tested_on: '2026-05-01', created_by: by });
     await insertRow(ts.sequelize, 'poses', { id: ids.p, team_id: t, session_id: ids.s, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
@@ -105,13 +118,21 @@ describe('database time limits', () => {
 });
 
 describe('push errors', () => {
-  it('never echo another workshop\'s ids or labels', async () => {
+  it("never echo another workshop's ids or labels", async () => {
     const mine = await createTeam('Own workshop');
     const theirs = await createTeam('Neighbour workshop');
     const t = theirs.teamId;
     const by = theirs.members.engineer.userId;
     const ids = { v: randomUUID(), g: randomUUID(), s: randomUUID(), p: randomUUID(), r: randomUUID() };
-    await insertRow(ts.sequelize, 'vehicles', { id: ids.v, team_id: t, name: 'Their truck', wheelbase_mm: 3800, track_front_mm: 1900, track_rear_mm: 1880, opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 } });
+    await insertRow(ts.sequelize, 'vehicles', {
+      id: ids.v,
+      team_id: t,
+      name: 'Their truck',
+      wheelbase_mm: 3800,
+      track_front_mm: 1900,
+      track_rear_mm: 1880,
+      opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
+    });
     await insertRow(ts.sequelize, 'gauge_points', { id: ids.g, team_id: t, vehicle_id: ids.v, label: 'SECRET7', y_mm: 300, z_mm: 800 });
     await insertRow(ts.sequelize, 'test_sessions', { id: ids.s, team_id: t, vehicle_id: ids.v, tested_on: '2026-05-01', created_by: by });
     await insertRow(ts.sequelize, 'poses', { id: ids.p, team_id: t, session_id: ids.s, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
@@ -141,14 +162,20 @@ describe('pruning', () => {
     const team = await createTeam();
     const old = `old-${randomUUID()}`;
     const fresh = `fresh-${randomUUID()}`;
-    for (const [key, age] of [[old, SYNC_BATCH_RETENTION_DAYS + 1], [fresh, SYNC_BATCH_RETENTION_DAYS - 1]] as const) {
+    for (const [key, age] of [
+      [old, SYNC_BATCH_RETENTION_DAYS + 1],
+      [fresh, SYNC_BATCH_RETENTION_DAYS - 1],
+    ] as const) {
       await ts.sequelize.query(
         `INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response, created_at) VALUES (:t, :key, :u, 'h', '{}', now() - make_interval(days => :age))`,
         { replacements: { t: team.teamId, key, u: team.members.tester.userId, age } },
       );
     }
     await pruneExpired();
-    const left = await ts.sequelize.query<{ idempotency_key: string }>('SELECT idempotency_key FROM sync_batches WHERE team_id = :t', { replacements: { t: team.teamId }, type: QueryTypes.SELECT });
+    const left = await ts.sequelize.query<{ idempotency_key: string }>('SELECT idempotency_key FROM sync_batches WHERE team_id = :t', {
+      replacements: { t: team.teamId },
+      type: QueryTypes.SELECT,
+    });
     expect(left.map((r) => r.idempotency_key)).toEqual([fresh]);
   });
 });

@@ -63,10 +63,14 @@ async function buildFixture(): Promise<Fixture> {
   const t = team.teamId;
   const by = team.members.engineer.userId;
   const ids: Record<string, string> = {};
-  for (const k of ['v1', 'v2', 'g1', 'g2', 'openSession', 'spareSession', 'signedSession', 'p1', 'p2', 'q1', 'q2', 'r1', 't1', 'envelope']) ids[k] = randomUUID();
+  for (const k of ['v1', 'v2', 'g1', 'g2', 'openSession', 'spareSession', 'signedSession', 'p1', 'p2', 'q1', 'q2', 'r1', 't1', 'envelope'])
+    ids[k] = randomUUID();
   const insert = (table: string, row: Record<string, unknown>) => insertRow(ts.sequelize, table, row);
   const opening = { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 };
-  for (const [id, name] of [[ids.v1, 'Matrix truck'], [ids.v2, 'Second truck']]) {
+  for (const [id, name] of [
+    [ids.v1, 'Matrix truck'],
+    [ids.v2, 'Second truck'],
+  ]) {
     await insert('vehicles', { id, team_id: t, name, wheelbase_mm: 3800, track_front_mm: 1900, track_rear_mm: 1880, opening });
   }
   await insert('gauge_points', { id: ids.g1, team_id: t, vehicle_id: ids.v1, label: 'A', y_mm: 300, z_mm: 800 });
@@ -75,7 +79,16 @@ async function buildFixture(): Promise<Fixture> {
     await insert('test_sessions', { id: s, team_id: t, vehicle_id: ids.v1, tested_on: '2026-05-01', created_by: by });
   }
   const pose = (id: string, session: string, seq: number) =>
-    insert('poses', { id, team_id: t, session_id: session, seq, kind: seq ? 'wheels' : 'level', lift_fl_mm: seq ? 300 : 0, recorded_at: new Date(), created_by: by });
+    insert('poses', {
+      id,
+      team_id: t,
+      session_id: session,
+      seq,
+      kind: seq ? 'wheels' : 'level',
+      lift_fl_mm: seq ? 300 : 0,
+      recorded_at: new Date(),
+      created_by: by,
+    });
   await pose(ids.p1, ids.openSession, 0);
   await pose(ids.p2, ids.openSession, 1);
   await pose(ids.q1, ids.signedSession, 0);
@@ -83,8 +96,17 @@ async function buildFixture(): Promise<Fixture> {
   await insert('readings', { id: ids.r1, team_id: t, pose_id: ids.p1, gauge_point_id: ids.g1, axis: 'lateral', value_mm: 93.5, entered_by: by });
   await insert('readings', { id: ids.t1, team_id: t, pose_id: ids.q1, gauge_point_id: ids.g1, axis: 'lateral', value_mm: 88, entered_by: by });
   await insert('envelopes', {
-    id: ids.envelope, team_id: t, vehicle_id: ids.v1, session_id: ids.signedSession, params: {}, status: 'signed',
-    snapshot: {}, content_hash: 'x'.repeat(64), signed_by: by, signed_at: new Date(), created_by: by,
+    id: ids.envelope,
+    team_id: t,
+    vehicle_id: ids.v1,
+    session_id: ids.signedSession,
+    params: {},
+    status: 'signed',
+    snapshot: {},
+    content_hash: 'x'.repeat(64),
+    signed_by: by,
+    signed_at: new Date(),
+    created_by: by,
   });
   const agents = {} as Record<Role, Agent>;
   for (const role of roles) agents[role] = await sessionAgent(ts, team.members[role].userId, t);
@@ -94,7 +116,10 @@ async function buildFixture(): Promise<Fixture> {
 /** The record as the server holds it now (what a phone that pulled it would push back). */
 async function current(entity: SyncEntity, id: string): Promise<Record<string, unknown> & { id: string; version: number }> {
   const spec = syncTables[entity];
-  const [row] = await ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${spec.table} WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT });
+  const [row] = await ts.sequelize.query<Record<string, unknown>>(`SELECT * FROM ${spec.table} WHERE id = :id`, {
+    replacements: { id },
+    type: QueryTypes.SELECT,
+  });
   const { changeSeq: _seq, ...record } = toRecord(entity, row);
   return record;
 }
@@ -176,7 +201,15 @@ function newRecord(entity: SyncEntity, f: Fixture, inSigned: boolean): Record<st
   const base = { id, deletedAt: null };
   switch (entity) {
     case 'vehicle':
-      return newVehicle({ ...base, name: 'New truck', wheelbaseMm: 3600, trackFrontMm: 1800, trackRearMm: 1800, opening: { widthMm: 600, heightMm: 400, cornerRadiusMm: 50, centreYMm: 0, bottomZMm: 300 }, nominalGapMm: 80 });
+      return newVehicle({
+        ...base,
+        name: 'New truck',
+        wheelbaseMm: 3600,
+        trackFrontMm: 1800,
+        trackRearMm: 1800,
+        opening: { widthMm: 600, heightMm: 400, cornerRadiusMm: 50, centreYMm: 0, bottomZMm: 300 },
+        nominalGapMm: 80,
+      });
     case 'gaugePoint':
       return newGaugePoint({ ...base, vehicleId: f.ids.v2, label: `N${id.slice(0, 4)}`, yMm: 10, zMm: 20 });
     case 'testSession':
@@ -205,7 +238,10 @@ function updateCases(f: Fixture): Case[] {
   const out: Case[] = [];
   for (const entity of entities) {
     const t = targets(f)[entity];
-    for (const [where, id] of [['open', t.open], ['signed', t.signed]] as const) {
+    for (const [where, id] of [
+      ['open', t.open],
+      ['signed', t.signed],
+    ] as const) {
       if (!id) continue;
       for (const col of syncTables[entity].columns) {
         const build = async () => {
@@ -224,7 +260,13 @@ function createCases(f: Fixture): Case[] {
   const out: Case[] = [];
   for (const entity of entities) {
     for (const inSigned of entity === 'pose' || entity === 'reading' ? [false, true] : [false]) {
-      out.push({ name: `new ${entity}${inSigned ? ' in a signed session' : ''}`, entity, build: async () => ({ record: newRecord(entity, f, inSigned), changedFields: [] }), named: 'id', inSigned });
+      out.push({
+        name: `new ${entity}${inSigned ? ' in a signed session' : ''}`,
+        entity,
+        build: async () => ({ record: newRecord(entity, f, inSigned), changedFields: [] }),
+        named: 'id',
+        inSigned,
+      });
       if (inSigned) continue;
       for (const field of Object.keys(syncAccess[entity].defaults)) {
         const build = async () => {
@@ -254,35 +296,39 @@ describe('the sync rules table', () => {
 });
 
 describe('sync push, every entity × field × role', () => {
-  it.each(roles)('%s', async (role) => {
-    const f = await buildFixture();
-    const failures: string[] = [];
-    const cases = [...updateCases(f), ...createCases(f)];
-    expect(cases.length).toBeGreaterThan(80);
-    const people = [f.team, other].flatMap((t) => Object.values(t.members).map((m) => m.userId));
-    for (const c of cases) {
-      const { record, changedFields } = await c.build();
-      const want = promised(role, c.entity, changedFields, c.inSigned);
-      const before = await snapshot(ts.sequelize, tables, [f.team.teamId, other.teamId], people);
-      const res = await f.agents[role].post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [{ entity: c.entity, record }] });
-      const where = `${role} ${c.name}: ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`;
-      if (want === 'allowed') {
-        if (res.status !== 200 || res.body.conflicts?.length) failures.push(`${where} — expected it to land`);
-        else {
-          const stored = await current(c.entity, record.id);
-          for (const k of changedFields) if (!same(stored[k], record[k])) failures.push(`${where} — ${k} is ${JSON.stringify(stored[k])} in the database`);
+  it.each(roles)(
+    '%s',
+    async (role) => {
+      const f = await buildFixture();
+      const failures: string[] = [];
+      const cases = [...updateCases(f), ...createCases(f)];
+      expect(cases.length).toBeGreaterThan(80);
+      const people = [f.team, other].flatMap((t) => Object.values(t.members).map((m) => m.userId));
+      for (const c of cases) {
+        const { record, changedFields } = await c.build();
+        const want = promised(role, c.entity, changedFields, c.inSigned);
+        const before = await snapshot(ts.sequelize, tables, [f.team.teamId, other.teamId], people);
+        const res = await f.agents[role].post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [{ entity: c.entity, record }] });
+        const where = `${role} ${c.name}: ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`;
+        if (want === 'allowed') {
+          if (res.status !== 200 || res.body.conflicts?.length) failures.push(`${where} — expected it to land`);
+          else {
+            const stored = await current(c.entity, record.id);
+            for (const k of changedFields) if (!same(stored[k], record[k])) failures.push(`${where} — ${k} is ${JSON.stringify(stored[k])} in the database`);
+          }
+        } else {
+          const status = want === 'forbidden' ? 403 : 400;
+          if (res.status !== status) failures.push(`${where} — expected ${status}`);
+          const fields: string[] = (res.body?.error?.fields ?? []).map((x: { field: string }) => x.field);
+          if (want === 'refused' && !fields.includes(`body.changes.0.record.${c.named}`)) failures.push(`${where} — the answer does not name ${c.named}`);
+          const diff = changedTables(before, await snapshot(ts.sequelize, tables, [f.team.teamId, other.teamId], people));
+          if (diff.length) failures.push(`${where} — refused, yet ${diff.join(', ')} changed`);
         }
-      } else {
-        const status = want === 'forbidden' ? 403 : 400;
-        if (res.status !== status) failures.push(`${where} — expected ${status}`);
-        const fields: string[] = (res.body?.error?.fields ?? []).map((x: { field: string }) => x.field);
-        if (want === 'refused' && !fields.includes(`body.changes.0.record.${c.named}`)) failures.push(`${where} — the answer does not name ${c.named}`);
-        const diff = changedTables(before, await snapshot(ts.sequelize, tables, [f.team.teamId, other.teamId], people));
-        if (diff.length) failures.push(`${where} — refused, yet ${diff.join(', ')} changed`);
       }
-    }
-    expect(failures).toEqual([]);
-  }, 120_000);
+      expect(failures).toEqual([]);
+    },
+    120_000,
+  );
 });
 
 describe('what the probe did, through sync', () => {
@@ -302,19 +348,23 @@ describe('what the probe did, through sync', () => {
     expect(await current('reading', f.ids.r1)).toMatchObject({ valueMm: 93.5, excluded: false, excludeReason: null, version: 1 });
 
     const signed = await current('testSession', f.ids.signedSession);
-    const del = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [{ entity: 'testSession', record: { ...signed, deletedAt: new Date().toISOString() } }] });
+    const del = await tester
+      .post('/api/sync/push')
+      .send({ idempotencyKey: batchKey(), changes: [{ entity: 'testSession', record: { ...signed, deletedAt: new Date().toISOString() } }] });
     expect(del.status).toBe(400);
     expect(del.body.error.fields.map((x: { field: string }) => x.field)).toContain('body.changes.0.record.deletedAt');
     expect((await current('testSession', f.ids.signedSession)).deletedAt).toBeNull();
   });
 
-  it('a whole record sent back with an engineer\'s exclusion in it, untouched, is no review change', async () => {
+  it("a whole record sent back with an engineer's exclusion in it, untouched, is no review change", async () => {
     const f = await buildFixture();
     const r = await current('reading', f.ids.r1);
     const excluded = await f.agents.engineer.patch(`/api/readings/${r.id}/review`).send({ version: r.version, excluded: true, excludeReason: 'tape slipped' });
     expect(excluded.status).toBe(200);
     const now = await current('reading', f.ids.r1);
-    const res = await f.agents.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [{ entity: 'reading', record: { ...now, valueMm: 94 } }] });
+    const res = await f.agents.tester
+      .post('/api/sync/push')
+      .send({ idempotencyKey: batchKey(), changes: [{ entity: 'reading', record: { ...now, valueMm: 94 } }] });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(await current('reading', f.ids.r1)).toMatchObject({ valueMm: 94, excluded: true, excludeReason: 'tape slipped' });
   });
@@ -343,7 +393,7 @@ describe('what the probe did, through sync', () => {
     expect(await current('reading', f.ids.r1)).toMatchObject({ excluded: true, excludeReason: 'excluded by tester' });
   });
 
-  it('the history keeps each changed field\'s before and after value', async () => {
+  it("the history keeps each changed field's before and after value", async () => {
     const f = await buildFixture();
     const r = await current('reading', f.ids.r1);
     const res = await f.agents.engineer.post('/api/sync/push').send({
@@ -351,10 +401,15 @@ describe('what the probe did, through sync', () => {
       changes: [{ entity: 'reading', record: { ...r, valueMm: 95, excluded: true, excludeReason: 'tape slipped' } }],
     });
     expect(res.status).toBe(200);
-    const events = await ts.sequelize.query<{ action: string; detail: Record<string, { before: unknown; after: unknown }>; session_id: string; user_id: string }>(
-      `SELECT action, detail, session_id, user_id FROM history_events WHERE entity_id = :id ORDER BY id`,
-      { replacements: { id: r.id }, type: QueryTypes.SELECT },
-    );
+    const events = await ts.sequelize.query<{
+      action: string;
+      detail: Record<string, { before: unknown; after: unknown }>;
+      session_id: string;
+      user_id: string;
+    }>(`SELECT action, detail, session_id, user_id FROM history_events WHERE entity_id = :id ORDER BY id`, {
+      replacements: { id: r.id },
+      type: QueryTypes.SELECT,
+    });
     expect(events).toEqual([
       {
         action: 'reading.exclude',

@@ -18,7 +18,9 @@ describe('field sync in the session history', () => {
     const session = sessionRecord(vehicleId);
     const pose = poseRecord(session.id, 0);
     const readings = pointIds.map((g) => readingRecord(pose.id, g, 'lateral', 20));
-    let res = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session), change('pose', pose), ...readings.map((r) => change('reading', r))] });
+    let res = await tester
+      .post('/api/sync/push')
+      .send({ idempotencyKey: batchKey(), changes: [change('testSession', session), change('pose', pose), ...readings.map((r) => change('reading', r))] });
     expect(res.status).toBe(200);
     // A later batch corrects one reading, referring to the pose already on the server.
     res = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('reading', { ...readings[0], valueMm: 21 })] });

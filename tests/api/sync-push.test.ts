@@ -57,7 +57,10 @@ describe('push', () => {
     const f = await fieldSetup();
     const body = { idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level)] };
     // The answer to this request is "lost": the client never reads it and retries later.
-    const lost = f.tester.post('/api/sync/push').send(body).then((r) => r.body);
+    const lost = f.tester
+      .post('/api/sync/push')
+      .send(body)
+      .then((r) => r.body);
     await lost;
     const edited = { ...f.level, label: 'Level (after retry)' };
     const retry = await f.tester.post('/api/sync/push').send(body);
@@ -72,7 +75,9 @@ describe('push', () => {
 
   it('keeps both versions of a stale edit as a conflict and leaves the server row unchanged', async () => {
     const f = await fieldSetup();
-    await f.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level), change('reading', f.readings[0])] });
+    await f.tester
+      .post('/api/sync/push')
+      .send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level), change('reading', f.readings[0])] });
     // Someone else edits the reading first (base version 1 → server version 2).
     const engineer = await signedInAgent(ts, f.team.members.engineer.email);
     const theirs = await engineer.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('reading', { ...f.readings[0], valueMm: 95 })] });
@@ -142,7 +147,7 @@ describe('push', () => {
     expect(await PoseModel.count({ where: { id: f.level.id } })).toBe(0);
   });
 
-  it('takes the team from the session: another team\'s records cannot be referenced or overwritten', async () => {
+  it("takes the team from the session: another team's records cannot be referenced or overwritten", async () => {
     const f = await fieldSetup();
     await f.tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session), change('pose', f.level)] });
     const other = await createTeam('Other workshop');
@@ -152,7 +157,11 @@ describe('push', () => {
       changes: [change('pose', { ...f.level, label: 'hijacked' }), change('reading', readingRecord(f.level.id, f.pointIds[0], 'vertical', 1))],
     });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.map((e: { field: string }) => e.field)).toEqual(['body.changes.0.record.id', 'body.changes.0.record.sessionId', 'body.changes.1.record.gaugePointId']);
+    expect(res.body.error.fields.map((e: { field: string }) => e.field)).toEqual([
+      'body.changes.0.record.id',
+      'body.changes.0.record.sessionId',
+      'body.changes.1.record.gaugePointId',
+    ]);
     expect((await PoseModel.findByPk(f.level.id))?.label).toBe('Level');
   });
 
@@ -165,7 +174,7 @@ describe('push', () => {
 });
 
 describe('pull', () => {
-  it('returns the team\'s changes after a cursor, page by page, and nothing of other teams', async () => {
+  it("returns the team's changes after a cursor, page by page, and nothing of other teams", async () => {
     const f = await fieldSetup();
     await createTeam('Noise workshop').then(async (t) => vehicleWithPoints(await signedInAgent(ts, t.members.tester.email)));
     const all = await f.tester.get('/api/sync/pull?since=0');
@@ -183,7 +192,11 @@ describe('pull', () => {
     let since = cursor;
     for (let guard = 0; guard < 10; guard++) {
       const page = await f.tester.get(`/api/sync/pull?since=${since}&limit=2`);
-      seen.push(...page.body.testSessions.map((r: { id: string }) => r.id), ...page.body.poses.map((r: { id: string }) => r.id), ...page.body.readings.map((r: { id: string }) => r.id));
+      seen.push(
+        ...page.body.testSessions.map((r: { id: string }) => r.id),
+        ...page.body.poses.map((r: { id: string }) => r.id),
+        ...page.body.readings.map((r: { id: string }) => r.id),
+      );
       expect(page.body.cursor).toBeGreaterThanOrEqual(since);
       since = page.body.cursor;
       if (!page.body.hasMore) break;

@@ -81,7 +81,7 @@ async function concurrentEdits() {
 }
 
 describe('two phones editing the same pose', () => {
-  it('keep one conflict, on the phone that sent second, in the trade\'s words', async () => {
+  it("keep one conflict, on the phone that sent second, in the trade's words", async () => {
     const { team, poseId, a, b } = await concurrentEdits();
     const open = await SyncConflictModel.findAll({ where: { teamId: team.teamId, resolvedAt: null } });
     expect(open).toHaveLength(1);
@@ -90,10 +90,15 @@ describe('two phones editing the same pose', () => {
     const [kept] = await b.db.conflicts.toArray();
     expect(kept.entityId).toBe(poseId);
     const sentences = differences('pose', kept.clientRecord, kept.serverRecord, await fieldLookups(b.db), 'mm').map(differenceSentence);
-    expect(sentences).toEqual(['Pose name: Pose 1 on this phone, Front left up on the server', 'Lift front left: 0 mm on this phone, 300 mm on the server', 'Lift front right: 410 mm on this phone, 0 mm on the server']);
+    expect(sentences).toEqual([
+      'Pose name: Pose 1 on this phone, Front left up on the server',
+      'Lift front left: 0 mm on this phone, 300 mm on the server',
+      'Lift front right: 410 mm on this phone, 0 mm on the server',
+    ]);
     // Meanwhile both phones show the server's pose, with B's later note on it.
     expect(await PoseModel.findByPk(poseId)).toMatchObject({ label: 'Front left up', liftFlMm: 300, liftFrMm: 0, notes: 'spotter at the rear' });
-    for (const p of [a, b]) expect(await p.db.poses.get(poseId)).toMatchObject({ label: 'Front left up', liftFrMm: 0, notes: 'spotter at the rear', version: 3 });
+    for (const p of [a, b])
+      expect(await p.db.poses.get(poseId)).toMatchObject({ label: 'Front left up', liftFrMm: 0, notes: 'spotter at the rear', version: 3 });
   });
 
   it('resolved "keep this phone\'s", lands once, and both phones converge', async () => {

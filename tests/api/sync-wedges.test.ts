@@ -26,7 +26,15 @@ async function twoPhones() {
   const ok = await push(tester, change('testSession', session), change('pose', level));
   expect(ok.status).toBe(200);
   const points = await GaugePointModel.findAll({ where: { vehicleId }, order: [['label', 'ASC']] });
-  const point = (i: number) => ({ id: points[i].id, version: points[i].version, vehicleId, label: points[i].label, yMm: points[i].yMm, zMm: points[i].zMm, deletedAt: null });
+  const point = (i: number) => ({
+    id: points[i].id,
+    version: points[i].version,
+    vehicleId,
+    label: points[i].label,
+    yMm: points[i].yMm,
+    zMm: points[i].zMm,
+    deletedAt: null,
+  });
   return { team, tester, engineer, vehicleId, pointIds, session, level, point };
 }
 
@@ -41,7 +49,12 @@ describe('text and dates PostgreSQL cannot store are refused by the shared schem
       change('reading', { ...readingRecord(f.level.id, f.pointIds[0], 'lateral', 12), flagNote: '\u0000' }),
     );
     expect(res.status).toBe(400);
-    expect(fields(res.body)).toEqual(['body.changes.0.record.title', 'body.changes.1.record.notes', 'body.changes.2.record.label', 'body.changes.3.record.flagNote']);
+    expect(fields(res.body)).toEqual([
+      'body.changes.0.record.title',
+      'body.changes.1.record.notes',
+      'body.changes.2.record.label',
+      'body.changes.3.record.flagNote',
+    ]);
     expect(res.body.error.message).toMatch(/NUL/);
   });
 
@@ -61,7 +74,12 @@ describe('text and dates PostgreSQL cannot store are refused by the shared schem
       change('pose', poseRecord(f.session.id, 2, { recordedAt: '2026-03-14T09:00:00-23:59' })),
     );
     expect(res.status).toBe(400);
-    expect(fields(res.body)?.sort()).toEqual(['body.changes.0.record.safetyAckAt', 'body.changes.0.record.testedOn', 'body.changes.1.record.recordedAt', 'body.changes.2.record.recordedAt']);
+    expect(fields(res.body)?.sort()).toEqual([
+      'body.changes.0.record.safetyAckAt',
+      'body.changes.0.record.testedOn',
+      'body.changes.1.record.recordedAt',
+      'body.changes.2.record.recordedAt',
+    ]);
     // At the edge of what PostgreSQL takes: accepted.
     const edge = await push(f.tester, change('pose', poseRecord(f.session.id, 3, { recordedAt: '2026-03-14T09:00:00-15:59' })));
     expect(edge.status).toBe(200);
@@ -101,7 +119,7 @@ describe('gauge point labels renamed and added on two phones', () => {
     expect(second.body.error.fields[0].message).toMatch(/label 'C' is already used on this vehicle/);
   });
 
-  it("a stale rename kept as a conflict keeps its label: a new point taking it is refused, not a 500", async () => {
+  it('a stale rename kept as a conflict keeps its label: a new point taking it is refused, not a 500', async () => {
     const f = await twoPhones();
     expect((await push(f.tester, change('gaugePoint', { ...f.point(0), label: 'C' }))).status).toBe(200);
     // The second phone renamed A to D from version 1 and added a new point C.
@@ -143,7 +161,14 @@ describe('reading slots', () => {
     const res = await push(f.engineer, change('reading', theirs));
     expect(res.status).toBe(200);
     expect(res.body.accepted).toEqual([]);
-    expect(res.body.conflicts).toEqual([expect.objectContaining({ entity: 'reading', entityId: mine.id, clientRecord: expect.objectContaining({ id: theirs.id, valueMm: 97 }), serverRecord: expect.objectContaining({ valueMm: 90 }) })]);
+    expect(res.body.conflicts).toEqual([
+      expect.objectContaining({
+        entity: 'reading',
+        entityId: mine.id,
+        clientRecord: expect.objectContaining({ id: theirs.id, valueMm: 97 }),
+        serverRecord: expect.objectContaining({ valueMm: 90 }),
+      }),
+    ]);
     // Typed again on top, still not knowing: the same conflict, with the latest value.
     const again = await push(f.engineer, change('reading', { ...theirs, valueMm: 98 }));
     expect(again.body.conflicts[0].id).toBe(res.body.conflicts[0].id);
@@ -210,21 +235,28 @@ describe('resolving a conflict with "keep this phone\'s"', () => {
 describe('a constraint PostgreSQL checks that the checks above missed', () => {
   it('is named from its key, never a 500', async () => {
     const { constraintKey, translateDbError } = await import('../../server/services/sync-db-errors');
-    const detail = 'Key (vehicle_id, label)=(8d9c3a52-0000-4000-8000-000000000000, A, B) conflicts with existing key (vehicle_id, label)=(8d9c3a52-0000-4000-8000-000000000000, A, B).';
+    const detail =
+      'Key (vehicle_id, label)=(8d9c3a52-0000-4000-8000-000000000000, A, B) conflicts with existing key (vehicle_id, label)=(8d9c3a52-0000-4000-8000-000000000000, A, B).';
     expect(constraintKey(detail)).toEqual({ vehicle_id: '8d9c3a52-0000-4000-8000-000000000000', label: 'A, B' });
     const pgError = { parent: { code: '23P01', constraint: 'gauge_points_label', detail } };
-    expect(() => translateDbError(pgError, (c, key) => (c === 'gauge_points_label' ? { field: 'body.changes.4.record.label', message: `'${key.label}' taken` } : null))).toThrow(
-      expect.objectContaining({ status: 400, fields: [{ field: 'body.changes.4.record.label', message: "'A, B' taken" }] }),
-    );
+    expect(() =>
+      translateDbError(pgError, (c, key) => (c === 'gauge_points_label' ? { field: 'body.changes.4.record.label', message: `'${key.label}' taken` } : null)),
+    ).toThrow(expect.objectContaining({ status: 400, fields: [{ field: 'body.changes.4.record.label', message: "'A, B' taken" }] }));
     // Not pointing at any change: still a 400 saying what the database refused.
-    expect(() => translateDbError({ parent: { code: '23505', detail: 'Key (id)=(x) already exists.' } }, () => null)).toThrow(expect.objectContaining({ status: 400, message: expect.stringMatching(/already exists/) }));
+    expect(() => translateDbError({ parent: { code: '23505', detail: 'Key (id)=(x) already exists.' } }, () => null)).toThrow(
+      expect.objectContaining({ status: 400, message: expect.stringMatching(/already exists/) }),
+    );
     // The database gone: a 503, so the phone keeps the batch and tries again.
     expect(() => translateDbError({ parent: { message: 'Connection terminated unexpectedly' } }, () => null)).toThrow(expect.objectContaining({ status: 503 }));
   });
 
   it('the desk giving two gauge points one label is refused naming the point', async () => {
     const f = await twoPhones();
-    const res = await push(f.engineer, change('gaugePoint', { ...f.point(0), label: 'A', yMm: 1, zMm: 2 }), change('gaugePoint', { ...f.point(1), label: 'A', yMm: 3, zMm: 4 }));
+    const res = await push(
+      f.engineer,
+      change('gaugePoint', { ...f.point(0), label: 'A', yMm: 1, zMm: 2 }),
+      change('gaugePoint', { ...f.point(1), label: 'A', yMm: 3, zMm: 4 }),
+    );
     expect(res.status).toBe(400);
     expect(fields(res.body)).toEqual(['body.changes.1.record.label']);
   });

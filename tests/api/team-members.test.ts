@@ -56,7 +56,10 @@ describe('invitations', () => {
     const signIn = agentFor(ts);
     expect((await signIn.post('/api/auth/sign-in').send({ email, password: 'my own passphrase' })).status).toBe(200);
     expect((await signIn.get('/api/me')).body.role).toBe('tester');
-    expect((await admin.get('/api/team')).body.members.find((m: { email: string }) => m.email === email)).toMatchObject({ role: 'tester', name: 'Pell Arkwright' });
+    expect((await admin.get('/api/team')).body.members.find((m: { email: string }) => m.email === email)).toMatchObject({
+      role: 'tester',
+      name: 'Pell Arkwright',
+    });
   });
 
   it('refuses an expired invitation', async () => {

@@ -37,7 +37,9 @@ describe('text a person types', () => {
     expect(fieldsOf(noted)).toContain('body.flagNote');
     expect(await ReadingModel.findByPk(readingId)).toMatchObject({ version: 1, excluded: false, flagNote: null });
 
-    const signUp = await agentFor(ts).post('/api/auth/sign-up').send({ teamName: bad, name: 'Ann', email: 'ann@example.test', password: 'long enough password' });
+    const signUp = await agentFor(ts)
+      .post('/api/auth/sign-up')
+      .send({ teamName: bad, name: 'Ann', email: 'ann@example.test', password: 'long enough password' });
     expect(signUp.status).toBe(400);
     expect(fieldsOf(signUp)).toContain('body.teamName');
   });

@@ -16,7 +16,12 @@ const h = browserHarness({ seedDemo: true });
 
 async function signedInPage(role: 'admin' | 'engineer' | 'tester'): Promise<Page> {
   // bypassCSP: axe is injected by this test as an inline script; the app's own policy is checked by content-security-policy.test.ts.
-  const { page } = await h.open(DEMO_PEOPLE.find((p) => p.role === role)!.email, { viewport: { width: 390, height: 844 }, hasTouch: true, bypassCSP: true, password: DEMO_PASSWORD });
+  const { page } = await h.open(DEMO_PEOPLE.find((p) => p.role === role)!.email, {
+    viewport: { width: 390, height: 844 },
+    hasTouch: true,
+    bypassCSP: true,
+    password: DEMO_PASSWORD,
+  });
   return page;
 }
 
@@ -30,7 +35,11 @@ interface Finding {
 async function axeFindings(page: Page): Promise<Finding[]> {
   await page.addScriptTag({ path: axePath });
   const result = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const axe = (
+      window as unknown as {
+        axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] }> };
+      }
+    ).axe;
     return axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] } });
   });
   return result.violations
@@ -73,7 +82,9 @@ async function unreachableByKeyboard(page: Page): Promise<string[]> {
   return page.evaluate(() => {
     const reached = (window as unknown as { __reached: Set<Element> }).__reached;
     const out: string[] = [];
-    for (const el of document.querySelectorAll<HTMLElement>('button:not([disabled]), a[href], input:not([type=hidden]):not([disabled]), select:not([disabled]), textarea:not([disabled]), [role=button]')) {
+    for (const el of document.querySelectorAll<HTMLElement>(
+      'button:not([disabled]), a[href], input:not([type=hidden]):not([disabled]), select:not([disabled]), textarea:not([disabled]), [role=button]',
+    )) {
       const r = el.getBoundingClientRect();
       if (r.width === 0 && r.height === 0) continue;
       if (getComputedStyle(el).visibility === 'hidden') continue;

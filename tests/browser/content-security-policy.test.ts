@@ -46,9 +46,18 @@ describe('the built app under its Content-Security-Policy', () => {
   });
 
   it('loads every screen and the service worker without a violation', async () => {
-    const [session] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM test_sessions WHERE team_id = :t ORDER BY created_at LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
-    const [pose] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM poses WHERE session_id = :s ORDER BY seq LIMIT 1`, { replacements: { s: session.id }, type: QueryTypes.SELECT });
-    const [envelope] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM envelopes WHERE team_id = :t AND status = 'signed' LIMIT 1`, { replacements: { t: DEMO_TEAM_ID }, type: QueryTypes.SELECT });
+    const [session] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM test_sessions WHERE team_id = :t ORDER BY created_at LIMIT 1`, {
+      replacements: { t: DEMO_TEAM_ID },
+      type: QueryTypes.SELECT,
+    });
+    const [pose] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM poses WHERE session_id = :s ORDER BY seq LIMIT 1`, {
+      replacements: { s: session.id },
+      type: QueryTypes.SELECT,
+    });
+    const [envelope] = await h.ts.sequelize.query<{ id: string }>(`SELECT id FROM envelopes WHERE team_id = :t AND status = 'signed' LIMIT 1`, {
+      replacements: { t: DEMO_TEAM_ID },
+      type: QueryTypes.SELECT,
+    });
     const admin = DEMO_PEOPLE.find((p) => p.role === 'admin')!;
     const { page, violations } = await watchedPage();
     await signIn(page, admin.email);

@@ -39,9 +39,9 @@ describe('the engineer desk', () => {
     await page.getByRole('button', { name: /Open photo 1 of Ramp 20°, FL up full size/ }).click();
     const full = page.getByRole('dialog', { name: 'Photo of Ramp 20°, FL up, full size' });
     const fullImage = full.getByRole('img');
-    await expect.poll(() => fullImage.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(
-      await thumb.evaluate((img: HTMLImageElement) => img.naturalWidth),
-    );
+    await expect
+      .poll(() => fullImage.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth))
+      .toBeGreaterThan(await thumb.evaluate((img: HTMLImageElement) => img.naturalWidth));
     await full.getByRole('button', { name: 'Close' }).click();
     await full.waitFor({ state: 'hidden' });
 
@@ -57,12 +57,18 @@ describe('the engineer desk', () => {
     expect(editorBox!.y - (cellBox!.y + cellBox!.height)).toBeLessThan(60);
     await editor.getByLabel('Exclude from the computation').check();
     await editor.getByRole('button', { name: 'Save review' }).click();
-    await editor.getByRole('alert').filter({ hasText: /Reason: excluding a reading needs a reason/ }).waitFor();
+    await editor
+      .getByRole('alert')
+      .filter({ hasText: /Reason: excluding a reading needs a reason/ })
+      .waitFor();
     await editor.getByLabel('Reason for excluding').fill('Dial gauge touched by the spotter');
     await editor.getByRole('button', { name: 'Save review' }).click();
     await editor.waitFor({ state: 'detached' });
     await page.getByText(/· 1 reading excluded ·/).waitFor();
-    await page.getByRole('region', { name: 'Remarks on the readings and the fit' }).getByText(/Ramp 20°, FL up .*: reading at D \(vertical\) is far from the fit/).waitFor();
+    await page
+      .getByRole('region', { name: 'Remarks on the readings and the fit' })
+      .getByText(/Ramp 20°, FL up .*: reading at D \(vertical\) is far from the fit/)
+      .waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'desk-review.png') });
     await page.getByRole('button', { name: 'History' }).click();
     await page.getByText(/excluded a reading .*Dial gauge touched by the spotter/).waitFor();
@@ -114,7 +120,10 @@ describe('the engineer desk', () => {
     // The confirmation says what is frozen and lists the flagged reading kept.
     const confirm = page.getByRole('dialog', { name: 'Confirm sign-off' });
     await confirm.getByText('pass-through: Flexible boot on hard frames').waitFor();
-    await confirm.getByRole('list', { name: 'Flagged readings kept' }).getByText(/Ramp 20°, FL up D vertical: .* off the fit — Crew re-read it after re-seating the gauge/).waitFor();
+    await confirm
+      .getByRole('list', { name: 'Flagged readings kept' })
+      .getByText(/Ramp 20°, FL up D vertical: .* off the fit — Crew re-read it after re-seating the gauge/)
+      .waitFor();
     await confirm.getByRole('button', { name: 'Sign off and freeze' }).click();
     await page.waitForURL('**/desk/envelopes/*');
     await page.getByRole('heading', { name: 'TC-14 "Mossback" · Yard flex test before boot order · revision 2' }).waitFor();
@@ -124,7 +133,10 @@ describe('the engineer desk', () => {
     const screen: Record<string, string> = {};
     for (const measure of MEASURES) screen[measure] = (await page.getByTestId(`envelope-${measure}`).textContent())!;
     expect(screen.lateral).not.toBe(before);
-    await page.getByRole('list', { name: 'Acknowledged flagged readings' }).getByText(/Ramp 20°, FL up · point D · vertical: .* acknowledged: Crew re-read it after re-seating the gauge/).waitFor();
+    await page
+      .getByRole('list', { name: 'Acknowledged flagged readings' })
+      .getByText(/Ramp 20°, FL up · point D · vertical: .* acknowledged: Crew re-read it after re-seating the gauge/)
+      .waitFor();
 
     // The PDF and the CSV carry the numbers shown on screen.
     const pdf = await page.request.get(`${h.ts.baseUrl}/api/envelopes/${envelopeId}/sheet.pdf?unit=mm`);
@@ -168,7 +180,10 @@ describe('the engineer desk', () => {
     await page.getByText('Sent to stitch@fernbootworks.test.').waitFor();
     const mail = await waitForMail(h.ts, 'stitch@fernbootworks.test', /Fabrication sheet/);
     expect(mail.attachments.map((a) => a.contentType)).toEqual(['application/pdf']);
-    await page.getByRole('list', { name: 'Sheets sent' }).getByText(/stitch@fernbootworks\.test · by Mara Venn/).waitFor();
+    await page
+      .getByRole('list', { name: 'Sheets sent' })
+      .getByText(/stitch@fernbootworks\.test · by Mara Venn/)
+      .waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'desk-envelope.png'), fullPage: true });
 
     // Compare the two demo vehicles.

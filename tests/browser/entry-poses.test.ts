@@ -138,7 +138,10 @@ describe('poses', () => {
     await page.getByRole('img', { name: /Opening drawing/ }).tap();
     await page.getByLabel('A y').waitFor();
     await typeInto(page, 'A y', '250');
-    await page.getByRole('button', { name: 'Change sign' }).and(page.locator(`[aria-describedby="${await page.getByLabel('A y').getAttribute('id')}-label"]`)).tap();
+    await page
+      .getByRole('button', { name: 'Change sign' })
+      .and(page.locator(`[aria-describedby="${await page.getByLabel('A y').getAttribute('id')}-label"]`))
+      .tap();
     expect(await page.getByLabel('A y').inputValue()).toBe('-250');
     await typeInto(page, 'Track front', '1950');
     await page.getByRole('button', { name: 'Save vehicle' }).tap();

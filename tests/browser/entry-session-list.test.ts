@@ -36,7 +36,10 @@ describe('session list', () => {
     await page.getByRole('link', { name: 'Field' }).tap();
     await expect.poll(() => card('Test truck').textContent()).toBe('2 poses' + '1 not yet sent' + 'not signed off');
     expect(await card('Signed truck').textContent()).toMatch(/signed off, revision 1/);
-    await page.getByTestId('signed-state-note').getByText(/Sign-off as last heard from the server/).waitFor();
+    await page
+      .getByTestId('signed-state-note')
+      .getByText(/Sign-off as last heard from the server/)
+      .waitFor();
 
     await context.setOffline(false);
     await expect.poll(() => card('Test truck').textContent(), { timeout: 30_000 }).toBe('2 poses' + 'all sent' + 'not signed off');

@@ -76,10 +76,16 @@ describe('typing readings', () => {
     await page.getByLabel('Pose name').focus();
     const order: string[] = [];
     for (let i = 0; i < 18; i++) {
-      order.push(await page.evaluate(() => {
-        const el = document.activeElement as HTMLElement;
-        return el.id === 'pose-name' ? 'Pose name' : el.id === 'pose-notes' ? 'Notes' : (document.querySelector(`label[for="${el.id}"]`)?.textContent ?? '?').replace(/ \((mm|in)\)$/, '');
-      }));
+      order.push(
+        await page.evaluate(() => {
+          const el = document.activeElement as HTMLElement;
+          return el.id === 'pose-name'
+            ? 'Pose name'
+            : el.id === 'pose-notes'
+              ? 'Notes'
+              : (document.querySelector(`label[for="${el.id}"]`)?.textContent ?? '?').replace(/ \((mm|in)\)$/, '');
+        }),
+      );
       if (order.at(-1) === 'Notes') break;
       await page.keyboard.press('Enter');
     }
@@ -93,7 +99,9 @@ describe('typing readings', () => {
 
     // Focus selects what is in a field: typing replaces it.
     await lateral.tap();
-    expect(await page.evaluate(() => (document.activeElement as HTMLInputElement).selectionEnd! - (document.activeElement as HTMLInputElement).selectionStart!)).toBe(5);
+    expect(
+      await page.evaluate(() => (document.activeElement as HTMLInputElement).selectionEnd! - (document.activeElement as HTMLInputElement).selectionStart!),
+    ).toBe(5);
     await page.keyboard.type('-12', { delay: 40 });
     expect(await lateral.inputValue()).toBe('-12');
     await settled(page);

@@ -69,7 +69,9 @@ describe('field recorder offline', () => {
       await page.getByLabel(`${label} lateral`).fill(String(lat + 12));
       await page.getByLabel(`${label} vertical`).fill(String(vert + 1.5));
     }
-    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: { r: 40, g: 90, b: 120 } } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: { r: 40, g: 90, b: 120 } } })
+      .jpeg()
+      .toBuffer();
     await page.locator('input[type=file]').setInputFiles({ name: 'gap-a.jpg', mimeType: 'image/jpeg', buffer: jpeg });
     await page.getByText('waiting to upload').waitFor();
     await page.getByText('Waiting to send:').waitFor();
@@ -94,12 +96,13 @@ describe('field recorder offline', () => {
     // been stored with the rest of the app's cache, a further reload must still open the field
     // pages from the identity kept on the phone, not send the tester to sign in.
     await expect
-      .poll(() =>
-        page.evaluate(() => {
-          const cache = JSON.parse(localStorage.getItem('twistlog-query-cache') ?? '{}');
-          const me = cache.clientState?.queries?.find((q: { queryKey: unknown[] }) => q.queryKey[0] === 'me');
-          return !me || me.state.status === 'error';
-        }),
+      .poll(
+        () =>
+          page.evaluate(() => {
+            const cache = JSON.parse(localStorage.getItem('twistlog-query-cache') ?? '{}');
+            const me = cache.clientState?.queries?.find((q: { queryKey: unknown[] }) => q.queryKey[0] === 'me');
+            return !me || me.state.status === 'error';
+          }),
         { timeout: 30_000 },
       )
       .toBe(true);
@@ -113,10 +116,18 @@ describe('field recorder offline', () => {
     await page.getByText('All saved on the server').waitFor({ timeout: 30_000 });
 
     const session = await TestSessionModel.findByPk(sessionId);
-    expect(session).toMatchObject({ title: 'Offline yard flex', conditions: 'wet grass, no signal', teamId: team.teamId, createdBy: team.members.tester.userId });
+    expect(session).toMatchObject({
+      title: 'Offline yard flex',
+      conditions: 'wet grass, no signal',
+      teamId: team.teamId,
+      createdBy: team.members.tester.userId,
+    });
     expect(session?.safetyAckAt).not.toBeNull();
     const poses = await PoseModel.findAll({ where: { sessionId }, order: [['seq', 'ASC']] });
-    expect(poses.map((p) => [p.kind, p.liftFlMm])).toEqual([['level', 0], ['wheels', 300]]);
+    expect(poses.map((p) => [p.kind, p.liftFlMm])).toEqual([
+      ['level', 0],
+      ['wheels', 300],
+    ]);
     expect(poses[1].notes).toBe('Front left on the 300 block, spotter at the rear');
     const readings = await ReadingModel.findAll({ where: { poseId: poses.map((p) => p.id), deletedAt: null } });
     expect(readings).toHaveLength(16);

@@ -38,7 +38,7 @@ describe('one phone, online', () => {
     await context.close();
   });
 
-  it('shows a real conflict with another device in the trade\'s words, and keeps this phone\'s value once', async () => {
+  it("shows a real conflict with another device in the trade's words, and keeps this phone's value once", async () => {
     const team = await createTeam('Conflict workshop');
     const f = await fieldSession(h.ts, team);
     const { context, page } = await openPhone(h, team.members.tester.email);
@@ -53,8 +53,20 @@ describe('one phone, online', () => {
     const desk = await signedInAgent(h.ts, team.members.engineer.email);
     const p = (await PoseModel.findByPk(f.levelPoseId))!;
     const deskRecord = {
-      id: p.id, version: p.version, sessionId: p.sessionId, seq: p.seq, label: 'Level (desk)', kind: p.kind, liftFlMm: p.liftFlMm, liftFrMm: p.liftFrMm, liftRlMm: p.liftRlMm,
-      liftRrMm: p.liftRrMm, rampAngleDeg: p.rampAngleDeg, rampDistanceMm: p.rampDistanceMm, notes: p.notes, recordedAt: new Date(p.recordedAt).toISOString(),
+      id: p.id,
+      version: p.version,
+      sessionId: p.sessionId,
+      seq: p.seq,
+      label: 'Level (desk)',
+      kind: p.kind,
+      liftFlMm: p.liftFlMm,
+      liftFrMm: p.liftFrMm,
+      liftRlMm: p.liftRlMm,
+      liftRrMm: p.liftRrMm,
+      rampAngleDeg: p.rampAngleDeg,
+      rampDistanceMm: p.rampDistanceMm,
+      notes: p.notes,
+      recordedAt: new Date(p.recordedAt).toISOString(),
     };
     expect((await desk.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', deskRecord)] })).status).toBe(200);
 
@@ -104,7 +116,9 @@ describe('one phone, online', () => {
     await page.getByRole('link', { name: /Gauge point C on Test truck/ }).click();
     const both = page.getByRole('listitem').filter({ has: page.getByRole('button', { name: 'Remove point C' }) });
     await expect.poll(() => both.count()).toBe(2);
-    const [phonesPoint] = (await Promise.all((await both.all()).map(async (item) => ((await item.getByLabel('C y').inputValue()) === '0' ? [] : [item])))).flat();
+    const [phonesPoint] = (
+      await Promise.all((await both.all()).map(async (item) => ((await item.getByLabel('C y').inputValue()) === '0' ? [] : [item])))
+    ).flat();
     await phonesPoint.getByLabel('Label').fill('D');
     await phonesPoint.getByLabel('Label').blur();
     await allSaved(page);

@@ -32,7 +32,7 @@ function generator(seed: number) {
     next,
     chance: (p: number) => next() < p,
     int: (lo: number, hi: number) => lo + Math.floor(next() * (hi - lo + 1)),
-    pick: <T,>(list: readonly T[]) => list[Math.floor(next() * list.length)],
+    pick: <T>(list: readonly T[]) => list[Math.floor(next() * list.length)],
   };
 }
 
@@ -169,7 +169,13 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
           const [key, name] = rnd.pick(WHEELS);
           await page.getByRole('button', { name: new RegExp(`wheel ${name}$`) }).click();
           const track = key.startsWith('liftF') ? TRUCK.trackFrontMm : TRUCK.trackRearMm;
-          await typeLength(`Lift ${name}`, String(rnd.int(-80, 450)), pose.lifts[key], (mm) => liftDoubt(mm, track, 'mm'), (mm) => (pose.lifts[key] = mm ?? 0));
+          await typeLength(
+            `Lift ${name}`,
+            String(rnd.int(-80, 450)),
+            pose.lifts[key],
+            (mm) => liftDoubt(mm, track, 'mm'),
+            (mm) => (pose.lifts[key] = mm ?? 0),
+          );
         } else if (kind < 0.8) {
           const point = rnd.int(0, f.labels.length - 1);
           const [axis, axisName] = rnd.pick(AXES);
@@ -254,7 +260,7 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
           const label = await page.getByLabel('Pose name').inputValue();
           typed.set(current, { label, notes: '', lifts: { liftFlMm: 0, liftFrMm: 0, liftRlMm: 0, liftRrMm: 0 }, readings: new Map() });
           say(`new pose ${current.slice(0, 8)} "${label}"`);
-        // eslint-disable-next-line no-dupe-else-if -- each rnd.chance() is a new draw, not the same condition
+          // eslint-disable-next-line no-dupe-else-if -- each rnd.chance() is a new draw, not the same condition
         } else if (typed.size > 1 && rnd.chance(0.3)) {
           const other = rnd.pick([...typed.keys()].filter((id) => id !== current));
           say(`open pose ${other.slice(0, 8)}`);
@@ -284,7 +290,9 @@ describe('field recorder under a fast tester, flaky signal and reloads', () => {
       await page.reload();
       await page.getByLabel('Pose name').waitFor();
       await screenShowsTyped();
-      console.log(`field torture (seed ${SEED}): ${((Date.now() - started) / 1000).toFixed(0)} s, ${ROUNDS} rounds, ${typed.size} poses, ${checks} bar checks (${allSavedChecks} said all saved)`);
+      console.log(
+        `field torture (seed ${SEED}): ${((Date.now() - started) / 1000).toFixed(0)} s, ${ROUNDS} rounds, ${typed.size} poses, ${checks} bar checks (${allSavedChecks} said all saved)`,
+      );
     } catch (err) {
       console.log(`field torture failed with seed ${SEED}; last actions:\n${log.slice(-40).join('\n')}`);
       throw err;
@@ -298,19 +306,33 @@ type ServerPose = { label: string; notes: string; lifts: Record<LiftKey, number>
 
 /** What PostgreSQL holds for the session: live poses and readings. */
 async function serverHolds(ts: TestServer, f: FieldSession): Promise<Record<string, ServerPose>> {
-  const poses = await h.ts.sequelize.query<{ id: string; label: string; notes: string; lift_fl_mm: number; lift_fr_mm: number; lift_rl_mm: number; lift_rr_mm: number }>(
-    'SELECT id, label, notes, lift_fl_mm, lift_fr_mm, lift_rl_mm, lift_rr_mm FROM poses WHERE session_id = $1 AND deleted_at IS NULL',
-    { bind: [f.sessionId], type: QueryTypes.SELECT },
-  );
+  const poses = await h.ts.sequelize.query<{
+    id: string;
+    label: string;
+    notes: string;
+    lift_fl_mm: number;
+    lift_fr_mm: number;
+    lift_rl_mm: number;
+    lift_rr_mm: number;
+  }>('SELECT id, label, notes, lift_fl_mm, lift_fr_mm, lift_rl_mm, lift_rr_mm FROM poses WHERE session_id = $1 AND deleted_at IS NULL', {
+    bind: [f.sessionId],
+    type: QueryTypes.SELECT,
+  });
   const readings = await h.ts.sequelize.query<{ pose_id: string; gauge_point_id: string; axis: string; value_mm: number }>(
     'SELECT r.pose_id, r.gauge_point_id, r.axis, r.value_mm FROM readings r JOIN poses p ON p.id = r.pose_id WHERE p.session_id = $1 AND r.deleted_at IS NULL',
     { bind: [f.sessionId], type: QueryTypes.SELECT },
   );
   const out: Record<string, ServerPose> = {};
   for (const p of poses) {
-    out[p.id] = { label: p.label, notes: p.notes, lifts: { liftFlMm: p.lift_fl_mm, liftFrMm: p.lift_fr_mm, liftRlMm: p.lift_rl_mm, liftRrMm: p.lift_rr_mm }, readings: {} };
+    out[p.id] = {
+      label: p.label,
+      notes: p.notes,
+      lifts: { liftFlMm: p.lift_fl_mm, liftFrMm: p.lift_fr_mm, liftRlMm: p.lift_rl_mm, liftRrMm: p.lift_rr_mm },
+      readings: {},
+    };
   }
-  for (const r of readings) (out[r.pose_id] ??= { label: '?', notes: '?', lifts: {} as ServerPose['lifts'], readings: {} }).readings[`${r.gauge_point_id}|${r.axis}`] = r.value_mm;
+  for (const r of readings)
+    (out[r.pose_id] ??= { label: '?', notes: '?', lifts: {} as ServerPose['lifts'], readings: {} }).readings[`${r.gauge_point_id}|${r.axis}`] = r.value_mm;
   return out;
 }
 

@@ -26,7 +26,11 @@ async function newPhone(): Promise<Page> {
 async function followFromMailbox(page: Page, to: string, subject: RegExp, linkPath: string) {
   await waitForMail(h.ts, to, subject);
   await page.goto(`${h.ts.baseUrl}/dev/mailbox`);
-  const message = page.locator('li').filter({ hasText: to }).filter({ has: page.locator('h2', { hasText: subject }) }).first();
+  const message = page
+    .locator('li')
+    .filter({ hasText: to })
+    .filter({ has: page.locator('h2', { hasText: subject }) })
+    .first();
   await message.waitFor();
   await message.getByRole('link', { name: new RegExp(linkPath) }).click();
   await page.waitForURL(`**${linkPath}**`);
@@ -143,7 +147,15 @@ describe('a newcomer', () => {
     // Account page: units and the sign-out of all devices.
     await page.getByRole('link', { name: 'Account' }).click();
     await page.getByLabel('Inches (in)').check();
-    await expect.poll(() => page.evaluate(() => fetch('/api/me').then((r) => r.json()).then((m) => m.user.unitSystem))).toBe('in');
+    await expect
+      .poll(() =>
+        page.evaluate(() =>
+          fetch('/api/me')
+            .then((r) => r.json())
+            .then((m) => m.user.unitSystem),
+        ),
+      )
+      .toBe('in');
     await shot(page, '7-account');
     await page.getByRole('button', { name: 'Sign out of all devices' }).click();
     await page.waitForURL('**/sign-in');

@@ -74,7 +74,9 @@ describe('shrinking a photo on the phone', () => {
   });
 
   it('leaves a photo already within 3000 px, and a file that is not an image, as they are', async () => {
-    const small = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#557766' } }).jpeg().toBuffer();
+    const small = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#557766' } })
+      .jpeg()
+      .toBuffer();
     expect(Buffer.compare(await shrinkInBrowser(small, 'image/jpeg'), small)).toBe(0);
     const text = Buffer.from('not a photo at all');
     expect(Buffer.compare(await shrinkInBrowser(text, 'text/plain'), text)).toBe(0);

@@ -116,7 +116,11 @@ async function call<T>(baseUrl: string, cookie: string, pathAndQuery: string, bo
 }
 
 /** The field client's transport, over Node's fetch with a session cookie. */
-export function nodeTransport(baseUrl: string, cookie: string, hooks: { beforePush?: (req: PushRequest, n: number) => void | Promise<void> } = {}): SyncTransport & { pushes: number } {
+export function nodeTransport(
+  baseUrl: string,
+  cookie: string,
+  hooks: { beforePush?: (req: PushRequest, n: number) => void | Promise<void> } = {},
+): SyncTransport & { pushes: number } {
   const t = {
     pushes: 0,
     async push(req: PushRequest) {

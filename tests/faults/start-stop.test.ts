@@ -51,7 +51,16 @@ async function npmStart(waitFor: RegExp) {
   const env = Object.fromEntries(Object.entries(inherited).filter(([k]) => !k.startsWith('S3_')));
   const child = spawn('npm', ['start'], {
     cwd: repoRoot,
-    env: { ...env, NODE_ENV: 'development', TWISTLOG_PG_PORT: String(pgPort), PORT: String(appPort), SMTP_PORT: String(smtpPort), TWISTLOG_PG_DIR: pgDir, TWISTLOG_S3_DIR: s3Dir, LOG_LEVEL: 'warn' },
+    env: {
+      ...env,
+      NODE_ENV: 'development',
+      TWISTLOG_PG_PORT: String(pgPort),
+      PORT: String(appPort),
+      SMTP_PORT: String(smtpPort),
+      TWISTLOG_PG_DIR: pgDir,
+      TWISTLOG_S3_DIR: s3Dir,
+      LOG_LEVEL: 'warn',
+    },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   started.push(child);
@@ -84,7 +93,10 @@ async function expectAllGone(run: Awaited<ReturnType<typeof npmStart>>) {
     await new Promise((r) => setTimeout(r, 500));
     left = running();
   }
-  expect(left.map((p) => `${p.pid} ${p.cmd}`), run.output()).toEqual([]);
+  expect(
+    left.map((p) => `${p.pid} ${p.cmd}`),
+    run.output(),
+  ).toEqual([]);
   expect(await portOpen(run.appPort)).toBe(false);
   expect(await portOpen(run.pgPort)).toBe(false);
   expect(fs.existsSync(path.join(run.marker, 'postmaster.pid'))).toBe(false);

@@ -46,19 +46,41 @@ function sessionRecords(poses: number) {
   const vehicleId = uuid();
   const sessionId = uuid();
   const vehicle = newVehicle({ id: vehicleId, name: `Fault truck ${vehicleId.slice(0, 4)}`, trackRearMm: 1880 });
-  const points = [[330, 830], [0, 830], [-330, 830], [-330, 370], [0, 370], [330, 370]].map(([y, z], i) => newGaugePoint({ vehicleId, label: 'ABCDEF'[i], yMm: y, zMm: z }));
+  const points = [
+    [330, 830],
+    [0, 830],
+    [-330, 830],
+    [-330, 370],
+    [0, 370],
+    [330, 370],
+  ].map(([y, z], i) => newGaugePoint({ vehicleId, label: 'ABCDEF'[i], yMm: y, zMm: z }));
   const session = newTestSession({ id: sessionId, vehicleId, title: 'Fault test', testedOn: '2026-11-30', safetyAckAt: '2026-11-30T09:00:00.000Z' });
   const poseRows = Array.from({ length: poses }, (_, seq) =>
-    newPose({ sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels', liftFlMm: seq === 0 ? 0 : 100 + seq, recordedAt: '2026-11-30T09:10:00.000Z' }),
+    newPose({
+      sessionId,
+      seq,
+      label: `Pose ${seq}`,
+      kind: seq === 0 ? 'level' : 'wheels',
+      liftFlMm: seq === 0 ? 0 : 100 + seq,
+      recordedAt: '2026-11-30T09:10:00.000Z',
+    }),
   );
   const readings = poseRows.flatMap((p, pi) =>
-    points.flatMap((g) => (['foreAft', 'lateral', 'vertical'] as const).map((axis, ai) => newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: 10 + pi + ai }))),
+    points.flatMap((g) =>
+      (['foreAft', 'lateral', 'vertical'] as const).map((axis, ai) => newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: 10 + pi + ai })),
+    ),
   );
   return { vehicle, points, session, poses: poseRows, readings, sessionId };
 }
 
 async function storeLocally(db: FieldDb, r: ReturnType<typeof sessionRecords>) {
-  for (const [entity, list] of [['vehicle', [r.vehicle]], ['gaugePoint', r.points], ['testSession', [r.session]], ['pose', r.poses], ['reading', r.readings]] as const) {
+  for (const [entity, list] of [
+    ['vehicle', [r.vehicle]],
+    ['gaugePoint', r.points],
+    ['testSession', [r.session]],
+    ['pose', r.poses],
+    ['reading', r.readings],
+  ] as const) {
     const results = await saveRecords(entity, list as { id: string }[], db);
     const bad = results.filter((x) => !x.ok);
     if (bad.length) throw new Error(`could not store ${entity}: ${JSON.stringify(bad[0])}`);
@@ -121,14 +143,21 @@ describe('PostgreSQL stopped in the middle of a sync', () => {
 describe('the server killed in the middle of a batch', () => {
   it('leaves nothing half-written, and the retried batch lands whole', async () => {
     const records = sessionRecords(556); // 556 poses × 18 = 10,008 readings in one batch
-    const setup = { idempotencyKey: `setup-${uuid()}`, changes: [
-      { entity: 'vehicle', record: records.vehicle },
-      ...records.points.map((record) => ({ entity: 'gaugePoint', record })),
-      { entity: 'testSession', record: records.session },
-      ...records.poses.map((record) => ({ entity: 'pose', record })),
-    ] };
+    const setup = {
+      idempotencyKey: `setup-${uuid()}`,
+      changes: [
+        { entity: 'vehicle', record: records.vehicle },
+        ...records.points.map((record) => ({ entity: 'gaugePoint', record })),
+        { entity: 'testSession', record: records.session },
+        ...records.poses.map((record) => ({ entity: 'pose', record })),
+      ],
+    };
     const post = (body: unknown) =>
-      fetch(`${server.baseUrl}/api/sync/push`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: server.baseUrl, Cookie: cookie }, body: JSON.stringify(body) });
+      fetch(`${server.baseUrl}/api/sync/push`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', Origin: server.baseUrl, Cookie: cookie },
+        body: JSON.stringify(body),
+      });
     expect((await post(setup)).status).toBe(200);
 
     const big = { idempotencyKey: `big-${uuid()}`, changes: records.readings.slice(0, 10_000).map((record) => ({ entity: 'reading', record })) };

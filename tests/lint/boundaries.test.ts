@@ -21,7 +21,9 @@ async function rulesFiring(file: string, code: string): Promise<string[]> {
 
 describe('the import boundaries', { timeout: 60_000 }, () => {
   it('src never imports server', async () => {
-    expect(await rulesFiring('src/features/vehicles/x.ts', "import { lucia } from '../../../server/auth/lucia';\nvoid lucia;\n")).toContain('import-x/no-restricted-paths');
+    expect(await rulesFiring('src/features/vehicles/x.ts', "import { lucia } from '../../../server/auth/lucia';\nvoid lucia;\n")).toContain(
+      'import-x/no-restricted-paths',
+    );
     expect(await rulesFiring('src/features/vehicles/x.ts', "import { can } from '@shared/permissions';\nvoid can;\n")).toEqual([]);
   });
 
@@ -48,13 +50,17 @@ describe('the import boundaries', { timeout: 60_000 }, () => {
   it('only src/lib/db imports Dexie', async () => {
     const dexie = "import Dexie from 'dexie';\nvoid Dexie;\n";
     expect(await rulesFiring('src/features/sessions/x.ts', dexie)).toContain('no-restricted-imports');
-    expect(await rulesFiring('src/features/sessions/x.ts', "import { useLiveQuery } from 'dexie-react-hooks';\nvoid useLiveQuery;\n")).toContain('no-restricted-imports');
+    expect(await rulesFiring('src/features/sessions/x.ts', "import { useLiveQuery } from 'dexie-react-hooks';\nvoid useLiveQuery;\n")).toContain(
+      'no-restricted-imports',
+    );
     expect(await rulesFiring('src/lib/db/x.ts', dexie)).toEqual([]);
   });
 
   it('only the sync feature calls the sync routes', async () => {
     expect(await rulesFiring('src/features/sessions/x.ts', "export const u = '/api/sync/push';\n")).toContain('no-restricted-syntax');
-    expect(await rulesFiring('src/features/sessions/x.ts', 'export const u = (id: string) => `/api/sync/conflicts/${id}/resolve`;\n')).toContain('no-restricted-syntax');
+    expect(await rulesFiring('src/features/sessions/x.ts', 'export const u = (id: string) => `/api/sync/conflicts/${id}/resolve`;\n')).toContain(
+      'no-restricted-syntax',
+    );
     expect(await rulesFiring('src/features/sync/components/x.ts', "export const u = '/api/sync/push';\n")).toContain('no-restricted-syntax');
     expect(await rulesFiring('src/features/sync/api/x.ts', "export const u = '/api/sync/push';\n")).toEqual([]);
     expect(await rulesFiring('src/features/sessions/x.ts', "export const u = '/api/sessions';\n")).toEqual([]);
@@ -80,9 +86,15 @@ describe('import cycles', { timeout: 60_000 }, () => {
 describe('links', { timeout: 60_000 }, () => {
   it('are built with pathTo, never written by hand', async () => {
     const fired = (code: string) => rulesFiring('src/features/vehicles/components/x.tsx', code);
-    expect(await fired("import { Link } from 'react-router-dom';\nexport const A = () => <Link to=\"/desk\">Desk</Link>;\n")).toContain('no-restricted-syntax');
-    expect(await fired("import { Link } from 'react-router-dom';\nexport const A = ({ id }: { id: string }) => <Link to={`/desk/vehicles/${id}`}>Truck</Link>;\n")).toContain('no-restricted-syntax');
+    expect(await fired('import { Link } from \'react-router-dom\';\nexport const A = () => <Link to="/desk">Desk</Link>;\n')).toContain('no-restricted-syntax');
+    expect(
+      await fired("import { Link } from 'react-router-dom';\nexport const A = ({ id }: { id: string }) => <Link to={`/desk/vehicles/${id}`}>Truck</Link>;\n"),
+    ).toContain('no-restricted-syntax');
     expect(await fired("export const go = (navigate: (to: string) => void) => navigate('/field');\n")).toContain('no-restricted-syntax');
-    expect(await fired("import { Link } from 'react-router-dom';\nimport { pathTo } from '@/paths';\nexport const A = () => <Link to={pathTo('desk')}>Desk</Link>;\n")).toEqual([]);
+    expect(
+      await fired(
+        "import { Link } from 'react-router-dom';\nimport { pathTo } from '@/paths';\nexport const A = () => <Link to={pathTo('desk')}>Desk</Link>;\n",
+      ),
+    ).toEqual([]);
   });
 });

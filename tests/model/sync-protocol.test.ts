@@ -48,9 +48,15 @@ type ServerRec = Rec & { writer: number | 'setup' };
 
 const poseF = (r: Record<string, unknown>) => ({ label: r.label, liftFlMm: r.liftFlMm, notes: r.notes });
 const readingF = (r: Record<string, unknown>) => ({ poseId: r.poseId, gaugePointId: r.gaugePointId, axis: r.axis, valueMm: r.valueMm, deleted: !!r.deletedAt });
-const recOf = (entity: 'pose' | 'reading', r: Record<string, unknown>): Rec => ({ entity, id: String(r.id), version: Number(r.version), f: entity === 'pose' ? poseF(r) : readingF(r) });
-const clone = <T,>(x: T): T => structuredClone(x);
-const sorted = (m: Map<string, Rec>) => [...m.values()].map((r) => ({ entity: r.entity, id: r.id, version: r.version, f: r.f })).sort((a, b) => a.id.localeCompare(b.id));
+const recOf = (entity: 'pose' | 'reading', r: Record<string, unknown>): Rec => ({
+  entity,
+  id: String(r.id),
+  version: Number(r.version),
+  f: entity === 'pose' ? poseF(r) : readingF(r),
+});
+const clone = <T>(x: T): T => structuredClone(x);
+const sorted = (m: Map<string, Rec>) =>
+  [...m.values()].map((r) => ({ entity: r.entity, id: r.id, version: r.version, f: r.f })).sort((a, b) => a.id.localeCompare(b.id));
 
 interface Gate {
   kind: 'push' | 'pull';
@@ -223,7 +229,7 @@ class World {
       if (outcome === 'fail500') return gate.reject(new ApiError(500, 'internal', 'something went wrong on the server'));
       const predicted = this.predictPush(phone, gate);
       const real = await phone.real.push(req);
-      const set = <T,>(xs: T[]) => xs.map((x) => JSON.stringify(x)).sort();
+      const set = <T>(xs: T[]) => xs.map((x) => JSON.stringify(x)).sort();
       expect(set(real.accepted.map((a) => ({ entity: a.entity, id: a.id, version: a.version })))).toEqual(set(predicted.accepted));
       expect(set(real.conflicts.map((c) => ({ target: c.entityId, clientId: String(c.clientRecord.id) })))).toEqual(set(predicted.conflicts));
       if (outcome === 'lost') return offline();
@@ -234,7 +240,10 @@ class World {
     const page = await phone.real.pull(gate.since!);
     // A pull replaces only what the phone has not changed since (nothing in its outbox).
     const pending = new Set((await phone.db.outbox.toArray()).map((e) => e.recordId));
-    for (const [entity, rows] of [['pose', page.poses], ['reading', page.readings]] as const) {
+    for (const [entity, rows] of [
+      ['pose', page.poses],
+      ['reading', page.readings],
+    ] as const) {
       for (const r of rows) if (!pending.has(r.id) && (entity === 'reading' || this.poseIds.includes(r.id))) phone.local.set(r.id, recOf(entity, r));
     }
     gate.resolve(page);
@@ -263,7 +272,9 @@ class World {
       phone.editedAt.set(existing.id, ++phone.edits);
       return;
     }
-    const created = (await phone.db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray()).find((r) => !phone.local.has(r.id))!;
+    const created = (await phone.db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray()).find(
+      (r) => !phone.local.has(r.id),
+    )!;
     phone.local.set(created.id, { entity: 'reading', id: created.id, version: 1, f: { ...slot, valueMm: n, deleted: false } });
     phone.editedAt.set(created.id, ++phone.edits);
   }
@@ -288,7 +299,8 @@ class World {
   }
 }
 
-type EditTarget = { kind: 'pose'; pose: number; field: 'label' | 'liftFlMm' | 'notes' } | { kind: 'slot'; pose: number; point: number; axis: number; clear: boolean };
+type EditTarget =
+  { kind: 'pose'; pose: number; field: 'label' | 'liftFlMm' | 'notes' } | { kind: 'slot'; pose: number; point: number; axis: number; clear: boolean };
 
 /** What fast-check's preconditions see: which phones are mid-run. */
 interface Model {
@@ -298,8 +310,18 @@ interface Model {
 
 const phoneArb = fc.integer({ min: 0, max: PHONES - 1 });
 const editArb: fc.Arbitrary<EditTarget> = fc.oneof(
-  fc.record({ kind: fc.constant('pose' as const), pose: fc.integer({ min: 0, max: 1 }), field: fc.constantFrom('label' as const, 'liftFlMm' as const, 'notes' as const) }),
-  fc.record({ kind: fc.constant('slot' as const), pose: fc.integer({ min: 0, max: 1 }), point: fc.integer({ min: 0, max: 1 }), axis: fc.integer({ min: 0, max: 1 }), clear: fc.constantFrom(false, false, false, false, true) }),
+  fc.record({
+    kind: fc.constant('pose' as const),
+    pose: fc.integer({ min: 0, max: 1 }),
+    field: fc.constantFrom('label' as const, 'liftFlMm' as const, 'notes' as const),
+  }),
+  fc.record({
+    kind: fc.constant('slot' as const),
+    pose: fc.integer({ min: 0, max: 1 }),
+    point: fc.integer({ min: 0, max: 1 }),
+    axis: fc.integer({ min: 0, max: 1 }),
+    clear: fc.constantFrom(false, false, false, false, true),
+  }),
 );
 
 const note = (m: Model, p: Phone) => {
@@ -308,7 +330,10 @@ const note = (m: Model, p: Phone) => {
 };
 
 class Edit implements fc.AsyncCommand<Model, World> {
-  constructor(readonly phone: number, readonly target: EditTarget) {}
+  constructor(
+    readonly phone: number,
+    readonly target: EditTarget,
+  ) {}
   check = () => true;
   async run(m: Model, w: World) {
     await w.edit(w.phones[this.phone], this.target);
@@ -318,7 +343,10 @@ class Edit implements fc.AsyncCommand<Model, World> {
 }
 
 class StartSync implements fc.AsyncCommand<Model, World> {
-  constructor(readonly phone: number, readonly force: boolean) {}
+  constructor(
+    readonly phone: number,
+    readonly force: boolean,
+  ) {}
   check = (m: Readonly<Model>) => !m.running[this.phone];
   async run(m: Model, w: World) {
     const p = w.phones[this.phone];
@@ -331,7 +359,11 @@ class StartSync implements fc.AsyncCommand<Model, World> {
 }
 
 class Answer implements fc.AsyncCommand<Model, World> {
-  constructor(readonly phone: number, readonly push: PushOutcome, readonly pull: PullOutcome) {}
+  constructor(
+    readonly phone: number,
+    readonly push: PushOutcome,
+    readonly pull: PullOutcome,
+  ) {}
   check = (m: Readonly<Model>) => m.gated[this.phone];
   async run(m: Model, w: World) {
     const p = w.phones[this.phone];
@@ -362,7 +394,11 @@ class Reload implements fc.AsyncCommand<Model, World> {
 const edit = fc.tuple(phoneArb, editArb).map(([p, t]) => new Edit(p, t));
 const sync = fc.tuple(phoneArb, fc.constantFrom(false, false, true)).map(([p, f]) => new StartSync(p, f));
 const answer = fc
-  .tuple(phoneArb, fc.constantFrom<PushOutcome>('ok', 'ok', 'ok', 'lost', 'lost', 'fail500', 'fail500', 'offline'), fc.constantFrom<PullOutcome>('ok', 'ok', 'ok', 'offline'))
+  .tuple(
+    phoneArb,
+    fc.constantFrom<PushOutcome>('ok', 'ok', 'ok', 'lost', 'lost', 'fail500', 'fail500', 'offline'),
+    fc.constantFrom<PullOutcome>('ok', 'ok', 'ok', 'offline'),
+  )
   .map(([p, push, pull]) => new Answer(p, push, pull));
 const reload = phoneArb.map((p) => new Reload(p));
 // Listed more than once to weigh them: edits and answers are what most runs are made of.
@@ -375,9 +411,15 @@ async function newWorld(): Promise<World> {
   const { vehicleId, pointIds } = await vehicleWithPoints(agent, ['A', 'B']);
   const session = sessionRecord(vehicleId);
   const poses = [poseRecord(session.id, 0, { label: 'Level', notes: '' }), poseRecord(session.id, 1, { label: 'Pose 1', notes: '' })];
-  const res = await agent.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session), ...poses.map((p) => change('pose', p))] });
+  const res = await agent
+    .post('/api/sync/push')
+    .send({ idempotencyKey: batchKey(), changes: [change('testSession', session), ...poses.map((p) => change('pose', p))] });
   expect(res.status).toBe(200);
-  const w = new World(session.id, poses.map((p) => p.id), pointIds);
+  const w = new World(
+    session.id,
+    poses.map((p) => p.id),
+    pointIds,
+  );
   for (const p of poses) w.server.set(p.id, { ...recOf('pose', p), writer: 'setup' });
   for (let i = 0; i < PHONES; i++) {
     const cookie = (await startSession(team.members[roles[i]].userId, team.teamId)).split(';')[0];

@@ -52,6 +52,8 @@ export function changedTables(before: Record<string, string>, after: Record<stri
 export async function insertRow(sequelize: Sequelize, table: string, row: Record<string, unknown>): Promise<void> {
   const cols = Object.keys(row);
   await sequelize.query(`INSERT INTO ${table} (${cols.join(', ')}) VALUES (${cols.map((c) => `:${c}`).join(', ')})`, {
-    replacements: Object.fromEntries(Object.entries(row).map(([k, v]) => [k, v !== null && typeof v === 'object' && !(v instanceof Date) ? JSON.stringify(v) : v])),
+    replacements: Object.fromEntries(
+      Object.entries(row).map(([k, v]) => [k, v !== null && typeof v === 'object' && !(v instanceof Date) ? JSON.stringify(v) : v]),
+    ),
   });
 }

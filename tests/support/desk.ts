@@ -16,7 +16,10 @@ export interface DeskSession {
   readingIdList: string[];
 }
 
-export async function createDeskSession(team: TestTeam, opts: { name?: string; seed?: number; poses?: number; shearPerDeg?: number } = {}): Promise<DeskSession> {
+export async function createDeskSession(
+  team: TestTeam,
+  opts: { name?: string; seed?: number; poses?: number; shearPerDeg?: number } = {},
+): Promise<DeskSession> {
   const synthetic = buildSyntheticSession({
     poses: opts.poses ?? 6,
     gaugePoints: 6,

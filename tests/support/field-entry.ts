@@ -12,7 +12,9 @@ export async function sessionWithPoses(agent: Agent, readingMode: 'gap' | 'displ
   const session = sessionRecord(vehicleId, { readingMode });
   const level = poseRecord(session.id, 0);
   const pose = poseRecord(session.id, 1, { liftFlMm: 0 });
-  const res = await agent.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', session), change('pose', level), change('pose', pose)] });
+  const res = await agent
+    .post('/api/sync/push')
+    .send({ idempotencyKey: batchKey(), changes: [change('testSession', session), change('pose', level), change('pose', pose)] });
   if (res.status !== 200) throw new Error(`push: ${res.status} ${JSON.stringify(res.body)}`);
   return { sessionId: session.id, poseId: pose.id, pointIds };
 }

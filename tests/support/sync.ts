@@ -38,11 +38,25 @@ export function readingRecord(poseId: string, gaugePointId: string, axis: 'foreA
   return newReading({ poseId, gaugePointId, axis, valueMm });
 }
 
-const POINT_LAYOUT = [[300, 800], [-300, 800], [-300, 400], [300, 400], [0, 850], [0, 380]];
+const POINT_LAYOUT = [
+  [300, 800],
+  [-300, 800],
+  [-300, 400],
+  [300, 400],
+  [0, 850],
+  [0, 380],
+];
 
 /** Gauge points of a vehicle, labelled as given, placed around a common opening. */
 export function gaugePointRecords(vehicleId: string, labels: string[]) {
-  return labels.map((label, i) => newGaugePoint({ vehicleId, label, yMm: POINT_LAYOUT[i % POINT_LAYOUT.length][0], zMm: POINT_LAYOUT[i % POINT_LAYOUT.length][1] + Math.floor(i / POINT_LAYOUT.length) }));
+  return labels.map((label, i) =>
+    newGaugePoint({
+      vehicleId,
+      label,
+      yMm: POINT_LAYOUT[i % POINT_LAYOUT.length][0],
+      zMm: POINT_LAYOUT[i % POINT_LAYOUT.length][1] + Math.floor(i / POINT_LAYOUT.length),
+    }),
+  );
 }
 
 /** Pushes one batch of changes and fails loudly unless every one was accepted. */

@@ -32,7 +32,12 @@ export async function runColdStartBench(s: BenchServer): Promise<BenchRow[]> {
   const fmt = (xs: number[]) => `median ${median(xs).toFixed(0)} ms (${Math.min(...xs).toFixed(0)}–${Math.max(...xs).toFixed(0)} ms over ${xs.length} starts)`;
   const met = median(bundled) <= 1000;
   return [
-    { section: 'cold start', measure: 'process spawned → first health answer, bundled server (dist-server/)', value: fmt(bundled), goal: `≤ 1 s: ${met ? 'met' : 'NOT met'}` },
+    {
+      section: 'cold start',
+      measure: 'process spawned → first health answer, bundled server (dist-server/)',
+      value: fmt(bundled),
+      goal: `≤ 1 s: ${met ? 'met' : 'NOT met'}`,
+    },
     { section: 'cold start', measure: '… from the TypeScript sources (tsx, as npm start)', value: fmt(sources) },
     { section: 'cold start', measure: 'resident memory of the bundled server just started', value: `median ${median(rss).toFixed(0)} MB` },
   ];

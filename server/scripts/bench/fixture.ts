@@ -128,7 +128,12 @@ async function newWorkshop(baseUrl: string) {
   const teamId = randomUUID();
   const userId = randomUUID();
   await TeamModel.create({ id: teamId, name: 'Bench workshop' });
-  await UserModel.create({ id: userId, email: `bench-${userId.slice(0, 8)}@bench.test`, name: 'Bench engineer', passwordHash: await hashPassword(randomUUID()) });
+  await UserModel.create({
+    id: userId,
+    email: `bench-${userId.slice(0, 8)}@bench.test`,
+    name: 'Bench engineer',
+    passwordHash: await hashPassword(randomUUID()),
+  });
   await MembershipModel.create({ id: randomUUID(), teamId, userId, role: 'engineer' });
   const cookie = (await startSession(userId, teamId)).split(';')[0];
   return { teamId, userId, headers: { 'Content-Type': 'application/json', Origin: baseUrl, Cookie: cookie } };
@@ -140,18 +145,29 @@ export type BenchServer = Awaited<ReturnType<typeof startBenchServer>>;
 export function sessionChanges(readings: number) {
   const vehicleId = randomUUID();
   const sessionId = randomUUID();
-  const points = Array.from({ length: 12 }, (_, i) => newGaugePoint({ vehicleId, label: `P${i + 1}`, yMm: -330 + (i % 4) * 220, zMm: 370 + Math.floor(i / 4) * 230 }));
+  const points = Array.from({ length: 12 }, (_, i) =>
+    newGaugePoint({ vehicleId, label: `P${i + 1}`, yMm: -330 + (i % 4) * 220, zMm: 370 + Math.floor(i / 4) * 230 }),
+  );
   const poseCount = Math.ceil(readings / 36);
   const poses = Array.from({ length: poseCount }, (_, seq) =>
     newPose({ sessionId, seq, label: `Pose ${seq}`, kind: seq === 0 ? 'level' : 'wheels', liftFlMm: seq === 0 ? 0 : 50 + (seq % 400) }),
   );
   const readingRows = poses
-    .flatMap((p, pi) => points.flatMap((g) => (['foreAft', 'lateral', 'vertical'] as const).map((axis) => newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: Math.round((10 + pi * 0.1) * 10) / 10 }))))
+    .flatMap((p, pi) =>
+      points.flatMap((g) =>
+        (['foreAft', 'lateral', 'vertical'] as const).map((axis) =>
+          newReading({ poseId: p.id, gaugePointId: g.id, axis, valueMm: Math.round((10 + pi * 0.1) * 10) / 10 }),
+        ),
+      ),
+    )
     .slice(0, readings);
   const parents = [
     { entity: 'vehicle', record: newVehicle({ id: vehicleId, name: 'Bench truck', trackRearMm: 1880 }) },
     ...points.map((record) => ({ entity: 'gaugePoint', record })),
-    { entity: 'testSession', record: newTestSession({ id: sessionId, vehicleId, title: 'Bench', testedOn: '2026-12-01', safetyAckAt: new Date().toISOString() }) },
+    {
+      entity: 'testSession',
+      record: newTestSession({ id: sessionId, vehicleId, title: 'Bench', testedOn: '2026-12-01', safetyAckAt: new Date().toISOString() }),
+    },
     ...poses.map((record) => ({ entity: 'pose', record })),
   ];
   return { sessionId, parents, readings: readingRows };

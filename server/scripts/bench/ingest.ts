@@ -30,9 +30,7 @@ async function plainInsert(s: BenchServer) {
   const { parents, readings } = sessionChanges(READINGS);
   await s.post('/api/sync/push', { idempotencyKey: randomUUID(), changes: parents });
   // Ids, numbers and axis names only: safe to write as literals.
-  const values = readings
-    .map((r) => `('${r.id}', '${s.teamId}', '${r.poseId}', '${r.gaugePointId}', '${r.axis}', ${r.valueMm}, '${s.userId}')`)
-    .join(',\n');
+  const values = readings.map((r) => `('${r.id}', '${s.teamId}', '${r.poseId}', '${r.gaugePointId}', '${r.axis}', ${r.valueMm}, '${s.userId}')`).join(',\n');
   const started = performance.now();
   await s.sequelize.query(`INSERT INTO readings (id, team_id, pose_id, gauge_point_id, axis, value_mm, entered_by) VALUES ${values}`);
   return performance.now() - started;
@@ -54,8 +52,16 @@ export async function runIngestBench(s: BenchServer): Promise<BenchRow[]> {
   const fmt = (r: number) => `${Math.round(r).toLocaleString('en')} readings/s`;
   const clientRatio = appRate / plainRate;
   return [
-    { section: 'sync ingest', measure: `plain multi-row INSERT of ${READINGS.toLocaleString('en')} readings`, value: `${fmt(plainRate)} (${median(plain).toFixed(0)} ms)` },
-    { section: 'sync ingest', measure: `app push, one batch of ${READINGS.toLocaleString('en')}`, value: `${fmt(oneRate)} (${median(oneBatch).toFixed(0)} ms), ratio ${(oneRate / plainRate).toFixed(2)}` },
+    {
+      section: 'sync ingest',
+      measure: `plain multi-row INSERT of ${READINGS.toLocaleString('en')} readings`,
+      value: `${fmt(plainRate)} (${median(plain).toFixed(0)} ms)`,
+    },
+    {
+      section: 'sync ingest',
+      measure: `app push, one batch of ${READINGS.toLocaleString('en')}`,
+      value: `${fmt(oneRate)} (${median(oneBatch).toFixed(0)} ms), ratio ${(oneRate / plainRate).toFixed(2)}`,
+    },
     {
       section: 'sync ingest',
       measure: `app push, the client's batches of ${CLIENT_BATCH}`,

@@ -42,7 +42,12 @@ async function hammer(targets: { url: string; connections: number }[], headers: 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 function summary(runs: Run[]) {
-  return { rps: median(runs.map((r) => r.rps)), p50: median(runs.map((r) => r.p50)), p99: median(runs.map((r) => r.p99)), bad: runs.reduce((n, r) => n + r.bad, 0) };
+  return {
+    rps: median(runs.map((r) => r.rps)),
+    p50: median(runs.map((r) => r.p50)),
+    p99: median(runs.map((r) => r.p99)),
+    bad: runs.reduce((n, r) => n + r.bad, 0),
+  };
 }
 
 /** Bytes on the wire of one GET with an Accept-Encoding (the body as sent, before decoding). */
@@ -50,11 +55,13 @@ function wireBytes(url: string, cookie: string, encoding: string | null): Promis
   return new Promise((resolve, reject) => {
     const headers: Record<string, string> = { Cookie: cookie };
     if (encoding) headers['Accept-Encoding'] = encoding;
-    http.get(url, { headers }, (res) => {
-      let bytes = 0;
-      res.on('data', (c: Buffer) => (bytes += c.length));
-      res.on('end', () => resolve({ bytes, encoding: String(res.headers['content-encoding'] ?? 'none') }));
-    }).on('error', reject);
+    http
+      .get(url, { headers }, (res) => {
+        let bytes = 0;
+        res.on('data', (c: Buffer) => (bytes += c.length));
+        res.on('end', () => resolve({ bytes, encoding: String(res.headers['content-encoding'] ?? 'none') }));
+      })
+      .on('error', reject);
   });
 }
 
@@ -69,7 +76,11 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
   let sessionId = '';
   for (let i = 0; i < 2; i++) {
     const { sessionId: id, parents, readings } = sessionChanges(30 * 36);
-    await s.post('/api/sync/push', { idempotencyKey: randomUUID(), changes: [...parents, ...readings.map((record) => ({ entity: 'reading', record }))] }, workshop.headers);
+    await s.post(
+      '/api/sync/push',
+      { idempotencyKey: randomUUID(), changes: [...parents, ...readings.map((record) => ({ entity: 'reading', record }))] },
+      workshop.headers,
+    );
     sessionId = id;
   }
   const cookie = workshop.headers.Cookie;
@@ -93,7 +104,13 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
       meSignedIn: () => hammer([{ url: `${a.baseUrl}/api/me`, connections: CONNECTIONS }], signedIn),
       healthUnsigned: () => hammer([{ url: `${a.baseUrl}/api/health`, connections: CONNECTIONS }], {}),
       reviewTwoInstances: () =>
-        hammer([{ url: a.baseUrl + review, connections: CONNECTIONS / 2 }, { url: b!.baseUrl + review, connections: CONNECTIONS / 2 }], signedIn),
+        hammer(
+          [
+            { url: a.baseUrl + review, connections: CONNECTIONS / 2 },
+            { url: b!.baseUrl + review, connections: CONNECTIONS / 2 },
+          ],
+          signedIn,
+        ),
     };
     // Round 0 warms every configuration up (JIT, pools, PostgreSQL's caches) and is not counted.
     const runs: Record<string, Run[]> = Object.fromEntries(Object.keys(configs).map((k) => [k, []]));
@@ -117,25 +134,44 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     const meRatio = m.meSignedIn.rps / m.healthUnsigned.rps;
     const twoRatio = m.reviewTwoInstances.rps / m.reviewApp.rps;
     return [
-      { section, measure: 'session review (30 poses × 12 points × 3 axes): app', value: fmtRun(m.reviewApp), goal: `p99 < 250 ms: ${verdict(m.reviewApp.p99 < 250)}` },
+      {
+        section,
+        measure: 'session review (30 poses × 12 points × 3 axes): app',
+        value: fmtRun(m.reviewApp),
+        goal: `p99 < 250 ms: ${verdict(m.reviewApp.p99 < 250)}`,
+      },
       { section, measure: '… B2 (bare handler, same statement, PostgreSQL-built JSON)', value: fmtRun(m.reviewB2) },
       { section, measure: '… app ÷ B2', value: ratio(m.reviewApp.rps, m.reviewB2.rps), goal: `≥ 0.9: ${verdict(reviewRatio >= 0.9)}` },
       { section, measure: '… app, asked again unchanged (If-None-Match → 304, no body)', value: fmtRun(m.reviewRevalidated) },
-      { section, measure: 'sync pull since 0 (2 sessions, 2,160 readings): app', value: fmtRun(m.pullApp), goal: `p99 < 250 ms: ${verdict(m.pullApp.p99 < 250)}` },
+      {
+        section,
+        measure: 'sync pull since 0 (2 sessions, 2,160 readings): app',
+        value: fmtRun(m.pullApp),
+        goal: `p99 < 250 ms: ${verdict(m.pullApp.p99 < 250)}`,
+      },
       { section, measure: '… B2', value: fmtRun(m.pullB2) },
       { section, measure: '… app ÷ B2', value: ratio(m.pullApp.rps, m.pullB2.rps), goal: `≥ 0.9: ${verdict(pullRatio >= 0.9)}` },
       { section, measure: 'signed-in small route (GET /api/me)', value: fmtRun(m.meSignedIn) },
       { section, measure: '… unsigned GET /api/health (SELECT 1)', value: fmtRun(m.healthUnsigned) },
       { section, measure: '… signed-in ÷ unsigned', value: ratio(m.meSignedIn.rps, m.healthUnsigned.rps), goal: `≥ 0.7: ${verdict(meRatio >= 0.7)}` },
       { section, measure: 'session review on two instances (25 + 25 connections at once)', value: fmtRun(m.reviewTwoInstances) },
-      { section, measure: '… two instances ÷ one', value: ratio(m.reviewTwoInstances.rps, m.reviewApp.rps), goal: `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}` },
+      {
+        section,
+        measure: '… two instances ÷ one',
+        value: ratio(m.reviewTwoInstances.rps, m.reviewApp.rps),
+        goal: `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}`,
+      },
       {
         section: 'bytes on the wire',
         measure: 'session review',
         value: `${raw.bytes.toLocaleString('en')} B raw; ${br.bytes.toLocaleString('en')} B ${br.encoding}; ${gz.bytes.toLocaleString('en')} B ${gz.encoding}`,
-        goal: `≤ 12 % of ${REVIEW_RAW_BEFORE.toLocaleString('en')} B: ${(br.bytes / REVIEW_RAW_BEFORE * 100).toFixed(1)} % (${gz.encoding} ${(gz.bytes / REVIEW_RAW_BEFORE * 100).toFixed(1)} %): ${verdict(Math.max(br.bytes, gz.bytes) <= 0.12 * REVIEW_RAW_BEFORE)}`,
+        goal: `≤ 12 % of ${REVIEW_RAW_BEFORE.toLocaleString('en')} B: ${((br.bytes / REVIEW_RAW_BEFORE) * 100).toFixed(1)} % (${gz.encoding} ${((gz.bytes / REVIEW_RAW_BEFORE) * 100).toFixed(1)} %): ${verdict(Math.max(br.bytes, gz.bytes) <= 0.12 * REVIEW_RAW_BEFORE)}`,
       },
-      { section: 'bytes on the wire', measure: 'sync pull since 0', value: `${pullRaw.bytes.toLocaleString('en')} B raw; ${pullBr.bytes.toLocaleString('en')} B ${pullBr.encoding}` },
+      {
+        section: 'bytes on the wire',
+        measure: 'sync pull since 0',
+        value: `${pullRaw.bytes.toLocaleString('en')} B raw; ${pullBr.bytes.toLocaleString('en')} B ${pullBr.encoding}`,
+      },
     ];
   } finally {
     await b?.stop();

@@ -11,8 +11,12 @@ export interface BenchRow {
 }
 
 export function renderReport(rows: BenchRow[]): string {
-  const header = `# Twistlog benchmark\n\nRun ${new Date().toISOString()} on ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'CPU'}, ` +
-    `${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}; load average at the end ${os.loadavg().map((l) => l.toFixed(1)).join(' / ')} ` +
+  const header =
+    `# Twistlog benchmark\n\nRun ${new Date().toISOString()} on ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'CPU'}, ` +
+    `${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}; load average at the end ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(' / ')} ` +
     `(1 / 5 / 15 min: anything above the core count means other work shared the machine).\n\n`;
   const lines = ['| section | measure | value | goal |', '| --- | --- | --- | --- |'];
   for (const r of rows) lines.push(`| ${r.section} | ${r.measure} | ${r.value} | ${r.goal ?? ''} |`);

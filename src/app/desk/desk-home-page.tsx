@@ -33,11 +33,12 @@ export function DeskHomePage() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((v) => (
                 <li key={v.id} className="card">
-                  <Link to={pathTo('vehicle', { id: v.id })} className="text-lg font-bold underline">{v.name}</Link>
+                  <Link to={pathTo('vehicle', { id: v.id })} className="text-lg font-bold underline">
+                    {v.name}
+                  </Link>
                   <p className="text-sm">{v.chassis}</p>
                   <p className="text-sm">
-                    Wheelbase {formatLength(v.wheelbaseMm, unit, 0)} · track {formatLength(v.trackFrontMm, unit, 0)} /{' '}
-                    {formatLength(v.trackRearMm, unit, 0)}
+                    Wheelbase {formatLength(v.wheelbaseMm, unit, 0)} · track {formatLength(v.trackFrontMm, unit, 0)} / {formatLength(v.trackRearMm, unit, 0)}
                   </p>
                 </li>
               ))}
@@ -47,7 +48,9 @@ export function DeskHomePage() {
       </section>
       <SessionListPage />
       <p>
-        <Link to={pathTo('compare')} className="btn">Compare sessions and vehicles</Link>
+        <Link to={pathTo('compare')} className="btn">
+          Compare sessions and vehicles
+        </Link>
       </p>
       <SignedEnvelopesList />
     </div>

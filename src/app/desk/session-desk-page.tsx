@@ -53,8 +53,8 @@ function SessionDesk({ review }: { review: SessionReview }) {
       <header>
         <h1 className="text-2xl font-bold">{review.vehicle.name}</h1>
         <p>
-          {review.session.testedOn} · {review.session.title} · {plural(review.poses.length, 'pose')} · {plural(review.readings.filter((r) => r.excluded).length, 'reading')} excluded ·{' '}
-          {fit.flags.size} far from the fit
+          {review.session.testedOn} · {review.session.title} · {plural(review.poses.length, 'pose')} ·{' '}
+          {plural(review.readings.filter((r) => r.excluded).length, 'reading')} excluded · {fit.flags.size} far from the fit
         </p>
       </header>
       <nav aria-label="Session sections" className="flex flex-wrap gap-2">
@@ -84,7 +84,18 @@ function SessionDesk({ review }: { review: SessionReview }) {
             unit={unit}
             selectedId={selected}
             onSelect={can('session.review') ? setSelected : undefined}
-            editor={selected && <ReadingEditor key={selected} review={review} readingId={selected} flag={fit.flags.get(selected)} unit={unit} onClose={() => setSelected(null)} />}
+            editor={
+              selected && (
+                <ReadingEditor
+                  key={selected}
+                  review={review}
+                  readingId={selected}
+                  flag={fit.flags.get(selected)}
+                  unit={unit}
+                  onClose={() => setSelected(null)}
+                />
+              )
+            }
           />
           {readingRemarks.length > 0 && (
             <section className="card" aria-label="Remarks on the readings and the fit">

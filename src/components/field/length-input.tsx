@@ -29,10 +29,7 @@ export interface LengthInputProps {
   layout?: 'row' | 'stack';
 }
 
-type State =
-  | { kind: 'saved' }
-  | { kind: 'refused'; parse: Extract<LengthParse, { kind: 'refused' }> }
-  | { kind: 'doubtful'; mm: number; reason: string };
+type State = { kind: 'saved' } | { kind: 'refused'; parse: Extract<LengthParse, { kind: 'refused' }> } | { kind: 'doubtful'; mm: number; reason: string };
 
 /**
  * A big entry for a length, typed in the chosen unit and stored in millimetres as it is typed.
@@ -89,7 +86,7 @@ export function LengthInput(props: LengthInputProps) {
       store(editBase.current);
     } else {
       const mm = parsed.kind === 'value' ? parsed.mm : null;
-      const doubt = mm == null || mm === confirmed.current ? null : props.doubt?.(mm) ?? null;
+      const doubt = mm == null || mm === confirmed.current ? null : (props.doubt?.(mm) ?? null);
       if (doubt && mm != null) {
         setState({ kind: 'doubtful', mm, reason: doubt });
         store(editBase.current);
@@ -124,7 +121,14 @@ export function LengthInput(props: LengthInputProps) {
   const entry = (
     <div className="flex gap-2">
       {negative && (
-        <button type="button" className={keyClass} aria-label="Change sign" aria-describedby={`${id}-label`} onMouseDown={keepFocus} onClick={() => typeKey(toggleSign)}>
+        <button
+          type="button"
+          className={keyClass}
+          aria-label="Change sign"
+          aria-describedby={`${id}-label`}
+          onMouseDown={keepFocus}
+          onClick={() => typeKey(toggleSign)}
+        >
           ±
         </button>
       )}
@@ -177,7 +181,13 @@ export function LengthInput(props: LengthInputProps) {
           <button type="button" className="btn min-h-touch px-3" aria-label="Space" onMouseDown={keepFocus} onClick={() => typeKey((t) => `${t} `)}>
             ␣
           </button>
-          <button type="button" className="btn min-h-touch px-3 text-2xl" aria-label="Fraction bar" onMouseDown={keepFocus} onClick={() => typeKey((t) => `${t}/`)}>
+          <button
+            type="button"
+            className="btn min-h-touch px-3 text-2xl"
+            aria-label="Fraction bar"
+            onMouseDown={keepFocus}
+            onClick={() => typeKey((t) => `${t}/`)}
+          >
             /
           </button>
         </div>

@@ -8,7 +8,12 @@ const none = { rampAngleDeg: 20, rampDistanceMm: 0, rampWheel: null };
 describe('rampPatch', () => {
   it('gives the wheel on the ramp its lift from the distance and the angle', () => {
     // Python: 1500 * math.sin(math.radians(20)) = 513.0302149885031
-    expect(rampPatch(none, { ...none, rampDistanceMm: 1500, rampWheel: 'fl' })).toEqual({ rampAngleDeg: 20, rampDistanceMm: 1500, rampWheel: 'fl', liftFlMm: 513.0302149885031 });
+    expect(rampPatch(none, { ...none, rampDistanceMm: 1500, rampWheel: 'fl' })).toEqual({
+      rampAngleDeg: 20,
+      rampDistanceMm: 1500,
+      rampWheel: 'fl',
+      liftFlMm: 513.0302149885031,
+    });
   });
 
   it('puts a wheel that leaves the ramp back on the ground', () => {

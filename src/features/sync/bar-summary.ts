@@ -14,7 +14,9 @@ export function barSummary(counts: PendingCounts | undefined, writes: LocalWrite
   const sending = counts.records - counts.held;
   const parts: string[] = [];
   if (sending > 0 || counts.photos > 0) {
-    parts.push(`Waiting to send: ${plural(sending, 'record')}, ${plural(counts.photos, 'photo')}${counts.retryAt ? ` (next try at ${clock(counts.retryAt)})` : ''}`);
+    parts.push(
+      `Waiting to send: ${plural(sending, 'record')}, ${plural(counts.photos, 'photo')}${counts.retryAt ? ` (next try at ${clock(counts.retryAt)})` : ''}`,
+    );
   }
   if (counts.held > 0) parts.push(`${plural(counts.held, 'record')} held back: the server refused ${counts.held === 1 ? 'it' : 'them'}`);
   if (parts.length) return { allSaved: false, text: parts.join(' · ') };

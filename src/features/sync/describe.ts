@@ -146,7 +146,12 @@ export interface Difference {
 export function differences(entity: SyncEntity, phone: Rec, server: Rec, look: FieldLookups, unit: UnitSystem): Difference[] {
   return describedFields(entity)
     .filter((k) => JSON.stringify(phone[k] ?? null) !== JSON.stringify(server[k] ?? null))
-    .map((k) => ({ key: k, name: fieldName(entity, k, phone, look), phone: fieldValue(entity, k, phone[k], unit), server: fieldValue(entity, k, server[k], unit) }));
+    .map((k) => ({
+      key: k,
+      name: fieldName(entity, k, phone, look),
+      phone: fieldValue(entity, k, phone[k], unit),
+      server: fieldValue(entity, k, server[k], unit),
+    }));
 }
 
 /** "Lift front right: 410 mm on this phone, 0 mm on the server". */

@@ -34,7 +34,17 @@ const gaugePointId = uuid();
 const session = newTestSession({ vehicleId, title: 'Yard flex test', testedOn: '2026-03-14' });
 const pose = newPose({ sessionId: session.id, seq: 1, label: 'Front left up', liftFlMm: 300, recordedAt: '2026-03-14T09:00:00.000Z' });
 const reading = (valueMm: number, axis: 'foreAft' | 'lateral' | 'vertical' = 'lateral') => newReading({ poseId: pose.id, gaugePointId, axis, valueMm });
-const emptyPull = (cursor: number): PullResponse => ({ cursor, hasMore: false, vehicles: [], gaugePoints: [], testSessions: [], poses: [], readings: [], photos: [], conflicts: [] });
+const emptyPull = (cursor: number): PullResponse => ({
+  cursor,
+  hasMore: false,
+  vehicles: [],
+  gaugePoints: [],
+  testSessions: [],
+  poses: [],
+  readings: [],
+  photos: [],
+  conflicts: [],
+});
 const accept = (req: PushRequest): PushResponse => ({ accepted: req.changes.map((c) => ({ entity: c.entity, id: c.record.id, version: 1 })), conflicts: [] });
 const serverFailure = () => new ApiError(500, 'internal', 'something went wrong on the server');
 
@@ -44,7 +54,10 @@ const later = (ms: number) => vi.setSystemTime(Date.now() + ms);
 describe('a batch the server fails on', () => {
   it('answered 500 three times: photos upload, the pull runs, and the record is held back and can be saved as a file', async () => {
     await saveRecord('pose', pose, db);
-    await addPhoto({ id: uuid(), sessionId: session.id, poseId: pose.id, caption: 'gap at A', file: new Blob([new Uint8Array([0xff, 0xd8, 0xff])], { type: 'image/jpeg' }) }, db);
+    await addPhoto(
+      { id: uuid(), sessionId: session.id, poseId: pose.id, caption: 'gap at A', file: new Blob([new Uint8Array([0xff, 0xd8, 0xff])], { type: 'image/jpeg' }) },
+      db,
+    );
     const deskSession = { ...session, id: uuid(), title: 'From the desk', changeSeq: 7 };
     let pushes = 0;
     let uploads = 0;
@@ -63,7 +76,9 @@ describe('a batch the server fails on', () => {
 
     const first = await runSync(db, transport);
     expect(first).toMatchObject({ ok: false, retryAt: expect.any(String) });
-    expect(first.ok === false && first.error.message).toBe('the server could not take a record and wrote nothing (something went wrong on the server); trying again shortly');
+    expect(first.ok === false && first.error.message).toBe(
+      'the server could not take a record and wrote nothing (something went wrong on the server); trying again shortly',
+    );
     // The failing push stopped neither the photo nor the pull.
     expect(uploads).toBe(1);
     expect(pulls).toBe(1);
@@ -91,10 +106,18 @@ describe('a batch the server fails on', () => {
 
     const look = await fieldLookups(db);
     const json = JSON.parse(unsentAsJson(unsent, look));
-    expect(json.records).toEqual([expect.objectContaining({ what: 'Front left up', state: 'held', entity: 'pose', record: expect.objectContaining({ id: pose.id, liftFlMm: 300 }) })]);
+    expect(json.records).toEqual([
+      expect.objectContaining({ what: 'Front left up', state: 'held', entity: 'pose', record: expect.objectContaining({ id: pose.id, liftFlMm: 300 }) }),
+    ]);
     const csv = Papa.parse<Record<string, string>>(unsentAsCsv(unsent, look, 'mm'), { header: true }).data;
     expect(csv).toEqual([
-      expect.objectContaining({ what: 'Front left up', state: 'held back', problem: 'something went wrong on the server', id: pose.id, values: expect.stringContaining('Lift front left: 300 mm') }),
+      expect.objectContaining({
+        what: 'Front left up',
+        state: 'held back',
+        problem: 'something went wrong on the server',
+        id: pose.id,
+        values: expect.stringContaining('Lift front left: 300 mm'),
+      }),
     ]);
     expect(JSON.parse(csv[0].record)).toMatchObject({ id: pose.id, label: 'Front left up' });
   });

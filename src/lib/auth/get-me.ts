@@ -2,7 +2,6 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Me } from '@shared/schemas';
 import { api, ApiError } from '@/lib/api-client';
 
-
 /** Who is signed in; null when nobody is. */
 export async function getMe(): Promise<Me | null> {
   try {

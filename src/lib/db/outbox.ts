@@ -115,7 +115,11 @@ const TRIES_BEFORE_NARROWING = RETRY_DELAYS_MS.length + 1;
  * of its own. The batch backs off; on its third such answer it is split in half (the next batch
  * takes half as many changes), and a batch of one record is held back with the server's message.
  */
-export async function noteBatchFailure(key: string, error: { message: string; fields: FieldError[] }, db: FieldDb = fieldDb): Promise<{ retryAt: string | null }> {
+export async function noteBatchFailure(
+  key: string,
+  error: { message: string; fields: FieldError[] },
+  db: FieldDb = fieldDb,
+): Promise<{ retryAt: string | null }> {
   let narrowTo: number | null = null;
   let retryAt: string | null = null;
   await db.transaction('rw', db.outbox, db.batches, async () => {
@@ -128,7 +132,10 @@ export async function noteBatchFailure(key: string, error: { message: string; fi
       return;
     }
     const hold: Hold | null = batch.changes.length === 1 ? { message: error.message, fields: error.fields, at: new Date().toISOString() } : null;
-    await db.outbox.where('batchKey').equals(key).modify({ batchKey: '', ...(hold ? { held: hold } : {}) });
+    await db.outbox
+      .where('batchKey')
+      .equals(key)
+      .modify({ batchKey: '', ...(hold ? { held: hold } : {}) });
     await db.batches.delete(key);
     if (!hold) narrowTo = Math.ceil(batch.changes.length / 2);
   });

@@ -12,7 +12,12 @@ export async function addPhoto(
   db: FieldDb = fieldDb,
 ): Promise<ItemResult> {
   if (!input.file.type.startsWith('image/')) {
-    return { id: input.id, ok: false, message: `photo: not an image (${input.file.type || 'unknown type'})`, fields: [{ field: 'photo', message: 'not an image' }] };
+    return {
+      id: input.id,
+      ok: false,
+      message: `photo: not an image (${input.file.type || 'unknown type'})`,
+      fields: [{ field: 'photo', message: 'not an image' }],
+    };
   }
   if (input.file.size > MAX_BYTES) {
     return { id: input.id, ok: false, message: 'photo: larger than 20 MB', fields: [{ field: 'photo', message: 'too large' }] };

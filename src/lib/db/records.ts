@@ -50,7 +50,10 @@ async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[
   // One waiting entry per record is enough: the batch reads the latest content when it forms.
   const [, entries] = await Promise.all([
     tableOf(db, entity).bulkPut(valid as never[]),
-    db.outbox.where('[entity+recordId]').anyOf(valid.map((r) => [entity, r.id])).toArray(),
+    db.outbox
+      .where('[entity+recordId]')
+      .anyOf(valid.map((r) => [entity, r.id]))
+      .toArray(),
   ]);
   const unclaimed = entries.filter((e) => e.batchKey === '');
   // The tester changed a record the server refused: every held record may go again (a fixed pose
@@ -196,7 +199,11 @@ export function setReadingValue(
 }
 
 // The look-up and the write share one transaction: a keystroke costs one commit, not two.
-async function writeReadingValue(slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] }, valueMm: number | null, db: FieldDb): Promise<ItemResult> {
+async function writeReadingValue(
+  slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] },
+  valueMm: number | null,
+  db: FieldDb,
+): Promise<ItemResult> {
   let wrote = false;
   try {
     const result = await db.transaction('rw', db.readings, db.outbox, async (): Promise<ItemResult> => {

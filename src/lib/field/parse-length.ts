@@ -54,7 +54,8 @@ export function parseLength(text: string, unit: UnitSystem, limits: LengthLimits
   const mark = /\s*(mm|in|"|″)$/i.exec(body);
   if (mark && body.length > mark[0].length) {
     const said: UnitSystem = mark[1].toLowerCase() === 'mm' ? 'mm' : 'in';
-    if (said !== unit) return refuse(`“${typed}” is in ${UNIT_NAME[said]}; this field is in ${UNIT_NAME[unit]}. Switch the unit, or type the value in ${unit}.`);
+    if (said !== unit)
+      return refuse(`“${typed}” is in ${UNIT_NAME[said]}; this field is in ${UNIT_NAME[unit]}. Switch the unit, or type the value in ${unit}.`);
     body = body.slice(0, -mark[0].length);
   }
 
@@ -75,9 +76,14 @@ export function parseLength(text: string, unit: UnitSystem, limits: LengthLimits
   }
 
   const mm = fromDisplay(negative ? -value : value, unit);
-  if (!Number.isFinite(mm) || mm > limits.maxMm) return refuse(`Too large: ${typed} ${unit} is more than the ${showLength(limits.maxMm, unit)} ${unit} this field takes.`);
+  if (!Number.isFinite(mm) || mm > limits.maxMm)
+    return refuse(`Too large: ${typed} ${unit} is more than the ${showLength(limits.maxMm, unit)} ${unit} this field takes.`);
   if (mm < limits.minMm) {
-    return refuse(limits.minMm === 0 && mm < 0 ? `“${typed}”: this length cannot be negative.` : `Too small: ${typed} ${unit} is less than the ${showLength(limits.minMm, unit)} ${unit} this field takes.`);
+    return refuse(
+      limits.minMm === 0 && mm < 0
+        ? `“${typed}”: this length cannot be negative.`
+        : `Too small: ${typed} ${unit} is less than the ${showLength(limits.minMm, unit)} ${unit} this field takes.`,
+    );
   }
   // Inches times 25.4 leave binary noise (3 in → 76.19999999999999 mm): a micrometre is far below
   // any tape's resolution, so round there and store the value a person would write.

@@ -32,7 +32,17 @@ describe('repeatOf', () => {
 
   it('copies the wheels and the ramp, not the notes, as a new record after the last pose', () => {
     const again = repeatOf(ramp, [ramp], at);
-    expect(again).toMatchObject({ seq: 4, version: 1, kind: 'ramp', liftFlMm: ramp.liftFlMm, rampAngleDeg: 20, rampDistanceMm: 1500, rampWheel: 'fl', notes: '', label: 'Ramp 20°, FL up · run 2' });
+    expect(again).toMatchObject({
+      seq: 4,
+      version: 1,
+      kind: 'ramp',
+      liftFlMm: ramp.liftFlMm,
+      rampAngleDeg: 20,
+      rampDistanceMm: 1500,
+      rampWheel: 'fl',
+      notes: '',
+      label: 'Ramp 20°, FL up · run 2',
+    });
     expect(again.id).not.toBe(ramp.id);
     expect(poseSchema.safeParse(again).success).toBe(true);
   });

@@ -3,14 +3,7 @@
 // shared schemas the server validates with.
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { Me } from '@shared/schemas';
-import type {
-  AcceptInvitationInput,
-  ChangePasswordInput,
-  CheckYourMail,
-  InvitationPreview,
-  SignUpInput,
-  UpdateMeInput,
-} from '@shared/schemas/account';
+import type { AcceptInvitationInput, ChangePasswordInput, CheckYourMail, InvitationPreview, SignUpInput, UpdateMeInput } from '@shared/schemas/account';
 import { api } from '@/lib/api-client';
 import { meQuery } from '@/lib/auth/get-me';
 

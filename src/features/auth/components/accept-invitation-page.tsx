@@ -23,7 +23,14 @@ export function AcceptInvitationPage() {
   }
   if (preview.isError) {
     return (
-      <AuthFrame title="Join a workshop" footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Go to sign in</Link>}>
+      <AuthFrame
+        title="Join a workshop"
+        footer={
+          <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">
+            Go to sign in
+          </Link>
+        }
+      >
         <ErrorBanner>{preview.error.message}</ErrorBanner>
         <p>Ask the workshop’s admin to invite you again.</p>
       </AuthFrame>
@@ -46,17 +53,14 @@ export function AcceptInvitationPage() {
     } else if (!password) next.password = 'enter the password of your account';
     setErrors(next);
     if (Object.keys(next).length) return;
-    accept.mutate(
-      { token, name, password },
-      { onSuccess: () => navigate(pathTo('home'), { replace: true }), onError: (err) => setErrors(fieldErrors(err)) },
-    );
+    accept.mutate({ token, name, password }, { onSuccess: () => navigate(pathTo('home'), { replace: true }), onError: (err) => setErrors(fieldErrors(err)) });
   }
 
   return (
     <AuthFrame title={`Join ${inv.teamName}`}>
       <p>
-        {inv.invitedByName ? `${inv.invitedByName} invited you` : 'You are invited'} to join <strong>{inv.teamName}</strong> on Twistlog
-        as <strong>{inv.role}</strong>: {roleTable[inv.role].summary}
+        {inv.invitedByName ? `${inv.invitedByName} invited you` : 'You are invited'} to join <strong>{inv.teamName}</strong> on Twistlog as{' '}
+        <strong>{inv.role}</strong>: {roleTable[inv.role].summary}
       </p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="E-mail" name="email" type="email" defaultValue={inv.email} readOnly autoComplete="username" />
@@ -68,7 +72,14 @@ export function AcceptInvitationPage() {
         ) : (
           <>
             <TextField label="Your name" name="name" autoComplete="name" error={errors.name} />
-            <TextField label="Choose a password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} />
+            <TextField
+              label="Choose a password"
+              name="password"
+              type="password"
+              autoComplete="new-password"
+              hint="At least 10 characters."
+              error={errors.password}
+            />
           </>
         )}
         <ErrorBanner>{bannerText(accept.error, errors)}</ErrorBanner>

@@ -16,7 +16,9 @@ export function AccountPage() {
     <div className="mx-auto max-w-xl space-y-6">
       <h1 className="text-2xl font-bold">Your account</h1>
       <section className="card space-y-1" aria-labelledby="you">
-        <h2 id="you" className="text-lg font-bold">{user.name}</h2>
+        <h2 id="you" className="text-lg font-bold">
+          {user.name}
+        </h2>
         <p>{user.email}</p>
         <p>
           <strong>{role}</strong> in {team.name}
@@ -43,7 +45,9 @@ function UnitsSection({ current, teamDefault }: { current: UnitSystem | null; te
   return (
     <section className="card" aria-labelledby="units">
       <fieldset>
-        <legend id="units" className="mb-2 text-lg font-bold">Units on your screens</legend>
+        <legend id="units" className="mb-2 text-lg font-bold">
+          Units on your screens
+        </legend>
         <p className="mb-2 text-sm">Everything is stored in millimetres; this only changes what you see and type.</p>
         <div className="space-y-2">
           {options.map((o) => (
@@ -92,11 +96,20 @@ function ChangePasswordSection() {
 
   return (
     <section className="card space-y-3" aria-labelledby="password">
-      <h2 id="password" className="text-lg font-bold">Change password</h2>
+      <h2 id="password" className="text-lg font-bold">
+        Change password
+      </h2>
       <p className="text-sm">Every other device you use is signed out; this one stays signed in.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="Current password" name="currentPassword" type="password" autoComplete="current-password" error={errors.currentPassword} />
-        <TextField label="New password" name="newPassword" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword} />
+        <TextField
+          label="New password"
+          name="newPassword"
+          type="password"
+          autoComplete="new-password"
+          hint="At least 10 characters."
+          error={errors.newPassword}
+        />
         <ErrorBanner>{bannerText(change.error, errors)}</ErrorBanner>
         {done && <Notice>Password changed.</Notice>}
         <button type="submit" className="btn-primary w-full" disabled={change.isPending}>
@@ -112,7 +125,9 @@ function SignOutEverywhereSection() {
   const navigate = useNavigate();
   return (
     <section className="card space-y-3" aria-labelledby="devices">
-      <h2 id="devices" className="text-lg font-bold">Devices</h2>
+      <h2 id="devices" className="text-lg font-bold">
+        Devices
+      </h2>
       <p className="text-sm">Lost a phone, or signed in on a shared computer? Sign out everywhere, this device too.</p>
       <ErrorBanner>{signOutAll.error?.message}</ErrorBanner>
       <button

@@ -5,7 +5,11 @@ import { useRequestPasswordReset, useResetPassword } from '../api/account';
 import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { pathTo } from '@/paths';
 
-const backToSignIn = <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Back to sign in</Link>;
+const backToSignIn = (
+  <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">
+    Back to sign in
+  </Link>
+);
 
 /** Ask for a reset link. The answer is the same whether or not the address has an account. */
 export function ForgotPasswordPage() {
@@ -80,7 +84,9 @@ export function ResetPasswordPage() {
         <ErrorBanner>{bannerText(reset.error, errors)}</ErrorBanner>
         {reset.error && !Object.keys(errors).length && (
           <p>
-            <Link to={pathTo('forgotPassword')} className="font-bold underline">Ask for a new link</Link>
+            <Link to={pathTo('forgotPassword')} className="font-bold underline">
+              Ask for a new link
+            </Link>
           </p>
         )}
         <button type="submit" className="btn-primary w-full" disabled={reset.isPending}>

@@ -42,8 +42,12 @@ export function SignInPage() {
         </button>
       </form>
       <nav aria-label="Account" className="mt-4 flex flex-col gap-1">
-        <Link to={pathTo('forgotPassword')} className="inline-flex min-h-touch items-center font-bold underline">Forgot your password?</Link>
-        <Link to={pathTo('signUp')} className="inline-flex min-h-touch items-center font-bold underline">New workshop? Create an account</Link>
+        <Link to={pathTo('forgotPassword')} className="inline-flex min-h-touch items-center font-bold underline">
+          Forgot your password?
+        </Link>
+        <Link to={pathTo('signUp')} className="inline-flex min-h-touch items-center font-bold underline">
+          New workshop? Create an account
+        </Link>
       </nav>
     </div>
   );

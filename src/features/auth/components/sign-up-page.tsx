@@ -40,14 +40,25 @@ export function SignUpPage() {
   return (
     <AuthFrame
       title="Create your workshop"
-      footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Have an account? Sign in</Link>}
+      footer={
+        <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">
+          Have an account? Sign in
+        </Link>
+      }
     >
       <p>You become the workshop’s admin and can then invite your engineers, testers and viewers.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="Workshop name" name="teamName" autoComplete="organization" error={errors.teamName} />
         <TextField label="Your name" name="name" autoComplete="name" error={errors.name} />
         <TextField label="E-mail" name="email" type="email" autoComplete="email" error={errors.email} />
-        <TextField label="Password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters; a few words make a good one." error={errors.password} />
+        <TextField
+          label="Password"
+          name="password"
+          type="password"
+          autoComplete="new-password"
+          hint="At least 10 characters; a few words make a good one."
+          error={errors.password}
+        />
         <ErrorBanner>{bannerText(signUp.error, errors)}</ErrorBanner>
         <button type="submit" className="btn-primary w-full" disabled={signUp.isPending}>
           {signUp.isPending ? 'Sending…' : 'Create workshop'}
@@ -65,13 +76,20 @@ export function ConfirmSignUpPage() {
   return (
     <AuthFrame
       title="Create your workshop"
-      footer={<Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">Sign in instead</Link>}
+      footer={
+        <Link to={pathTo('signIn')} className="inline-flex min-h-touch items-center font-bold underline">
+          Sign in instead
+        </Link>
+      }
     >
       <p>Your e-mail address is confirmed by this link. Create the workshop now, with you as its admin.</p>
       <ErrorBanner>{confirm.error?.message}</ErrorBanner>
       {confirm.isError && (
         <p>
-          <Link to={pathTo('signUp')} className="font-bold underline">Sign up again</Link> for a new link.
+          <Link to={pathTo('signUp')} className="font-bold underline">
+            Sign up again
+          </Link>{' '}
+          for a new link.
         </p>
       )}
       <button

@@ -8,7 +8,11 @@ export const comparisonQueries = {
   all: () => ['comparison'] as const,
   /** One comparison per set of sessions, whatever order they were picked in. */
   of: (sessionIds: string[]) =>
-    queryOptions({ queryKey: [...comparisonQueries.all(), [...sessionIds].sort().join(',')], queryFn: () => getComparison(sessionIds), enabled: sessionIds.length > 0 }),
+    queryOptions({
+      queryKey: [...comparisonQueries.all(), [...sessionIds].sort().join(',')],
+      queryFn: () => getComparison(sessionIds),
+      enabled: sessionIds.length > 0,
+    }),
 };
 
 export const useComparison = (sessionIds: string[]) => useQuery(comparisonQueries.of(sessionIds));

@@ -47,17 +47,29 @@ export function ComparePage() {
             <>
               <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Comparison, scrollable">
                 <table className="min-w-full border-collapse bg-white text-right" aria-label="Comparison">
-                  <caption className="p-2 text-left font-bold">Worst perimeter displacement ({unit}) and slope ({unit}/°)</caption>
+                  <caption className="p-2 text-left font-bold">
+                    Worst perimeter displacement ({unit}) and slope ({unit}/°)
+                  </caption>
                   <thead>
                     <tr>
-                      <th scope="col" className="border border-rule p-2 text-left">Vehicle · session</th>
-                      <th scope="col" className="border border-rule p-2">Poses</th>
-                      <th scope="col" className="border border-rule p-2">Twist reached (°)</th>
+                      <th scope="col" className="border border-rule p-2 text-left">
+                        Vehicle · session
+                      </th>
+                      <th scope="col" className="border border-rule p-2">
+                        Poses
+                      </th>
+                      <th scope="col" className="border border-rule p-2">
+                        Twist reached (°)
+                      </th>
                       {AXES.map((a) => (
-                        <th key={`w-${a}`} scope="col" className="border border-rule p-2">Worst {AXIS_NAMES[a]}</th>
+                        <th key={`w-${a}`} scope="col" className="border border-rule p-2">
+                          Worst {AXIS_NAMES[a]}
+                        </th>
                       ))}
                       {AXES.map((a) => (
-                        <th key={`s-${a}`} scope="col" className="border border-rule p-2">Slope {AXIS_NAMES[a]}</th>
+                        <th key={`s-${a}`} scope="col" className="border border-rule p-2">
+                          Slope {AXIS_NAMES[a]}
+                        </th>
                       ))}
                     </tr>
                   </thead>
@@ -70,10 +82,14 @@ export function ComparePage() {
                         <td className="border border-rule p-2 tabular-nums">{r.poseCount}</td>
                         <td className="border border-rule p-2 tabular-nums">{formatDegValue(r.twistReachedDeg)}</td>
                         {AXES.map((a) => (
-                          <td key={`w-${a}`} className="border border-rule p-2 tabular-nums">{formatLengthValue(Math.abs(r.worstMm[a]), unit)}</td>
+                          <td key={`w-${a}`} className="border border-rule p-2 tabular-nums">
+                            {formatLengthValue(Math.abs(r.worstMm[a]), unit)}
+                          </td>
                         ))}
                         {AXES.map((a) => (
-                          <td key={`s-${a}`} className="border border-rule p-2 tabular-nums">{formatSlopeValue(r.slopeMmPerDeg[a], unit)}</td>
+                          <td key={`s-${a}`} className="border border-rule p-2 tabular-nums">
+                            {formatSlopeValue(r.slopeMmPerDeg[a], unit)}
+                          </td>
                         ))}
                       </tr>
                     ))}

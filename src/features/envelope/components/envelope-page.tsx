@@ -31,15 +31,16 @@ export function EnvelopePage() {
           <article className="space-y-4">
             <SafetyNotice compact />
             <header>
-              <h1 className="text-2xl font-bold">
-                {revisionName(e)}
-              </h1>
+              <h1 className="text-2xl font-bold">{revisionName(e)}</h1>
               <p>
                 Envelope of the session of {e.testedOn} · <RevisionState status={e.status} />
                 {can('session.read') && (
                   <>
                     {' '}
-                    · <Link className="underline" to={pathTo('deskSession', { id: e.sessionId })}>back to the session</Link>
+                    ·{' '}
+                    <Link className="underline" to={pathTo('deskSession', { id: e.sessionId })}>
+                      back to the session
+                    </Link>
                   </>
                 )}
               </p>
@@ -52,20 +53,34 @@ export function EnvelopePage() {
                   <p>
                     Signed off by <b>{s.signedBy.name}</b> on {formatTimestamp(s.signedAt)}.
                   </p>
-                  <p className="break-all text-sm">Content hash (SHA-256): <code>{e.contentHash}</code></p>
+                  <p className="break-all text-sm">
+                    Content hash (SHA-256): <code>{e.contentHash}</code>
+                  </p>
                   {e.hashVerifies ? (
-                    <p className="text-good" role="status">The stored snapshot matches its hash.</p>
+                    <p className="text-good" role="status">
+                      The stored snapshot matches its hash.
+                    </p>
                   ) : (
-                    <p className="rounded-lg bg-alert-light p-2 text-alert" role="alert">The stored snapshot does NOT match its hash: do not use this sheet.</p>
+                    <p className="rounded-lg bg-alert-light p-2 text-alert" role="alert">
+                      The stored snapshot does NOT match its hash: do not use this sheet.
+                    </p>
                   )}
                   <p className="text-sm">
                     Design twist {formatDeg(s.params.designTwistDeg)} ·{' '}
-                    {s.params.method === 'prediction' ? 'prediction bound per twist direction' : `tolerance bound, runs within ±${formatDeg(s.params.repeatBandDeg ?? 1)}`} at{' '}
-                    {formatPercent(s.params.confidence)} · margin {formatPercent(s.params.margin)} · allowance {formatLength(s.params.allowanceMm, unit)} · increment{' '}
-                    {formatLength(s.params.incrementMm, unit)} · {s.readings.length} readings used, {s.excludedReadings.length} excluded
+                    {s.params.method === 'prediction'
+                      ? 'prediction bound per twist direction'
+                      : `tolerance bound, runs within ±${formatDeg(s.params.repeatBandDeg ?? 1)}`}{' '}
+                    at {formatPercent(s.params.confidence)} · margin {formatPercent(s.params.margin)} · allowance {formatLength(s.params.allowanceMm, unit)} ·
+                    increment {formatLength(s.params.incrementMm, unit)} · {s.readings.length} readings used, {s.excludedReadings.length} excluded
                   </p>
                 </section>
-                <EnvelopeResults result={s.result} boot={s.boot} bootNote={s.bootNote} unit={unit} acknowledgedFlags={s.format === 2 ? s.acknowledgedFlags : []} />
+                <EnvelopeResults
+                  result={s.result}
+                  boot={s.boot}
+                  bootNote={s.bootNote}
+                  unit={unit}
+                  acknowledgedFlags={s.format === 2 ? s.acknowledgedFlags : []}
+                />
                 {s.format === 2 && s.passThrough && (
                   <section className="space-y-2" aria-label="Pass-through design options, as signed">
                     <h3 className="text-lg font-bold">Pass-through design options, as signed</h3>
@@ -81,12 +96,25 @@ export function EnvelopePage() {
                     Envelope (CSV)
                   </a>
                   {can('envelope.design') && e.status === 'signed' && (
-                    <button type="button" className="btn" disabled={reopen.isPending} onClick={() => reopen.mutate(e.id, { onSuccess: () => navigate({ pathname: pathTo('deskSession', { id: e.sessionId }), search: '?section=envelope' }) })}>
+                    <button
+                      type="button"
+                      className="btn"
+                      disabled={reopen.isPending}
+                      onClick={() =>
+                        reopen.mutate(e.id, {
+                          onSuccess: () => navigate({ pathname: pathTo('deskSession', { id: e.sessionId }), search: '?section=envelope' }),
+                        })
+                      }
+                    >
                       Re-open as revision {e.revision + 1}
                     </button>
                   )}
                 </p>
-                {reopen.isError && <p role="alert" className="text-alert">{reopen.error.message}</p>}
+                {reopen.isError && (
+                  <p role="alert" className="text-alert">
+                    {reopen.error.message}
+                  </p>
+                )}
                 {e.status === 'signed' && (
                   <Can action="envelope.send">
                     <SendSheetForm envelopeId={e.id} />

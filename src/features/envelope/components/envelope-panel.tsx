@@ -97,7 +97,19 @@ function NoDraft({ sessionId, latest, canDesign }: { sessionId: string; latest: 
   );
 }
 
-function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: EnvelopeRecord; data: DeskSessionData; unit: UnitSystem; canDesign: boolean; canSign: boolean }) {
+function DraftEditor({
+  draft,
+  data,
+  unit,
+  canDesign,
+  canSign,
+}: {
+  draft: EnvelopeRecord;
+  data: DeskSessionData;
+  unit: UnitSystem;
+  canDesign: boolean;
+  canSign: boolean;
+}) {
   const [form, setForm] = useState<ParamsFormState>(() => toFormState(draft.params, unit));
   const { params, problems } = fromFormState(form, unit);
   const { envelope, error } = useLiveEnvelope(data, params);
@@ -161,9 +173,7 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
         result={envelope?.passThrough ?? null}
         missing={envelope && !envelope.passThrough ? 'No options without a nominal fore-aft gap: set it on the vehicle.' : null}
       />
-      {canSign && flags.length > 0 && (
-        <FlagAcknowledgements flags={flags} kept={kept} unit={unit} onChange={setKept} />
-      )}
+      {canSign && flags.length > 0 && <FlagAcknowledgements flags={flags} kept={kept} unit={unit} onChange={setKept} />}
       <div className="flex flex-wrap gap-2">
         {canDesign && (
           <button
@@ -211,7 +221,9 @@ function DraftEditor({ draft, data, unit, canDesign, canSign }: { draft: Envelop
           onConfirm={() => void signOff().catch(() => setConfirming(false))}
         />
       )}
-      {canSign && <p className="text-sm">Signing freezes the parameters and the readings as they are on the server now; later edits never change a signed revision.</p>}
+      {canSign && (
+        <p className="text-sm">Signing freezes the parameters and the readings as they are on the server now; later edits never change a signed revision.</p>
+      )}
       {failure && (
         <p role="alert" className="rounded-lg bg-alert-light p-2 text-alert">
           {failure.message}
@@ -254,11 +266,20 @@ function SignOffConfirmation({
       <p>Signing freezes, for good:</p>
       <ul className="list-disc pl-6" aria-label="What the sign-off freezes">
         <li>
-          design twist {formatDeg(params.designTwistDeg)}, {params.method === 'prediction' ? 'prediction bound' : 'tolerance bound'} at {formatPercent(params.confidence)}, margin{' '}
-          {formatPercent(params.margin)}, allowance {formatLength(params.allowanceMm, unit)}, increment {formatIncrement(params.incrementMm, unit)}
+          design twist {formatDeg(params.designTwistDeg)}, {params.method === 'prediction' ? 'prediction bound' : 'tolerance bound'} at{' '}
+          {formatPercent(params.confidence)}, margin {formatPercent(params.margin)}, allowance {formatLength(params.allowanceMm, unit)}, increment{' '}
+          {formatIncrement(params.incrementMm, unit)}
         </li>
-        <li>{params.seal ? `seal free height ${formatLength(params.seal.freeHeightMm, unit)} at ${params.seal.minCompressionPercent}–${params.seal.maxCompressionPercent} %` : 'no seal chosen'}</li>
-        <li>{params.design.option ? `pass-through: ${OPTION_NAMES[params.design.option]}` : 'no pass-through option chosen: the sheet will give the envelope only'}</li>
+        <li>
+          {params.seal
+            ? `seal free height ${formatLength(params.seal.freeHeightMm, unit)} at ${params.seal.minCompressionPercent}–${params.seal.maxCompressionPercent} %`
+            : 'no seal chosen'}
+        </li>
+        <li>
+          {params.design.option
+            ? `pass-through: ${OPTION_NAMES[params.design.option]}`
+            : 'no pass-through option chosen: the sheet will give the envelope only'}
+        </li>
         <li>
           {plural(used, 'reading')} used and {plural(excluded, 'reading')} excluded, as they are on the server now
         </li>
@@ -331,7 +352,12 @@ function FlagAcknowledgements({
         return (
           <div key={f.readingId} className="flex flex-wrap items-center gap-3">
             <label className="flex min-h-touch items-center gap-3">
-              <input type="checkbox" className="h-6 w-6" checked={kept[f.readingId]?.checked ?? false} onChange={(e) => set(f.readingId, { checked: e.target.checked })} />
+              <input
+                type="checkbox"
+                className="h-6 w-6"
+                checked={kept[f.readingId]?.checked ?? false}
+                onChange={(e) => set(f.readingId, { checked: e.target.checked })}
+              />
               <span>
                 Keep <b>{name}</b>: entered {formatLength(f.enteredMm, unit)}, {formatLength(f.flag.residualMm, unit)} off the fit
                 {f.flag.kind === 'misfit' ? ' (one of a set that does not fit; too few readings to tell which is off)' : ''}

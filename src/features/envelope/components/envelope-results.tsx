@@ -46,17 +46,29 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
           <caption className="p-2 text-left font-bold">Design envelope ({unit}): fore-aft + opens, − closes; lateral and vertical ± either way</caption>
           <thead>
             <tr>
-              <th scope="col" className="border border-rule p-2 text-left">Movement</th>
-              <th scope="col" className="border border-rule p-2">Measured worst</th>
-              <th scope="col" className="border border-rule p-2">Upper bound</th>
-              <th scope="col" className="border border-rule p-2 text-left">Governs</th>
-              <th scope="col" className="border border-rule p-2">Envelope</th>
+              <th scope="col" className="border border-rule p-2 text-left">
+                Movement
+              </th>
+              <th scope="col" className="border border-rule p-2">
+                Measured worst
+              </th>
+              <th scope="col" className="border border-rule p-2">
+                Upper bound
+              </th>
+              <th scope="col" className="border border-rule p-2 text-left">
+                Governs
+              </th>
+              <th scope="col" className="border border-rule p-2">
+                Envelope
+              </th>
             </tr>
           </thead>
           <tbody>
             {rows.map((r) => (
               <tr key={r.key} data-measure={r.key}>
-                <th scope="row" className="border border-rule p-2 text-left">{r.name}</th>
+                <th scope="row" className="border border-rule p-2 text-left">
+                  {r.name}
+                </th>
                 <td className="border border-rule p-2 tabular-nums">{formatLengthValue(r.measuredWorstMm, unit)}</td>
                 <td className="border border-rule p-2 tabular-nums">{r.upperBoundMm === null ? '—' : formatLengthValue(r.upperBoundMm, unit)}</td>
                 <td className="border border-rule p-2 text-left">{r.governs}</td>
@@ -87,7 +99,8 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
           <ul className="list-disc pl-6 text-sm" aria-label="Acknowledged flagged readings">
             {acknowledgedFlags.map((f) => (
               <li key={f.readingId}>
-                {f.poseLabel} · point {f.pointLabel} · {AXIS_NAMES[f.axis]}: entered {formatLengthValue(f.enteredMm, unit)} {unit}, {formatLengthValue(f.residualMm, unit)} {unit} off the fit — acknowledged
+                {f.poseLabel} · point {f.pointLabel} · {AXIS_NAMES[f.axis]}: entered {formatLengthValue(f.enteredMm, unit)} {unit},{' '}
+                {formatLengthValue(f.residualMm, unit)} {unit} off the fit — acknowledged
                 {f.note ? `: ${f.note}` : ''}
               </li>
             ))}
@@ -102,23 +115,43 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
             <caption className="p-2 text-left font-bold">Boot spans and seal check per side ({unit})</caption>
             <thead>
               <tr>
-                <th scope="col" className="border border-rule p-2 text-left">Side</th>
-                <th scope="col" className="border border-rule p-2">Gap min</th>
-                <th scope="col" className="border border-rule p-2">Gap max</th>
-                <th scope="col" className="border border-rule p-2">Largest shear</th>
-                <th scope="col" className="border border-rule p-2">Shortest span</th>
-                <th scope="col" className="border border-rule p-2">Longest span</th>
-                <th scope="col" className="border border-rule p-2">Extension ratio</th>
-                <th scope="col" className="border border-rule p-2 text-left">Seal</th>
+                <th scope="col" className="border border-rule p-2 text-left">
+                  Side
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Gap min
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Gap max
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Largest shear
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Shortest span
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Longest span
+                </th>
+                <th scope="col" className="border border-rule p-2">
+                  Extension ratio
+                </th>
+                <th scope="col" className="border border-rule p-2 text-left">
+                  Seal
+                </th>
               </tr>
             </thead>
             <tbody>
               {SIDES.map((side) => {
                 const b = boot[side];
-                const range = b.sealFreeHeightRangeMm ? `free height ${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)} follows` : 'no free height follows';
+                const range = b.sealFreeHeightRangeMm
+                  ? `free height ${formatLengthValue(b.sealFreeHeightRangeMm.min, unit)} to ${formatLengthValue(b.sealFreeHeightRangeMm.max, unit)} follows`
+                  : 'no free height follows';
                 return (
                   <tr key={side}>
-                    <th scope="row" className="border border-rule p-2 text-left">{SIDE_NAMES[side]}</th>
+                    <th scope="row" className="border border-rule p-2 text-left">
+                      {SIDE_NAMES[side]}
+                    </th>
                     <td className="border border-rule p-2 tabular-nums">{formatLengthValue(b.gapMinMm, unit)}</td>
                     <td className="border border-rule p-2 tabular-nums">{formatLengthValue(b.gapMaxMm, unit)}</td>
                     <td className="border border-rule p-2 tabular-nums">{formatLengthValue(b.largestShearMm, unit)}</td>

@@ -17,7 +17,10 @@ describe('envelope form state', () => {
 
   it('says a range in percent and in the person’s unit, never as a fraction', () => {
     const form = toFormState(DEFAULT_DRAFT_PARAMS, 'in');
-    const { problems } = fromFormState({ ...form, marginPct: '250', confidencePct: '40', design: { ...form.design, slackPct: '300', flangeWidth: '20', foldDepth: 'x' } }, 'in');
+    const { problems } = fromFormState(
+      { ...form, marginPct: '250', confidencePct: '40', design: { ...form.design, slackPct: '300', flangeWidth: '20', foldDepth: 'x' } },
+      'in',
+    );
     expect(problems).toContain('Margin must be between 0 and 200 %');
     expect(problems).toContain('Confidence must be between 50 and 100 %');
     expect(problems).toContain('Boot slack must be between 0 and 200 %');

@@ -73,7 +73,10 @@ export function toFormState(p: EnvelopeParams, unit: UnitSystem): ParamsFormStat
     design: {
       option: p.design.option,
       driverSide: p.design.driverSide,
-      ...(Object.fromEntries(DESIGN_LENGTHS.map(([field, key]) => [field, show(toDisplay(p.design[key], unit))])) as Record<(typeof DESIGN_LENGTHS)[number][0], string>),
+      ...(Object.fromEntries(DESIGN_LENGTHS.map(([field, key]) => [field, show(toDisplay(p.design[key], unit))])) as Record<
+        (typeof DESIGN_LENGTHS)[number][0],
+        string
+      >),
       slackPct: show(p.design.slackPercent),
       fastening: p.design.fastening,
       material: p.design.material,
@@ -160,7 +163,9 @@ export function fromFormState(f: ParamsFormState, unit: UnitSystem): { params: E
     incrementMm: fromDisplay(num(f.increment), unit),
     throughOrigin: f.throughOrigin,
     repeatBandDeg: num(f.repeatBandDeg),
-    seal: f.sealOn ? { freeHeightMm: fromDisplay(num(f.sealFreeHeight), unit), minCompressionPercent: num(f.sealMinPct), maxCompressionPercent: num(f.sealMaxPct) } : null,
+    seal: f.sealOn
+      ? { freeHeightMm: fromDisplay(num(f.sealFreeHeight), unit), minCompressionPercent: num(f.sealMinPct), maxCompressionPercent: num(f.sealMaxPct) }
+      : null,
     design: {
       option: f.design.option,
       driverSide: f.design.driverSide,

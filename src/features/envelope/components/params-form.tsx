@@ -8,7 +8,19 @@ interface Props {
   onChange: (next: ParamsFormState) => void;
 }
 
-function NumberField({ label, value, suffix, readOnly, onChange }: { label: string; value: string; suffix: string; readOnly: boolean; onChange: (v: string) => void }) {
+function NumberField({
+  label,
+  value,
+  suffix,
+  readOnly,
+  onChange,
+}: {
+  label: string;
+  value: string;
+  suffix: string;
+  readOnly: boolean;
+  onChange: (v: string) => void;
+}) {
   return (
     <label className="block">
       <span className="field-label">
@@ -21,7 +33,10 @@ function NumberField({ label, value, suffix, readOnly, onChange }: { label: stri
 
 /** Design parameters of an envelope draft; lengths in the display unit. */
 export function ParamsForm({ form, unit, readOnly, onChange }: Props) {
-  const set = <K extends keyof ParamsFormState>(key: K) => (value: ParamsFormState[K]) => onChange({ ...form, [key]: value });
+  const set =
+    <K extends keyof ParamsFormState>(key: K) =>
+    (value: ParamsFormState[K]) =>
+      onChange({ ...form, [key]: value });
   return (
     <fieldset className="grid gap-3 sm:grid-cols-3" disabled={readOnly}>
       <legend className="sr-only">Design parameters</legend>

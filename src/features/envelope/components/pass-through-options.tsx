@@ -20,7 +20,21 @@ const OPTIONS = ['frames', 'boot', 'both'] as const;
 const d = DEFAULT_PASS_THROUGH_DESIGN;
 
 /** A length setting with its common-practice starting value said beside it. */
-function LengthSetting({ label, value, unit, startMm, readOnly, onChange }: { label: string; value: string; unit: UnitSystem; startMm: number; readOnly: boolean; onChange: (v: string) => void }) {
+function LengthSetting({
+  label,
+  value,
+  unit,
+  startMm,
+  readOnly,
+  onChange,
+}: {
+  label: string;
+  value: string;
+  unit: UnitSystem;
+  startMm: number;
+  readOnly: boolean;
+  onChange: (v: string) => void;
+}) {
   return (
     <label className="block">
       <span className="field-label">
@@ -37,7 +51,10 @@ function LengthSetting({ label, value, unit, startMm, readOnly, onChange }: { la
  * clear opening and the allowances, compares, and picks one; the pick is frozen with the sign-off.
  */
 export function PassThroughOptions({ design, unit, readOnly, onChange, result, missing }: Props) {
-  const set = <K extends keyof DesignFormState>(key: K) => (value: DesignFormState[K]) => onChange({ ...design, [key]: value });
+  const set =
+    <K extends keyof DesignFormState>(key: K) =>
+    (value: DesignFormState[K]) =>
+      onChange({ ...design, [key]: value });
   return (
     <section className="card space-y-3" aria-label="Pass-through design options">
       <h3 className="text-lg font-bold">Pass-through design options</h3>
@@ -47,19 +64,68 @@ export function PassThroughOptions({ design, unit, readOnly, onChange, result, m
       </p>
       <fieldset className="grid gap-3 sm:grid-cols-4" disabled={readOnly}>
         <legend className="sr-only">Clear opening and allowances</legend>
-        <LengthSetting label="Least clear width" value={design.minClearWidth} unit={unit} startMm={d.minClearWidthMm} readOnly={readOnly} onChange={set('minClearWidth')} />
-        <LengthSetting label="Least clear height" value={design.minClearHeight} unit={unit} startMm={d.minClearHeightMm} readOnly={readOnly} onChange={set('minClearHeight')} />
-        <LengthSetting label="Overlap margin" value={design.overlapMargin} unit={unit} startMm={d.overlapMarginMm} readOnly={readOnly} onChange={set('overlapMargin')} />
+        <LengthSetting
+          label="Least clear width"
+          value={design.minClearWidth}
+          unit={unit}
+          startMm={d.minClearWidthMm}
+          readOnly={readOnly}
+          onChange={set('minClearWidth')}
+        />
+        <LengthSetting
+          label="Least clear height"
+          value={design.minClearHeight}
+          unit={unit}
+          startMm={d.minClearHeightMm}
+          readOnly={readOnly}
+          onChange={set('minClearHeight')}
+        />
+        <LengthSetting
+          label="Overlap margin"
+          value={design.overlapMargin}
+          unit={unit}
+          startMm={d.overlapMarginMm}
+          readOnly={readOnly}
+          onChange={set('overlapMargin')}
+        />
         <label className="block">
           <span className="field-label">Boot slack (%)</span>
           <input className="input" inputMode="decimal" value={design.slackPct} readOnly={readOnly} onChange={(e) => set('slackPct')(e.target.value)} />
           <span className="text-sm">common practice: {d.slackPercent} %</span>
         </label>
-        <LengthSetting label="Seam allowance" value={design.seamAllowance} unit={unit} startMm={d.seamAllowanceMm} readOnly={readOnly} onChange={set('seamAllowance')} />
-        <LengthSetting label="Flange width" value={design.flangeWidth} unit={unit} startMm={d.flangeWidthMm} readOnly={readOnly} onChange={set('flangeWidth')} />
+        <LengthSetting
+          label="Seam allowance"
+          value={design.seamAllowance}
+          unit={unit}
+          startMm={d.seamAllowanceMm}
+          readOnly={readOnly}
+          onChange={set('seamAllowance')}
+        />
+        <LengthSetting
+          label="Flange width"
+          value={design.flangeWidth}
+          unit={unit}
+          startMm={d.flangeWidthMm}
+          readOnly={readOnly}
+          onChange={set('flangeWidth')}
+        />
         <LengthSetting label="Fold depth" value={design.foldDepth} unit={unit} startMm={d.foldDepthMm} readOnly={readOnly} onChange={set('foldDepth')} />
-        <LengthSetting label="Fabric tolerance ±" value={design.fabricTolerance} unit={unit} startMm={d.fabricToleranceMm} readOnly={readOnly} onChange={set('fabricTolerance')} />
-        <LengthSetting label="Frame tolerance ±" value={design.frameTolerance} unit={unit} startMm={d.frameToleranceMm} readOnly={readOnly} onChange={set('frameTolerance')} />
+        <LengthSetting
+          label="Fabric tolerance ±"
+          value={design.fabricTolerance}
+          unit={unit}
+          startMm={d.fabricToleranceMm}
+          readOnly={readOnly}
+          onChange={set('fabricTolerance')}
+        />
+        <LengthSetting
+          label="Frame tolerance ±"
+          value={design.frameTolerance}
+          unit={unit}
+          startMm={d.frameToleranceMm}
+          readOnly={readOnly}
+          onChange={set('frameTolerance')}
+        />
         <label className="block">
           <span className="field-label">Fastening</span>
           <select className="input" value={design.fastening} onChange={(e) => set('fastening')(e.target.value as Fastening)}>
@@ -101,7 +167,17 @@ export function PassThroughOptions({ design, unit, readOnly, onChange, result, m
 }
 
 /** The options side by side; with onPick, each column head is a choice. */
-export function OptionsTable({ result, unit, chosen, onPick }: { result: PassThroughResult; unit: UnitSystem; chosen: PassThroughOption | null; onPick?: (o: PassThroughOption) => void }) {
+export function OptionsTable({
+  result,
+  unit,
+  chosen,
+  onPick,
+}: {
+  result: PassThroughResult;
+  unit: UnitSystem;
+  chosen: PassThroughOption | null;
+  onPick?: (o: PassThroughOption) => void;
+}) {
   const rows = optionRows(result, unit);
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Pass-through options compared, scrollable">

@@ -12,7 +12,9 @@ function Thumb({ photo }: { photo: StoredPhoto }) {
   return (
     <figure className="w-28">
       <img src={url} alt={photo.caption || 'Pose photo'} className="h-24 w-28 rounded border-2 border-rule object-cover" />
-      <figcaption className="text-xs">{photo.status === 'pending' ? 'waiting to upload' : photo.status === 'failed' ? `refused: ${photo.error}` : 'on the server'}</figcaption>
+      <figcaption className="text-xs">
+        {photo.status === 'pending' ? 'waiting to upload' : photo.status === 'failed' ? `refused: ${photo.error}` : 'on the server'}
+      </figcaption>
     </figure>
   );
 }
@@ -33,13 +35,19 @@ export function PhotoCapture({ sessionId, poseId }: { sessionId: string; poseId:
           onChange={async (e) => {
             const files = [...(e.target.files ?? [])];
             e.target.value = '';
-            setProblems(await Promise.all(files.map(async (file) => addPhoto({ id: crypto.randomUUID(), sessionId, poseId, caption: '', file: await shrinkPhoto(file) }))));
+            setProblems(
+              await Promise.all(
+                files.map(async (file) => addPhoto({ id: crypto.randomUUID(), sessionId, poseId, caption: '', file: await shrinkPhoto(file) })),
+              ),
+            );
           }}
         />
       </label>
       <SaveProblems results={problems} />
       <div className="flex flex-wrap gap-2" data-testid="pose-photos">
-        {photos?.map((p) => <Thumb key={p.id} photo={p} />)}
+        {photos?.map((p) => (
+          <Thumb key={p.id} photo={p} />
+        ))}
       </div>
     </section>
   );

@@ -18,7 +18,14 @@ export interface PoseCheckResult {
 }
 
 /** Twist, RTI and a rough relative-motion fit of the pose as typed so far (shared/flex). */
-export function checkPose(vehicle: Vehicle, session: TestSession, points: GaugePoint[], pose: Pose, readings: Reading[], baseline: Reading[] | null): PoseCheckResult {
+export function checkPose(
+  vehicle: Vehicle,
+  session: TestSession,
+  points: GaugePoint[],
+  pose: Pose,
+  readings: Reading[],
+  baseline: Reading[] | null,
+): PoseCheckResult {
   const twistDeg = crossAxleTwistDeg({ fl: pose.liftFlMm, fr: pose.liftFrMm, rl: pose.liftRlMm, rr: pose.liftRrMm }, vehicle.trackFrontMm, vehicle.trackRearMm);
   const rti = pose.kind === 'ramp' && pose.rampDistanceMm != null ? roundRti(rampTravelIndex(pose.rampDistanceMm, vehicle.wheelbaseMm)) : null;
   const result: PoseCheckResult = { twistDeg, rti, fit: null, note: null, suspect: new Set() };
@@ -37,7 +44,11 @@ export function checkPose(vehicle: Vehicle, session: TestSession, points: GaugeP
       ).displacements;
       if (!values.length) return { ...result, note: 'No baseline reading at these points and axes yet.' };
     }
-    const fit = fitRelativeMotion(points.map((p) => ({ id: p.id, y: p.yMm, z: p.zMm })), values, outlineOf(vehicle.opening));
+    const fit = fitRelativeMotion(
+      points.map((p) => ({ id: p.id, y: p.yMm, z: p.zMm })),
+      values,
+      outlineOf(vehicle.opening),
+    );
     for (const o of fit.outliers) result.suspect.add(`${o.pointId}|${o.axis}`);
     return { ...result, fit };
   } catch (err) {
@@ -57,8 +68,8 @@ export function PoseCheck({ check, points, unit }: { check: PoseCheckResult; poi
       {fit && (
         <>
           <p>
-            Rough fit: lateral shift {formatLength(fit.motion.t.y, unit)}, vertical {formatLength(fit.motion.t.z, unit)}, fore-aft {formatLength(fit.motion.t.x, unit)}; roll{' '}
-            {((fit.motion.omega.x * 180) / Math.PI).toFixed(2)}°; residual RMS {formatLength(fit.residualRms, unit)}.
+            Rough fit: lateral shift {formatLength(fit.motion.t.y, unit)}, vertical {formatLength(fit.motion.t.z, unit)}, fore-aft{' '}
+            {formatLength(fit.motion.t.x, unit)}; roll {((fit.motion.omega.x * 180) / Math.PI).toFixed(2)}°; residual RMS {formatLength(fit.residualRms, unit)}.
           </p>
           {[fit.inPlane.reason, fit.outOfPlane.reason].filter(Boolean).map((r) => (
             <p key={r} className="text-sm">
@@ -69,12 +80,14 @@ export function PoseCheck({ check, points, unit }: { check: PoseCheckResult; poi
             .filter((part) => fit[part].misfit)
             .map((part) => (
               <p key={part} role="alert" className="rounded bg-signal/25 p-2 font-bold">
-                The {part === 'outOfPlane' ? 'fore-aft' : 'lateral and vertical'} readings do not agree with one another, and there are too few of them to tell which one is off. Re-read them if you can.
+                The {part === 'outOfPlane' ? 'fore-aft' : 'lateral and vertical'} readings do not agree with one another, and there are too few of them to tell
+                which one is off. Re-read them if you can.
               </p>
             ))}
           {fit.outliers.map((o) => (
             <p key={`${o.pointId}${o.axis}`} role="alert" className="rounded bg-signal/25 p-2 font-bold">
-              Check {label(o.pointId)} {axisName[o.axis]}: it looks inconsistent with the other readings ({formatLength(o.residual, unit)} off the fit). Re-read it if you can.
+              Check {label(o.pointId)} {axisName[o.axis]}: it looks inconsistent with the other readings ({formatLength(o.residual, unit)} off the fit). Re-read
+              it if you can.
             </p>
           ))}
         </>

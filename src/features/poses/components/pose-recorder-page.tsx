@@ -93,7 +93,11 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
   const remove = async () => {
     const result = await deletePose(pose.id);
     if (!result.ok) return report(result);
-    const deleted: DeletedPose = { id: pose.id, label: pose.label || `Pose ${pose.seq}`, wasBaseline: pose.kind === 'level' && !poses.some((p) => p.kind === 'level' && p.seq < pose.seq) };
+    const deleted: DeletedPose = {
+      id: pose.id,
+      label: pose.label || `Pose ${pose.seq}`,
+      wasBaseline: pose.kind === 'level' && !poses.some((p) => p.kind === 'level' && p.seq < pose.seq),
+    };
     navigate(pathTo('fieldSession', { id: session.id }), { state: { deleted } });
   };
 
@@ -149,7 +153,13 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
             <legend className="field-label">Which wheel is on the ramp?</legend>
             <div className="grid grid-cols-2 gap-2">
               {wheels.map((w) => (
-                <button key={w} type="button" aria-pressed={rampWheel === w} className={rampWheel === w ? 'btn-primary' : 'btn'} onClick={() => setRamp({ rampWheel: w })}>
+                <button
+                  key={w}
+                  type="button"
+                  aria-pressed={rampWheel === w}
+                  className={rampWheel === w ? 'btn-primary' : 'btn'}
+                  onClick={() => setRamp({ rampWheel: w })}
+                >
                   {WHEEL_NAMES[w][0].toUpperCase() + WHEEL_NAMES[w].slice(1)}
                 </button>
               ))}
@@ -157,7 +167,13 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
           </fieldset>
           <div className="grid grid-cols-2 gap-3">
             <AngleInput label="Ramp angle" valueDeg={pose.rampAngleDeg} onChange={(deg) => setRamp({ rampAngleDeg: deg })} />
-            <LengthInput label="Distance up the ramp" unit={unit} valueMm={pose.rampDistanceMm} limits={RAMP_LIMITS} onChange={(mm) => mm != null && setRamp({ rampDistanceMm: mm })} />
+            <LengthInput
+              label="Distance up the ramp"
+              unit={unit}
+              valueMm={pose.rampDistanceMm}
+              limits={RAMP_LIMITS}
+              onChange={(mm) => mm != null && setRamp({ rampDistanceMm: mm })}
+            />
           </div>
           <p data-testid="ramp-lift" role="status">
             {rampWheel
@@ -181,7 +197,10 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
           <div key={w} ref={(el) => void (liftInputs.current[w] = el)} className={wheel === w ? 'rounded-lg ring-4 ring-signal' : ''}>
             {w === rampWheel ? (
               <p className="text-sm font-bold">
-                Lift {WHEEL_NAMES[w]} ({unit})<span className="mt-1 block min-h-touch rounded-lg border-2 border-rule bg-paper px-3 py-2 text-2xl font-normal tabular-nums">{showLength(pose[liftKeyOf[w]], unit)}</span>
+                Lift {WHEEL_NAMES[w]} ({unit})
+                <span className="mt-1 block min-h-touch rounded-lg border-2 border-rule bg-paper px-3 py-2 text-2xl font-normal tabular-nums">
+                  {showLength(pose[liftKeyOf[w]], unit)}
+                </span>
                 <span className="font-normal">on the ramp</span>
               </p>
             ) : (
@@ -203,7 +222,11 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
       <h2 className="text-xl font-bold">Readings ({session.readingMode === 'gap' ? 'gaps' : 'displacements'})</h2>
       {gaugePoints.length === 0 && (
         <p>
-          This vehicle has no gauge points yet. <Link className="underline" to={pathTo('vehicle', { id: vehicle.id })}>Place them</Link>.
+          This vehicle has no gauge points yet.{' '}
+          <Link className="underline" to={pathTo('vehicle', { id: vehicle.id })}>
+            Place them
+          </Link>
+          .
         </p>
       )}
       <div className="space-y-3">
@@ -230,7 +253,13 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         <label htmlFor="pose-notes" className="field-label">
           Notes
         </label>
-        <textarea id="pose-notes" data-entry="" className="input min-h-24 py-2" defaultValue={pose.notes} onChange={(e) => void patch({ notes: e.target.value })} />
+        <textarea
+          id="pose-notes"
+          data-entry=""
+          className="input min-h-24 py-2"
+          defaultValue={pose.notes}
+          onChange={(e) => void patch({ notes: e.target.value })}
+        />
       </div>
       <PhotoCapture sessionId={session.id} poseId={pose.id} />
       <SaveProblems results={problems} />

@@ -23,17 +23,39 @@ export function TruckTopView(props: { lifts: Record<Wheel, number>; selected: Wh
         </pattern>
       </defs>
       <rect x="50" y="20" width="100" height="70" rx="10" fill="#1f5566" />
-      <text x="100" y="60" textAnchor="middle" fill="#f4f1e8" fontSize="14">cab</text>
+      <text x="100" y="60" textAnchor="middle" fill="#f4f1e8" fontSize="14">
+        cab
+      </text>
       <rect x="45" y="100" width="110" height="200" rx="6" fill="#c9c3b3" stroke="#0d1b1e" strokeWidth="2" />
-      <text x="100" y="205" textAnchor="middle" fontSize="14">body</text>
+      <text x="100" y="205" textAnchor="middle" fontSize="14">
+        body
+      </text>
       {wheels.map(({ w, x, y }) => {
         const lift = props.lifts[w];
         const fill = lift > 0 ? '#f2a13a' : lift < 0 ? 'url(#dip)' : '#ffffff';
         const shown = lift === 0 ? '0' : toDisplay(lift, props.unit).toFixed(props.unit === 'in' ? 1 : 0);
         return (
           // The name starts with the number drawn beside the wheel, so speech input can say it too.
-          <g key={w} role="button" tabIndex={0} aria-label={`${shown} ${props.unit} lift, wheel ${WHEEL_NAMES[w]}`} aria-pressed={props.selected === w} onClick={() => props.onSelect(w)} onKeyDown={(e) => (e.key === 'Enter' || e.key === ' ') && props.onSelect(w)} className="cursor-pointer">
-            <rect x={x} y={y} width="22" height="50" rx="5" fill={fill} stroke={props.selected === w ? '#b3261e' : '#0d1b1e'} strokeWidth={props.selected === w ? 5 : 2} />
+          <g
+            key={w}
+            role="button"
+            tabIndex={0}
+            aria-label={`${shown} ${props.unit} lift, wheel ${WHEEL_NAMES[w]}`}
+            aria-pressed={props.selected === w}
+            onClick={() => props.onSelect(w)}
+            onKeyDown={(e) => (e.key === 'Enter' || e.key === ' ') && props.onSelect(w)}
+            className="cursor-pointer"
+          >
+            <rect
+              x={x}
+              y={y}
+              width="22"
+              height="50"
+              rx="5"
+              fill={fill}
+              stroke={props.selected === w ? '#b3261e' : '#0d1b1e'}
+              strokeWidth={props.selected === w ? 5 : 2}
+            />
             {/* A generous invisible target for gloved thumbs. */}
             <rect x={x - 15} y={y - 15} width="52" height="80" fill="transparent" />
             <text x={x + 11} y={y + 68} textAnchor="middle" fontSize="12" fontWeight="bold">

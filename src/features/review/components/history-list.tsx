@@ -24,7 +24,10 @@ function paramChanges(before: Record<string, unknown>, after: Record<string, unk
     if (JSON.stringify(b) === JSON.stringify(a)) continue;
     const words = PARAM_WORDS[key];
     if (words) out.push(`${words.name}: ${b === undefined ? '—' : words.show(b, unit)} → ${a === undefined ? '—' : words.show(a, unit)}`);
-    else if (key === 'seal') out.push(`seal: ${b ? 'checked' : 'none'} → ${a ? 'checked' : 'none'}${a ? ` (free height ${formatLength((a as { freeHeightMm: number }).freeHeightMm, unit)})` : ''}`);
+    else if (key === 'seal')
+      out.push(
+        `seal: ${b ? 'checked' : 'none'} → ${a ? 'checked' : 'none'}${a ? ` (free height ${formatLength((a as { freeHeightMm: number }).freeHeightMm, unit)})` : ''}`,
+      );
     else if (key === 'design') {
       const d = [b, a].map((x) => (x ?? {}) as Record<string, unknown>);
       const changed = Object.keys({ ...d[0], ...d[1] }).filter((k) => JSON.stringify(d[0][k]) !== JSON.stringify(d[1][k]));
@@ -61,8 +64,7 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
     }
   } else if (event.action === 'field.sync') {
     const words: Record<string, string> = { testSession: 'session', pose: 'pose', reading: 'reading', gaugePoint: 'gauge point', vehicle: 'vehicle' };
-    const count = (m: unknown, verb: string) =>
-      Object.entries((m ?? {}) as Record<string, number>).map(([k, n]) => `${plural(n, words[k] ?? k)} ${verb}`);
+    const count = (m: unknown, verb: string) => Object.entries((m ?? {}) as Record<string, number>).map(([k, n]) => `${plural(n, words[k] ?? k)} ${verb}`);
     parts.push(...count(d.added, 'added'), ...count(d.changed, 'changed'));
     if (Number(d.conflicts) > 0) parts.push(`${plural(Number(d.conflicts), 'record')} kept as ${Number(d.conflicts) === 1 ? 'a conflict' : 'conflicts'}`);
   } else if (event.action === 'envelope.params') {

@@ -39,7 +39,9 @@ export function SessionConditions({ session }: { session: TestSession }) {
 
 /** The wheels of a pose in words: each lift, and for a ramp which wheel is on it, how far and the RTI. */
 export function poseWheelsText(pose: Pose, wheelbaseMm: number, unit: UnitSystem): string {
-  const lifts = LIFT_KEYS.filter(([, key]) => pose[key] !== 0).map(([wheel, key]) => `${WHEEL_NAMES[wheel]} ${pose[key] > 0 ? 'up' : 'down'} ${formatLength(Math.abs(pose[key]), unit)}`);
+  const lifts = LIFT_KEYS.filter(([, key]) => pose[key] !== 0).map(
+    ([wheel, key]) => `${WHEEL_NAMES[wheel]} ${pose[key] > 0 ? 'up' : 'down'} ${formatLength(Math.abs(pose[key]), unit)}`,
+  );
   const wheels = lifts.length === 0 ? 'all wheels level' : lifts.join(', ');
   if (pose.kind !== 'ramp' || pose.rampAngleDeg == null || pose.rampDistanceMm == null) return wheels;
   const on = pose.rampWheel ? `${WHEEL_NAMES[pose.rampWheel]} on the ramp` : 'wheel on the ramp not recorded';
@@ -70,7 +72,12 @@ export function PoseContext({ pose, photos, wheelbaseMm, unit }: { pose: Pose; p
         <ul className="flex flex-wrap gap-2" aria-label={`Photos of ${name}`}>
           {photos.map((p, i) => (
             <li key={p.id}>
-              <button type="button" className="block rounded border border-rule" onClick={() => show(p)} aria-label={`Open photo ${i + 1} of ${name} full size${p.caption ? `: ${p.caption}` : ''}`}>
+              <button
+                type="button"
+                className="block rounded border border-rule"
+                onClick={() => show(p)}
+                aria-label={`Open photo ${i + 1} of ${name} full size${p.caption ? `: ${p.caption}` : ''}`}
+              >
                 <img
                   src={`/api/photos/${p.id}/thumb`}
                   alt={p.caption || `Photo ${i + 1} of ${name}`}

@@ -32,8 +32,15 @@ export function ReadingEditor({ review, readingId, flag, unit, onClose }: Props)
     const typed = Number(value.replace(',', '.'));
     if (value.trim() === '' || !Number.isFinite(typed)) return setProblem(`Value: "${value}" is not a number`);
     const valueMm = value === formatLengthValue(reading.valueMm, unit) ? reading.valueMm : fromDisplay(typed, unit);
-    const parsed = readingReviewInput.safeParse({ version: reading.version, excluded, excludeReason: excluded ? reason : null, flagNote: flagNote || null, valueMm });
-    if (!parsed.success) return setProblem(parsed.error.issues.map((i) => `${i.path.join('.') === 'excludeReason' ? 'Reason' : i.path.join('.')}: ${i.message}`).join('; '));
+    const parsed = readingReviewInput.safeParse({
+      version: reading.version,
+      excluded,
+      excludeReason: excluded ? reason : null,
+      flagNote: flagNote || null,
+      valueMm,
+    });
+    if (!parsed.success)
+      return setProblem(parsed.error.issues.map((i) => `${i.path.join('.') === 'excludeReason' ? 'Reason' : i.path.join('.')}: ${i.message}`).join('; '));
     setProblem(null);
     mutation.mutate({ readingId, input: parsed.data }, { onSuccess: onClose });
   };

@@ -31,12 +31,20 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect, edito
         </caption>
         <thead>
           <tr>
-            <th scope="col" className="border border-rule p-2 text-left">Pose</th>
-            <th scope="col" className="border border-rule p-2 text-left">Point</th>
+            <th scope="col" className="border border-rule p-2 text-left">
+              Pose
+            </th>
+            <th scope="col" className="border border-rule p-2 text-left">
+              Point
+            </th>
             {AXES.map((a) => (
-              <th key={a} scope="col" className="border border-rule p-2">{AXIS_NAMES[a]}</th>
+              <th key={a} scope="col" className="border border-rule p-2">
+                {AXIS_NAMES[a]}
+              </th>
             ))}
-            <th scope="col" className="border border-rule p-2 text-left">Entered by</th>
+            <th scope="col" className="border border-rule p-2 text-left">
+              Entered by
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -52,26 +60,50 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect, edito
               const who = [...new Set(cells.flatMap((c) => (c ? [review.people[c.enteredBy] ?? '?'] : [])))].join(', ');
               const row = (
                 <tr key={`${pose.id}-${point.id}`}>
-                  <th scope="row" className="border border-rule p-2 text-left font-normal">{pi === 0 ? <b>{pose.label || `Pose ${pose.seq}`}</b> : <span className="sr-only">{pose.label}</span>}</th>
+                  <th scope="row" className="border border-rule p-2 text-left font-normal">
+                    {pi === 0 ? <b>{pose.label || `Pose ${pose.seq}`}</b> : <span className="sr-only">{pose.label}</span>}
+                  </th>
                   <td className="border border-rule p-2 text-left font-bold">{point.label}</td>
                   {cells.map((r, ai) => {
-                    if (!r) return <td key={ai} className="border border-rule p-2">—</td>;
+                    if (!r)
+                      return (
+                        <td key={ai} className="border border-rule p-2">
+                          —
+                        </td>
+                      );
                     const flag = flags.get(r.id);
                     const label = `${pose.label} ${point.label} ${AXIS_NAMES[AXES[ai]]}`;
                     const flagWords = flag ? (flag.kind === 'outlier' ? 'far from the fit' : 'in a set of readings that do not fit together') : '';
                     return (
-                      <td key={ai} className={`border border-rule p-0 ${selectedId === r.id ? 'outline outline-3 outline-signal' : ''} ${flag ? 'bg-signal/25' : ''}`}>
+                      <td
+                        key={ai}
+                        className={`border border-rule p-0 ${selectedId === r.id ? 'outline outline-3 outline-signal' : ''} ${flag ? 'bg-signal/25' : ''}`}
+                      >
                         <button
                           type="button"
                           className="block min-h-touch w-full px-2 text-right tabular-nums"
                           aria-label={`Reading ${label}: ${formatLengthValue(r.valueMm, unit)}${flag ? `, ${flagWords}` : ''}${r.flagNote ? ', has a note' : ''}${r.excluded ? ', excluded' : ''}`}
                           disabled={!onSelect}
                           onClick={() => onSelect?.(r.id)}
-                          title={[flag && `${flagWords} (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`, r.flagNote, r.excluded && `excluded: ${r.excludeReason}`].filter(Boolean).join(' · ')}
+                          title={[
+                            flag && `${flagWords} (residual ${formatLengthValue(flag.residualMm, unit)} ${unit})`,
+                            r.flagNote,
+                            r.excluded && `excluded: ${r.excludeReason}`,
+                          ]
+                            .filter(Boolean)
+                            .join(' · ')}
                         >
                           <span className={r.excluded ? 'text-slate line-through' : ''}>{formatLengthValue(r.valueMm, unit)}</span>
-                          {flag && <span className="ml-1 text-signal-dark" aria-hidden="true">⚑</span>}
-                          {r.flagNote && <span className="ml-1" aria-hidden="true">✎</span>}
+                          {flag && (
+                            <span className="ml-1 text-signal-dark" aria-hidden="true">
+                              ⚑
+                            </span>
+                          )}
+                          {r.flagNote && (
+                            <span className="ml-1" aria-hidden="true">
+                              ✎
+                            </span>
+                          )}
                         </button>
                       </td>
                     );

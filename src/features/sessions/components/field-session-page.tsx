@@ -68,7 +68,11 @@ export function FieldSessionPage() {
             {hasReadings ? ': fixed once readings are taken, since every reading depends on it.' : '.'}
           </p>
           {!hasReadings && (
-            <button type="button" className="btn" onClick={() => void patchRecord('testSession', session.id, { readingMode: session.readingMode === 'gap' ? 'displacement' : 'gap' }).then(report)}>
+            <button
+              type="button"
+              className="btn"
+              onClick={() => void patchRecord('testSession', session.id, { readingMode: session.readingMode === 'gap' ? 'displacement' : 'gap' }).then(report)}
+            >
               Enter readings as {session.readingMode === 'gap' ? 'displacements' : 'raw gaps'} instead
             </button>
           )}
@@ -87,7 +91,11 @@ export function FieldSessionPage() {
           </button>
         </div>
       )}
-      {data.corrupt.length > 0 && <p role="alert" className="text-alert">Some stored records could not be read: {data.corrupt[0].message}</p>}
+      {data.corrupt.length > 0 && (
+        <p role="alert" className="text-alert">
+          Some stored records could not be read: {data.corrupt[0].message}
+        </p>
+      )}
       {deleted && (
         <div role="status" className="flex flex-wrap items-center gap-2 rounded-lg border-2 border-signal-dark bg-signal/15 p-3">
           <p className="mr-auto font-bold">
@@ -102,7 +110,12 @@ export function FieldSessionPage() {
       {!session.safetyAckAt ? (
         <div className="space-y-2">
           <SafetyChecklist onLeftChange={(left) => setSafe(left === 0)} />
-          <button type="button" className="btn-primary w-full" disabled={!safe} onClick={() => void patchRecord('testSession', session.id, { safetyAckAt: new Date().toISOString() }).then(report)}>
+          <button
+            type="button"
+            className="btn-primary w-full"
+            disabled={!safe}
+            onClick={() => void patchRecord('testSession', session.id, { safetyAckAt: new Date().toISOString() }).then(report)}
+          >
             Checklist done
           </button>
         </div>

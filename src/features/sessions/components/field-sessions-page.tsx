@@ -34,7 +34,11 @@ export function FieldSessionsPage() {
         </Link>
       </div>
       {!data && <p role="status">Loading…</p>}
-      {data?.corrupt.length ? <p role="alert" className="text-alert">{plural(data.corrupt.length, 'stored session')} could not be read: {data.corrupt[0].message}</p> : null}
+      {data?.corrupt.length ? (
+        <p role="alert" className="text-alert">
+          {plural(data.corrupt.length, 'stored session')} could not be read: {data.corrupt[0].message}
+        </p>
+      ) : null}
       {data?.sessions.length === 0 && <p>No sessions on this phone yet.</p>}
       {data && data.sessions.length > 0 && !current && (
         <p className="text-sm" data-testid="signed-state-note">

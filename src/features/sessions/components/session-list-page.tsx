@@ -21,7 +21,9 @@ export function SessionListPage() {
                     <span className="text-lg font-bold">{s.vehicleName}</span>
                     <span>
                       {s.testedOn} · {s.title || 'Flex test'}
-                      {s.signed && <span className="ml-2 rounded bg-good-light px-1 text-sm font-bold text-good">signed off, revision {s.signed.revision}</span>}
+                      {s.signed && (
+                        <span className="ml-2 rounded bg-good-light px-1 text-sm font-bold text-good">signed off, revision {s.signed.revision}</span>
+                      )}
                     </span>
                   </Link>
                 </li>

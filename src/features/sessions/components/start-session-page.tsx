@@ -21,7 +21,17 @@ type Draft = SessionDetails & Pick<TestSession, 'vehicleId' | 'readingMode'>;
 export function StartSessionPage() {
   const vehicles = useLocalVehicles();
   const navigate = useNavigate();
-  const [form, setForm] = useState<Draft>(() => ({ vehicleId: '', title: '', testedOn: localToday(), conditions: '', loadState: '', tyrePressures: '', crew: '', notes: '', readingMode: 'gap' }));
+  const [form, setForm] = useState<Draft>(() => ({
+    vehicleId: '',
+    title: '',
+    testedOn: localToday(),
+    conditions: '',
+    loadState: '',
+    tyrePressures: '',
+    crew: '',
+    notes: '',
+    readingMode: 'gap',
+  }));
   const [left, setLeft] = useState<number>(SAFETY_ITEMS.length);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   // Always build on the latest draft: a handler from an earlier render must not put back a field
@@ -34,12 +44,18 @@ export function StartSessionPage() {
   if (vehicles.vehicles.length === 0) {
     return (
       <p>
-        No vehicle on this phone yet. <Link to={pathTo('vehicle', { id: 'new' })} className="font-bold underline">Set one up</Link> first (or sync while online).
+        No vehicle on this phone yet.{' '}
+        <Link to={pathTo('vehicle', { id: 'new' })} className="font-bold underline">
+          Set one up
+        </Link>{' '}
+        first (or sync while online).
       </p>
     );
   }
   const chosenGone = form.vehicleId !== '' && !vehicles.vehicles.some((v) => v.id === form.vehicleId);
-  const missing = [form.vehicleId === '' || chosenGone ? 'Choose the vehicle' : null, left > 0 ? safetyItemsLeft(left) : null].filter((m): m is string => m !== null);
+  const missing = [form.vehicleId === '' || chosenGone ? 'Choose the vehicle' : null, left > 0 ? safetyItemsLeft(left) : null].filter(
+    (m): m is string => m !== null,
+  );
 
   const start = async () => {
     if (missing.length) return;
@@ -73,7 +89,11 @@ export function StartSessionPage() {
             </option>
           ))}
         </select>
-        {chosenGone && <p role="alert" className="font-bold text-alert">The vehicle chosen is no longer on this phone: choose again.</p>}
+        {chosenGone && (
+          <p role="alert" className="font-bold text-alert">
+            The vehicle chosen is no longer on this phone: choose again.
+          </p>
+        )}
       </div>
       <SessionFields value={form} onChange={update} />
       <fieldset>

@@ -38,15 +38,27 @@ export function StoreGuard({ children }: { children: ReactNode }) {
     return stopSyncEngine;
   }, [claim]);
 
-  if (error) return <p role="alert" className="m-4 rounded-lg bg-alert-light p-3 text-alert">{error}</p>;
-  if (!owner || !claim) return <p className="p-6" role="status">Opening this phone's records…</p>;
+  if (error)
+    return (
+      <p role="alert" className="m-4 rounded-lg bg-alert-light p-3 text-alert">
+        {error}
+      </p>
+    );
+  if (!owner || !claim)
+    return (
+      <p className="p-6" role="status">
+        Opening this phone's records…
+      </p>
+    );
   if (claim.kind === 'own') return <>{children}</>;
   return (
     <section className="mx-auto max-w-xl space-y-4 p-4" aria-labelledby="foreign-store">
-      <h1 id="foreign-store" className="text-2xl font-bold">Unsent records of another account</h1>
+      <h1 id="foreign-store" className="text-2xl font-bold">
+        Unsent records of another account
+      </h1>
       <p>
-        This phone holds {claim.waiting} record{claim.waiting > 1 ? 's' : ''} or photo{claim.waiting > 1 ? 's' : ''} that{' '}
-        <strong>{claim.owner.email}</strong> recorded and has not sent yet. They can only go to that account's workshop.
+        This phone holds {claim.waiting} record{claim.waiting > 1 ? 's' : ''} or photo{claim.waiting > 1 ? 's' : ''} that <strong>{claim.owner.email}</strong>{' '}
+        recorded and has not sent yet. They can only go to that account's workshop.
       </p>
       <p>Sign out and let that person sign in on this phone to send them, or discard them for good.</p>
       <div className="flex flex-wrap gap-2">

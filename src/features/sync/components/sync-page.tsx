@@ -59,15 +59,23 @@ export function SyncPage() {
       ) : (
         <>
           <p>
-            The server refused these records, so they stay on this phone. Change what it names on the record's page and they go with the next sync, or
-            try again now.
+            The server refused these records, so they stay on this phone. Change what it names on the record's page and they go with the next sync, or try again
+            now.
           </p>
           <ul className="space-y-2">
             {held.map((u) => {
               const href = look && pageOf(u.entity, u.record, look);
               return (
                 <li key={`${u.entity}:${u.record.id}`} className="card space-y-1">
-                  <p className="font-bold">{href ? <Link to={href} className="underline">{describe(u)}</Link> : describe(u)}</p>
+                  <p className="font-bold">
+                    {href ? (
+                      <Link to={href} className="underline">
+                        {describe(u)}
+                      </Link>
+                    ) : (
+                      describe(u)
+                    )}
+                  </p>
                   {look && <p>{valuesLine(u.entity, u.record, look, unit)}</p>}
                   <p className="text-alert">Refused: {u.problem}</p>
                 </li>
@@ -98,7 +106,11 @@ export function SyncPage() {
 
       <h2 className="text-xl font-bold">Conflicts</h2>
       {conflicts?.length === 0 && <p>No conflicts.</p>}
-      {resolve.isError && <p role="alert" className="font-bold text-alert">Could not resolve: {resolve.error.message}</p>}
+      {resolve.isError && (
+        <p role="alert" className="font-bold text-alert">
+          Could not resolve: {resolve.error.message}
+        </p>
+      )}
       {look &&
         conflicts?.map((c) => (
           <article key={c.id} className="card space-y-2">

@@ -33,7 +33,13 @@ export function SyncStatusBar() {
   return (
     <section aria-label="Sync state" className="border-b-2 border-rule bg-white">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-3 px-3 text-sm">
-        <button type="button" className="flex min-h-touch min-w-0 flex-1 items-center gap-2 text-left" aria-expanded={open} aria-controls="sync-details" onClick={() => setOpen(!open)}>
+        <button
+          type="button"
+          className="flex min-h-touch min-w-0 flex-1 items-center gap-2 text-left"
+          aria-expanded={open}
+          aria-controls="sync-details"
+          onClick={() => setOpen(!open)}
+        >
           <span className="sr-only">Sync details:</span>
           <span className={`shrink-0 font-bold ${engine.online ? 'text-good' : 'text-alert'}`}>{engine.online ? 'Online' : 'Offline'}</span>
           <span data-testid="sync-pending" className={`min-w-0 truncate font-bold ${summary.allSaved ? 'text-good' : ''}`}>
@@ -73,7 +79,9 @@ export function SyncStatusBar() {
       {open && (
         <div id="sync-details" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-1 px-3 pb-2 text-sm">
           <span>Last sync: {ago(lastSyncAt)}</span>
-          <span>Storage: {persisted === true ? 'kept by the browser' : persisted === false ? 'may be cleared when space runs low — sync often' : 'checking…'}</span>
+          <span>
+            Storage: {persisted === true ? 'kept by the browser' : persisted === false ? 'may be cleared when space runs low — sync often' : 'checking…'}
+          </span>
           {lastError && lastError.fields.length > 0 && (
             <ul className="w-full list-disc pl-5 text-alert">
               {lastError.fields.slice(0, 5).map((f) => (

@@ -24,7 +24,10 @@ export function UpdatePrompt() {
     <>
       {/* Room at the end of the page, so the note never hides the last button under it. */}
       <div aria-hidden className="h-32" />
-      <div role="status" className="fixed inset-x-2 bottom-2 z-50 mx-auto flex max-w-xl flex-wrap items-center gap-2 rounded-xl border-2 border-slate bg-paper p-3 shadow-lg">
+      <div
+        role="status"
+        className="fixed inset-x-2 bottom-2 z-50 mx-auto flex max-w-xl flex-wrap items-center gap-2 rounded-xl border-2 border-slate bg-paper p-3 shadow-lg"
+      >
         {needRefresh ? (
           <>
             <span className="font-bold">A new version of Twistlog is ready.</span>

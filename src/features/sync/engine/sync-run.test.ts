@@ -29,7 +29,17 @@ const session = (over: Record<string, unknown> = {}) => ({
 });
 const reading = (poseId: string, valueMm: number) => newReading({ poseId, gaugePointId: uuid(), axis: 'lateral', valueMm });
 
-const emptyPull = (cursor: number): PullResponse => ({ cursor, hasMore: false, vehicles: [], gaugePoints: [], testSessions: [], poses: [], readings: [], photos: [], conflicts: [] });
+const emptyPull = (cursor: number): PullResponse => ({
+  cursor,
+  hasMore: false,
+  vehicles: [],
+  gaugePoints: [],
+  testSessions: [],
+  poses: [],
+  readings: [],
+  photos: [],
+  conflicts: [],
+});
 
 /** A scripted server: records what it receives; each push answer can be replaced per call. */
 function fakeServer(answer: (req: PushRequest, call: number) => PushResponse | Promise<PushResponse>) {
@@ -173,7 +183,10 @@ describe('sync run', () => {
     expect(await db.batches.count()).toBe(0);
     const [entry] = await db.outbox.where('batchKey').equals('').toArray();
     expect(entry.held?.fields[0].field).toBe('body.changes.0.record.vehicleId');
-    expect(await getMeta('lastError', db)).toMatchObject({ message: 'the server refused a record: held back on this phone until changed (see Sync)', fields: [] });
+    expect(await getMeta('lastError', db)).toMatchObject({
+      message: 'the server refused a record: held back on this phone until changed (see Sync)',
+      fields: [],
+    });
   });
 
   it('pull keeps a local edit still waiting and takes the rest from the server', async () => {
@@ -184,7 +197,13 @@ describe('sync run', () => {
       push: async () => {
         throw new ApiError(0, 'network', 'offline');
       },
-      pull: async () => ({ ...emptyPull(40), testSessions: [{ ...mine, title: 'Server copy', changeSeq: 39 }, { ...other, changeSeq: 40 }] }),
+      pull: async () => ({
+        ...emptyPull(40),
+        testSessions: [
+          { ...mine, title: 'Server copy', changeSeq: 39 },
+          { ...other, changeSeq: 40 },
+        ],
+      }),
       uploadPhoto: async () => {},
     };
     const { pullAll } = await import('./sync-run');
@@ -204,7 +223,8 @@ describe('sync run', () => {
       push: async (req) => acceptAll(req),
       pull: async () => emptyPull(1),
       async uploadPhoto(form) {
-        if (form.get('id') === refused) throw new ApiError(400, 'invalid', 'photo: not a JPEG, PNG or WebP image', [{ field: 'photo', message: 'unsupported' }]);
+        if (form.get('id') === refused)
+          throw new ApiError(400, 'invalid', 'photo: not a JPEG, PNG or WebP image', [{ field: 'photo', message: 'unsupported' }]);
       },
     };
     expect((await runSync(db, transport)).ok).toBe(true);

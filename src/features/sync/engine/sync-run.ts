@@ -29,7 +29,12 @@ export interface RunOptions {
  * the pull go on, which is safe because a pull never overwrites a record still in the outbox.
  * Only an unreachable server ends the run early.
  */
-export async function runSync(db: FieldDb, transport: SyncTransport, onProgress: (p: Progress | null) => void = () => {}, opts: RunOptions = {}): Promise<RunResult> {
+export async function runSync(
+  db: FieldDb,
+  transport: SyncTransport,
+  onProgress: (p: Progress | null) => void = () => {},
+  opts: RunOptions = {},
+): Promise<RunResult> {
   try {
     if (opts.force) await releaseHolds(db);
     const pushed = await pushAll(db, transport);
@@ -68,7 +73,11 @@ function namedRecords(batch: PendingBatch, error: ApiError) {
 
 /** A batch waiting before its next try, said in the tester's words (the server's own message in brackets). */
 const backingOff = (batch: PendingBatch) =>
-  new ApiError(0, 'backing_off', `the server could not take ${batch.changes.length === 1 ? 'a record' : `${batch.changes.length} records`} and wrote nothing (${batch.lastError ?? 'no reason given'}); trying again shortly`);
+  new ApiError(
+    0,
+    'backing_off',
+    `the server could not take ${batch.changes.length === 1 ? 'a record' : `${batch.changes.length} records`} and wrote nothing (${batch.lastError ?? 'no reason given'}); trying again shortly`,
+  );
 
 export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<RunResult> {
   let refused: ApiError | null = null;
@@ -94,7 +103,11 @@ export async function pushAll(db: FieldDb, transport: SyncTransport): Promise<Ru
       if (named.size) {
         await holdRecords(batch.key, named, db);
         held += named.size;
-        refused = new ApiError(400, 'held', `the server refused ${held === 1 ? 'a record' : `${held} records`}: held back on this phone until changed (see Sync)`);
+        refused = new ApiError(
+          400,
+          'held',
+          `the server refused ${held === 1 ? 'a record' : `${held} records`}: held back on this phone until changed (see Sync)`,
+        );
         continue;
       }
       const next = await noteBatchFailure(batch.key, error, db);

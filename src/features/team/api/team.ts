@@ -27,5 +27,4 @@ export const useRevokeInvitation = () => useTeamMutation((id: string) => api<{ o
 export const useChangeRole = () =>
   useTeamMutation(({ userId, role }: { userId: string; role: Role }) => api<Member>(`/api/team/members/${userId}`, { method: 'PATCH', body: { role } }));
 export const useRemoveMember = () => useTeamMutation((userId: string) => api<{ ok: true }>(`/api/team/members/${userId}`, { method: 'DELETE' }));
-export const useUpdateTeamSettings = () =>
-  useTeamMutation((input: TeamSettingsInput) => api<TeamDetail>('/api/team', { method: 'PATCH', body: input }));
+export const useUpdateTeamSettings = () => useTeamMutation((input: TeamSettingsInput) => api<TeamDetail>('/api/team', { method: 'PATCH', body: input }));

@@ -21,7 +21,9 @@ export function TeamPage() {
       <h1 className="text-2xl font-bold">Team{team.data ? ` · ${team.data.team.name}` : ''}</h1>
       {manage && <InviteSection />}
       <section aria-labelledby="members">
-        <h2 id="members" className="mb-2 text-xl font-bold">Members</h2>
+        <h2 id="members" className="mb-2 text-xl font-bold">
+          Members
+        </h2>
         <QueryState query={team}>
           {(t) => (
             <ul className="space-y-2">
@@ -36,7 +38,9 @@ export function TeamPage() {
       {manage && team.data && <WorkshopUnitsSetting value={team.data.team.unitSystem} />}
       {manage && team.data && <PhotoLocationSetting value={team.data.team.photoGps} />}
       <section aria-labelledby="roles" className="card">
-        <h2 id="roles" className="mb-2 text-lg font-bold">Roles</h2>
+        <h2 id="roles" className="mb-2 text-lg font-bold">
+          Roles
+        </h2>
         <dl className="space-y-1">
           {roles.map((r) => (
             <div key={r}>
@@ -53,10 +57,14 @@ export function TeamPage() {
 function RoleSelect({ id, value, onChange, disabled, label }: { id: string; value: Role; onChange: (r: Role) => void; disabled?: boolean; label: string }) {
   return (
     <div>
-      <label htmlFor={id} className="field-label">{label}</label>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
       <select id={id} value={value} disabled={disabled} onChange={(e) => onChange(e.target.value as Role)} className="input">
         {roles.map((r) => (
-          <option key={r} value={r}>{r}</option>
+          <option key={r} value={r}>
+            {r}
+          </option>
         ))}
       </select>
     </div>
@@ -75,7 +83,10 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
     <li className="card space-y-2">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <div>
-          <p className="text-lg font-bold">{member.name}{isMe && ' (you)'}</p>
+          <p className="text-lg font-bold">
+            {member.name}
+            {isMe && ' (you)'}
+          </p>
           <p className="break-all text-sm">{member.email}</p>
         </div>
         {!manage && <span className="rounded-lg bg-paper px-3 py-1 font-bold">{member.role}</span>}
@@ -94,10 +105,16 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
           />
           {confirming ? (
             <div className="flex gap-2">
-              <button type="button" className="btn border-alert bg-alert text-paper" onClick={() => remove.mutate(member.userId, { onSettled: () => setConfirming(false) })}>
+              <button
+                type="button"
+                className="btn border-alert bg-alert text-paper"
+                onClick={() => remove.mutate(member.userId, { onSettled: () => setConfirming(false) })}
+              >
                 Remove {member.name}
               </button>
-              <button type="button" className="btn" onClick={() => setConfirming(false)}>Keep</button>
+              <button type="button" className="btn" onClick={() => setConfirming(false)}>
+                Keep
+              </button>
             </div>
           ) : (
             <button type="button" className="btn border-alert text-alert" onClick={() => setConfirming(true)}>
@@ -168,12 +185,16 @@ function InviteSection() {
 
   return (
     <section className="card space-y-3" aria-labelledby="invite">
-      <h2 id="invite" className="text-xl font-bold">Invite someone</h2>
+      <h2 id="invite" className="text-xl font-bold">
+        Invite someone
+      </h2>
       <p className="text-sm">They get an e-mail with a link that works once, for 7 days, to choose their name and password.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="E-mail address" name="email" type="email" autoComplete="off" error={errors.email} />
         <RoleSelect id="invite-role" label="Role" value={role} onChange={setRole} />
-        <p className="text-sm">{role}: {roleTable[role].summary}</p>
+        <p className="text-sm">
+          {role}: {roleTable[role].summary}
+        </p>
         <ErrorBanner>{bannerText(invite.error, errors)}</ErrorBanner>
         {sentTo && <Notice>Invitation sent to {sentTo}.</Notice>}
         <button type="submit" className="btn-primary w-full" disabled={invite.isPending}>
@@ -189,7 +210,9 @@ function PendingInvitations() {
   const revoke = useRevokeInvitation();
   return (
     <section aria-labelledby="pending">
-      <h2 id="pending" className="mb-2 text-xl font-bold">Pending invitations</h2>
+      <h2 id="pending" className="mb-2 text-xl font-bold">
+        Pending invitations
+      </h2>
       <QueryState query={invitations}>
         {(list) =>
           list.length === 0 ? (
@@ -204,7 +227,13 @@ function PendingInvitations() {
                       {i.role} · invited by {i.invitedByName || 'an admin'} · expires {new Date(i.expiresAt).toLocaleDateString()}
                     </p>
                   </div>
-                  <button type="button" className="btn" disabled={revoke.isPending} onClick={() => revoke.mutate(i.id)} aria-label={`Revoke the invitation of ${i.email}`}>
+                  <button
+                    type="button"
+                    className="btn"
+                    disabled={revoke.isPending}
+                    onClick={() => revoke.mutate(i.id)}
+                    aria-label={`Revoke the invitation of ${i.email}`}
+                  >
                     Revoke
                   </button>
                 </li>
@@ -228,8 +257,12 @@ function WorkshopUnitsSetting({ value }: { value: UnitSystem }) {
   };
   return (
     <section className="card space-y-2" aria-labelledby="workshop-units">
-      <h2 id="workshop-units" className="text-xl font-bold">Workshop units</h2>
-      <p className="text-sm">What everyone in the workshop sees and types, unless they chose their own units on their Account page. Everything is stored in millimetres.</p>
+      <h2 id="workshop-units" className="text-xl font-bold">
+        Workshop units
+      </h2>
+      <p className="text-sm">
+        What everyone in the workshop sees and types, unless they chose their own units on their Account page. Everything is stored in millimetres.
+      </p>
       <fieldset className="space-y-2" disabled={update.isPending}>
         <legend className="sr-only">Workshop units</legend>
         <label className="flex min-h-12 items-center gap-3">
@@ -255,10 +288,12 @@ function PhotoLocationSetting({ value }: { value: PhotoGps }) {
   };
   return (
     <section className="card space-y-2" aria-labelledby="photo-gps">
-      <h2 id="photo-gps" className="text-xl font-bold">Photo locations</h2>
+      <h2 id="photo-gps" className="text-xl font-bold">
+        Photo locations
+      </h2>
       <p className="text-sm">
-        Phone cameras record where a photo was taken. Twistlog never keeps it in the photo files it stores; this decides whether
-        the position is kept beside the photo for the workshop to see.
+        Phone cameras record where a photo was taken. Twistlog never keeps it in the photo files it stores; this decides whether the position is kept beside the
+        photo for the workshop to see.
       </p>
       <fieldset className="space-y-2" disabled={update.isPending}>
         <legend className="sr-only">Photo locations</legend>

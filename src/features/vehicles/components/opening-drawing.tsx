@@ -29,10 +29,23 @@ export function OpeningDrawing(props: { opening: Opening; points: GaugePoint[]; 
         props.onPlace(Math.round(local.x + left), Math.round(top - local.y));
       }}
     >
-      <rect x={sx(o.centreYMm - o.widthMm / 2)} y={sy(o.bottomZMm + o.heightMm)} width={o.widthMm} height={o.heightMm} rx={o.cornerRadiusMm} fill="#f4f1e8" stroke="#10333d" strokeWidth="6" />
+      <rect
+        x={sx(o.centreYMm - o.widthMm / 2)}
+        y={sy(o.bottomZMm + o.heightMm)}
+        width={o.widthMm}
+        height={o.heightMm}
+        rx={o.cornerRadiusMm}
+        fill="#f4f1e8"
+        stroke="#10333d"
+        strokeWidth="6"
+      />
       <line x1={sx(0)} x2={sx(0)} y1="0" y2={height} stroke="#c9c3b3" strokeDasharray="12 8" strokeWidth="3" />
-      <text x="12" y={height - 12} fontSize="36">R</text>
-      <text x={width - 36} y={height - 12} fontSize="36">L</text>
+      <text x="12" y={height - 12} fontSize="36">
+        R
+      </text>
+      <text x={width - 36} y={height - 12} fontSize="36">
+        L
+      </text>
       {props.points.map((p) => (
         <g key={p.id}>
           <circle cx={sx(p.yMm)} cy={sy(p.zMm)} r="16" fill="#b3261e" />

@@ -76,10 +76,30 @@ export function VehicleSetupPage() {
         <input className="input" value={draft.body} onChange={(e) => setDraft({ ...draft, body: e.target.value })} />
       </label>
       <div className="grid grid-cols-2 gap-3">
-        {len('Wheelbase', limitsOf(v.wheelbaseMm), (x) => x.wheelbaseMm, (x, mm) => ({ ...x, wheelbaseMm: mm }))}
-        {len('Nominal gap', limitsOf(v.nominalGapMm), (x) => x.nominalGapMm, (x, mm) => ({ ...x, nominalGapMm: mm }))}
-        {len('Track front', limitsOf(v.trackFrontMm), (x) => x.trackFrontMm, (x, mm) => ({ ...x, trackFrontMm: mm }))}
-        {len('Track rear', limitsOf(v.trackRearMm), (x) => x.trackRearMm, (x, mm) => ({ ...x, trackRearMm: mm }))}
+        {len(
+          'Wheelbase',
+          limitsOf(v.wheelbaseMm),
+          (x) => x.wheelbaseMm,
+          (x, mm) => ({ ...x, wheelbaseMm: mm }),
+        )}
+        {len(
+          'Nominal gap',
+          limitsOf(v.nominalGapMm),
+          (x) => x.nominalGapMm,
+          (x, mm) => ({ ...x, nominalGapMm: mm }),
+        )}
+        {len(
+          'Track front',
+          limitsOf(v.trackFrontMm),
+          (x) => x.trackFrontMm,
+          (x, mm) => ({ ...x, trackFrontMm: mm }),
+        )}
+        {len(
+          'Track rear',
+          limitsOf(v.trackRearMm),
+          (x) => x.trackRearMm,
+          (x, mm) => ({ ...x, trackRearMm: mm }),
+        )}
       </div>
       <h2 className="text-xl font-bold">Opening</h2>
       <div className="grid grid-cols-2 gap-3">
@@ -108,15 +128,36 @@ export function VehicleSetupPage() {
                 <div className="flex items-end gap-2">
                   <label className="w-24">
                     <span className="block text-sm font-bold">Label</span>
-                    <input className="input" defaultValue={p.label} onBlur={(e) => e.target.value !== p.label && void patchPoint(p.id, { label: e.target.value })} />
+                    <input
+                      className="input"
+                      defaultValue={p.label}
+                      onBlur={(e) => e.target.value !== p.label && void patchPoint(p.id, { label: e.target.value })}
+                    />
                   </label>
-                  <button type="button" className="btn ml-auto" aria-label={`Remove point ${p.label}`} onClick={() => void patchPoint(p.id, { deletedAt: new Date().toISOString() })}>
+                  <button
+                    type="button"
+                    className="btn ml-auto"
+                    aria-label={`Remove point ${p.label}`}
+                    onClick={() => void patchPoint(p.id, { deletedAt: new Date().toISOString() })}
+                  >
                     ✕
                   </button>
                 </div>
                 <div className="grid grid-cols-2 gap-2">
-                  <LengthInput label={`${p.label} y`} unit={unit} limits={POINT_LIMITS} valueMm={p.yMm} onChange={(mm) => mm != null && void patchPoint(p.id, { yMm: mm })} />
-                  <LengthInput label={`${p.label} z`} unit={unit} limits={POINT_LIMITS} valueMm={p.zMm} onChange={(mm) => mm != null && void patchPoint(p.id, { zMm: mm })} />
+                  <LengthInput
+                    label={`${p.label} y`}
+                    unit={unit}
+                    limits={POINT_LIMITS}
+                    valueMm={p.yMm}
+                    onChange={(mm) => mm != null && void patchPoint(p.id, { yMm: mm })}
+                  />
+                  <LengthInput
+                    label={`${p.label} z`}
+                    unit={unit}
+                    limits={POINT_LIMITS}
+                    valueMm={p.zMm}
+                    onChange={(mm) => mm != null && void patchPoint(p.id, { zMm: mm })}
+                  />
                 </div>
               </li>
             ))}
