@@ -10,6 +10,11 @@ describe('the permission table', () => {
     for (const r of roles) expect(roleTable[r].summary).toBeTruthy();
   });
 
+  it('names one person of each role with its article, so a sentence such as the Team page\'s "is now an engineer" reads right', () => {
+    for (const r of roles) expect(roleTable[r].singular, r).toMatch(new RegExp(`^an? ${r}$`));
+    expect(roles.map((r) => roleTable[r].singular)).toEqual(['an admin', 'an engineer', 'a tester', 'a viewer']);
+  });
+
   it('says what the roles are for', () => {
     // admin can do all an engineer can; viewer reads signed-off envelopes only.
     for (const a of actions) {

@@ -6,7 +6,7 @@
 // "Roles and permissions" table is printed from here (`npx tsx server/auth/print-permissions.ts
 // --write`; a unit test keeps the two equal).
 //
-// A new role is a row in `roleTable`, its roles in the `permissionTable` rows it may use, and a
+// A new role is a row in `roleTable` (with how a sentence names its people), its roles in the `permissionTable` rows it may use, and a
 // migration widening the CHECK constraints on memberships.role and invitations.role (a test
 // compares those constraints with `roles`).
 import { listInWords } from './plural';
@@ -16,14 +16,24 @@ interface RoleEntry {
   summary: string;
   /** The role as a sentence names its people: "engineers". */
   plural: string;
+  /** The role as a sentence names one of its people, with its article: "an engineer", "a tester". */
+  singular: string;
 }
 
 /** The roles, widest first (the order of the Team page's list and the README's columns). */
 export const roleTable = {
-  admin: { summary: 'runs the workshop account (members, invitations, roles, vehicles) and can do all an engineer can.', plural: 'admins' },
-  engineer: { summary: 'reviews readings, sets design parameters, signs off envelopes and sends fabrication sheets.', plural: 'engineers' },
-  tester: { summary: 'records flex-test sessions in the field.', plural: 'testers' },
-  viewer: { summary: 'read-only: sees signed-off envelopes.', plural: 'viewers' },
+  admin: {
+    summary: 'runs the workshop account (members, invitations, roles, vehicles) and can do all an engineer can.',
+    plural: 'admins',
+    singular: 'an admin',
+  },
+  engineer: {
+    summary: 'reviews readings, sets design parameters, signs off envelopes and sends fabrication sheets.',
+    plural: 'engineers',
+    singular: 'an engineer',
+  },
+  tester: { summary: 'records flex-test sessions in the field.', plural: 'testers', singular: 'a tester' },
+  viewer: { summary: 'read-only: sees signed-off envelopes.', plural: 'viewers', singular: 'a viewer' },
 } as const satisfies Record<string, RoleEntry>;
 
 export type Role = keyof typeof roleTable;

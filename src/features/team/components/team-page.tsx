@@ -153,7 +153,7 @@ function MemberRow({ member, manage, isMe }: { member: Member; manage: boolean; 
       )}
       {saved && (
         <p role="status" className="text-good">
-          Saved: {member.name} is now {saved === 'admin' || saved === 'engineer' ? 'an' : 'a'} {saved}.
+          Saved: {member.name} is now {roleTable[saved].singular}.
         </p>
       )}
       <ErrorBanner>{error?.message}</ErrorBanner>
