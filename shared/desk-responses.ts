@@ -2,7 +2,7 @@
 // the client's api modules read them. (Envelope answers live beside their schemas in
 // shared/schemas/envelope.ts: EnvelopeRecord, SignedEnvelopeSummary, ComparedSession.)
 import type { GaugePoint, Member, Photo, Pose, Reading, Team, TestSession, Vehicle } from './schemas';
-import type { HistoryEventRecord } from './schemas/envelope';
+import type { EnvelopeStatus, HistoryEventRecord } from './schemas/envelope';
 
 /** GET /api/sessions: a session with its vehicle's name and its latest signed-off envelope revision. */
 export type SessionSummary = TestSession & { vehicleName: string; signed: { revision: number; signedAt: string } | null };
@@ -28,4 +28,19 @@ export interface SessionReview extends SessionDetail {
 export interface TeamDetail {
   team: Team;
   members: Member[];
+}
+
+/** One revision of a session's envelope, as the vehicle's desk page lists it. */
+export interface EnvelopeRevisionSummary {
+  id: string;
+  revision: number;
+  status: EnvelopeStatus;
+  signedAt: string | null;
+}
+
+/** GET /api/vehicles/:id: a vehicle at the desk, its gauge points and its sessions (newest first) with their envelope revisions (newest first). */
+export interface VehicleDesk {
+  vehicle: Vehicle;
+  gaugePoints: GaugePoint[];
+  sessions: (TestSession & { poseCount: number; readingCount: number; envelopes: EnvelopeRevisionSummary[] })[];
 }

@@ -21,6 +21,8 @@ export const routes = {
   vehicle: '/field/vehicles/:id',
   sync: '/field/sync',
   desk: '/desk',
+  // A vehicle at the desk (read-only: details, gauge points, sessions and their envelopes).
+  deskVehicle: '/desk/vehicles/:id',
   deskSession: '/desk/sessions/:id',
   envelope: '/desk/envelopes/:id',
   compare: '/desk/compare',

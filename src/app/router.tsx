@@ -72,6 +72,7 @@ export const router = createBrowserRouter([
           { path: routes.sync, lazy: async () => ({ Component: (await import('@/features/sync/components/sync-page')).SyncPage }) },
           { path: routes.desk, lazy: async () => ({ Component: (await import('@/app/desk/desk-home-page')).DeskHomePage }) },
           // Desk pages load on demand so the field's first load stays small.
+          { path: routes.deskVehicle, lazy: async () => ({ Component: (await import('@/app/desk/vehicle-desk-page')).VehicleDeskPage }) },
           { path: routes.deskSession, lazy: async () => ({ Component: (await import('@/app/desk/session-desk-page')).SessionDeskPage }) },
           { path: routes.envelope, lazy: async () => ({ Component: (await import('@/features/envelope/components/envelope-page')).EnvelopePage }) },
           { path: routes.compare, lazy: async () => ({ Component: (await import('@/features/compare/components/compare-page')).ComparePage }) },

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
 import type { Page } from 'playwright-core';
 import { browserHarness } from '../support/browser';
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../server/seed/demo';
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_VEHICLES } from '../../server/seed/demo';
 
 const axePath = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
 const DEMO_SESSION = '0d3c5a10-0000-4000-8003-000000000001';
@@ -136,7 +136,13 @@ describe('accessibility of the main screens', () => {
     const page = await signedInPage('engineer');
     const envelopes = await page.evaluate(async (id) => (await fetch(`/api/sessions/${id}/envelopes`)).json(), DEMO_SESSION);
     const envelopeId = Array.isArray(envelopes) ? envelopes[0]?.id : envelopes?.envelopes?.[0]?.id;
-    const paths = ['/desk', `/desk/sessions/${DEMO_SESSION}`, '/desk/compare', ...(envelopeId ? [`/desk/envelopes/${envelopeId}`] : [])];
+    const paths = [
+      '/desk',
+      `/desk/vehicles/${DEMO_VEHICLES[0].id}`,
+      `/desk/sessions/${DEMO_SESSION}`,
+      '/desk/compare',
+      ...(envelopeId ? [`/desk/envelopes/${envelopeId}`] : []),
+    ];
     expect(envelopeId).toBeTruthy();
     for (const path of paths) {
       const r = await check(page, path, heading);

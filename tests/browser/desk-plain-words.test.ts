@@ -59,7 +59,7 @@ describe('plain words at the desk', () => {
     await page.getByText('Saved: the workshop now works in millimetres.').waitFor();
 
     // An unknown address: an app page with the header and a way back.
-    await page.goto(ts.baseUrl + '/desk/vehicles/nowhere');
+    await page.goto(ts.baseUrl + '/desk/nowhere/at-all');
     await page.getByRole('heading', { name: 'There is no page here' }).waitFor();
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Desk' }).waitFor();
     expect(await page.getByText(/Hey developer|Unexpected Application Error/).count()).toBe(0);

@@ -33,7 +33,7 @@ export function DeskHomePage() {
             <ul className="grid gap-2 sm:grid-cols-2">
               {list.map((v) => (
                 <li key={v.id} className="card">
-                  <Link to={pathTo('vehicle', { id: v.id })} className="text-lg font-bold underline">
+                  <Link to={pathTo('deskVehicle', { id: v.id })} className="text-lg font-bold underline">
                     {v.name}
                   </Link>
                   <p className="text-sm">{v.chassis}</p>

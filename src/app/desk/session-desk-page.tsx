@@ -1,5 +1,5 @@
 import { lazy, Suspense, useState } from 'react';
-import { useParams, useSearchParams } from 'react-router-dom';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
 import { AXIS_NAMES } from '@shared/format';
@@ -14,6 +14,7 @@ import { ReadingEditor } from '@/features/review/components/reading-editor';
 import { SessionConditions } from '@/features/review/components/pose-context';
 import { HistoryList } from '@/features/review/components/history-list';
 import { OpeningPlot } from '@/features/review/components/opening-plot';
+import { pathTo } from '@/paths';
 import { EnvelopePanel } from '@/features/envelope/components/envelope-panel';
 
 const TwistChart = lazy(() => import('@/components/desk-charts').then((m) => ({ default: m.TwistChart })));
@@ -51,7 +52,11 @@ function SessionDesk({ review }: { review: SessionReview }) {
     <div className="space-y-4">
       <SafetyNotice compact />
       <header>
-        <h1 className="text-2xl font-bold">{review.vehicle.name}</h1>
+        <h1 className="text-2xl font-bold">
+          <Link className="underline" to={pathTo('deskVehicle', { id: review.vehicle.id })}>
+            {review.vehicle.name}
+          </Link>
+        </h1>
         <p>
           {review.session.testedOn} · {review.session.title} · {plural(review.poses.length, 'pose')} ·{' '}
           {plural(review.readings.filter((r) => r.excluded).length, 'reading')} excluded · {fit.flags.size} far from the fit
