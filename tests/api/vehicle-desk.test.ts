@@ -28,7 +28,7 @@ describe('GET /api/vehicles/:id', () => {
 
     const answer = (await engineer.get(`/api/vehicles/${desk.vehicleId}`).expect(200)).body as VehicleDesk;
     expect(answer.vehicle).toMatchObject({ id: desk.vehicleId, name: 'Desk truck' });
-    expect(answer.gaugePoints.map((g) => g.label)).toEqual(['A', 'B', 'C', 'D', 'E', 'F']);
+    expect(answer.gaugePoints.map((g) => g.label)).toEqual(['P01', 'P02', 'P03', 'P04', 'P05', 'P06']);
     expect(answer.sessions.map((s) => s.id)).toEqual([desk.sessionId]);
     const [session] = answer.sessions;
     expect(session.poseCount).toBe(4);

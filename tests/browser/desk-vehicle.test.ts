@@ -23,7 +23,7 @@ describe('the desk page of a vehicle', () => {
 
     const { page } = await h.open(team.members.engineer.email, DESK);
     await page.waitForURL('**/desk');
-    await page.getByRole('link', { name: 'Page truck' }).click();
+    await page.getByRole('link', { name: 'Page truck', exact: true }).click();
     await page.waitForURL(`**/desk/vehicles/${desk.vehicleId}`);
     await page.getByRole('heading', { name: 'Page truck', level: 1 }).waitFor();
     await page.getByText('Wheelbase').waitFor();
