@@ -1,5 +1,8 @@
 import type { ErrorRequestHandler } from 'express';
 import { AppError, Unavailable } from './errors';
+
+/** An answer with no field at fault, in the one error shape (shared/schemas/error.ts). */
+const answer = (status: number, code: string, message: string) => new AppError(status, code, message).toAnswer();
 import { databaseUnavailability, type Unavailability } from '../db';
 
 const UNAVAILABLE_MESSAGES: Record<Unavailability, string> = {
@@ -22,20 +25,20 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     const retryAfterS = (known as { retryAfterS?: number }).retryAfterS;
     if (retryAfterS !== undefined) res.setHeader('Retry-After', String(Math.max(1, Math.ceil(retryAfterS))));
     if (!(err instanceof AppError)) req.log?.warn({ err }, 'database unavailable');
-    res.status(known.status).json({ error: { code: known.code, message: known.message, fields: known.fields } });
+    res.status(known.status).json(known.toAnswer());
     return;
   }
   // Errors raised by body parsers and multer carry an HTTP status of their own.
   const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
   if (status === 413 || err?.type === 'entity.too.large' || err?.code === 'LIMIT_FILE_SIZE') {
-    res.status(413).json({ error: { code: 'too_large', message: 'request body is too large', fields: [] } });
+    res.status(413).json(answer(413, 'too_large', 'request body is too large'));
     return;
   }
   if (status >= 400 && status < 500) {
     const message = err?.type === 'entity.parse.failed' ? 'request body is not valid JSON' : String(err?.message ?? 'bad request');
-    res.status(status).json({ error: { code: 'bad_request', message, fields: [] } });
+    res.status(status).json(answer(status, 'bad_request', message));
     return;
   }
   req.log?.error({ err }, 'unhandled error');
-  res.status(500).json({ error: { code: 'internal', message: 'something went wrong on the server', fields: [] } });
+  res.status(500).json(answer(500, 'internal', 'something went wrong on the server'));
 };

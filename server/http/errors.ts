@@ -1,19 +1,12 @@
 // Typed errors, turned into HTTP in one place (error-handler.ts).
 import type { ZodError } from 'zod';
 import type { FieldError } from '../../shared/schemas/common';
+// Every error the server answers with its own status and words is a Failure (the error handler
+// writes its `toAnswer()`); the client's ApiError is one too.
+import { Failure as AppError } from '../../shared/schemas/error';
 
 export type { FieldError };
-
-export class AppError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly fields: FieldError[] = [],
-  ) {
-    super(message);
-  }
-}
+export { AppError };
 
 export class Invalid extends AppError {
   constructor(message: string, fields: FieldError[] = []) {

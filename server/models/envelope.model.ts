@@ -1,9 +1,7 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { syncedColumns } from './synced-model';
+import { DataTypes, type CreationOptional, type Sequelize } from 'sequelize';
+import { syncedColumns, VersionedTeamModel } from './synced-model';
 
-export class EnvelopeModel extends Model<InferAttributes<EnvelopeModel>, InferCreationAttributes<EnvelopeModel>> {
-  declare id: string;
-  declare teamId: string;
+export class EnvelopeModel extends VersionedTeamModel<EnvelopeModel> {
   declare vehicleId: string;
   declare sessionId: string;
   declare revision: CreationOptional<number>;
@@ -13,12 +11,6 @@ export class EnvelopeModel extends Model<InferAttributes<EnvelopeModel>, InferCr
   declare contentHash: CreationOptional<string | null>;
   declare signedBy: CreationOptional<string | null>;
   declare signedAt: CreationOptional<Date | null>;
-  declare createdBy: string;
-  declare version: CreationOptional<number>;
-  declare changeSeq: CreationOptional<number>;
-  declare deletedAt: CreationOptional<Date | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initEnvelope(sequelize: Sequelize) {
@@ -34,7 +26,6 @@ export function initEnvelope(sequelize: Sequelize) {
       contentHash: { type: DataTypes.TEXT, allowNull: true },
       signedBy: { type: DataTypes.UUID, allowNull: true },
       signedAt: { type: DataTypes.DATE, allowNull: true },
-      createdBy: { type: DataTypes.UUID, allowNull: false },
     },
     { sequelize, tableName: 'envelopes' },
   );

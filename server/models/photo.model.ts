@@ -1,9 +1,7 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { syncedColumns } from './synced-model';
+import { DataTypes, type CreationOptional, type Sequelize } from 'sequelize';
+import { syncedColumns, VersionedTeamModel } from './synced-model';
 
-export class PhotoModel extends Model<InferAttributes<PhotoModel>, InferCreationAttributes<PhotoModel>> {
-  declare id: string;
-  declare teamId: string;
+export class PhotoModel extends VersionedTeamModel<PhotoModel> {
   declare sessionId: string;
   declare poseId: string | null;
   declare caption: CreationOptional<string>;
@@ -16,12 +14,6 @@ export class PhotoModel extends Model<InferAttributes<PhotoModel>, InferCreation
   declare capturedAt: Date | null;
   declare gpsLat: number | null;
   declare gpsLon: number | null;
-  declare createdBy: string;
-  declare version: CreationOptional<number>;
-  declare changeSeq: CreationOptional<number>;
-  declare deletedAt: CreationOptional<Date | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initPhoto(sequelize: Sequelize) {
@@ -40,7 +32,6 @@ export function initPhoto(sequelize: Sequelize) {
       capturedAt: { type: DataTypes.DATE, allowNull: true },
       gpsLat: { type: DataTypes.DOUBLE, allowNull: true },
       gpsLon: { type: DataTypes.DOUBLE, allowNull: true },
-      createdBy: { type: DataTypes.UUID, allowNull: false },
     },
     { sequelize, tableName: 'photos' },
   );

@@ -1,7 +1,17 @@
 // What a synced record of shared/records means to Sequelize: its attributes (every column of the
 // table, derived from the registry) and the typed fields of its model. A synced model file only
 // names its record; a field added to the record is read and written by its model with no edit here.
-import { DataTypes, Model, type ModelAttributeColumnOptions, type ModelAttributes, type ModelStatic, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type ModelAttributeColumnOptions,
+  type ModelAttributes,
+  type ModelStatic,
+  type Sequelize,
+} from 'sequelize';
 import type * as z from 'zod';
 import { tableColumns, type ColumnType, type RecordDefinition } from '../../shared/records/define';
 
@@ -81,10 +91,26 @@ export function initSynced<D extends RecordDefinition>(model: ModelStatic<Synced
   model.init(syncedAttributes(def) as ModelAttributes<SyncedModel<D>>, { sequelize, tableName: def.table, modelName: def.entity });
 }
 
-/** Columns every team-scoped versioned table shares, for the tables outside the registry (photos, envelopes). */
+/**
+ * The fields every team-scoped versioned table outside the registry (photos, envelopes) shares,
+ * declared once: `class PhotoModel extends VersionedTeamModel<PhotoModel>`, its columns `syncedColumns`.
+ */
+export abstract class VersionedTeamModel<M extends Model> extends Model<InferAttributes<M>, InferCreationAttributes<M>> {
+  declare id: string;
+  declare teamId: string;
+  declare createdBy: string;
+  declare version: CreationOptional<number>;
+  declare changeSeq: CreationOptional<number>;
+  declare deletedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** The columns of `VersionedTeamModel`'s fields. */
 export const syncedColumns = {
   id: { type: DataTypes.UUID, primaryKey: true },
   teamId: { type: DataTypes.UUID, allowNull: false },
+  createdBy: { type: DataTypes.UUID, allowNull: false },
   version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
   changeSeq: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 0 },
   deletedAt: { type: DataTypes.DATE, allowNull: true },

@@ -2,12 +2,26 @@
 // is in the workshop, or with which role, needs team.manage (admins).
 import * as z from 'zod';
 import { route } from './route';
+import type { AuthContext } from '../auth/context';
 import { id } from '../../shared/schemas';
 import { inviteInput, roleChangeInput } from '../../shared/schemas/account';
 import { teamSettingsInput } from '../../shared/schemas/team';
 import { changeRole, getTeam, invite, listInvitations, removeMember, revokeInvitation, updateTeamSettings } from '../services/team.service';
 
 const byId = z.object({ id });
+
+/** Removing one thing from the workshop by id (an admin's act), answered `{ ok: true }`. */
+const removal = (path: string, remove: (auth: AuthContext, id: string) => Promise<void>) =>
+  route({
+    method: 'delete',
+    path,
+    access: 'team.manage',
+    params: byId,
+    handler: async ({ auth, params }) => {
+      await remove(auth, params.id);
+      return { ok: true };
+    },
+  });
 
 export const teamRoutes = [
   route({ method: 'get', path: '/api/team', access: 'team.read', handler: async ({ auth }) => getTeam(auth) }),
@@ -35,16 +49,7 @@ export const teamRoutes = [
       return created;
     },
   }),
-  route({
-    method: 'delete',
-    path: '/api/team/invitations/:id',
-    access: 'team.manage',
-    params: byId,
-    handler: async ({ auth, params }) => {
-      await revokeInvitation(auth, params.id);
-      return { ok: true };
-    },
-  }),
+  removal('/api/team/invitations/:id', revokeInvitation),
   /** :id is the member's user id. */
   route({
     method: 'patch',
@@ -54,14 +59,6 @@ export const teamRoutes = [
     body: roleChangeInput,
     handler: async ({ auth, params, body }) => changeRole(auth, params.id, body.role),
   }),
-  route({
-    method: 'delete',
-    path: '/api/team/members/:id',
-    access: 'team.manage',
-    params: byId,
-    handler: async ({ auth, params }) => {
-      await removeMember(auth, params.id);
-      return { ok: true };
-    },
-  }),
+  /** :id is the member's user id. */
+  removal('/api/team/members/:id', removeMember),
 ];

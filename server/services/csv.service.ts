@@ -60,8 +60,11 @@ export function readingsCsv(data: ReadingsCsvInput, unit: UnitSystem): string {
  * engineer acknowledged, each with the sign-off.
  */
 export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: UnitSystem): string {
-  const common = { revision: s.revision, signed_by: s.signedBy.name, signed_at: s.signedAt, content_hash: contentHash };
-  const blank = {
+  // Every row has every column, in this order (the first row's keys are the file's header); a row
+  // fills in its own.
+  const blank: Record<string, string | number> = {
+    kind: '',
+    name: '',
     sign: '',
     [`measured_worst_${unit}`]: '',
     [`upper_bound_${unit}`]: '',
@@ -75,8 +78,14 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
     figure: '',
     option: '',
     supersedes_revision: '',
+    design_twist_deg: formatDegValue(s.params.designTwistDeg),
+    revision: s.revision,
+    signed_by: s.signedBy.name,
+    signed_at: s.signedAt,
+    content_hash: contentHash,
   };
   const rows: Record<string, string | number>[] = envelopeRows(s.result, unit).map((r) => ({
+    ...blank,
     kind: 'envelope',
     name: r.name,
     sign: SIGN_WORDS[r.sign],
@@ -84,16 +93,6 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
     [`upper_bound_${unit}`]: r.upperBoundMm === null ? '' : formatLengthValue(r.upperBoundMm, unit),
     governs: r.governs,
     [`envelope_${unit}`]: formatLengthValue(r.envelopeMm, unit),
-    [`gap_min_${unit}`]: '',
-    [`gap_max_${unit}`]: '',
-    [`largest_shear_${unit}`]: '',
-    extension_ratio: '',
-    note: '',
-    figure: '',
-    option: '',
-    supersedes_revision: '',
-    design_twist_deg: formatDegValue(s.params.designTwistDeg),
-    ...common,
   }));
   for (const side of ['top', 'bottom', 'left', 'right'] as const) {
     const b = s.boot?.[side];
@@ -106,8 +105,6 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
       [`gap_max_${unit}`]: formatLengthValue(b.gapMaxMm, unit),
       [`largest_shear_${unit}`]: formatLengthValue(b.largestShearMm, unit),
       extension_ratio: formatRatio(b.extensionRatio),
-      design_twist_deg: formatDegValue(s.params.designTwistDeg),
-      ...common,
     });
   }
   for (const f of s.format === 2 ? s.acknowledgedFlags : []) {
@@ -116,8 +113,6 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
       kind: 'acknowledged flag',
       name: `${f.poseLabel} ${f.pointLabel} ${AXIS_NAMES[f.axis]}`,
       note: `entered ${formatLengthValue(f.enteredMm, unit)} ${unit}, ${formatLengthValue(f.residualMm, unit)} ${unit} off the fit${f.note ? `; ${f.note}` : ''}`,
-      design_twist_deg: formatDegValue(s.params.designTwistDeg),
-      ...common,
     });
   }
   // The sheet's drawing and build figures, the same lines the PDF prints.
@@ -129,11 +124,9 @@ export function envelopeCsv(s: EnvelopeSnapshot, contentHash: string, unit: Unit
     option: design.option === null ? 'none chosen' : OPTION_NAMES[design.option],
     supersedes_revision: s.format === 2 && s.supersedesRevision != null ? s.supersedesRevision : '',
     note: buildToSentence(s, unit),
-    design_twist_deg: formatDegValue(s.params.designTwistDeg),
-    ...common,
   });
   for (const line of buildLines(s, unit)) {
-    rows.push({ ...blank, kind: 'build', name: line.item, figure: line.figure, design_twist_deg: formatDegValue(s.params.designTwistDeg), ...common });
+    rows.push({ ...blank, kind: 'build', name: line.item, figure: line.figure });
   }
   return Papa.unparse(rows, CSV_OPTIONS);
 }

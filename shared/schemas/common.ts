@@ -65,7 +65,5 @@ export const syncedFields = {
 };
 
 /** One bad field in an error answer: the path (`body.changes.3.record.poseId`) and what was wrong. */
-export interface FieldError {
-  field: string;
-  message: string;
-}
+export const fieldError = z.object({ field: z.string(), message: z.string() });
+export type FieldError = z.infer<typeof fieldError>;

@@ -3,19 +3,10 @@
 // pull) are kept in memory with it, and asked for again with If-None-Match: an unchanged answer
 // comes back as a 304 with no body and the kept copy is used. API answers are no-store, so the
 // browser's own cache keeps none of them.
-import type { FieldError } from '@shared/schemas/common';
+import { errorAnswer, Failure } from '@shared/schemas/error';
 
-export type { FieldError };
-
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly fields: FieldError[] = [],
-  ) {
-    super(message);
-  }
+/** A failed request as the client holds it; status 0 when there was no answer at all. */
+export class ApiError extends Failure {
   /** No answer at all: offline, DNS, server down. */
   get isNetwork() {
     return this.status === 0;
@@ -68,8 +59,10 @@ export async function api<T>(path: string, init: { method?: string; body?: unkno
   const etag = res.headers.get('ETag');
   if (method === 'GET' && res.ok && etag) keep(path, etag, data);
   if (!res.ok) {
-    const e = (data as { error?: { code?: string; message?: string; fields?: FieldError[] } } | undefined)?.error;
-    throw new ApiError(res.status, e?.code ?? 'http', e?.message ?? `request failed (${res.status})`, e?.fields ?? []);
+    const answer = errorAnswer.safeParse(data);
+    if (!answer.success) throw new ApiError(res.status, 'http', `request failed (${res.status})`);
+    const e = answer.data.error;
+    throw new ApiError(res.status, e.code, e.message, e.fields);
   }
   return data as T;
 }
