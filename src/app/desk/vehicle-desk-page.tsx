@@ -1,5 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
+import { ColumnHeads } from '@/components/column-heads';
 import { SafetyNotice } from '@/components/safety-notice';
 import { formatLength } from '@shared/format';
 import { plural } from '@shared/plural';
@@ -71,19 +72,7 @@ function VehicleDeskView({ desk, unit }: { desk: VehicleDesk; unit: UnitSystem }
           <p>No gauge points marked yet.</p>
         ) : (
           <table className="border-collapse bg-white text-right" aria-label="Gauge points">
-            <thead>
-              <tr>
-                <th scope="col" className="border border-rule p-2 text-left">
-                  Point
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  y ({unit}, + = left)
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  z ({unit}, + = up)
-                </th>
-              </tr>
-            </thead>
+            <ColumnHeads names={['Point', `y (${unit}, + = left)`, `z (${unit}, + = up)`]} left={['Point']} />
             <tbody>
               {gaugePoints.map((g) => (
                 <tr key={g.id}>

@@ -1,6 +1,7 @@
 import { lazy, Suspense } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
+import { ColumnHeads } from '@/components/column-heads';
 import { AXIS_NAMES, formatDegValue, formatLengthValue, formatSlopeValue } from '@shared/format';
 import { useMe } from '@/lib/auth/get-me';
 import { useSessions } from '@/lib/api/get-sessions';
@@ -50,29 +51,16 @@ export function ComparePage() {
                   <caption className="p-2 text-left font-bold">
                     Worst perimeter displacement ({unit}) and slope ({unit}/°)
                   </caption>
-                  <thead>
-                    <tr>
-                      <th scope="col" className="border border-rule p-2 text-left">
-                        Vehicle · session
-                      </th>
-                      <th scope="col" className="border border-rule p-2">
-                        Poses
-                      </th>
-                      <th scope="col" className="border border-rule p-2">
-                        Twist reached (°)
-                      </th>
-                      {AXES.map((a) => (
-                        <th key={`w-${a}`} scope="col" className="border border-rule p-2">
-                          Worst {AXIS_NAMES[a]}
-                        </th>
-                      ))}
-                      {AXES.map((a) => (
-                        <th key={`s-${a}`} scope="col" className="border border-rule p-2">
-                          Slope {AXIS_NAMES[a]}
-                        </th>
-                      ))}
-                    </tr>
-                  </thead>
+                  <ColumnHeads
+                    names={[
+                      'Vehicle · session',
+                      'Poses',
+                      'Twist reached (°)',
+                      ...AXES.map((a) => `Worst ${AXIS_NAMES[a]}`),
+                      ...AXES.map((a) => `Slope ${AXIS_NAMES[a]}`),
+                    ]}
+                    left={['Vehicle · session']}
+                  />
                   <tbody>
                     {rows.map((r) => (
                       <tr key={r.sessionId}>

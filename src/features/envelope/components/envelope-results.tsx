@@ -1,3 +1,4 @@
+import { ColumnHeads } from '@/components/column-heads';
 import { sealReason, type BootSpanResult, type EnvelopeResult } from '@shared/flex';
 import type { UnitSystem } from '@shared/schemas/common';
 import type { AcknowledgedFlag, LegacyEnvelopeResult } from '@shared/schemas/envelope';
@@ -44,25 +45,7 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
       <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Design envelope, scrollable">
         <table className="min-w-full border-collapse bg-white text-right" aria-label="Design envelope">
           <caption className="p-2 text-left font-bold">Design envelope ({unit}): fore-aft + opens, − closes; lateral and vertical ± either way</caption>
-          <thead>
-            <tr>
-              <th scope="col" className="border border-rule p-2 text-left">
-                Movement
-              </th>
-              <th scope="col" className="border border-rule p-2">
-                Measured worst
-              </th>
-              <th scope="col" className="border border-rule p-2">
-                Upper bound
-              </th>
-              <th scope="col" className="border border-rule p-2 text-left">
-                Governs
-              </th>
-              <th scope="col" className="border border-rule p-2">
-                Envelope
-              </th>
-            </tr>
-          </thead>
+          <ColumnHeads names={['Movement', 'Measured worst', 'Upper bound', 'Governs', 'Envelope']} left={['Movement', 'Governs']} />
           <tbody>
             {rows.map((r) => (
               <tr key={r.key} data-measure={r.key}>
@@ -113,34 +96,10 @@ export function EnvelopeResults({ result, boot, bootNote, unit, acknowledgedFlag
         <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Boot spans, scrollable">
           <table className="min-w-full border-collapse bg-white text-right" aria-label="Boot spans">
             <caption className="p-2 text-left font-bold">Boot spans and seal check per side ({unit})</caption>
-            <thead>
-              <tr>
-                <th scope="col" className="border border-rule p-2 text-left">
-                  Side
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Gap min
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Gap max
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Largest shear
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Shortest span
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Longest span
-                </th>
-                <th scope="col" className="border border-rule p-2">
-                  Extension ratio
-                </th>
-                <th scope="col" className="border border-rule p-2 text-left">
-                  Seal
-                </th>
-              </tr>
-            </thead>
+            <ColumnHeads
+              names={['Side', 'Gap min', 'Gap max', 'Largest shear', 'Shortest span', 'Longest span', 'Extension ratio', 'Seal']}
+              left={['Side', 'Seal']}
+            />
             <tbody>
               {SIDES.map((side) => {
                 const b = boot[side];

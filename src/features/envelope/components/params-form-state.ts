@@ -41,7 +41,7 @@ export interface DesignFormState {
 }
 
 /** Design fields typed as lengths (display unit ↔ mm). */
-const DESIGN_LENGTHS = [
+export const DESIGN_LENGTHS = [
   ['minClearWidth', 'minClearWidthMm'],
   ['minClearHeight', 'minClearHeightMm'],
   ['overlapMargin', 'overlapMarginMm'],
@@ -51,6 +51,7 @@ const DESIGN_LENGTHS = [
   ['fabricTolerance', 'fabricToleranceMm'],
   ['frameTolerance', 'frameToleranceMm'],
 ] as const;
+export type DesignLength = (typeof DESIGN_LENGTHS)[number][0];
 
 // Enough digits that a value round-trips (6.35 mm = 0.25 in), without float noise.
 const show = (value: number) => String(Number(value.toFixed(4)));

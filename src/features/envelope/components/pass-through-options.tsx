@@ -3,7 +3,7 @@ import type { UnitSystem } from '@shared/schemas/common';
 import { DEFAULT_PASS_THROUGH_DESIGN, FASTENING_NAMES, fastening, type Fastening } from '@shared/schemas/envelope';
 import { OPTION_NAMES, optionRows } from '@shared/pass-through-rows';
 import { formatLength } from '@shared/format';
-import type { DesignFormState } from './params-form-state';
+import { DESIGN_LENGTHS, type DesignFormState, type DesignLength } from './params-form-state';
 
 interface Props {
   design: DesignFormState;
@@ -19,32 +19,22 @@ interface Props {
 const OPTIONS = ['frames', 'boot', 'both'] as const;
 const d = DEFAULT_PASS_THROUGH_DESIGN;
 
-/** A length setting with its common-practice starting value said beside it. */
-function LengthSetting({
-  label,
-  value,
-  unit,
-  startMm,
-  readOnly,
-  onChange,
-}: {
-  label: string;
-  value: string;
-  unit: UnitSystem;
-  startMm: number;
-  readOnly: boolean;
-  onChange: (v: string) => void;
-}) {
-  return (
-    <label className="block">
-      <span className="field-label">
-        {label} ({unit})
-      </span>
-      <input className="input" inputMode="decimal" value={value} readOnly={readOnly} onChange={(e) => onChange(e.target.value)} />
-      <span className="text-sm">common practice: {formatLength(startMm, unit)}</span>
-    </label>
-  );
-}
+/** The typed settings in the order the form shows them. */
+const SETTINGS: [key: DesignLength | 'slackPct', label: string][] = [
+  ['minClearWidth', 'Least clear width'],
+  ['minClearHeight', 'Least clear height'],
+  ['overlapMargin', 'Overlap margin'],
+  ['slackPct', 'Boot slack'],
+  ['seamAllowance', 'Seam allowance'],
+  ['flangeWidth', 'Flange width'],
+  ['foldDepth', 'Fold depth'],
+  ['fabricTolerance', 'Fabric tolerance ±'],
+  ['frameTolerance', 'Frame tolerance ±'],
+];
+const MM_OF = Object.fromEntries(DESIGN_LENGTHS) as Record<DesignLength, (typeof DESIGN_LENGTHS)[number][1]>;
+
+/** A setting's common-practice starting value, said beside it. */
+const startOf = (key: DesignLength | 'slackPct', unit: UnitSystem) => (key === 'slackPct' ? `${d.slackPercent} %` : formatLength(d[MM_OF[key]], unit));
 
 /**
  * The ways to close the pass-through, side by side for this envelope: the engineer sets the least
@@ -64,68 +54,15 @@ export function PassThroughOptions({ design, unit, readOnly, onChange, result, m
       </p>
       <fieldset className="grid gap-3 sm:grid-cols-4" disabled={readOnly}>
         <legend className="sr-only">Clear opening and allowances</legend>
-        <LengthSetting
-          label="Least clear width"
-          value={design.minClearWidth}
-          unit={unit}
-          startMm={d.minClearWidthMm}
-          readOnly={readOnly}
-          onChange={set('minClearWidth')}
-        />
-        <LengthSetting
-          label="Least clear height"
-          value={design.minClearHeight}
-          unit={unit}
-          startMm={d.minClearHeightMm}
-          readOnly={readOnly}
-          onChange={set('minClearHeight')}
-        />
-        <LengthSetting
-          label="Overlap margin"
-          value={design.overlapMargin}
-          unit={unit}
-          startMm={d.overlapMarginMm}
-          readOnly={readOnly}
-          onChange={set('overlapMargin')}
-        />
-        <label className="block">
-          <span className="field-label">Boot slack (%)</span>
-          <input className="input" inputMode="decimal" value={design.slackPct} readOnly={readOnly} onChange={(e) => set('slackPct')(e.target.value)} />
-          <span className="text-sm">common practice: {d.slackPercent} %</span>
-        </label>
-        <LengthSetting
-          label="Seam allowance"
-          value={design.seamAllowance}
-          unit={unit}
-          startMm={d.seamAllowanceMm}
-          readOnly={readOnly}
-          onChange={set('seamAllowance')}
-        />
-        <LengthSetting
-          label="Flange width"
-          value={design.flangeWidth}
-          unit={unit}
-          startMm={d.flangeWidthMm}
-          readOnly={readOnly}
-          onChange={set('flangeWidth')}
-        />
-        <LengthSetting label="Fold depth" value={design.foldDepth} unit={unit} startMm={d.foldDepthMm} readOnly={readOnly} onChange={set('foldDepth')} />
-        <LengthSetting
-          label="Fabric tolerance ±"
-          value={design.fabricTolerance}
-          unit={unit}
-          startMm={d.fabricToleranceMm}
-          readOnly={readOnly}
-          onChange={set('fabricTolerance')}
-        />
-        <LengthSetting
-          label="Frame tolerance ±"
-          value={design.frameTolerance}
-          unit={unit}
-          startMm={d.frameToleranceMm}
-          readOnly={readOnly}
-          onChange={set('frameTolerance')}
-        />
+        {SETTINGS.map(([key, label]) => (
+          <label key={key} className="block">
+            <span className="field-label">
+              {label} ({key === 'slackPct' ? '%' : unit})
+            </span>
+            <input className="input" inputMode="decimal" value={design[key]} readOnly={readOnly} onChange={(e) => set(key)(e.target.value)} />
+            <span className="text-sm">common practice: {startOf(key, unit)}</span>
+          </label>
+        ))}
         <label className="block">
           <span className="field-label">Fastening</span>
           <select className="input" value={design.fastening} onChange={(e) => set('fastening')(e.target.value as Fastening)}>

@@ -1,3 +1,4 @@
+import { ColumnHeads } from '@/components/column-heads';
 import type { ReactNode } from 'react';
 import type { Axis } from '@shared/schemas';
 import { PoseContext } from './pose-context';
@@ -29,24 +30,7 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect, edito
           <span className="font-bold">Readings ({unit})</span> as entered ({review.session.readingMode === 'gap' ? 'raw gaps' : 'displacements'}).
           <span className="ml-2 text-sm">⚑ far from the fit, or in a set that does not fit together · ✎ note · struck through: excluded</span>
         </caption>
-        <thead>
-          <tr>
-            <th scope="col" className="border border-rule p-2 text-left">
-              Pose
-            </th>
-            <th scope="col" className="border border-rule p-2 text-left">
-              Point
-            </th>
-            {AXES.map((a) => (
-              <th key={a} scope="col" className="border border-rule p-2">
-                {AXIS_NAMES[a]}
-              </th>
-            ))}
-            <th scope="col" className="border border-rule p-2 text-left">
-              Entered by
-            </th>
-          </tr>
-        </thead>
+        <ColumnHeads names={['Pose', 'Point', ...AXES.map((a) => AXIS_NAMES[a]), 'Entered by']} left={['Pose', 'Point', 'Entered by']} />
         <tbody>
           {review.poses.flatMap((pose) => [
             <tr key={`${pose.id}-context`} className="border-t-4 border-rule bg-paper">
