@@ -11,8 +11,9 @@ import { getMeta } from '@/lib/db/meta';
 import { addPhoto } from '@/lib/db/photos';
 import { fieldLookups, unsentRecords } from '@/lib/db/unsent';
 import { runSync } from './engine/sync-run';
+import { emptyPull } from './engine/empty-pull';
 import type { SyncTransport } from './api/transport';
-import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
+import type { PushRequest, PushResponse } from '@shared/schemas/sync';
 import { unsentAsCsv, unsentAsJson } from './unsent-export';
 import { newPose, newReading, newTestSession } from '@shared/records';
 
@@ -34,17 +35,6 @@ const gaugePointId = uuid();
 const session = newTestSession({ vehicleId, title: 'Yard flex test', testedOn: '2026-03-14' });
 const pose = newPose({ sessionId: session.id, seq: 1, label: 'Front left up', liftFlMm: 300, recordedAt: '2026-03-14T09:00:00.000Z' });
 const reading = (valueMm: number, axis: 'foreAft' | 'lateral' | 'vertical' = 'lateral') => newReading({ poseId: pose.id, gaugePointId, axis, valueMm });
-const emptyPull = (cursor: number): PullResponse => ({
-  cursor,
-  hasMore: false,
-  vehicles: [],
-  gaugePoints: [],
-  testSessions: [],
-  poses: [],
-  readings: [],
-  photos: [],
-  conflicts: [],
-});
 const accept = (req: PushRequest): PushResponse => ({ accepted: req.changes.map((c) => ({ entity: c.entity, id: c.record.id, version: 1 })), conflicts: [] });
 const serverFailure = () => new ApiError(500, 'internal', 'something went wrong on the server');
 

@@ -1,22 +1,16 @@
 // The field store belongs to one person in one workshop: a phone handed to someone else is
 // emptied when nothing waits to be sent, and kept (and reported) when something does.
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { FieldDb } from './field-db';
+import { describe, expect, it } from 'vitest';
+import type { FieldDb } from './field-db';
+import { freshFieldDbPerTest } from './fresh-field-db';
 import { saveRecord } from './records';
 import { getMeta, setMeta } from './meta';
 import { claimStore, discardForeignStore } from './owner';
 import { newVehicle } from '@shared/records';
 
 let db: FieldDb;
-beforeEach(async () => {
-  db = new FieldDb(`owner-${crypto.randomUUID()}`);
-  await db.open();
-});
-afterEach(async () => {
-  db.close();
-  await db.delete();
-});
+freshFieldDbPerTest('owner', (opened) => (db = opened));
 
 const ada = { userId: crypto.randomUUID(), teamId: crypto.randomUUID(), email: 'ada@one.test' };
 const bo = { userId: crypto.randomUUID(), teamId: crypto.randomUUID(), email: 'bo@two.test' };

@@ -1,20 +1,14 @@
 // patchRecord on fake-indexeddb: an edit merges into the stored record (never a screen's stale copy),
 // queues it once, and refuses a bad value or a missing record by name without writing anything.
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { FieldDb } from './field-db';
+import { describe, expect, it } from 'vitest';
+import type { FieldDb } from './field-db';
+import { freshFieldDbPerTest } from './fresh-field-db';
 import { patchRecord, saveRecord } from './records';
 import { newPose } from '@shared/records';
 
 let db: FieldDb;
-beforeEach(async () => {
-  db = new FieldDb(`test-${crypto.randomUUID()}`);
-  await db.open();
-});
-afterEach(async () => {
-  db.close();
-  await db.delete();
-});
+freshFieldDbPerTest('test', (opened) => (db = opened));
 
 const pose = () => newPose({ sessionId: crypto.randomUUID(), seq: 1, label: 'Pose 1', recordedAt: '2026-03-14T09:00:00.000Z' });
 

@@ -1,22 +1,16 @@
 // Local edits on fake-indexeddb: an edit is a patch merged into the stored record, so it keeps
 // the version the stored record has (after a push was answered) and whatever a pull brought.
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Pose } from '@shared/schemas';
-import { FieldDb } from './field-db';
+import type { FieldDb } from './field-db';
+import { freshFieldDbPerTest } from './fresh-field-db';
 import { changedFields, patchRecord, replayTyping, saveRecord } from './records';
 import { journalEntries, noteTyping } from './typing-journal';
 import { newPose } from '@shared/records';
 
 let db: FieldDb;
-beforeEach(async () => {
-  db = new FieldDb(`records-${crypto.randomUUID()}`);
-  await db.open();
-});
-afterEach(async () => {
-  db.close();
-  await db.delete();
-});
+freshFieldDbPerTest('records', (opened) => (db = opened));
 
 const pose = (): Pose => newPose({ sessionId: crypto.randomUUID(), seq: 0, label: 'Pose 1', kind: 'level', recordedAt: '2026-03-14T09:00:00.000Z' });
 

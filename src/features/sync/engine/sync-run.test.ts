@@ -1,26 +1,21 @@
 // The outbox and the sync run on fake-indexeddb with a scripted server: batches are sent once and
 // retried unchanged, a write that fails half-way leaves nothing, conflicts and refusals are kept.
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { FieldDb } from '@/lib/db/field-db';
+import type { FieldDb } from '@/lib/db/field-db';
+import { freshFieldDbPerTest } from '@/lib/db/fresh-field-db';
 import { saveRecord, saveRecords, setReadingValue } from '@/lib/db/records';
 import { getMeta } from '@/lib/db/meta';
 import { addPhoto } from '@/lib/db/photos';
-import type { PullResponse, PushRequest, PushResponse } from '@shared/schemas/sync';
+import type { PushRequest, PushResponse } from '@shared/schemas/sync';
 import { runSync } from './sync-run';
+import { emptyPull } from './empty-pull';
 import type { SyncTransport } from '../api/transport';
 import { newReading, newTestSession } from '@shared/records';
 
 let db: FieldDb;
-beforeEach(async () => {
-  db = new FieldDb(`test-${crypto.randomUUID()}`);
-  await db.open();
-});
-afterEach(async () => {
-  db.close();
-  await db.delete();
-});
+freshFieldDbPerTest('test', (opened) => (db = opened));
 
 const uuid = () => crypto.randomUUID();
 const session = (over: Record<string, unknown> = {}) => ({
@@ -28,18 +23,6 @@ const session = (over: Record<string, unknown> = {}) => ({
   ...over,
 });
 const reading = (poseId: string, valueMm: number) => newReading({ poseId, gaugePointId: uuid(), axis: 'lateral', valueMm });
-
-const emptyPull = (cursor: number): PullResponse => ({
-  cursor,
-  hasMore: false,
-  vehicles: [],
-  gaugePoints: [],
-  testSessions: [],
-  poses: [],
-  readings: [],
-  photos: [],
-  conflicts: [],
-});
 
 /** A scripted server: records what it receives; each push answer can be replaced per call. */
 function fakeServer(answer: (req: PushRequest, call: number) => PushResponse | Promise<PushResponse>) {
