@@ -1,22 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import { judgeOutliers } from './outlier-rule';
-import { fitPoseParts, poseBuffer, type PoseBuffer } from './pose-fit';
+import { fitPoseParts } from './pose-fit';
+import { foreAftBuffer as foreAft } from './test-fixtures';
 import { outlineCorners } from './perimeter';
 import { normalQuantile } from './normal';
 
 const corners = outlineCorners({ width: 700, height: 900, cornerRadius: 80, centreY: 0, bottomZ: 600 });
 const bonferroni = (tests: number) => normalQuantile(1 - 0.01 / (2 * tests));
-
-function foreAft(points: [number, number][], values: number[]): PoseBuffer {
-  const b = poseBuffer(points.length);
-  points.forEach(([y, z], i) => {
-    b.axis[i] = 0;
-    b.y[i] = y;
-    b.z[i] = z;
-    b.value[i] = values[i];
-  });
-  return b;
-}
 
 const six: [number, number][] = [
   [320, 1470],

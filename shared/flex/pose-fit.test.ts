@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { fitPoseParts, poseBuffer, type PoseBuffer } from './pose-fit';
+import { fitPoseParts, poseBuffer } from './pose-fit';
+import { foreAftBuffer as foreAft } from './test-fixtures';
 import { outlineCorners } from './perimeter';
 import { expectClose } from './expect-close';
 
@@ -33,18 +34,6 @@ function referenceFit(rows: number[][], values: number[]): { beta: number[]; inv
 
 function quad(m: number[][], g: number[]): number {
   return g.reduce((s, gi, i) => s + gi * g.reduce((t, gj, j) => t + m[i][j] * gj, 0), 0);
-}
-
-/** A buffer of fore-aft readings at the given points. */
-function foreAft(points: [number, number][], values: number[]): PoseBuffer {
-  const b = poseBuffer(points.length);
-  points.forEach(([y, z], i) => {
-    b.axis[i] = 0;
-    b.y[i] = y;
-    b.z[i] = z;
-    b.value[i] = values[i];
-  });
-  return b;
 }
 
 const coordinate = fc.tuple(fc.double({ min: -340, max: 340, noNaN: true }), fc.double({ min: 620, max: 1480, noNaN: true }));

@@ -1,6 +1,7 @@
 // Fixtures shared by the flex tests (not a test itself): a six-point gauge layout, exact readings
 // of a rigid motion at given points, and a plain numerical integration to check values by.
 import { predictDisplacement } from './predict-displacement';
+import { poseBuffer, type PoseBuffer } from './pose-fit';
 import { normalCdf } from './normal';
 import { regularizedGammaQ } from './special-functions';
 import type { Axis, GaugeLocation, GaugeValue, RigidMotion } from './types';
@@ -58,4 +59,20 @@ export function noncentralTCdfByZ(t: number, df: number, delta: number): number 
   const phi = (z: number) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
   const tail = (z: number) => phi(z) * regularizedGammaQ(df / 2, (df * (z + delta) ** 2) / (2 * t * t));
   return normalCdf(-delta) + simpson(tail, -delta, 12, 20000);
+}
+
+/**
+ * A pose's fore-aft readings as the fit takes them.
+ * @param points (y, z) of each reading's gauge point. @param values the readings, in the same order.
+ * @returns the pose buffer. @example foreAftBuffer([[0, 600]], [2]).value[0] // => 2
+ */
+export function foreAftBuffer(points: [number, number][], values: number[]): PoseBuffer {
+  const b = poseBuffer(points.length);
+  points.forEach(([y, z], i) => {
+    b.axis[i] = 0;
+    b.y[i] = y;
+    b.z[i] = z;
+    b.value[i] = values[i];
+  });
+  return b;
 }
