@@ -46,7 +46,7 @@ import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
 import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
 import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
-import { fitPoseParts, poseBuffer, type PoseBuffer, type PoseFitCore } from './pose-fit';
+import { fitPoseParts, poseBuffer, poseLayout, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
@@ -251,9 +251,13 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
 
 /**
  * Checks every pose and reading, naming each field as the caller gave it. Returns each pose's lift
- * twist and, per reading in input order, its point × 3 + axis code (so nothing is looked up twice).
+ * twist and, per reading in input order, its point × 3 + axis code and its value: the one pass over
+ * the reading objects, so everything after it works on flat arrays.
  */
-function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; codes: Int32Array; codeStart: Int32Array } {
+function checkPoses(
+  input: EnvelopeInput,
+  points: Map<string, number>,
+): { liftTwists: number[]; codes: Int32Array; values: Float64Array; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
@@ -261,6 +265,7 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
   let total = 0;
   for (const pose of poses) if (pose !== null && typeof pose === 'object' && Array.isArray(pose.readings)) total += pose.readings.length;
   const codes = new Int32Array(total);
+  const values = new Float64Array(total);
   const codeStart = new Int32Array(poses.length);
   let next = 0;
   const liftTwists = poses.map((pose, i) => {
@@ -302,17 +307,20 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
       const key = at * 3 + axis;
       if (stamp[key] === i + 1) readingProblem(i, j, reading, points);
       stamp[key] = i + 1;
+      values[next] = reading.value;
       codes[next++] = key;
     }
     return twist;
   });
-  return { liftTwists, codes, codeStart };
+  return { liftTwists, codes, values, codeStart };
 }
 
 interface Session {
   points: GaugeLocation[];
   /** Per reading in input order, pose after pose from codeStart[pose]: point index × 3 + axis code. */
   codes: Int32Array;
+  /** Per reading in input order: its value as entered. */
+  values: Float64Array;
   codeStart: Int32Array;
   baselineIndex: number;
   liftTwists: number[];
@@ -324,6 +332,8 @@ interface Flat {
   buffer: PoseBuffer;
   /** The reading's index in its pose's input array, per flat position. */
   inputIndex: Int32Array;
+  /** The reading's point index × 3 + axis code, per flat position: poses with the same run of codes share a layout. */
+  code: Int32Array;
   /** Room for the standardized residuals the session scatter is taken from. */
   scatter: Float64Array;
   /** Per pose: first flat position and count (−1 for the baseline). */
@@ -339,14 +349,14 @@ interface Flat {
  * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
  * tens of megabytes alive in a long-running server or tab.
  */
-type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; scatter: Float64Array };
+type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; code: Int32Array; scatter: Float64Array };
 let scratch: Scratch | null = null;
 const KEPT_SCRATCH = 1 << 16;
 
 function scratchFor(total: number): Scratch {
   if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
   const size = Math.max(total, 1024);
-  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), scatter: new Float64Array(size) };
+  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), code: new Int32Array(size), scatter: new Float64Array(size) };
   if (size <= KEPT_SCRATCH) scratch = fresh;
   return fresh;
 }
@@ -357,16 +367,16 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   poses.forEach((pose, i) => {
     if (i !== s.baselineIndex) total += pose.readings.length;
   });
-  const { buffer, inputIndex, scatter } = scratchFor(total);
+  const { buffer, inputIndex, code: codeAt, scatter } = scratchFor(total);
   const start = new Int32Array(poses.length).fill(-1);
   const count = new Int32Array(poses.length);
   const missingBaseline = new Int32Array(poses.length);
   const reference = new Float64Array(s.points.length * 3).fill(Number.NaN);
   const gap = input.readingMode === 'gap';
   if (gap) {
-    const baseline = poses[s.baselineIndex].readings;
     const from = s.codeStart[s.baselineIndex];
-    for (let j = 0; j < baseline.length; j++) reference[s.codes[from + j]] = baseline[j].value;
+    const end = from + poses[s.baselineIndex].readings.length;
+    for (let r = from; r < end; r++) reference[s.codes[r]] = s.values[r];
   }
   const ys = new Float64Array(s.points.length);
   const zs = new Float64Array(s.points.length);
@@ -378,11 +388,11 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   for (let i = 0; i < poses.length; i++) {
     if (i === s.baselineIndex) continue;
     start[i] = k;
-    const readings = poses[i].readings;
     const from = s.codeStart[i];
-    for (let j = 0; j < readings.length; j++) {
+    const length = poses[i].readings.length;
+    for (let j = 0; j < length; j++) {
       const code = s.codes[from + j];
-      let value = readings[j].value;
+      let value = s.values[from + j];
       if (gap) {
         const base = reference[code];
         if (Number.isNaN(base)) {
@@ -397,11 +407,19 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
       buffer.z[k] = zs[point];
       buffer.value[k] = value;
       inputIndex[k] = j;
+      codeAt[k] = code;
       k++;
     }
     count[i] = k - start[i];
   }
-  return { buffer, inputIndex, scatter, start, count, missingBaseline };
+  return { buffer, inputIndex, code: codeAt, scatter, start, count, missingBaseline };
+}
+
+/** Whether two runs of readings were taken at the same points on the same axes in the same order. */
+function sameCodes(code: Int32Array, a: number, b: number, countA: number, countB: number): boolean {
+  if (countA !== countB) return false;
+  for (let k = 0; k < countA; k++) if (code[a + k] !== code[b + k]) return false;
+  return true;
 }
 
 /** The session's robust residual scatter of one fit part, and its effective degrees of freedom. */
@@ -461,12 +479,23 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
   const flat = flatten(input, s);
   const corners = outlineCorners(input.outline);
   const worstOf = perimeterWorstOn(input.outline);
-  const cores: (PoseFitCore | null)[] = input.poses.map((_, i) => {
-    if (i === s.baselineIndex || flat.count[i] === 0) return null;
+  const cores: (PoseFitCore | null)[] = [];
+  // The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it.
+  let layout: PoseLayout | null = null;
+  let layoutStart = 0;
+  for (let i = 0; i < input.poses.length; i++) {
+    if (i === s.baselineIndex || flat.count[i] === 0) {
+      cores.push(null);
+      continue;
+    }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
-    return fitPoseParts(flat.buffer, corners);
-  });
+    if (layout === null || !sameCodes(flat.code, layoutStart, flat.start[i], layout.count, flat.count[i])) {
+      layout = poseLayout(flat.buffer, corners);
+      layoutStart = flat.start[i];
+    }
+    cores.push(fitPoseParts(flat.buffer, corners, layout));
+  }
 
   const scatterMm = {} as Record<FitPartName, number>;
   const limits = {} as Record<FitPartName, (tests: number) => number>;
@@ -705,7 +734,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   requireTrack('tracks.rearMm', input.tracks.rearMm);
   validateOutline(FN, input.outline);
   const pointIndex = indexGaugeLocations(FN, 'gaugePoints', input.gaugePoints);
-  const { liftTwists, codes, codeStart } = checkPoses(input, pointIndex);
+  const { liftTwists, codes, values, codeStart } = checkPoses(input, pointIndex);
   if (input.readingMode !== 'gap' && input.readingMode !== 'displacement') {
     throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(input.readingMode)}'`);
   }
@@ -730,7 +759,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   });
 
   const notes: string[] = [];
-  const session: Session = { points: input.gaugePoints, codes, codeStart, baselineIndex, liftTwists, relativeTwists };
+  const session: Session = { points: input.gaugePoints, codes, values, codeStart, baselineIndex, liftTwists, relativeTwists };
   const { poses, scatterMm, flags } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
