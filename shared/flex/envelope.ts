@@ -251,13 +251,9 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
 
 /**
  * Checks every pose and reading, naming each field as the caller gave it. Returns each pose's lift
- * twist and, per reading in input order, its point × 3 + axis code and its value: the one pass over
- * the reading objects, so everything after it works on flat arrays.
+ * twist and, per reading in input order, its point × 3 + axis code (so nothing is looked up twice).
  */
-function checkPoses(
-  input: EnvelopeInput,
-  points: Map<string, number>,
-): { liftTwists: number[]; codes: Int32Array; values: Float64Array; codeStart: Int32Array } {
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; codes: Int32Array; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
@@ -265,7 +261,6 @@ function checkPoses(
   let total = 0;
   for (const pose of poses) if (pose !== null && typeof pose === 'object' && Array.isArray(pose.readings)) total += pose.readings.length;
   const codes = new Int32Array(total);
-  const values = new Float64Array(total);
   const codeStart = new Int32Array(poses.length);
   let next = 0;
   const liftTwists = poses.map((pose, i) => {
@@ -307,20 +302,17 @@ function checkPoses(
       const key = at * 3 + axis;
       if (stamp[key] === i + 1) readingProblem(i, j, reading, points);
       stamp[key] = i + 1;
-      values[next] = reading.value;
       codes[next++] = key;
     }
     return twist;
   });
-  return { liftTwists, codes, values, codeStart };
+  return { liftTwists, codes, codeStart };
 }
 
 interface Session {
   points: GaugeLocation[];
   /** Per reading in input order, pose after pose from codeStart[pose]: point index × 3 + axis code. */
   codes: Int32Array;
-  /** Per reading in input order: its value as entered. */
-  values: Float64Array;
   codeStart: Int32Array;
   baselineIndex: number;
   liftTwists: number[];
@@ -374,9 +366,9 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   const reference = new Float64Array(s.points.length * 3).fill(Number.NaN);
   const gap = input.readingMode === 'gap';
   if (gap) {
+    const baseline = poses[s.baselineIndex].readings;
     const from = s.codeStart[s.baselineIndex];
-    const end = from + poses[s.baselineIndex].readings.length;
-    for (let r = from; r < end; r++) reference[s.codes[r]] = s.values[r];
+    for (let j = 0; j < baseline.length; j++) reference[s.codes[from + j]] = baseline[j].value;
   }
   const ys = new Float64Array(s.points.length);
   const zs = new Float64Array(s.points.length);
@@ -388,11 +380,11 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   for (let i = 0; i < poses.length; i++) {
     if (i === s.baselineIndex) continue;
     start[i] = k;
+    const readings = poses[i].readings;
     const from = s.codeStart[i];
-    const length = poses[i].readings.length;
-    for (let j = 0; j < length; j++) {
+    for (let j = 0; j < readings.length; j++) {
       const code = s.codes[from + j];
-      let value = s.values[from + j];
+      let value = readings[j].value;
       if (gap) {
         const base = reference[code];
         if (Number.isNaN(base)) {
@@ -422,26 +414,37 @@ function sameCodes(code: Int32Array, a: number, b: number, countA: number, count
   return true;
 }
 
-/** The session's robust residual scatter of one fit part, and its effective degrees of freedom. */
-function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[], part: FitPartName): { scaleMm: number | null; df: number } {
+/**
+ * The session's robust residual scatter of each fit part, and its effective degrees of freedom,
+ * from one pass over the readings: fore-aft residuals gathered from the front of the scratch array,
+ * lateral and vertical ones from its back (a median does not depend on the order).
+ */
+function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
   const values = flat.scatter;
-  const outOfPlane = part === 'outOfPlane';
-  let n = 0;
-  let redundancy = 0;
+  const { axis, standardized } = flat.buffer;
+  let nOut = 0;
+  let nIn = 0;
+  let redundancyOut = 0;
+  let redundancyIn = 0;
   for (let i = 0; i < cores.length; i++) {
     const core = cores[i];
     if (core === null) continue;
-    const fitted = core[part];
-    const spare = fitted.readingCount - fitted.parameterCount;
-    if (spare < 1) continue;
-    redundancy += spare;
+    const spareOut = core.outOfPlane.readingCount - core.outOfPlane.parameterCount;
+    const spareIn = core.inPlane.readingCount - core.inPlane.parameterCount;
+    if (spareOut >= 1) redundancyOut += spareOut;
+    if (spareIn >= 1) redundancyIn += spareIn;
     const end = flat.start[i] + flat.count[i];
     for (let k = flat.start[i]; k < end; k++) {
-      if ((flat.buffer.axis[k] === 0) === outOfPlane && !Number.isNaN(flat.buffer.standardized[k])) values[n++] = flat.buffer.standardized[k];
+      const r = standardized[k];
+      if (Number.isNaN(r)) continue;
+      if (axis[k] === 0) {
+        if (spareOut >= 1) values[nOut++] = r;
+      } else if (spareIn >= 1) values[values.length - 1 - nIn++] = r;
     }
   }
-  if (n < MIN_SCALE_RESIDUALS) return { scaleMm: null, df: 0 };
-  return { scaleMm: residualScaleInPlace(values.subarray(0, n)), df: MAD_EFFICIENCY * redundancy };
+  const scale = (n: number, from: number, redundancy: number) =>
+    n < MIN_SCALE_RESIDUALS ? { scaleMm: null, df: 0 } : { scaleMm: residualScaleInPlace(values.subarray(from, from + n)), df: MAD_EFFICIENCY * redundancy };
+  return { outOfPlane: scale(nOut, 0, redundancyOut), inPlane: scale(nIn, values.length - nIn, redundancyIn) };
 }
 
 /** The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if larger; null without readings. */
@@ -499,8 +502,9 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
 
   const scatterMm = {} as Record<FitPartName, number>;
   const limits = {} as Record<FitPartName, (tests: number) => number>;
+  const scatters = sessionScatter(flat, cores);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
-    const { scaleMm, df } = sessionScatter(flat, cores, part);
+    const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
     scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
     const cache = new Map<number, number>();
@@ -734,7 +738,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   requireTrack('tracks.rearMm', input.tracks.rearMm);
   validateOutline(FN, input.outline);
   const pointIndex = indexGaugeLocations(FN, 'gaugePoints', input.gaugePoints);
-  const { liftTwists, codes, values, codeStart } = checkPoses(input, pointIndex);
+  const { liftTwists, codes, codeStart } = checkPoses(input, pointIndex);
   if (input.readingMode !== 'gap' && input.readingMode !== 'displacement') {
     throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(input.readingMode)}'`);
   }
@@ -759,7 +763,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   });
 
   const notes: string[] = [];
-  const session: Session = { points: input.gaugePoints, codes, values, codeStart, baselineIndex, liftTwists, relativeTwists };
+  const session: Session = { points: input.gaugePoints, codes, codeStart, baselineIndex, liftTwists, relativeTwists };
   const { poses, scatterMm, flags } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
