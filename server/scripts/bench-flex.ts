@@ -11,6 +11,7 @@
  * Run: npx tsx server/scripts/bench-flex.ts
  * A wider bench script imports runFlexBench() and prints or stores its rows.
  */
+import os from 'node:os';
 import { pathToFileURL } from 'node:url';
 import { buildSyntheticSession, designEnvelope, syntheticEnvelopeInput, type EnvelopeInput } from '../../shared/flex/index';
 
@@ -110,6 +111,12 @@ function printTable(rows: FlexBenchRow[]): void {
   console.log(`designEnvelope, gap readings, ${GAUGE_POINTS} gauge points × 3 axes, 1 baseline pose included`);
   console.log(format(header));
   for (const line of lines) console.log(format(line));
+  // Other work on the machine stretches every figure: say how busy it was.
+  const load = os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' / ');
+  console.log(`load average ${load} (1 / 5 / 15 min) on ${os.cpus().length} cores`);
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
