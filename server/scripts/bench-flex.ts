@@ -1,13 +1,17 @@
 /**
  * Benchmark of the flex computation: designEnvelope on a synthetic session of 200 poses × 12 gauge
  * points × 3 axes (prediction method), then 10× and 100× as many poses, and the tolerance method on
- * 200 repeated runs of one pose. Each figure is the median of 20 warm runs (after 3 unmeasured
- * ones, so the JIT has compiled the code), with the spread (fastest–slowest) beside it; the first,
- * cold run of each size is printed apart.
+ * 200 repeated runs of one pose. Each figure is the median of 20 warm runs, with the spread
+ * (fastest–slowest) beside it; the first, cold run of each size is printed apart. Warm means after
+ * up to 50 unmeasured runs (at most 2 s of them): V8 compiles the hot functions with its optimising
+ * compiler in the background after some dozens of calls, later still on a machine whose cores are
+ * busy, and until then a run takes several times as long as in a tab or a server that has been
+ * computing envelopes for a while (the case the goals are about).
  *
  * Run: npx tsx server/scripts/bench-flex.ts
  * A wider bench script imports runFlexBench() and prints or stores its rows.
  */
+import os from 'node:os';
 import { pathToFileURL } from 'node:url';
 import { buildSyntheticSession, designEnvelope, syntheticEnvelopeInput, type EnvelopeInput } from '../../shared/flex/index';
 
@@ -25,7 +29,8 @@ export interface FlexBenchRow {
 }
 
 const GAUGE_POINTS = 12;
-const WARM_UP = 3;
+const WARM_UP_RUNS = 50;
+const WARM_UP_MS = 2000;
 const RUNS = 20;
 
 function predictionInput(poses: number): EnvelopeInput {
@@ -56,7 +61,8 @@ async function measure(label: string, input: EnvelopeInput, goalMs: number | nul
   let started = performance.now();
   designEnvelope(input);
   const coldMs = performance.now() - started;
-  for (let i = 0; i < WARM_UP; i++) designEnvelope(input);
+  const warming = performance.now();
+  for (let i = 0; i < WARM_UP_RUNS && performance.now() - warming < WARM_UP_MS; i++) designEnvelope(input);
   const times: number[] = [];
   for (let i = 0; i < runs; i++) {
     started = performance.now();
@@ -105,6 +111,12 @@ function printTable(rows: FlexBenchRow[]): void {
   console.log(`designEnvelope, gap readings, ${GAUGE_POINTS} gauge points × 3 axes, 1 baseline pose included`);
   console.log(format(header));
   for (const line of lines) console.log(format(line));
+  // Other work on the machine stretches every figure: say how busy it was.
+  const load = os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' / ');
+  console.log(`load average ${load} (1 / 5 / 15 min) on ${os.cpus().length} cores`);
 }
 
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {

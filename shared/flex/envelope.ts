@@ -46,7 +46,7 @@ import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
 import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
 import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
-import { fitPoseParts, poseBuffer, type PoseBuffer, type PoseFitCore } from './pose-fit';
+import { fitPoseParts, poseBuffer, poseLayout, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
@@ -324,6 +324,8 @@ interface Flat {
   buffer: PoseBuffer;
   /** The reading's index in its pose's input array, per flat position. */
   inputIndex: Int32Array;
+  /** The reading's point index × 3 + axis code, per flat position: poses with the same run of codes share a layout. */
+  code: Int32Array;
   /** Room for the standardized residuals the session scatter is taken from. */
   scatter: Float64Array;
   /** Per pose: first flat position and count (−1 for the baseline). */
@@ -339,14 +341,14 @@ interface Flat {
  * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
  * tens of megabytes alive in a long-running server or tab.
  */
-type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; scatter: Float64Array };
+type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; code: Int32Array; scatter: Float64Array };
 let scratch: Scratch | null = null;
 const KEPT_SCRATCH = 1 << 16;
 
 function scratchFor(total: number): Scratch {
   if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
   const size = Math.max(total, 1024);
-  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), scatter: new Float64Array(size) };
+  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), code: new Int32Array(size), scatter: new Float64Array(size) };
   if (size <= KEPT_SCRATCH) scratch = fresh;
   return fresh;
 }
@@ -357,7 +359,7 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   poses.forEach((pose, i) => {
     if (i !== s.baselineIndex) total += pose.readings.length;
   });
-  const { buffer, inputIndex, scatter } = scratchFor(total);
+  const { buffer, inputIndex, code: codeAt, scatter } = scratchFor(total);
   const start = new Int32Array(poses.length).fill(-1);
   const count = new Int32Array(poses.length);
   const missingBaseline = new Int32Array(poses.length);
@@ -397,33 +399,52 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
       buffer.z[k] = zs[point];
       buffer.value[k] = value;
       inputIndex[k] = j;
+      codeAt[k] = code;
       k++;
     }
     count[i] = k - start[i];
   }
-  return { buffer, inputIndex, scatter, start, count, missingBaseline };
+  return { buffer, inputIndex, code: codeAt, scatter, start, count, missingBaseline };
 }
 
-/** The session's robust residual scatter of one fit part, and its effective degrees of freedom. */
-function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[], part: FitPartName): { scaleMm: number | null; df: number } {
+/** Whether two runs of readings were taken at the same points on the same axes in the same order. */
+function sameCodes(code: Int32Array, a: number, b: number, countA: number, countB: number): boolean {
+  if (countA !== countB) return false;
+  for (let k = 0; k < countA; k++) if (code[a + k] !== code[b + k]) return false;
+  return true;
+}
+
+/**
+ * The session's robust residual scatter of each fit part, and its effective degrees of freedom,
+ * from one pass over the readings: fore-aft residuals gathered from the front of the scratch array,
+ * lateral and vertical ones from its back (a median does not depend on the order).
+ */
+function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
   const values = flat.scatter;
-  const outOfPlane = part === 'outOfPlane';
-  let n = 0;
-  let redundancy = 0;
+  const { axis, standardized } = flat.buffer;
+  let nOut = 0;
+  let nIn = 0;
+  let redundancyOut = 0;
+  let redundancyIn = 0;
   for (let i = 0; i < cores.length; i++) {
     const core = cores[i];
     if (core === null) continue;
-    const fitted = core[part];
-    const spare = fitted.readingCount - fitted.parameterCount;
-    if (spare < 1) continue;
-    redundancy += spare;
+    const spareOut = core.outOfPlane.readingCount - core.outOfPlane.parameterCount;
+    const spareIn = core.inPlane.readingCount - core.inPlane.parameterCount;
+    if (spareOut >= 1) redundancyOut += spareOut;
+    if (spareIn >= 1) redundancyIn += spareIn;
     const end = flat.start[i] + flat.count[i];
     for (let k = flat.start[i]; k < end; k++) {
-      if ((flat.buffer.axis[k] === 0) === outOfPlane && !Number.isNaN(flat.buffer.standardized[k])) values[n++] = flat.buffer.standardized[k];
+      const r = standardized[k];
+      if (Number.isNaN(r)) continue;
+      if (axis[k] === 0) {
+        if (spareOut >= 1) values[nOut++] = r;
+      } else if (spareIn >= 1) values[values.length - 1 - nIn++] = r;
     }
   }
-  if (n < MIN_SCALE_RESIDUALS) return { scaleMm: null, df: 0 };
-  return { scaleMm: residualScaleInPlace(values.subarray(0, n)), df: MAD_EFFICIENCY * redundancy };
+  const scale = (n: number, from: number, redundancy: number) =>
+    n < MIN_SCALE_RESIDUALS ? { scaleMm: null, df: 0 } : { scaleMm: residualScaleInPlace(values.subarray(from, from + n)), df: MAD_EFFICIENCY * redundancy };
+  return { outOfPlane: scale(nOut, 0, redundancyOut), inPlane: scale(nIn, values.length - nIn, redundancyIn) };
 }
 
 /** The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if larger; null without readings. */
@@ -461,17 +482,29 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
   const flat = flatten(input, s);
   const corners = outlineCorners(input.outline);
   const worstOf = perimeterWorstOn(input.outline);
-  const cores: (PoseFitCore | null)[] = input.poses.map((_, i) => {
-    if (i === s.baselineIndex || flat.count[i] === 0) return null;
+  const cores: (PoseFitCore | null)[] = [];
+  // The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it.
+  let layout: PoseLayout | null = null;
+  let layoutStart = 0;
+  for (let i = 0; i < input.poses.length; i++) {
+    if (i === s.baselineIndex || flat.count[i] === 0) {
+      cores.push(null);
+      continue;
+    }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
-    return fitPoseParts(flat.buffer, corners);
-  });
+    if (layout === null || !sameCodes(flat.code, layoutStart, flat.start[i], layout.count, flat.count[i])) {
+      layout = poseLayout(flat.buffer, corners);
+      layoutStart = flat.start[i];
+    }
+    cores.push(fitPoseParts(flat.buffer, corners, layout));
+  }
 
   const scatterMm = {} as Record<FitPartName, number>;
   const limits = {} as Record<FitPartName, (tests: number) => number>;
+  const scatters = sessionScatter(flat, cores);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
-    const { scaleMm, df } = sessionScatter(flat, cores, part);
+    const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
     scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
     const cache = new Map<number, number>();

@@ -20,6 +20,9 @@
  * s₍ᵢ₎² = (SSR − eᵢ²/(1 − hᵢ)) / (n − p − 1).
  * Per part: the unscaled covariance (XᵀX)⁻¹ of the motion parameters, so the fit's uncertainty can
  * be carried to any point of the outline: SD of the prediction = σ·√(gᵀ(XᵀX)⁻¹g).
+ * All of that but the motion and the residuals depends only on where the readings were taken, so it
+ * is worked out once per layout (poseLayout) and reused for every pose read at the same points; the
+ * sums are taken in the same order either way, so a pose fits to the same bits with or without it.
  * Source: docs/method.md §2; Montgomery, Peck & Vining, Introduction to Linear Regression Analysis
  * (5th ed.), ch. 3 (least squares, the hat matrix, prediction variance) and §4.2.1 (scaled residuals,
  * PRESS and R-student, s₍ᵢ₎). Complexity O(readings).
@@ -122,47 +125,123 @@ function shiftedCovariance(v0: number, a1: number, a2: number, m11: number, m12:
   return [c00, c01, c02, c01, m11, m12, c02, m12, m22];
 }
 
-function fitOutOfPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): void {
+/** What a part's fit takes from the layout alone (its PartCore before the readings' values: ssr 0). */
+type PartShape = Omit<PartCore, 'ssr'>;
+
+interface OutOfPlaneLayout {
+  shape: PartShape;
+  /** Pose positions of the fore-aft readings, in order. */
+  at: Int32Array;
+  model: 'none' | 'full' | 'line' | 'translation';
+  n: number;
+  yMean: number;
+  zMean: number;
+  syy: number;
+  szz: number;
+  syz: number;
+  det: number;
+  /** The principal line's direction (model 'line'). */
+  uy: number;
+  uz: number;
+  spp: number;
+  /** Per fore-aft reading: y − ȳ and z − z̄ (model 'full'), or the position p along the line (model 'line'). */
+  dy: Float64Array;
+  dz: Float64Array;
+}
+
+interface InPlaneLayout {
+  shape: PartShape;
+  /** Pose positions of the lateral and vertical readings, in order. */
+  at: Int32Array;
+  nL: number;
+  nV: number;
+  zRef: number;
+  yRef: number;
+  s3: number;
+  rotation: boolean;
+  /** Per reading: its lever arm for the roll wx (−(z − z̄_lateral) or y − ȳ_vertical). */
+  lever: Float64Array;
+}
+
+/**
+ * Everything of a pose's fit that depends only on where its readings were taken (the axis and the
+ * point of each, in order) and on the opening, not on the values read: the models chosen, the
+ * leverages and the covariances. A session's poses are usually read at the same points, so
+ * designEnvelope works this out once and fits each pose with it (only sums of values remain).
+ */
+export interface PoseLayout {
+  count: number;
+  outOfPlane: OutOfPlaneLayout;
+  inPlane: InPlaneLayout;
+  /** Per reading of the pose: hᵢ, √(1 − hᵢ) and 1 − hᵢ (NaN where hᵢ ≈ 1). */
+  leverage: Float64Array;
+  rootRest: Float64Array;
+  rest: Float64Array;
+}
+
+function outOfPlaneLayout(b: PoseBuffer, corners: EdgeCorners, leverage: Float64Array): OutOfPlaneLayout {
   const end = b.start + b.count;
   let n = 0;
   let sy = 0;
   let sz = 0;
-  let sv = 0;
   for (let i = b.start; i < end; i++) {
     if (b.axis[i] !== 0) continue;
     n++;
     sy += b.y[i];
     sz += b.z[i];
-    sv += b.value[i];
   }
-  const part = fit.outOfPlane;
-  part.readingCount = n;
-  if (n === 0) {
-    part.status = 'none';
-    part.limitation = 'none';
-    return;
-  }
+  const at = new Int32Array(n);
+  const layout: OutOfPlaneLayout = {
+    shape: {
+      status: 'none',
+      limitation: 'none',
+      readingCount: n,
+      parameterCount: 0,
+      edgeErrorRatio: 0,
+      refusedEdgeErrorRatio: null,
+      covariance: emptyCovariance(),
+    },
+    at,
+    model: 'none',
+    n,
+    yMean: 0,
+    zMean: 0,
+    syy: 0,
+    szz: 0,
+    syz: 0,
+    det: 0,
+    uy: 0,
+    uz: 0,
+    spp: 0,
+    dy: new Float64Array(n),
+    dz: new Float64Array(n),
+  };
+  if (n === 0) return layout;
   const yMean = sy / n;
   const zMean = sz / n;
-  const vMean = sv / n;
   let syy = 0;
   let szz = 0;
   let syz = 0;
-  let syv = 0;
-  let szv = 0;
-  for (let i = b.start; i < end; i++) {
+  for (let i = b.start, k = 0; i < end; i++) {
     if (b.axis[i] !== 0) continue;
     const dy = b.y[i] - yMean;
     const dz = b.z[i] - zMean;
-    const dv = b.value[i] - vMean;
+    at[k] = i - b.start;
+    layout.dy[k] = dy;
+    layout.dz[k++] = dz;
     syy += dy * dy;
     szz += dz * dz;
     syz += dy * dz;
-    syv += dy * dv;
-    szv += dz * dv;
   }
+  layout.yMean = yMean;
+  layout.zMean = zMean;
+  layout.syy = syy;
+  layout.szz = szz;
+  layout.syz = syz;
+  const shape = layout.shape;
   // Full model in (c, wy, wz) with columns a = z − z̄ and b = −(y − ȳ): [[szz, −syz], [−syz, syy]].
   const det = szz * syy - syz * syz;
+  layout.det = det;
   let fullRatio = Infinity;
   if (n >= 3 && det > 1e-12 * Math.max(szz * syy, 1e-300)) {
     let worst = 0;
@@ -174,30 +253,19 @@ function fitOutOfPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): v
     fullRatio = Math.sqrt(worst);
   }
   if (fullRatio <= MAX_EDGE_ERROR_RATIO) {
-    const wy = (syy * szv - syz * syv) / det;
-    const wz = (syz * szv - szz * syv) / det;
-    fit.wy = wy;
-    fit.wz = wz;
-    fit.tx = vMean - wy * zMean + wz * yMean;
-    let ssr = 0;
-    for (let i = b.start; i < end; i++) {
-      if (b.axis[i] !== 0) continue;
-      const a = b.z[i] - zMean;
-      const c = -(b.y[i] - yMean);
-      const e = b.value[i] - (vMean + wy * a + wz * c);
-      b.residual[i] = e;
-      b.leverage[i] = 1 / n + (a * a * syy + 2 * a * c * syz + c * c * szz) / det;
-      ssr += e * e;
+    layout.model = 'full';
+    for (let k = 0; k < n; k++) {
+      const a = layout.dz[k];
+      const c = -layout.dy[k];
+      leverage[at[k]] = 1 / n + (a * a * syy + 2 * a * c * syz + c * c * szz) / det;
     }
-    part.status = 'full';
-    part.limitation = null;
-    part.parameterCount = 3;
-    part.ssr = ssr;
-    part.edgeErrorRatio = fullRatio;
-    part.refusedEdgeErrorRatio = null;
+    shape.status = 'full';
+    shape.limitation = null;
+    shape.parameterCount = 3;
+    shape.edgeErrorRatio = fullRatio;
     // tx = c − wy·z̄ + wz·ȳ; (wy, wz) has covariance [[syy, syz], [syz, szz]] / det.
-    part.covariance = shiftedCovariance(1 / n, -zMean, yMean, syy / det, syz / det, szz / det);
-    return;
+    shape.covariance = shiftedCovariance(1 / n, -zMean, yMean, syy / det, syz / det, szz / det);
+    return layout;
   }
   // The points' principal line: the larger eigenvector of the scatter matrix [[syy, syz], [syz, szz]].
   const half = Math.sqrt(((syy - szz) / 2) ** 2 + syz * syz);
@@ -207,12 +275,11 @@ function fitOutOfPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): v
   const uy = raw[0] / length;
   const uz = raw[1] / length;
   let spp = 0;
-  let spv = 0;
-  for (let i = b.start; i < end; i++) {
-    if (b.axis[i] !== 0) continue;
+  for (let k = 0; k < n; k++) {
+    const i = b.start + at[k];
     const p = (b.y[i] - yMean) * uy + (b.z[i] - zMean) * uz;
+    layout.dy[k] = p;
     spp += p * p;
-    spv += p * (b.value[i] - vMean);
   }
   let lineRatio = Infinity;
   if (n >= 2 && spp > 1e-12 * Math.max(lambda, 1e-300) * n) {
@@ -223,97 +290,81 @@ function fitOutOfPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): v
     }
     lineRatio = Math.sqrt(worst);
   }
-  part.refusedEdgeErrorRatio = Number.isFinite(fullRatio) ? fullRatio : null;
+  shape.refusedEdgeErrorRatio = Number.isFinite(fullRatio) ? fullRatio : null;
   if (lineRatio <= MAX_EDGE_ERROR_RATIO) {
-    const slope = spv / spp;
-    // dx varies along the line with gradient slope·u = (−wz, wy); across the line it is taken as flat.
-    fit.wz = -slope * uy;
-    fit.wy = slope * uz;
-    fit.tx = vMean - fit.wy * zMean + fit.wz * yMean;
-    let ssr = 0;
-    for (let i = b.start; i < end; i++) {
-      if (b.axis[i] !== 0) continue;
-      const p = (b.y[i] - yMean) * uy + (b.z[i] - zMean) * uz;
-      const e = b.value[i] - (vMean + slope * p);
-      b.residual[i] = e;
-      b.leverage[i] = 1 / n + (p * p) / spp;
-      ssr += e * e;
-    }
-    part.status = 'partial';
-    part.limitation = 'line';
-    part.parameterCount = 2;
-    part.ssr = ssr;
-    part.edgeErrorRatio = lineRatio;
+    layout.model = 'line';
+    layout.uy = uy;
+    layout.uz = uz;
+    layout.spp = spp;
+    for (let k = 0; k < n; k++) leverage[at[k]] = 1 / n + (layout.dy[k] * layout.dy[k]) / spp;
+    shape.status = 'partial';
+    shape.limitation = 'line';
+    shape.parameterCount = 2;
+    shape.edgeErrorRatio = lineRatio;
     // (wy, wz) = slope·(uz, −uy), Var(slope) = 1/spp.
-    part.covariance = shiftedCovariance(1 / n, -zMean, yMean, (uz * uz) / spp, (-uz * uy) / spp, (uy * uy) / spp);
-    return;
+    shape.covariance = shiftedCovariance(1 / n, -zMean, yMean, (uz * uz) / spp, (-uz * uy) / spp, (uy * uy) / spp);
+    return layout;
   }
-  fit.tx = vMean;
-  let ssr = 0;
-  for (let i = b.start; i < end; i++) {
-    if (b.axis[i] !== 0) continue;
-    const e = b.value[i] - vMean;
-    b.residual[i] = e;
-    b.leverage[i] = 1 / n;
-    ssr += e * e;
-  }
-  part.status = 'translationOnly';
-  part.limitation = lambda === 0 ? 'onePoint' : 'spread';
-  part.parameterCount = 1;
-  part.ssr = ssr;
-  part.edgeErrorRatio = Math.sqrt(1 / n);
-  if (part.refusedEdgeErrorRatio === null && Number.isFinite(lineRatio)) part.refusedEdgeErrorRatio = lineRatio;
-  const covariance = emptyCovariance();
-  covariance[0] = 1 / n;
-  part.covariance = covariance;
+  layout.model = 'translation';
+  for (let k = 0; k < n; k++) leverage[at[k]] = 1 / n;
+  shape.status = 'translationOnly';
+  shape.limitation = lambda === 0 ? 'onePoint' : 'spread';
+  shape.parameterCount = 1;
+  shape.edgeErrorRatio = Math.sqrt(1 / n);
+  if (shape.refusedEdgeErrorRatio === null && Number.isFinite(lineRatio)) shape.refusedEdgeErrorRatio = lineRatio;
+  shape.covariance[0] = 1 / n;
+  return layout;
 }
 
-function fitInPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): void {
+function inPlaneLayout(b: PoseBuffer, corners: EdgeCorners, leverage: Float64Array): InPlaneLayout {
   const end = b.start + b.count;
   let nL = 0;
   let nV = 0;
   let szL = 0;
-  let svL = 0;
   let syV = 0;
-  let svV = 0;
   for (let i = b.start; i < end; i++) {
     if (b.axis[i] === 1) {
       nL++;
       szL += b.z[i];
-      svL += b.value[i];
     } else if (b.axis[i] === 2) {
       nV++;
       syV += b.y[i];
-      svV += b.value[i];
     }
   }
-  const part = fit.inPlane;
-  part.readingCount = nL + nV;
-  if (nL + nV === 0) {
-    part.status = 'none';
-    part.limitation = 'none';
-    return;
-  }
+  const count = nL + nV;
+  const layout: InPlaneLayout = {
+    shape: {
+      status: 'none',
+      limitation: 'none',
+      readingCount: count,
+      parameterCount: 0,
+      edgeErrorRatio: 0,
+      refusedEdgeErrorRatio: null,
+      covariance: emptyCovariance(),
+    },
+    at: new Int32Array(count),
+    nL,
+    nV,
+    zRef: 0,
+    yRef: 0,
+    s3: 0,
+    rotation: false,
+    lever: new Float64Array(count),
+  };
+  if (count === 0) return layout;
   const zRef = nL > 0 ? szL / nL : 0;
   const yRef = nV > 0 ? syV / nV : 0;
-  const tyRef = nL > 0 ? svL / nL : 0;
-  const tzRef = nV > 0 ? svV / nV : 0;
   let s3 = 0;
-  let s3v = 0;
-  for (let i = b.start; i < end; i++) {
-    if (b.axis[i] === 1) {
-      const lever = -(b.z[i] - zRef);
-      s3 += lever * lever;
-      s3v += lever * (b.value[i] - tyRef);
-    } else if (b.axis[i] === 2) {
-      const lever = b.y[i] - yRef;
-      s3 += lever * lever;
-      s3v += lever * (b.value[i] - tzRef);
-    }
+  for (let i = b.start, k = 0; i < end; i++) {
+    if (b.axis[i] !== 1 && b.axis[i] !== 2) continue;
+    const lever = b.axis[i] === 1 ? -(b.z[i] - zRef) : b.y[i] - yRef;
+    layout.at[k] = i - b.start;
+    layout.lever[k++] = lever;
+    s3 += lever * lever;
   }
   const translations = (nL > 0 ? 1 : 0) + (nV > 0 ? 1 : 0);
   let rotationRatio = Infinity;
-  if (nL + nV > translations && s3 > 1e-12 * (nL + nV)) {
+  if (count > translations && s3 > 1e-12 * count) {
     let worst = 0;
     for (let k = 0; k < 8; k += 2) {
       if (nL > 0) worst = Math.max(worst, 1 / nL + (corners[k + 1] - zRef) ** 2 / s3);
@@ -322,91 +373,184 @@ function fitInPlane(b: PoseBuffer, corners: EdgeCorners, fit: PoseFitCore): void
     rotationRatio = Math.sqrt(worst);
   }
   const rotation = rotationRatio <= MAX_EDGE_ERROR_RATIO;
-  const wx = rotation ? s3v / s3 : 0;
-  fit.wx = wx;
-  fit.ty = nL > 0 ? tyRef + wx * zRef : 0;
-  fit.tz = nV > 0 ? tzRef - wx * yRef : 0;
-  let ssr = 0;
-  for (let i = b.start; i < end; i++) {
-    if (b.axis[i] === 1) {
-      const lever = -(b.z[i] - zRef);
-      const e = b.value[i] - (tyRef + wx * lever);
-      b.residual[i] = e;
-      b.leverage[i] = 1 / nL + (rotation ? (lever * lever) / s3 : 0);
-      ssr += e * e;
-    } else if (b.axis[i] === 2) {
-      const lever = b.y[i] - yRef;
-      const e = b.value[i] - (tzRef + wx * lever);
-      b.residual[i] = e;
-      b.leverage[i] = 1 / nV + (rotation ? (lever * lever) / s3 : 0);
-      ssr += e * e;
-    }
+  layout.zRef = zRef;
+  layout.yRef = yRef;
+  layout.s3 = s3;
+  layout.rotation = rotation;
+  for (let k = 0; k < count; k++) {
+    const lever = layout.lever[k];
+    leverage[layout.at[k]] = (b.axis[b.start + layout.at[k]] === 1 ? 1 / nL : 1 / nV) + (rotation ? (lever * lever) / s3 : 0);
   }
-  part.parameterCount = translations + (rotation ? 1 : 0);
-  part.ssr = ssr;
-  part.refusedEdgeErrorRatio = rotation || !Number.isFinite(rotationRatio) ? null : rotationRatio;
+  const shape = layout.shape;
+  shape.parameterCount = translations + (rotation ? 1 : 0);
+  shape.refusedEdgeErrorRatio = rotation || !Number.isFinite(rotationRatio) ? null : rotationRatio;
   if (rotation) {
-    part.status = translations === 2 ? 'full' : 'partial';
-    part.limitation = translations === 2 ? null : 'missingAxis';
-    part.edgeErrorRatio = rotationRatio;
+    shape.status = translations === 2 ? 'full' : 'partial';
+    shape.limitation = translations === 2 ? null : 'missingAxis';
+    shape.edgeErrorRatio = rotationRatio;
   } else {
-    part.status = 'translationOnly';
-    part.limitation = 'noRotation';
-    part.edgeErrorRatio = Math.sqrt(Math.max(nL > 0 ? 1 / nL : 0, nV > 0 ? 1 / nV : 0));
+    shape.status = 'translationOnly';
+    shape.limitation = 'noRotation';
+    shape.edgeErrorRatio = Math.sqrt(Math.max(nL > 0 ? 1 / nL : 0, nV > 0 ? 1 / nV : 0));
   }
   // ty = ty₀ + wx·z̄_lateral, tz = tz₀ − wx·ȳ_vertical; ty₀, tz₀ and wx are uncorrelated.
   const vL = nL > 0 ? 1 / nL : 0;
   const vV = nV > 0 ? 1 / nV : 0;
   const vW = rotation ? 1 / s3 : 0;
-  part.covariance = [vL + zRef * zRef * vW, -zRef * yRef * vW, zRef * vW, -zRef * yRef * vW, vV + yRef * yRef * vW, -yRef * vW, zRef * vW, -yRef * vW, vW];
+  shape.covariance = [vL + zRef * zRef * vW, -zRef * yRef * vW, zRef * vW, -zRef * yRef * vW, vV + yRef * yRef * vW, -yRef * vW, zRef * vW, -yRef * vW, vW];
+  return layout;
 }
 
-function emptyPart(): PartCore {
+/**
+ * The layout of one pose's readings (see PoseLayout): the same for every pose read at the same
+ * points on the same axes in the same order.
+ * @param buffer the pose's readings (axis, y and z are used; values are not).
+ * @param corners the opening's bounding-rectangle corners (outlineCorners), for identifiability.
+ * @returns the models, leverages and covariances of both parts.
+ * @example fitPoseParts(buffer, corners, poseLayout(buffer, corners)).inPlane.status // => 'full'
+ */
+export function poseLayout(buffer: PoseBuffer, corners: EdgeCorners): PoseLayout {
+  const leverage = new Float64Array(buffer.count);
+  const outOfPlane = outOfPlaneLayout(buffer, corners, leverage);
+  const inPlane = inPlaneLayout(buffer, corners, leverage);
+  const rootRest = new Float64Array(buffer.count);
+  const rest = new Float64Array(buffer.count);
+  for (let k = 0; k < buffer.count; k++) {
+    const h = leverage[k];
+    rest[k] = h < FULL_LEVERAGE ? 1 - h : Number.NaN;
+    rootRest[k] = Math.sqrt(rest[k]);
+  }
+  return { count: buffer.count, outOfPlane, inPlane, leverage, rootRest, rest };
+}
+
+function partCore(shape: PartShape, ssr: number): PartCore {
   return {
-    status: 'none',
-    limitation: 'none',
-    readingCount: 0,
-    parameterCount: 0,
-    ssr: 0,
-    edgeErrorRatio: 0,
-    refusedEdgeErrorRatio: null,
-    covariance: emptyCovariance(),
+    status: shape.status,
+    limitation: shape.limitation,
+    readingCount: shape.readingCount,
+    parameterCount: shape.parameterCount,
+    ssr,
+    edgeErrorRatio: shape.edgeErrorRatio,
+    refusedEdgeErrorRatio: shape.refusedEdgeErrorRatio,
+    covariance: shape.covariance.slice(),
   };
+}
+
+/** The out-of-plane motion and residuals from the layout; returns the part's SSR. */
+function fitOutOfPlane(b: PoseBuffer, o: OutOfPlaneLayout, fit: PoseFitCore): number {
+  const { n, at } = o;
+  if (n === 0) return 0;
+  const from = b.start;
+  let sv = 0;
+  for (let k = 0; k < n; k++) sv += b.value[from + at[k]];
+  const vMean = sv / n;
+  let ssr = 0;
+  if (o.model === 'full') {
+    let syv = 0;
+    let szv = 0;
+    for (let k = 0; k < n; k++) {
+      const dv = b.value[from + at[k]] - vMean;
+      syv += o.dy[k] * dv;
+      szv += o.dz[k] * dv;
+    }
+    const wy = (o.syy * szv - o.syz * syv) / o.det;
+    const wz = (o.syz * szv - o.szz * syv) / o.det;
+    fit.wy = wy;
+    fit.wz = wz;
+    fit.tx = vMean - wy * o.zMean + wz * o.yMean;
+    for (let k = 0; k < n; k++) {
+      const i = from + at[k];
+      const e = b.value[i] - (vMean + wy * o.dz[k] + wz * -o.dy[k]);
+      b.residual[i] = e;
+      ssr += e * e;
+    }
+    return ssr;
+  }
+  if (o.model === 'line') {
+    let spv = 0;
+    for (let k = 0; k < n; k++) spv += o.dy[k] * (b.value[from + at[k]] - vMean);
+    const slope = spv / o.spp;
+    // dx varies along the line with gradient slope·u = (−wz, wy); across the line it is taken as flat.
+    fit.wz = -slope * o.uy;
+    fit.wy = slope * o.uz;
+    fit.tx = vMean - fit.wy * o.zMean + fit.wz * o.yMean;
+    for (let k = 0; k < n; k++) {
+      const i = from + at[k];
+      const e = b.value[i] - (vMean + slope * o.dy[k]);
+      b.residual[i] = e;
+      ssr += e * e;
+    }
+    return ssr;
+  }
+  fit.tx = vMean;
+  for (let k = 0; k < n; k++) {
+    const i = from + at[k];
+    const e = b.value[i] - vMean;
+    b.residual[i] = e;
+    ssr += e * e;
+  }
+  return ssr;
+}
+
+/** The in-plane motion and residuals from the layout; returns the part's SSR. */
+function fitInPlane(b: PoseBuffer, l: InPlaneLayout, fit: PoseFitCore): number {
+  const { nL, nV, at, lever } = l;
+  const count = nL + nV;
+  if (count === 0) return 0;
+  const from = b.start;
+  let svL = 0;
+  let svV = 0;
+  for (let k = 0; k < count; k++) {
+    const i = from + at[k];
+    if (b.axis[i] === 1) svL += b.value[i];
+    else svV += b.value[i];
+  }
+  const tyRef = nL > 0 ? svL / nL : 0;
+  const tzRef = nV > 0 ? svV / nV : 0;
+  let wx = 0;
+  if (l.rotation) {
+    let s3v = 0;
+    for (let k = 0; k < count; k++) {
+      const i = from + at[k];
+      s3v += lever[k] * (b.value[i] - (b.axis[i] === 1 ? tyRef : tzRef));
+    }
+    wx = s3v / l.s3;
+  }
+  fit.wx = wx;
+  fit.ty = nL > 0 ? tyRef + wx * l.zRef : 0;
+  fit.tz = nV > 0 ? tzRef - wx * l.yRef : 0;
+  let ssr = 0;
+  for (let k = 0; k < count; k++) {
+    const i = from + at[k];
+    const e = b.value[i] - ((b.axis[i] === 1 ? tyRef : tzRef) + wx * lever[k]);
+    b.residual[i] = e;
+    ssr += e * e;
+  }
+  return ssr;
 }
 
 /**
  * Fits one pose's readings (see the module comment).
  * @param buffer the pose's readings as parallel arrays; residual statistics are written back into it.
  * @param corners the opening's bounding-rectangle corners (outlineCorners), for identifiability.
+ * @param layout the pose's layout when the caller already has it (poseLayout of a pose read at the same points).
  * @returns the motion and both parts.
  * @example fitPoseParts(buffer, corners).inPlane.status // => 'full'
  */
-export function fitPoseParts(buffer: PoseBuffer, corners: EdgeCorners): PoseFitCore {
-  const end = buffer.start + buffer.count;
-  const fit: PoseFitCore = {
-    tx: 0,
-    ty: 0,
-    tz: 0,
-    wx: 0,
-    wy: 0,
-    wz: 0,
-    outOfPlane: emptyPart(),
-    inPlane: emptyPart(),
-  };
-  fitOutOfPlane(buffer, corners, fit);
-  fitInPlane(buffer, corners, fit);
-  for (let i = buffer.start; i < end; i++) {
+export function fitPoseParts(buffer: PoseBuffer, corners: EdgeCorners, layout: PoseLayout = poseLayout(buffer, corners)): PoseFitCore {
+  const fit: PoseFitCore = { tx: 0, ty: 0, tz: 0, wx: 0, wy: 0, wz: 0, outOfPlane: null as unknown as PartCore, inPlane: null as unknown as PartCore };
+  fit.outOfPlane = partCore(layout.outOfPlane.shape, fitOutOfPlane(buffer, layout.outOfPlane, fit));
+  fit.inPlane = partCore(layout.inPlane.shape, fitInPlane(buffer, layout.inPlane, fit));
+  const { leverage, rootRest, rest } = layout;
+  for (let k = 0; k < buffer.count; k++) {
+    const i = buffer.start + k;
     const part = buffer.axis[i] === 0 ? fit.outOfPlane : fit.inPlane;
-    const h = buffer.leverage[i];
     const e = buffer.residual[i];
     const spare = part.readingCount - part.parameterCount - 1;
-    if (h < FULL_LEVERAGE) {
-      buffer.standardized[i] = e / Math.sqrt(1 - h);
-      buffer.deletedSd[i] = spare >= 1 ? Math.sqrt(Math.max(0, (part.ssr - (e * e) / (1 - h)) / spare)) : Number.NaN;
-    } else {
-      buffer.standardized[i] = Number.NaN;
-      buffer.deletedSd[i] = Number.NaN;
-    }
+    buffer.leverage[i] = leverage[k];
+    // NaN where the reading alone fixes its fitted value (hᵢ ≈ 1): it has no residual to judge.
+    buffer.standardized[i] = e / rootRest[k];
+    buffer.deletedSd[i] = spare >= 1 ? Math.sqrt(Math.max(0, (part.ssr - (e * e) / rest[k]) / spare)) : Number.NaN;
   }
   return fit;
 }
