@@ -11,7 +11,7 @@ import type { SessionReview } from '../../shared/desk-responses';
 import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
-import { etagOf, teamCursorSql } from '../http/validator';
+import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
@@ -62,17 +62,21 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
 
 /**
  * The review's validator: the team's change cursor moves with any change to the session's
- * records, the history's count and last id with any new event (http/validator.ts), and the
- * members' latest update with a renamed person (the answer names who entered and who changed what).
+ * records, the history's count and last id with any new event (http/validator.ts), and the latest
+ * update of the people the answer names (who entered a reading, who changed something; members
+ * or not any more) with a renamed person. Its key also names the workshop and the session, for
+ * the answer cache.
  */
-export async function reviewEtag(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<string> {
+export async function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<AnswerValidator> {
   const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number; people: number }>(
     `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
-       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.team_id = $1) AS people
+       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
+         WHERE u.id IN (SELECT r.entered_by FROM readings r JOIN poses p ON p.id = r.pose_id WHERE p.session_id = $2 AND p.team_id = $1 AND r.team_id = $1)
+            OR u.id IN (SELECT user_id FROM history_events WHERE team_id = $1 AND session_id = $2)) AS people
      FROM history_events WHERE team_id = $1 AND session_id = $2`,
     { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT },
   );
-  return etagOf('review', [row.cursor, row.events, row.last, row.people], auth.sessionId);
+  return answerValidator('review', [auth.teamId, sessionId], [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
 
 /** The history action of a change to a reading, at the desk or through sync. */
