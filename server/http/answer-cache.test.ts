@@ -67,4 +67,12 @@ describe('the answer cache', () => {
     ).rejects.toThrow('session not found');
     expect((await cachedAnswer('review t gone 1', 'identity', async () => '{"ok":true}')).toString()).toBe('{"ok":true}');
   });
+
+  it('keeps nothing when configured with 0 bytes: every request builds', async () => {
+    configureAnswerCache(0);
+    let builds = 0;
+    for (let i = 0; i < 3; i++) await cachedAnswer('review t s 1', 'br', async () => `{"n":${++builds}}`);
+    expect(builds).toBe(3);
+    expect(answerCacheUse()).toEqual({ bytes: 0, entries: 0, maxBytes: 0 });
+  });
 });

@@ -35,15 +35,15 @@ function newCache(maxBytes: number) {
   });
 }
 
-let cache = newCache(DEFAULT_ANSWER_CACHE_BYTES);
+let cache: ReturnType<typeof newCache> | null = newCache(DEFAULT_ANSWER_CACHE_BYTES);
 
-/** Sets the bound (at start-up; empties the cache). */
+/** Sets the bound (at start-up; empties the cache); 0 keeps nothing: every answer is built. */
 export function configureAnswerCache(maxBytes: number): void {
-  cache = newCache(maxBytes);
+  cache = maxBytes > 0 ? newCache(maxBytes) : null;
 }
 
-/** What the cache holds now, for tests and the bench. */
-export const answerCacheUse = () => ({ bytes: cache.calculatedSize, entries: cache.size, maxBytes: cache.maxSize });
+/** What the cache holds now, for tests. */
+export const answerCacheUse = () => ({ bytes: cache?.calculatedSize ?? 0, entries: cache?.size ?? 0, maxBytes: cache?.maxSize ?? 0 });
 
 /**
  * The encoding to send: the one the client weighs highest of brotli and gzip (brotli when it
@@ -56,9 +56,10 @@ export function answerEncoding(req: Request): AnswerEncoding {
 
 /** The answer's bytes in `encoding`, from the cache or built once (and compressed once) for `key`. */
 export async function cachedAnswer(key: string, encoding: AnswerEncoding, build: () => Promise<string>): Promise<Buffer> {
-  const plain = async () => (await cache.fetch(`${key} identity`, { context: async () => Buffer.from(await build(), 'utf8') }))!;
+  const kept = async (k: string, make: Build) => (cache ? (await cache.fetch(k, { context: make }))! : make());
+  const plain = () => kept(`${key} identity`, async () => Buffer.from(await build(), 'utf8'));
   if (encoding === 'identity') return plain();
-  return (await cache.fetch(`${key} ${encoding}`, { context: async () => compress[encoding](await plain()) }))!;
+  return kept(`${key} ${encoding}`, async () => compress[encoding](await plain()));
 }
 
 /**
