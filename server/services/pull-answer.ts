@@ -15,6 +15,7 @@ import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/va
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { lockTeamChanges } from './team-changes';
 import { translateDbError } from './sync-db-errors';
+import { preparedSelect } from '../db';
 
 type Puller = Pick<AuthContext, 'teamId' | 'userId' | 'sessionId'>;
 
@@ -58,16 +59,16 @@ SELECT json_build_object(
 )::text AS body FROM cur`);
 };
 
+// $1 team, $2 person. Run on every pull (prepared once per connection).
+const PULL_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS team, ${conflictCursorSql('$2')} AS conflicts`;
+
 /**
  * The pull's validator: the team's change cursor, the person's conflicts' cursor, and the page
  * asked for, from one small query. Any change a pull from `since` could carry moves one of the
  * cursors. Its key also names the workshop and the person (their conflicts are theirs alone).
  */
 export async function pullValidator(auth: Puller, since: number, limit: number): Promise<AnswerValidator> {
-  const [row] = await db().query<{ team: number; conflicts: number }>(`SELECT ${teamCursorSql} AS team, ${conflictCursorSql('$2')} AS conflicts`, {
-    bind: [auth.teamId, auth.userId],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await preparedSelect<{ team: number; conflicts: number }>(db(), 'pull-validator', PULL_VALIDATOR_SQL, [auth.teamId, auth.userId]);
   return answerValidator('pull', [auth.teamId, auth.userId], [since, limit, Number(row.team), Number(row.conflicts)], auth.sessionId);
 }
 

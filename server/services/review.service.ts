@@ -10,6 +10,7 @@ import type { ReadingReviewInput } from '../../shared/schemas/envelope';
 import type { SessionReview } from '../../shared/desk-responses';
 import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
+import { preparedSelect } from '../db';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
 
@@ -68,16 +69,21 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
  * the answer cache.
  */
 export async function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<AnswerValidator> {
-  const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number; people: number }>(
-    `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
-       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
-         WHERE u.id IN (SELECT r.entered_by FROM readings r JOIN poses p ON p.id = r.pose_id WHERE p.session_id = $2 AND p.team_id = $1 AND r.team_id = $1)
-            OR u.id IN (SELECT user_id FROM history_events WHERE team_id = $1 AND session_id = $2)) AS people
-     FROM history_events WHERE team_id = $1 AND session_id = $2`,
-    { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT },
+  const [row] = await preparedSelect<{ cursor: number; events: number; last: number; people: number }>(
+    TestSessionModel.sequelize!,
+    'review-validator',
+    REVIEW_VALIDATOR_SQL,
+    [auth.teamId, sessionId],
   );
   return answerValidator('review', [auth.teamId, sessionId], [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
+
+// $1 team, $2 session. Run on every request for the review (prepared once per connection).
+const REVIEW_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+   (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
+     WHERE u.id IN (SELECT r.entered_by FROM readings r JOIN poses p ON p.id = r.pose_id WHERE p.session_id = $2 AND p.team_id = $1 AND r.team_id = $1)
+        OR u.id IN (SELECT user_id FROM history_events WHERE team_id = $1 AND session_id = $2)) AS people
+ FROM history_events WHERE team_id = $1 AND session_id = $2`;
 
 /** The history action of a change to a reading, at the desk or through sync. */
 export function readingEditAction(changes: Record<string, unknown>, excludedAfter: boolean): string {
