@@ -155,12 +155,17 @@ describe('the review answer', () => {
 
   it('shows the new name of a person who left the workshop and was renamed since', async () => {
     // The review names whoever entered readings or changed something, members or not: a tester
-    // removed from this workshop but still in another renames themself there.
+    // who synced this session, then was removed from this workshop but is still in another,
+    // renames themself there.
     const team = await createTeam();
     const other = await createTeam('Other workshop');
     const s = await createDeskSession(team);
     const testerId = team.members.tester.userId;
     await MembershipModel.create({ id: randomUUID(), teamId: other.teamId, userId: testerId, role: 'tester' });
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    const pose = (await tester.get('/api/sync/pull?since=0')).body.poses.find((p: { id: string }) => p.id === s.poseIds[0]);
+    const synced = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', { ...pose, notes: 'chocks in' })] });
+    expect(synced.status).toBe(200);
     const engineer = await signedInAgent(ts, team.members.engineer.email);
     const admin = await signedInAgent(ts, team.members.admin.email);
     expect((await admin.delete(`/api/team/members/${testerId}`)).status).toBe(200);
