@@ -14,6 +14,7 @@ import { allRoutes } from './routes';
 import { errorHandler } from './http/error-handler';
 import { NotFound } from './http/errors';
 import { trackRequests } from './http/lifecycle';
+import { configureAnswerCache, DEFAULT_ANSWER_CACHE_BYTES } from './http/answer-cache';
 
 export interface AppOptions {
   logger: Logger;
@@ -24,10 +25,13 @@ export interface AppOptions {
   extraRouters?: Router[];
   /** Production: HSTS and upgrade-insecure-requests (the app is served over HTTPS there). */
   production?: boolean;
+  /** Memory for finished review and pull answers (http/answer-cache.ts); 64 MB unless given. */
+  answerCacheBytes?: number;
 }
 
 export function createApp(opts: AppOptions) {
   const app = express();
+  configureAnswerCache(opts.answerCacheBytes ?? DEFAULT_ANSWER_CACHE_BYTES);
   app.disable('x-powered-by');
   // No ETags made by hashing bodies: that costs CPU on every large answer. The routes whose
   // answers are large and often unchanged (review, pull) set a cheap validator of their own

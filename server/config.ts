@@ -32,6 +32,8 @@ const env = z.object({
   TRUST_PROXY: z.string().default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
   DB_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
+  /** Memory for finished review and pull answers, per instance (http/answer-cache.ts); 0 keeps none. */
+  ANSWER_CACHE_MB: z.coerce.number().int().min(0).max(16_384).default(64),
 });
 
 export type Config = z.infer<typeof env> & { publicUrl: string };

@@ -56,6 +56,7 @@ async function main() {
     trustProxy: config.TRUST_PROXY,
     extraRouters,
     production: config.NODE_ENV === 'production',
+    answerCacheBytes: config.ANSWER_CACHE_MB * 1024 * 1024,
   });
   const server = http.createServer(app);
   // Longer than a proxy's idle timeout, so the proxy, not this server, closes idle connections.

@@ -6,7 +6,8 @@
 import { createHash } from 'node:crypto';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Argon2id } from 'oslo/password';
-import { Op, QueryTypes } from 'sequelize';
+import { Op } from 'sequelize';
+import { preparedSelect } from '../db';
 import { UserSessionModel } from '../models';
 import type { Role, UnitSystem } from '../../shared/schemas/common';
 import type { PhotoGps, Team } from '../../shared/schemas/team';
@@ -42,21 +43,21 @@ interface SessionRow {
   photo_gps: PhotoGps;
 }
 
+// One query per signed-in request: the session, its person (with their own units) and their role
+// in the session's team (null once they are no longer a member) and the team's name and
+// settings, read afresh so a change counts at once; /api/me needs no query of its own. Prepared
+// once per connection (db.ts preparedSelect): planning the join cost more than running it.
+const SESSION_AND_PERSON_SQL = `SELECT s.user_id, s.team_id, s.expires_at, u.email, u.name, u.unit_system AS user_unit_system, m.role,
+        t.name AS team_name, t.unit_system AS team_unit_system, t.photo_gps
+   FROM user_sessions s
+   JOIN users u ON u.id = s.user_id
+   JOIN teams t ON t.id = s.team_id
+   LEFT JOIN memberships m ON m.user_id = s.user_id AND m.team_id = s.team_id
+  WHERE s.id = $1`;
+
 const sequelizeAdapter: Adapter = {
-  // One query per signed-in request: the session, its person (with their own units) and their role
-  // in the session's team (null once they are no longer a member) and the team's name and
-  // settings, read afresh so a change counts at once; /api/me needs no query of its own.
   async getSessionAndUser(sessionId) {
-    const [row] = await UserSessionModel.sequelize!.query<SessionRow>(
-      `SELECT s.user_id, s.team_id, s.expires_at, u.email, u.name, u.unit_system AS user_unit_system, m.role,
-              t.name AS team_name, t.unit_system AS team_unit_system, t.photo_gps
-         FROM user_sessions s
-         JOIN users u ON u.id = s.user_id
-         JOIN teams t ON t.id = s.team_id
-         LEFT JOIN memberships m ON m.user_id = s.user_id AND m.team_id = s.team_id
-        WHERE s.id = $1`,
-      { bind: [storedSessionId(sessionId)], type: QueryTypes.SELECT },
-    );
+    const [row] = await preparedSelect<SessionRow>(UserSessionModel.sequelize!, 'session-and-person', SESSION_AND_PERSON_SQL, [storedSessionId(sessionId)]);
     if (!row) return [null, null];
     const team = { id: row.team_id, name: row.team_name, unitSystem: row.team_unit_system, photoGps: row.photo_gps };
     const session: DatabaseSession = {

@@ -33,6 +33,20 @@ export function etagOf(kind: string, parts: (string | number)[], signInSessionId
   return `W/"${kind}.${parts.join('.')}.${who}"`;
 }
 
+/**
+ * What an answer's bytes are known by: `key` names the state exactly (the kind, whose data it is
+ * and the validator's parts) for the instance's answer cache (answer-cache.ts); `etag` is what the
+ * person's browser keeps (the same parts, bound to their sign-in session).
+ */
+export interface AnswerValidator {
+  key: string;
+  etag: string;
+}
+
+export function answerValidator(kind: string, scope: string[], parts: (string | number)[], signInSessionId: string): AnswerValidator {
+  return { key: [kind, ...scope, ...parts].join(' '), etag: etagOf(kind, parts, signInSessionId) };
+}
+
 /** Sets the ETag; answers 304 with no body when the request's If-None-Match names it (true then). */
 export function answeredNotModified(req: Request, res: Response, etag: string): boolean {
   res.setHeader('ETag', etag);
@@ -41,9 +55,4 @@ export function answeredNotModified(req: Request, res: Response, etag: string): 
   const matches = sent.split(',').some((tag) => tag.trim() === etag || tag.trim() === '*');
   if (matches) res.status(304).end();
   return matches;
-}
-
-/** Sends JSON text PostgreSQL already built. */
-export function sendJsonText(res: Response, text: string): void {
-  res.type('application/json').send(text);
 }

@@ -2,8 +2,9 @@ import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { readingReviewInput } from '../../shared/schemas/envelope';
-import { getReviewJson, reviewEtag, reviewReading } from '../services/review.service';
-import { answeredNotModified, sendJsonText } from '../http/validator';
+import { getReviewJson, reviewReading, reviewValidator } from '../services/review.service';
+import { answeredNotModified } from '../http/validator';
+import { sendCachedJson } from '../http/answer-cache';
 
 const byId = z.object({ id });
 
@@ -13,10 +14,12 @@ export const reviewRoutes = [
     path: '/api/sessions/:id/review',
     access: 'session.review',
     params: byId,
-    // Unchanged since the client's copy: 304 after one small query; else the JSON PostgreSQL built.
+    // Unchanged since the client's copy: 304 after one small query; else the bytes this instance
+    // already sent for the same validator, or the JSON PostgreSQL builds.
     handler: async ({ auth, params, req, res }) => {
-      if (answeredNotModified(req, res, await reviewEtag(auth, params.id))) return undefined;
-      sendJsonText(res, await getReviewJson(auth, params.id));
+      const validator = await reviewValidator(auth, params.id);
+      if (answeredNotModified(req, res, validator.etag)) return undefined;
+      await sendCachedJson(req, res, validator.key, () => getReviewJson(auth, params.id));
       return undefined;
     },
   }),

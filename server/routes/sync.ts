@@ -4,8 +4,9 @@ import { id } from '../../shared/schemas';
 import { pullQuery, pushRequest, resolveConflictInput } from '../../shared/schemas/sync';
 import { pushBatch } from '../services/sync-push';
 import { resolveConflict } from '../services/sync-conflicts';
-import { currentPullEtag, pullJson } from '../services/pull-answer';
-import { answeredNotModified, sendJsonText } from '../http/validator';
+import { pullJson, pullValidator } from '../services/pull-answer';
+import { answeredNotModified } from '../http/validator';
+import { sendCachedJson } from '../http/answer-cache';
 
 export const syncRoutes = [
   route({
@@ -23,12 +24,11 @@ export const syncRoutes = [
     access: 'session.read',
     query: pullQuery,
     // Nothing changed since the phone's copy of this page: 304 after one small query; else the
-    // JSON PostgreSQL built, with the validator of the state it was read from.
+    // bytes this instance already sent for the same validator, or the JSON PostgreSQL builds.
     handler: async ({ auth, query, req, res }) => {
-      if (answeredNotModified(req, res, await currentPullEtag(auth, query.since, query.limit))) return undefined;
-      const { body, etag } = await pullJson(auth, query.since, query.limit);
-      res.setHeader('ETag', etag);
-      sendJsonText(res, body);
+      const validator = await pullValidator(auth, query.since, query.limit);
+      if (answeredNotModified(req, res, validator.etag)) return undefined;
+      await sendCachedJson(req, res, validator.key, () => pullJson(auth, query.since, query.limit));
       return undefined;
     },
   }),

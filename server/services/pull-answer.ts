@@ -11,10 +11,11 @@ import type { AuthContext } from '../auth/context';
 import { VehicleModel } from '../models';
 import { records, syncEntities } from '../../shared/records';
 import { syncTables } from './sync-tables';
-import { etagOf, teamCursorSql } from '../http/validator';
+import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { lockTeamChanges } from './team-changes';
 import { translateDbError } from './sync-db-errors';
+import { preparedSelect } from '../db';
 
 type Puller = Pick<AuthContext, 'teamId' | 'userId' | 'sessionId'>;
 
@@ -52,40 +53,37 @@ WITH ${tables.map(([, alias, rows]) => `${alias} AS (${rows})`).join(',\n')},
 pages AS (${aliases.map((a) => `SELECT count(*) AS n, max(change_seq) AS last FROM ${a}`).join(' UNION ALL ')}),
 cur AS (SELECT coalesce((SELECT min(last) FROM pages WHERE n = $3), greatest($2, (SELECT max(last) FROM pages))) AS cursor,
   EXISTS (SELECT 1 FROM pages WHERE n = $3) AS more)
-SELECT ${teamCursorSql} AS team_cursor, ${conflictCursorSql('$4')} AS conflict_cursor, json_build_object(
+SELECT json_build_object(
   'cursor', cur.cursor, 'hasMore', cur.more,
   ${tables.map(([key, alias, , json]) => `'${key}', coalesce((SELECT json_agg(${json} ORDER BY ${alias}.change_seq) FROM ${alias} WHERE ${alias}.change_seq <= cur.cursor), '[]')`).join(',\n  ')}
 )::text AS body FROM cur`);
 };
 
+// $1 team, $2 person. Run on every pull (prepared once per connection).
+const PULL_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS team, ${conflictCursorSql('$2')} AS conflicts`;
+
 /**
  * The pull's validator: the team's change cursor, the person's conflicts' cursor, and the page
- * asked for. Any change a pull from `since` could carry moves one of the cursors.
+ * asked for, from one small query. Any change a pull from `since` could carry moves one of the
+ * cursors. Its key also names the workshop and the person (their conflicts are theirs alone).
  */
-const pullEtag = (auth: Puller, since: number, limit: number, teamCursor: number, conflictCursor: number) =>
-  etagOf('pull', [since, limit, teamCursor, conflictCursor], auth.sessionId);
-
-/** The current validator of a pull, from one small query. */
-export async function currentPullEtag(auth: Puller, since: number, limit: number): Promise<string> {
-  const [row] = await db().query<{ team: number; conflicts: number }>(`SELECT ${teamCursorSql} AS team, ${conflictCursorSql('$2')} AS conflicts`, {
-    bind: [auth.teamId, auth.userId],
-    type: QueryTypes.SELECT,
-  });
-  return pullEtag(auth, since, limit, Number(row.team), Number(row.conflicts));
+export async function pullValidator(auth: Puller, since: number, limit: number): Promise<AnswerValidator> {
+  const [row] = await preparedSelect<{ team: number; conflicts: number }>(db(), 'pull-validator', PULL_VALIDATOR_SQL, [auth.teamId, auth.userId]);
+  return answerValidator('pull', [auth.teamId, auth.userId], [since, limit, Number(row.team), Number(row.conflicts)], auth.sessionId);
 }
 
-/** The pull as JSON text, and the validator of exactly the state it was read from. */
-export async function pullJson(auth: Puller, since: number, limit: number): Promise<{ body: string; etag: string }> {
+/** The pull as JSON text, read once the team's writers in flight have committed. */
+export async function pullJson(auth: Puller, since: number, limit: number): Promise<string> {
   try {
     return await db().transaction(async (transaction) => {
       // Wait for writers in flight: the cursor must not pass a change that commits late.
       await lockTeamChanges(auth.teamId, transaction, 'read');
-      const [row] = await db().query<{ team_cursor: number; conflict_cursor: number; body: string }>(pullSql(), {
+      const [row] = await db().query<{ body: string }>(pullSql(), {
         bind: [auth.teamId, since, limit, auth.userId],
         type: QueryTypes.SELECT,
         transaction,
       });
-      return { body: row.body, etag: pullEtag(auth, since, limit, Number(row.team_cursor), Number(row.conflict_cursor)) };
+      return row.body;
     });
   } catch (err) {
     translateDbError(err, () => null);

@@ -10,8 +10,9 @@ import type { ReadingReviewInput } from '../../shared/schemas/envelope';
 import type { SessionReview } from '../../shared/desk-responses';
 import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
+import { preparedSelect } from '../db';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
-import { etagOf, teamCursorSql } from '../http/validator';
+import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
@@ -62,18 +63,31 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
 
 /**
  * The review's validator: the team's change cursor moves with any change to the session's
- * records, the history's count and last id with any new event (http/validator.ts), and the
- * members' latest update with a renamed person (the answer names who entered and who changed what).
+ * records, the history's count and last id with any new event (http/validator.ts), and the latest
+ * update of the people the answer may name (members, and everyone the session's history names,
+ * members or not any more) with a renamed person. Its key also names the workshop and the session, for
+ * the answer cache.
  */
-export async function reviewEtag(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<string> {
-  const [row] = await TestSessionModel.sequelize!.query<{ cursor: number; events: number; last: number; people: number }>(
-    `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
-       (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.team_id = $1) AS people
-     FROM history_events WHERE team_id = $1 AND session_id = $2`,
-    { bind: [auth.teamId, sessionId], type: QueryTypes.SELECT },
+export async function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<AnswerValidator> {
+  const [row] = await preparedSelect<{ cursor: number; events: number; last: number; people: number }>(
+    TestSessionModel.sequelize!,
+    'review-validator',
+    REVIEW_VALIDATOR_SQL,
+    [auth.teamId, sessionId],
   );
-  return etagOf('review', [row.cursor, row.events, row.last, row.people], auth.sessionId);
+  return answerValidator('review', [auth.teamId, sessionId], [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
+
+// $1 team, $2 session. Run on every request for the review (prepared once per connection). The
+// people the answer names are its history's authors and whoever entered its readings: a reading
+// reaches the server only through the sync push, which leaves a history event of the session
+// naming who sent it (services/sync-push.ts), so the session's history authors and the team's
+// members cover them, also after someone has left the workshop, without reading the readings.
+const REVIEW_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+   (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
+     JOIN (SELECT user_id FROM memberships WHERE team_id = $1 UNION SELECT user_id FROM history_events WHERE team_id = $1 AND session_id = $2) named
+       ON named.user_id = u.id) AS people
+ FROM history_events WHERE team_id = $1 AND session_id = $2`;
 
 /** The history action of a change to a reading, at the desk or through sync. */
 export function readingEditAction(changes: Record<string, unknown>, excludedAfter: boolean): string {

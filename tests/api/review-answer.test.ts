@@ -7,10 +7,10 @@ import http from 'node:http';
 import zlib from 'node:zlib';
 import { randomUUID } from 'node:crypto';
 import sharp from 'sharp';
-import { createTeam, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
+import { createTeam, sessionAgent, signedInAgent, startTestServer, type Agent, type TestServer } from '../support/test-app';
 import { createDeskSession } from '../support/desk';
 import { batchKey, change } from '../support/sync';
-import { ReadingModel, PoseModel } from '../../server/models';
+import { MembershipModel, ReadingModel, PoseModel } from '../../server/models';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -151,6 +151,32 @@ describe('the review answer', () => {
     const res = await reviewOf(engineer, s.sessionId, etag);
     expect(res.status).toBe(200);
     expect(res.body.people[team.members.tester.userId]).toBe('Joss Harlow-Venn');
+  });
+
+  it('shows the new name of a person who left the workshop and was renamed since', async () => {
+    // The review names whoever entered readings or changed something, members or not: a tester
+    // who synced this session, then was removed from this workshop but is still in another,
+    // renames themself there.
+    const team = await createTeam();
+    const other = await createTeam('Other workshop');
+    const s = await createDeskSession(team);
+    const testerId = team.members.tester.userId;
+    await MembershipModel.create({ id: randomUUID(), teamId: other.teamId, userId: testerId, role: 'tester' });
+    const tester = await signedInAgent(ts, team.members.tester.email);
+    const pose = (await tester.get('/api/sync/pull?since=0')).body.poses.find((p: { id: string }) => p.id === s.poseIds[0]);
+    const synced = await tester.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('pose', { ...pose, notes: 'chocks in' })] });
+    expect(synced.status).toBe(200);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const admin = await signedInAgent(ts, team.members.admin.email);
+    expect((await admin.delete(`/api/team/members/${testerId}`)).status).toBe(200);
+    const etag = (await reviewOf(engineer, s.sessionId)).headers.etag;
+    const elsewhere = await sessionAgent(ts, testerId, other.teamId);
+    expect((await elsewhere.patch('/api/me').send({ name: 'Joss Harlow-Venn' })).status).toBe(200);
+    const res = await reviewOf(engineer, s.sessionId, etag);
+    expect(res.status).toBe(200);
+    expect(res.body.people[testerId]).toBe('Joss Harlow-Venn');
+    // Asked afresh (no validator), it is not an older copy either.
+    expect((await reviewOf(engineer, s.sessionId)).body.people[testerId]).toBe('Joss Harlow-Venn');
   });
 
   it('a change elsewhere in the workshop costs a full answer but never a stale one', async () => {

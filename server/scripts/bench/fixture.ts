@@ -51,13 +51,17 @@ export function appEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
   };
 }
 
-/** One app instance: `node <bundle>` (or the TypeScript sources when `bundle` is null), its output discarded. */
-export async function startInstance(databaseUrl: string, bundle: string | null = process.env.SERVER_BUNDLE ?? null): Promise<Child> {
+/** One app instance: `node <bundle>` (or the TypeScript sources when `bundle` is null), with `env` added, its output discarded. */
+export async function startInstance(
+  databaseUrl: string,
+  bundle: string | null = process.env.SERVER_BUNDLE ?? null,
+  env: Record<string, string> = {},
+): Promise<Child> {
   const port = await freePort();
   const started = performance.now();
   const child = spawn(process.execPath, bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'], {
     cwd: repoRoot,
-    env: appEnv(databaseUrl, port),
+    env: { ...appEnv(databaseUrl, port), ...env },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const baseUrl = `http://127.0.0.1:${port}`;

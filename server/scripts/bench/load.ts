@@ -4,10 +4,13 @@
 // rounds. The app runs as deployed (bundled, production, logging at info) against:
 // - B2 (bare-b2.ts): the same statements, PostgreSQL-built JSON passed through by a bare handler,
 //   for the review and the pull;
+// - itself without its answer cache (an instance with ANSWER_CACHE_MB=0): what every request costs
+//   when each follows a change, so the build cost stays in the report;
 // - the unsigned /api/health (one SELECT 1), for a signed-in small route (/api/me);
 // - itself: two instances (25 connections each, at once) against one (50 connections), for the review.
-// Plain requests with no Accept-Encoding, as a load generator sends them: compression's cost is
-// left out here; the review's size on the wire is measured on its own.
+// Plain requests with no Accept-Encoding, as a load generator sends them (B2 compresses nothing),
+// and for the review and the pull also as a browser asks (Accept-Encoding: gzip, deflate, br), the
+// kept brotli bytes then being sent; the review's size on the wire is measured on its own.
 import autocannon from 'autocannon';
 import { randomUUID } from 'node:crypto';
 import http from 'node:http';
@@ -19,6 +22,8 @@ const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_LOAD_ROUNDS ?? 3);
 /** The review's raw size before this work (the issue's measurement), for the wire-bytes ratio. */
 const REVIEW_RAW_BEFORE = 370_707;
+/** What Chromium sends. */
+const BROWSER_ENCODINGS = 'gzip, deflate, br';
 
 interface Run {
   rps: number;
@@ -88,18 +93,24 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
   const a = s.app;
   let b: Child | undefined;
   let b2: Child | undefined;
+  let uncached: Child | undefined;
   try {
     b = await startInstance(s.databaseUrl);
     b2 = await startB2(s.databaseUrl);
+    uncached = await startInstance(s.databaseUrl, undefined, { ANSWER_CACHE_MB: '0' });
     const review = `/api/sessions/${sessionId}/review`;
     const pull = '/api/sync/pull?since=0';
     // A desk that already holds this review asks again: the validator answers 304.
     const etag = (await fetch(a.baseUrl + review, { headers: signedIn })).headers.get('etag')!;
     const configs: Record<string, () => Promise<Run>> = {
       reviewApp: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], signedIn),
+      reviewBrowser: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS }),
+      reviewMiss: () => hammer([{ url: uncached!.baseUrl + review, connections: CONNECTIONS }], signedIn),
       reviewB2: () => hammer([{ url: `${b2!.baseUrl}/review/${workshop.teamId}/${sessionId}`, connections: CONNECTIONS }], {}),
       reviewRevalidated: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], { ...signedIn, 'if-none-match': etag }),
       pullApp: () => hammer([{ url: a.baseUrl + pull, connections: CONNECTIONS }], signedIn),
+      pullBrowser: () => hammer([{ url: a.baseUrl + pull, connections: CONNECTIONS }], { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS }),
+      pullMiss: () => hammer([{ url: uncached!.baseUrl + pull, connections: CONNECTIONS }], signedIn),
       pullB2: () => hammer([{ url: `${b2!.baseUrl}/pull/${workshop.teamId}/${workshop.userId}?since=0`, connections: CONNECTIONS }], {}),
       meSignedIn: () => hammer([{ url: `${a.baseUrl}/api/me`, connections: CONNECTIONS }], signedIn),
       healthUnsigned: () => hammer([{ url: `${a.baseUrl}/api/health`, connections: CONNECTIONS }], {}),
@@ -140,6 +151,8 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
         value: fmtRun(m.reviewApp),
         goal: `p99 < 250 ms: ${verdict(m.reviewApp.p99 < 250)}`,
       },
+      { section, measure: `… app, asked as a browser asks (${BROWSER_ENCODINGS}: the kept brotli bytes)`, value: fmtRun(m.reviewBrowser) },
+      { section, measure: '… app after every change (a cache miss each request: ANSWER_CACHE_MB=0)', value: fmtRun(m.reviewMiss) },
       { section, measure: '… B2 (bare handler, same statement, PostgreSQL-built JSON)', value: fmtRun(m.reviewB2) },
       { section, measure: '… app ÷ B2', value: ratio(m.reviewApp.rps, m.reviewB2.rps), goal: `≥ 0.9: ${verdict(reviewRatio >= 0.9)}` },
       { section, measure: '… app, asked again unchanged (If-None-Match → 304, no body)', value: fmtRun(m.reviewRevalidated) },
@@ -149,6 +162,8 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
         value: fmtRun(m.pullApp),
         goal: `p99 < 250 ms: ${verdict(m.pullApp.p99 < 250)}`,
       },
+      { section, measure: '… app, asked as a browser asks', value: fmtRun(m.pullBrowser) },
+      { section, measure: '… app after every change (a cache miss each request)', value: fmtRun(m.pullMiss) },
       { section, measure: '… B2', value: fmtRun(m.pullB2) },
       { section, measure: '… app ÷ B2', value: ratio(m.pullApp.rps, m.pullB2.rps), goal: `≥ 0.9: ${verdict(pullRatio >= 0.9)}` },
       { section, measure: 'signed-in small route (GET /api/me)', value: fmtRun(m.meSignedIn) },
@@ -176,5 +191,6 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
   } finally {
     await b?.stop();
     await b2?.stop();
+    await uncached?.stop();
   }
 }
