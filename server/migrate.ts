@@ -10,6 +10,13 @@ const migrationsDir = path.join(repoRoot, 'migrations');
 const loadMigration = (name: string) => import(`../migrations/${name.replace(/\.ts$/, '')}.ts`) as Promise<{ up: MigrationStep; down: MigrationStep }>;
 type MigrationStep = (params: { context: unknown; name: string }) => Promise<void>;
 
+/**
+ * The table umzug records applied migrations in. Its model is SequelizeMeta, but the app's
+ * `underscored` setting names the table sequelize_meta: the start-up check below reads the same
+ * name, or it would find every migration pending and build the migrator at every start.
+ */
+const META_TABLE = 'sequelize_meta';
+
 /** umzug is loaded only when a migration is pending: an instance starting on a current schema skips it. */
 async function migrator(sequelize: Sequelize) {
   const { Umzug, SequelizeStorage } = await import('umzug');
@@ -23,7 +30,7 @@ async function migrator(sequelize: Sequelize) {
       }),
     },
     context: sequelize.getQueryInterface(),
-    storage: new SequelizeStorage({ sequelize }),
+    storage: new SequelizeStorage({ sequelize, tableName: META_TABLE }),
     logger: undefined,
   });
 }
@@ -54,14 +61,14 @@ export async function migrate(sequelize: Sequelize): Promise<string[]> {
   }
 }
 
-/** Whether a migration file has no row in umzug's SequelizeMeta table (or the table is missing). */
+/** Whether a migration file has no row in umzug's table (or the table is missing). */
 async function anyPending(db: pg.Client): Promise<boolean> {
   const files = fs.readdirSync(migrationsDir).filter((f) => /^[0-9].*\.ts$/.test(f));
   const {
     rows: [table],
-  } = await db.query<{ present: boolean }>(`SELECT to_regclass('"SequelizeMeta"') IS NOT NULL AS present`);
+  } = await db.query<{ present: boolean }>('SELECT to_regclass($1) IS NOT NULL AS present', [META_TABLE]);
   if (!table.present) return files.length > 0;
-  const { rows } = await db.query<{ name: string }>('SELECT name FROM "SequelizeMeta"');
+  const { rows } = await db.query<{ name: string }>(`SELECT name FROM ${META_TABLE}`);
   const applied = new Set(rows.map((r) => r.name));
   return files.some((f) => !applied.has(f));
 }

@@ -13,14 +13,13 @@
 // before and after value of each field, in the same transaction as the write.
 import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
-import { QueryTypes } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import { can, whoMay, type Action } from '../../shared/permissions';
 import { Invalid, type FieldError } from '../http/errors';
-import { VehicleModel } from '../models';
 import { syncTables } from './sync-tables';
 import type { Column } from '../../shared/records/define';
 import { readingEditAction } from './review.service';
+import { db, lockNamedRows, poseSessions, rowKey, select, type BatchReads, type PoseSessions, type Row } from './sync-batch';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
 interface EntityAccess {
@@ -83,11 +82,6 @@ export interface AccessItem {
   record: Record<string, unknown> & { id: string; version: number };
 }
 
-type Row = Record<string, unknown>;
-const db = () => VehicleModel.sequelize!;
-const select = <T = Row>(sql: string, bind: unknown[], transaction: Transaction) =>
-  db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
-
 /** One value in a form that compares equal when it means the same (an instant, a JSON value, a uuid). */
 function comparable(col: Column, v: unknown): unknown {
   if (v === undefined || v === null) return null;
@@ -119,20 +113,17 @@ export async function enforceSyncAccess(
   items: AccessItem[],
   transaction: Transaction,
   where: (index: number, key: string) => string = fieldPath,
+  reads?: BatchReads,
 ): Promise<void> {
-  const rows = new Map<string, Row>();
-  for (const entity of Object.keys(syncTables) as SyncEntity[]) {
-    const ids = items.filter((i) => i.entity === entity).map((i) => i.record.id);
-    if (!ids.length) continue;
-    const found = await select(`SELECT * FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($2::uuid[])`, [auth.teamId, ids], transaction);
-    for (const r of found) rows.set(`${entity}:${r.id as string}`, r);
-  }
+  const named = reads?.rows ?? (await lockNamedRows(items, transaction));
+  // Another workshop's row under the same id is the batch check's to refuse: nothing of it is compared here.
+  const rows = new Map([...named].filter(([, row]) => row.team_id === auth.teamId));
   const applied = items.filter((item) => {
-    const row = rows.get(`${item.entity}:${item.record.id}`);
+    const row = rows.get(rowKey(item.entity, item.record.id));
     return row ? row.version === item.record.version : item.record.version === 1;
   });
 
-  const sessionsOf = await sessionResolver(auth, applied, rows, transaction);
+  const sessionsOf = await sessionResolver(applied, rows, reads?.poseSessions ?? poseSessions(auth, transaction));
   const sessionIds = [...new Set(applied.flatMap((i) => sessionsOf(i)))];
   const signed = new Set(
     sessionIds.length
@@ -151,7 +142,7 @@ export async function enforceSyncAccess(
   for (const item of applied) {
     const rules = syncAccess[item.entity];
     const spec = syncTables[item.entity];
-    const row = rows.get(`${item.entity}:${item.record.id}`);
+    const row = rows.get(rowKey(item.entity, item.record.id));
     const refuse = (key: string, action: Action, what: string) =>
       errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that is for ${whoMay(action)} (${action})` });
 
@@ -188,34 +179,27 @@ export async function enforceSyncAccess(
 }
 
 /** The session(s) each item belongs to, before and after the change (a pose or reading can move). */
-async function sessionResolver(auth: AuthContext, items: AccessItem[], rows: Map<string, Row>, transaction: Transaction) {
-  const poseSession = new Map<string, string>();
-  for (const i of items) if (i.entity === 'pose') poseSession.set(i.record.id, i.record.sessionId as string);
+async function sessionResolver(items: AccessItem[], rows: Map<string, Row>, poses: PoseSessions) {
+  const batchPoses = new Map<string, string>();
+  for (const i of items) if (i.entity === 'pose') batchPoses.set(i.record.id, i.record.sessionId as string);
   const poseIds = new Set<string>();
   for (const i of items) {
     if (i.entity !== 'reading') continue;
     poseIds.add(i.record.poseId as string);
-    const row = rows.get(`reading:${i.record.id}`);
+    const row = rows.get(rowKey('reading', i.record.id));
     if (row) poseIds.add(row.pose_id as string);
   }
-  const unknown = [...poseIds].filter((id) => !poseSession.has(id));
-  if (unknown.length) {
-    const found = await select<{ id: string; session_id: string }>(
-      'SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])',
-      [auth.teamId, unknown],
-      transaction,
-    );
-    for (const p of found) poseSession.set(p.id, p.session_id);
-  }
+  await poses.load([...poseIds].filter((id) => !batchPoses.has(id)));
+  const sessionOfPose = (id: string) => batchPoses.get(id) ?? poses.sessionOf(id);
   return (item: AccessItem): string[] => {
-    const row = rows.get(`${item.entity}:${item.record.id}`);
+    const row = rows.get(rowKey(item.entity, item.record.id));
     const ids =
       item.entity === 'testSession'
         ? [item.record.id]
         : item.entity === 'pose'
           ? [item.record.sessionId as string, row?.session_id as string | undefined]
           : item.entity === 'reading'
-            ? [poseSession.get(item.record.poseId as string), row ? poseSession.get(row.pose_id as string) : undefined]
+            ? [sessionOfPose(item.record.poseId as string), row ? sessionOfPose(row.pose_id as string) : undefined]
             : [];
     return [...new Set(ids.filter((x): x is string => !!x))];
   };

@@ -5,7 +5,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import type { FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
-import { columnValue, type SyncTable } from './sync-tables';
+import { columnValue, syncOrder, syncTables, type SyncTable } from './sync-tables';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
 export type Row = Record<string, unknown>;
@@ -30,6 +30,55 @@ export interface Plan {
    * reading typed into a slot another device filled first (then `targetId` is that reading).
    */
   conflicts: { item: Item; targetId: string; serverRow: Row }[];
+}
+
+/**
+ * What the checks of one batch read once and share: the rows the batch names, and the session of
+ * each pose its readings point at. Each is one query, not one per check.
+ */
+export interface BatchReads {
+  /** `${entity}:${id}` → the row with that id, whichever team holds it; locked until commit. */
+  rows: Map<string, Row>;
+  poseSessions: PoseSessions;
+}
+
+export const rowKey = (entity: SyncEntity, id: string) => `${entity}:${id}`;
+
+/** Every row a batch names, one `SELECT … FOR UPDATE` per table: the version checks and the access rules both judge these rows. */
+export async function lockNamedRows(items: Item[], transaction: Transaction): Promise<Map<string, Row>> {
+  const rows = new Map<string, Row>();
+  for (const entity of syncOrder) {
+    const ids = [...new Set(items.filter((i) => i.entity === entity).map((i) => i.record.id))];
+    if (!ids.length) continue;
+    const found = await select(`SELECT * FROM ${syncTables[entity].table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [ids], transaction);
+    for (const r of found) rows.set(rowKey(entity, r.id as string), r);
+  }
+  return rows;
+}
+
+/** The team's poses a batch refers to but does not carry, each looked up once: whether it exists and its session. */
+export interface PoseSessions {
+  load(ids: Iterable<string>): Promise<void>;
+  /** The session of a loaded pose, or undefined when the team has no such pose. */
+  sessionOf(id: string): string | undefined;
+}
+
+export function poseSessions(auth: AuthContext, transaction: Transaction): PoseSessions {
+  const known = new Map<string, string | undefined>();
+  return {
+    async load(ids) {
+      const missing = [...new Set(ids)].filter((id) => !known.has(id));
+      if (!missing.length) return;
+      for (const id of missing) known.set(id, undefined);
+      const rows = await select<{ id: string; session_id: string }>(
+        'SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])',
+        [auth.teamId, missing],
+        transaction,
+      );
+      for (const r of rows) known.set(r.id, r.session_id);
+    },
+    sessionOf: (id) => known.get(id),
+  };
 }
 
 /** Where a field error points: `body.changes.3.record.label` for a push, `clientRecord.label` for a resolution. */

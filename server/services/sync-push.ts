@@ -16,7 +16,23 @@ import { lockTeamChanges } from './team-changes';
 import { enforceSyncAccess } from './sync-access';
 import { translateDbError } from './sync-db-errors';
 import { syncOrder, syncTables } from './sync-tables';
-import { bulkInsert, bulkUpdate, checkGaugeLabels, checkReadingSlots, db, field, select, short, type Item, type Plan } from './sync-batch';
+import {
+  bulkInsert,
+  bulkUpdate,
+  checkGaugeLabels,
+  checkReadingSlots,
+  db,
+  field,
+  lockNamedRows,
+  poseSessions,
+  rowKey,
+  select,
+  short,
+  type BatchReads,
+  type Item,
+  type Plan,
+  type PoseSessions,
+} from './sync-batch';
 import { keepConflicts } from './sync-conflicts';
 import type { PushRequest, PushResponse, SyncEntity } from '../../shared/schemas/sync';
 
@@ -58,22 +74,40 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
       if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
       return earlier.response;
     }
-    await enforceSyncAccess(auth, items, transaction);
-    const plan = await checkBatch(auth, items, transaction);
+    const reads: BatchReads = { rows: await lockNamedRows(items, transaction), poseSessions: poseSessions(auth, transaction) };
+    await enforceSyncAccess(auth, items, transaction, undefined, reads);
+    const plan = await checkBatch(auth, items, reads, transaction);
     const response = await applyPlan(auth, plan, transaction);
+    const arrivals = await fieldArrivals(plan, reads.poseSessions);
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
     await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
-    await db().query('INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)', {
-      bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)],
-      transaction,
-    });
+    // The batch's history events and its stored answer go in one statement.
+    await db().query(
+      `WITH history AS (
+         INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+         SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $3::uuid, u.detail FROM unnest($6::uuid[], $7::jsonb[]) AS u(id, detail)
+       )
+       INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)`,
+      {
+        bind: [
+          auth.teamId,
+          req.idempotencyKey,
+          auth.userId,
+          hash,
+          JSON.stringify(response),
+          [...arrivals.keys()],
+          [...arrivals.values()].map((t) => JSON.stringify(t)),
+        ],
+        transaction,
+      },
+    );
     return response;
   });
 }
 
 /** Every check before any write; throws Invalid naming each bad record and field. */
-async function checkBatch(auth: AuthContext, items: Item[], transaction: Transaction): Promise<Plan> {
+async function checkBatch(auth: AuthContext, items: Item[], reads: BatchReads, transaction: Transaction): Promise<Plan> {
   const errors: FieldError[] = [];
   const byEntity = new Map<SyncEntity, Item[]>(syncOrder.map((e) => [e, []]));
   const seen = new Map<string, Item>();
@@ -92,16 +126,11 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
   const known = new Map<SyncEntity, Set<string>>(syncOrder.map((e) => [e, new Set(byEntity.get(e)!.map((i) => i.record.id))]));
 
   for (const entity of syncOrder) {
-    const spec = syncTables[entity];
     const list = byEntity.get(entity)!;
-    const rows = list.length
-      ? await select(`SELECT id, team_id, version FROM ${spec.table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [list.map((i) => i.record.id)], transaction)
-      : [];
-    const rowMap = new Map(rows.map((r) => [r.id as string, r]));
     const inserts: Item[] = [];
     const updates: Item[] = [];
     for (const item of list) {
-      const row = rowMap.get(item.record.id);
+      const row = reads.rows.get(rowKey(entity, item.record.id));
       if (!row) {
         if (item.record.version !== 1) {
           errors.push({
@@ -119,7 +148,7 @@ async function checkBatch(auth: AuthContext, items: Item[], transaction: Transac
     plan.updates.set(entity, updates);
   }
 
-  await checkReferences(auth, byEntity, known, errors, transaction);
+  await checkReferences(auth, byEntity, known, errors, reads.poseSessions, transaction);
   await checkReadingSlots(auth, plan, errors, transaction);
   await checkGaugeLabels(auth, plan, errors, transaction);
 
@@ -138,9 +167,11 @@ async function checkReferences(
   byEntity: Map<SyncEntity, Item[]>,
   known: Map<SyncEntity, Set<string>>,
   errors: FieldError[],
+  poses: PoseSessions,
   transaction: Transaction,
 ) {
-  // Referenced ids not in this batch must be the team's rows; one query per referenced table.
+  // Referenced ids not in this batch must be the team's rows: poses through the batch's pose
+  // look-up (the access rules and the history read the same), every other table in one query.
   const wanted = new Map<SyncEntity, Set<string>>();
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
@@ -153,13 +184,22 @@ async function checkReferences(
       }
     }
   }
-  for (const [entity, ids] of wanted) {
-    const rows = await select<{ id: string }>(
-      `SELECT id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($2::uuid[])`,
-      [auth.teamId, [...ids]],
+  const wantedPoses = wanted.get('pose');
+  wanted.delete('pose');
+  if (wantedPoses) {
+    await poses.load(wantedPoses);
+    for (const id of wantedPoses) if (poses.sessionOf(id)) known.get('pose')!.add(id);
+  }
+  if (wanted.size) {
+    const lists = [...wanted];
+    const rows = await select<{ entity: SyncEntity; id: string }>(
+      lists
+        .map(([entity], k) => `SELECT '${entity}' AS entity, id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($${k + 2}::uuid[])`)
+        .join(' UNION ALL '),
+      [auth.teamId, ...lists.map(([, ids]) => [...ids])],
       transaction,
     );
-    for (const r of rows) known.get(entity)!.add(r.id);
+    for (const r of rows) known.get(r.entity)!.add(r.id);
   }
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
@@ -192,14 +232,13 @@ async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction
     }
   }
   const conflicts = await keepConflicts(auth, plan.conflicts, transaction);
-  await recordFieldHistory(auth, plan, transaction);
   return { accepted, conflicts };
 }
 
 type Tally = { added: Partial<Record<SyncEntity, number>>; changed: Partial<Record<SyncEntity, number>>; conflicts: number };
 
-/** One history event per session a batch touched: what arrived from the field, and who sent it. */
-async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Transaction) {
+/** What arrived from the field per session the batch touched: one history event each, written with the batch's stored answer. */
+async function fieldArrivals(plan: Plan, poses: PoseSessions): Promise<Map<string, Tally>> {
   const items = (m: Map<SyncEntity, Item[]>, e: SyncEntity) => m.get(e) ?? [];
   const poseSession = new Map<string, string>();
   for (const p of [...items(plan.inserts, 'pose'), ...items(plan.updates, 'pose')]) poseSession.set(p.record.id, p.record.sessionId as string);
@@ -208,18 +247,14 @@ async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Tr
     ...items(plan.updates, 'reading'),
     ...plan.conflicts.filter((c) => c.item.entity === 'reading').map((c) => c.item),
   ];
-  const unknownPoses = [...new Set(readings.map((r) => r.record.poseId as string))].filter((id) => !poseSession.has(id));
-  if (unknownPoses.length) {
-    const rows = await select<{ id: string; session_id: string }>('SELECT id, session_id FROM poses WHERE id = ANY($1::uuid[])', [unknownPoses], transaction);
-    for (const r of rows) poseSession.set(r.id, r.session_id);
-  }
+  await poses.load(readings.map((r) => r.record.poseId as string).filter((id) => !poseSession.has(id)));
   const sessionOf = (item: Item): string | undefined =>
     item.entity === 'testSession'
       ? item.record.id
       : item.entity === 'pose'
         ? (item.record.sessionId as string)
         : item.entity === 'reading'
-          ? poseSession.get(item.record.poseId as string)
+          ? (poseSession.get(item.record.poseId as string) ?? poses.sessionOf(item.record.poseId as string))
           : undefined;
   const bySession = new Map<string, Tally>();
   const tally = (item: Item, bump: (t: Tally) => void) => {
@@ -231,11 +266,5 @@ async function recordFieldHistory(auth: AuthContext, plan: Plan, transaction: Tr
   for (const list of plan.inserts.values()) for (const i of list) tally(i, (t) => (t.added[i.entity] = (t.added[i.entity] ?? 0) + 1));
   for (const list of plan.updates.values()) for (const i of list) tally(i, (t) => (t.changed[i.entity] = (t.changed[i.entity] ?? 0) + 1));
   for (const c of plan.conflicts) tally(c.item, (t) => (t.conflicts += 1));
-  if (!bySession.size) return;
-  const ids = [...bySession.keys()];
-  await db().query(
-    `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
-     SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $2::uuid, u.detail FROM unnest($3::uuid[], $4::jsonb[]) AS u(id, detail)`,
-    { bind: [auth.teamId, auth.userId, ids, ids.map((id) => JSON.stringify(bySession.get(id)))], transaction },
-  );
+  return bySession;
 }
