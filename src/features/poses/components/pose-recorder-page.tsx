@@ -42,7 +42,6 @@ export function PoseRecorderPage() {
 function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNullable<LocalSession['vehicle']> }; pose: Pose }) {
   const navigate = useNavigate();
   const [unit, setUnit] = useFieldUnit();
-  const saving = useWritesInFlight();
   const [wheel, setWheel] = useState<Wheel | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   const liftInputs = useRef<Record<Wheel, HTMLDivElement | null>>({ fl: null, fr: null, rl: null, rr: null });
@@ -263,9 +262,7 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
       </div>
       <PhotoCapture sessionId={session.id} poseId={pose.id} />
       <SaveProblems results={problems} />
-      <p className="text-sm" role="status" data-testid="local-save-state">
-        {saving > 0 ? 'Saving on this phone…' : 'Everything typed is saved on this phone.'}
-      </p>
+      <LocalSaveState />
       <button type="button" className="btn-primary w-full flex-col gap-0" onClick={() => void goNext()}>
         Next pose
         <span className="text-sm font-normal">{later ? later.label || `Pose ${later.seq}` : 'a new pose'}</span>
@@ -279,5 +276,18 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         </button>
       </div>
     </section>
+  );
+}
+
+/**
+ * Whether everything typed is stored yet. A component of its own: each keystroke's write starts
+ * and settles here without the recorder and its entries rendering again.
+ */
+function LocalSaveState() {
+  const saving = useWritesInFlight();
+  return (
+    <p className="text-sm" role="status" data-testid="local-save-state">
+      {saving > 0 ? 'Saving on this phone…' : 'Everything typed is saved on this phone.'}
+    </p>
   );
 }
