@@ -229,23 +229,29 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         </p>
       )}
       <div className="space-y-3">
+        {/* A form per point: the browser's autofill looks over every field of the form a typed-in
+            field belongs to (with no form, every field of the page) after each keystroke. Points
+            off screen are neither laid out nor painted. Both keep the main thread free to take
+            the keystroke's answer from IndexedDB. */}
         {gaugePoints.map((g) => (
-          <fieldset key={g.id} className="card space-y-2 p-3">
-            <legend className="px-1 text-lg font-bold">Point {g.label}</legend>
-            {axes.map((a) => (
-              <LengthInput
-                key={a}
-                layout="row"
-                allowEmpty
-                label={`${g.label} ${axisLabel[a]}`}
-                unit={unit}
-                valueMm={value(g.id, a)}
-                warn={check.suspect.has(`${g.id}|${a}`)}
-                doubt={(mm) => readingDoubt(mm, a, session.readingMode, vehicle, unit)}
-                onChange={(mm) => void setReadingValue({ poseId: pose.id, gaugePointId: g.id, axis: a }, mm).then(report)}
-              />
-            ))}
-          </fieldset>
+          <form key={g.id} noValidate onSubmit={(e) => e.preventDefault()} className="[contain-intrinsic-size:auto_14rem] [content-visibility:auto]">
+            <fieldset className="card space-y-2 p-3">
+              <legend className="px-1 text-lg font-bold">Point {g.label}</legend>
+              {axes.map((a) => (
+                <LengthInput
+                  key={a}
+                  layout="row"
+                  allowEmpty
+                  label={`${g.label} ${axisLabel[a]}`}
+                  unit={unit}
+                  valueMm={value(g.id, a)}
+                  warn={check.suspect.has(`${g.id}|${a}`)}
+                  doubt={(mm) => readingDoubt(mm, a, session.readingMode, vehicle, unit)}
+                  onChange={(mm) => void setReadingValue({ poseId: pose.id, gaugePointId: g.id, axis: a }, mm).then(report)}
+                />
+              ))}
+            </fieldset>
+          </form>
         ))}
       </div>
       <div>
