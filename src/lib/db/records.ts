@@ -6,7 +6,7 @@
 import type { ZodType } from 'zod';
 import { newReading, records, type RecordOf, type SyncEntity } from '@shared/records';
 import type { Reading } from '@shared/schemas';
-import { fieldDb, tableOf, type FieldDb } from './field-db';
+import { fieldDb, tableOf, type FieldDb, type OutboxEntry } from './field-db';
 import { tracked } from './writes-in-flight';
 import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
 
@@ -43,25 +43,28 @@ function checkRecords<T extends { id: string }>(entity: SyncEntity, records: T[]
   return { valid, refused };
 }
 
-/** Puts records and queues them; call inside a transaction over their table and the outbox. */
-async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], db: FieldDb) {
-  // The record's write and the look-up of its outbox entries go to IndexedDB together (one round
-  // trip, not two: a keystroke pays for each); the look-up does not depend on the write.
-  // One waiting entry per record is enough: the batch reads the latest content when it forms.
-  const [, entries] = await Promise.all([
-    tableOf(db, entity).bulkPut(valid as never[]),
-    db.outbox
-      .where('[entity+recordId]')
-      .anyOf(valid.map((r) => [entity, r.id]))
-      .toArray(),
-  ]);
+/** The outbox entries of records, as stored now (one key is one read; several walk the index). */
+function entriesOf(entity: SyncEntity, ids: string[], db: FieldDb): Promise<OutboxEntry[]> {
+  const index = db.outbox.where('[entity+recordId]');
+  return (ids.length === 1 ? index.equals([entity, ids[0]]) : index.anyOf(ids.map((id) => [entity, id]))).toArray();
+}
+
+/**
+ * Puts records and queues each one that is not waiting yet; call inside a transaction over their
+ * table and the outbox, with the records' outbox entries as stored in it now. One waiting entry
+ * per record is enough: the batch reads the latest content when it forms.
+ */
+async function putQueued<T extends { id: string }>(entity: SyncEntity, valid: T[], entries: OutboxEntry[], db: FieldDb) {
   const unclaimed = entries.filter((e) => e.batchKey === '');
   // The tester changed a record the server refused: every held record may go again (a fixed pose
   // lets its held readings through too); what is still wrong is held again with the new answer.
   if (unclaimed.some((e) => e.held)) await db.outbox.filter((e) => !!e.held).modify({ held: null });
   const waiting = new Set(unclaimed.map((e) => e.recordId));
   const queuedAt = new Date().toISOString();
-  await db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt })));
+  await Promise.all([
+    tableOf(db, entity).bulkPut(valid as never[]),
+    db.outbox.bulkAdd(valid.filter((r) => !waiting.has(r.id)).map((r) => ({ entity, recordId: r.id, batchKey: '', queuedAt }))),
+  ]);
 }
 
 /** Validates records, then writes the valid ones and their outbox entries in one transaction. */
@@ -73,7 +76,18 @@ async function writeRecords<T extends { id: string }>(entity: SyncEntity, record
   const { valid, refused: results } = checkRecords(entity, records);
   if (!valid.length) return results;
   try {
-    await db.transaction('rw', tableOf(db, entity), db.outbox, () => putQueued(entity, valid, db));
+    await db.transaction('rw', tableOf(db, entity), db.outbox, async () =>
+      putQueued(
+        entity,
+        valid,
+        await entriesOf(
+          entity,
+          valid.map((r) => r.id),
+          db,
+        ),
+        db,
+      ),
+    );
     for (const r of valid) results.push({ id: r.id, ok: true });
     announceSaved();
   } catch (err) {
@@ -122,11 +136,12 @@ function writePatch<E extends SyncEntity>(entity: E, id: string, patch: Patch<E>
     let wrote = false;
     try {
       const result = await db.transaction('rw', tableOf(db, entity), db.outbox, async (): Promise<ItemResult> => {
-        const stored = await tableOf(db, entity).get(id);
+        // Both reads go to IndexedDB together: a keystroke pays for each round trip.
+        const [stored, entries] = await Promise.all([tableOf(db, entity).get(id), entriesOf(entity, [id], db)]);
         if (!stored) return { id, ok: false, message: `this ${entity} is not on this phone any more`, fields: [] };
         const { valid, refused } = checkRecords(entity, [{ ...stored, ...patch, id: stored.id, version: stored.version }]);
         if (!valid.length) return refused[0];
-        await putQueued(entity, valid, db);
+        await putQueued(entity, valid, entries, db);
         wrote = true;
         return { id, ok: true };
       });
@@ -173,6 +188,8 @@ export function storageMessage(err: unknown): string {
   return `could not save on this device: ${e?.message ?? String(err)}`;
 }
 
+type Slot = { poseId: string; gaugePointId: string; axis: Reading['axis'] };
+
 // Keystrokes arrive faster than IndexedDB answers: writes to one slot run one after another, or
 // two quick keystrokes could both find no reading and create two records for the same slot.
 const slotWrites = new Map<string, Promise<ItemResult>>();
@@ -181,15 +198,11 @@ const slotWrites = new Map<string, Promise<ItemResult>>();
  * Sets (or clears, with null) the reading at one gauge point and axis of a pose. The same record
  * is reused for its slot, even after a clear, since the server holds one reading per slot.
  */
-export function setReadingValue(
-  slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] },
-  valueMm: number | null,
-  db: FieldDb = fieldDb,
-): Promise<ItemResult> {
+export function setReadingValue(slot: Slot, valueMm: number | null, db: FieldDb = fieldDb): Promise<ItemResult> {
   const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
   const previous = slotWrites.get(key);
   const write = journaled(db, { op: 'reading', slot, valueMm }, () =>
-    tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, db))),
+    tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, key, db))),
   );
   slotWrites.set(key, write);
   void write.finally(() => {
@@ -198,35 +211,87 @@ export function setReadingValue(
   return write;
 }
 
-// The look-up and the write share one transaction: a keystroke costs one commit, not two.
-async function writeReadingValue(
-  slot: { poseId: string; gaugePointId: string; axis: Reading['axis'] },
-  valueMm: number | null,
-  db: FieldDb,
-): Promise<ItemResult> {
-  let wrote = false;
+// The reading each slot was last given here, exactly as stored. The next keystroke in the slot is
+// written on this guess, with the reads that check it sent in the same round trip to IndexedDB
+// rather than one before the write: a keystroke then costs one round trip and the commit. The
+// guess is never trusted: when the reads show that the slot or its outbox entry changed meanwhile
+// (a push answered with a new version, a batch formed, a pull, another tab), the transaction is
+// aborted before it commits and the keystroke is written from what is stored.
+const lastWritten = new Map<string, Reading>();
+
+class GuessedWrong extends Error {}
+
+const readSlot = (slot: Slot, db: FieldDb) => db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray();
+
+/** The slot's reading to edit: the live one, or else a cleared one (pulled from another device). */
+const slotReading = (inSlot: Reading[]): Reading | undefined => inSlot.find((r) => !r.deletedAt) ?? inSlot[0];
+
+/** The slot's reading after a keystroke, from the one stored in it; null when there is nothing to change. */
+function nextReading(existing: Reading | undefined, slot: Slot, valueMm: number | null): Reading | null {
+  if (valueMm === null) return existing && !existing.deletedAt ? { ...existing, deletedAt: new Date().toISOString() } : null;
+  return { ...(existing ?? newReading({ ...slot, valueMm })), valueMm, deletedAt: null };
+}
+
+async function writeReadingValue(slot: Slot, valueMm: number | null, key: string, db: FieldDb): Promise<ItemResult> {
   try {
-    const result = await db.transaction('rw', db.readings, db.outbox, async (): Promise<ItemResult> => {
-      // A slot can hold a cleared reading pulled from another device beside the live one: edit the live one.
-      const inSlot = await db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray();
-      const existing = inSlot.find((r) => !r.deletedAt) ?? inSlot[0];
-      let record: Reading;
-      if (valueMm === null) {
-        if (!existing || existing.deletedAt) return { id: existing?.id ?? '', ok: true };
-        record = { ...existing, deletedAt: new Date().toISOString() };
-      } else {
-        const base: Reading = existing ?? newReading({ ...slot, valueMm });
-        record = { ...base, valueMm, deletedAt: null };
-      }
-      const { valid, refused } = checkRecords('reading', [record]);
-      if (!valid.length) return refused[0];
-      await putQueued('reading', valid, db);
-      wrote = true;
-      return { id: record.id, ok: true };
-    });
-    if (wrote) announceSaved();
-    return result;
+    const written = (await writeAsGuessed(slot, valueMm, key, db)) ?? (await writeFromStore(slot, valueMm, db));
+    if (written.ok === false) return written;
+    if (written.record) {
+      lastWritten.set(key, written.record);
+      announceSaved();
+    }
+    return { id: written.id, ok: true };
   } catch (err) {
     return { id: '', ok: false, message: storageMessage(err), fields: [] };
   }
+}
+
+/** A slot's write: the reading as stored (null: nothing to change), or why it was refused. */
+type SlotWrite = { id: string; ok: true; record: Reading | null } | Extract<ItemResult, { ok: false }>;
+
+/**
+ * Writes the keystroke on the guess that the slot holds what this page last wrote in it (nothing,
+ * when it wrote nothing there yet) and that its outbox entry still waits; null when there is no
+ * guess to make or it was wrong (nothing is then written).
+ */
+async function writeAsGuessed(slot: Slot, valueMm: number | null, key: string, db: FieldDb): Promise<SlotWrite | null> {
+  const guess = lastWritten.get(key);
+  const next = nextReading(guess, slot, valueMm);
+  const [record] = next ? checkRecords('reading', [next]).valid : [];
+  if (!record) return null;
+  try {
+    await db.transaction('rw', db.readings, db.outbox, async () => {
+      // IndexedDB runs a transaction's requests in the order they are made: the reads see the slot
+      // and the outbox as they were before this write.
+      const [inSlot, entries] = await Promise.all([
+        readSlot(slot, db),
+        guess ? entriesOf('reading', [guess.id], db) : [],
+        db.readings.put(record),
+        guess ? undefined : db.outbox.add({ entity: 'reading', recordId: record.id, batchKey: '', queuedAt: new Date().toISOString() }),
+      ]);
+      const unclaimed = entries.filter((e) => e.batchKey === '');
+      const asGuessed = guess
+        ? JSON.stringify(slotReading(inSlot)) === JSON.stringify(guess) && unclaimed.length > 0 && !unclaimed.some((e) => e.held)
+        : inSlot.length === 0;
+      if (!asGuessed) throw new GuessedWrong();
+    });
+    return { id: record.id, ok: true, record };
+  } catch (err) {
+    if (err instanceof GuessedWrong) return null;
+    throw err;
+  }
+}
+
+/** Reads the slot and its outbox entries, then writes: the way when the guess could not be made or was wrong. */
+function writeFromStore(slot: Slot, valueMm: number | null, db: FieldDb): Promise<SlotWrite> {
+  return db.transaction('rw', db.readings, db.outbox, async (): Promise<SlotWrite> => {
+    const existing = slotReading(await readSlot(slot, db));
+    const next = nextReading(existing, slot, valueMm);
+    if (!next) return { id: existing?.id ?? '', ok: true, record: null };
+    const { valid, refused } = checkRecords('reading', [next]);
+    if (!valid.length) return refused[0] as SlotWrite;
+    // A new reading has a new id: nothing of it can be in the outbox yet.
+    await putQueued('reading', valid, existing ? await entriesOf('reading', [next.id], db) : [], db);
+    return { id: next.id, ok: true, record: valid[0] };
+  });
 }

@@ -1,8 +1,8 @@
 // Edits typed but not yet committed to IndexedDB, kept in sessionStorage under
-// 'twistlog-typing:<database name>'. A keystroke's IndexedDB commit takes 15–25 ms (strict
-// durability); a reload or a killed tab inside that window would drop the last digit typed. Each
-// edit is noted here synchronously, before its write starts, and crossed off when the write
-// settles; whatever is left when the page opens again is replayed, in the order it was typed,
+// 'twistlog-typing:<database name>'. A keystroke's IndexedDB write takes some milliseconds (two
+// round trips and a strict-durability commit, more on a busy phone); a reload or a killed tab
+// inside that window would drop the last digit typed. Each edit is noted here synchronously,
+// before its write starts, and crossed off when the write settles; whatever is left when the page opens again is replayed, in the order it was typed,
 // before any screen reads the store (claimStore). sessionStorage belongs to the tab: it survives
 // the tab's reloads and is never shared with another tab, so two tabs never replay each other's
 // typing. Where there is no sessionStorage (Node), a map in memory stands in.

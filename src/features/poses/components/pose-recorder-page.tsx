@@ -42,7 +42,6 @@ export function PoseRecorderPage() {
 function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNullable<LocalSession['vehicle']> }; pose: Pose }) {
   const navigate = useNavigate();
   const [unit, setUnit] = useFieldUnit();
-  const saving = useWritesInFlight();
   const [wheel, setWheel] = useState<Wheel | null>(null);
   const [problems, setProblems] = useState<ItemResult[]>([]);
   const liftInputs = useRef<Record<Wheel, HTMLDivElement | null>>({ fl: null, fr: null, rl: null, rr: null });
@@ -230,23 +229,29 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         </p>
       )}
       <div className="space-y-3">
+        {/* A form per point: the browser's autofill looks over every field of the form a typed-in
+            field belongs to (with no form, every field of the page) after each keystroke. Points
+            off screen are neither laid out nor painted. Both keep the main thread free to take
+            the keystroke's answer from IndexedDB. */}
         {gaugePoints.map((g) => (
-          <fieldset key={g.id} className="card space-y-2 p-3">
-            <legend className="px-1 text-lg font-bold">Point {g.label}</legend>
-            {axes.map((a) => (
-              <LengthInput
-                key={a}
-                layout="row"
-                allowEmpty
-                label={`${g.label} ${axisLabel[a]}`}
-                unit={unit}
-                valueMm={value(g.id, a)}
-                warn={check.suspect.has(`${g.id}|${a}`)}
-                doubt={(mm) => readingDoubt(mm, a, session.readingMode, vehicle, unit)}
-                onChange={(mm) => void setReadingValue({ poseId: pose.id, gaugePointId: g.id, axis: a }, mm).then(report)}
-              />
-            ))}
-          </fieldset>
+          <form key={g.id} noValidate onSubmit={(e) => e.preventDefault()} className="[contain-intrinsic-size:auto_14rem] [content-visibility:auto]">
+            <fieldset className="card space-y-2 p-3">
+              <legend className="px-1 text-lg font-bold">Point {g.label}</legend>
+              {axes.map((a) => (
+                <LengthInput
+                  key={a}
+                  layout="row"
+                  allowEmpty
+                  label={`${g.label} ${axisLabel[a]}`}
+                  unit={unit}
+                  valueMm={value(g.id, a)}
+                  warn={check.suspect.has(`${g.id}|${a}`)}
+                  doubt={(mm) => readingDoubt(mm, a, session.readingMode, vehicle, unit)}
+                  onChange={(mm) => void setReadingValue({ poseId: pose.id, gaugePointId: g.id, axis: a }, mm).then(report)}
+                />
+              ))}
+            </fieldset>
+          </form>
         ))}
       </div>
       <div>
@@ -263,9 +268,7 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
       </div>
       <PhotoCapture sessionId={session.id} poseId={pose.id} />
       <SaveProblems results={problems} />
-      <p className="text-sm" role="status" data-testid="local-save-state">
-        {saving > 0 ? 'Saving on this phone…' : 'Everything typed is saved on this phone.'}
-      </p>
+      <LocalSaveState />
       <button type="button" className="btn-primary w-full flex-col gap-0" onClick={() => void goNext()}>
         Next pose
         <span className="text-sm font-normal">{later ? later.label || `Pose ${later.seq}` : 'a new pose'}</span>
@@ -279,5 +282,18 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         </button>
       </div>
     </section>
+  );
+}
+
+/**
+ * Whether everything typed is stored yet. A component of its own: each keystroke's write starts
+ * and settles here without the recorder and its entries rendering again.
+ */
+function LocalSaveState() {
+  const saving = useWritesInFlight();
+  return (
+    <p className="text-sm" role="status" data-testid="local-save-state">
+      {saving > 0 ? 'Saving on this phone…' : 'Everything typed is saved on this phone.'}
+    </p>
   );
 }
