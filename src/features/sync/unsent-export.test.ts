@@ -42,6 +42,7 @@ const emptyPull = (cursor: number): PullResponse => ({
   testSessions: [],
   poses: [],
   readings: [],
+  retestRequests: [],
   photos: [],
   conflicts: [],
 });

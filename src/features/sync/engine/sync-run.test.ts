@@ -37,6 +37,7 @@ const emptyPull = (cursor: number): PullResponse => ({
   testSessions: [],
   poses: [],
   readings: [],
+  retestRequests: [],
   photos: [],
   conflicts: [],
 });
