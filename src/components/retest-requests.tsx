@@ -2,7 +2,7 @@
 // engineer's comment, where it stands and the crew's answer; the crew answers an open one, the
 // engineer closes or asks again. Every step is a change of the record on this device, sent with
 // the next sync (src/lib/field/retest-actions.ts).
-import { useId, useState } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import type { RetestRequest } from '@shared/schemas';
 import { formatTimestamp } from '@shared/format';
 import { RETEST_STATE_WORDS, retestTargetWords } from '@shared/retest-words';
@@ -28,7 +28,7 @@ interface ListProps {
   /** A person's name by id, where the screen knows the workshop's members. */
   nameOf?: (userId: string) => string | undefined;
   /** A link to the pose a request is about, where the screen offers one. */
-  poseLink?: (poseId: string) => React.ReactNode;
+  poseLink?: (poseId: string) => ReactNode;
   /** Shown when there is no request. */
   empty?: string;
 }
