@@ -10,7 +10,8 @@
 // sending back a whole record with an engineer's exclusion in it, untouched, changes nothing it
 // may not. A refused change rejects the batch with a 400 naming each refused field; nothing of it
 // is written. Every accepted change to a record the server had leaves a history event with the
-// before and after value of each field, in the same transaction as the write.
+// before and after value of each field, in the same transaction as the write; so does a new re-test
+// request (the engineer's question), whose steps (asked, answered, closed, asked again) are named.
 import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
 import { QueryTypes } from 'sequelize';

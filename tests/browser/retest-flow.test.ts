@@ -57,7 +57,7 @@ describe('a re-test request', () => {
     await request.getByText('“A lateral looks 3 mm low against B: read it again”').waitFor();
 
     // The tester measures again, types the new value as usual, and answers.
-    await phone.page.getByLabel('A lateral').fill('44.5');
+    await phone.page.getByRole('textbox', { name: 'A lateral (mm)' }).fill('44.5');
     await request.getByLabel('Your answer').fill('Read twice more: 44.5 mm, the tape had slipped off the mark');
     await request.getByRole('button', { name: 'Send answer' }).click();
     await request.getByText('answered', { exact: true }).waitFor();
