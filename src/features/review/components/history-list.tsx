@@ -65,10 +65,10 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
   const parts: string[] = [];
   if (event.entity === 'retestRequest') {
     parts.push(`on ${retestOf(event.entityId) ?? 'a request not on this device'}`);
-    for (const [key, change] of Object.entries(d)) {
-      const c = change as { before?: unknown; after?: unknown };
-      const name = RETEST_FIELDS[key];
-      if (!name) continue;
+    // In the fields' own order: the stored detail's keys come back in PostgreSQL's (jsonb) order.
+    for (const [key, name] of Object.entries(RETEST_FIELDS)) {
+      if (!(key in d)) continue;
+      const c = d[key] as { before?: unknown; after?: unknown };
       const words = (v: unknown) => (v == null || v === '' ? '—' : key === 'state' ? (RETEST_STATE_WORDS[v as RetestState] ?? String(v)) : `“${String(v)}”`);
       parts.push(`${name}: ${words(c.before)} → ${words(c.after)}`);
     }
