@@ -65,6 +65,16 @@ export const permissionTable = {
     lets: 'review a session: exclude and flag readings, export them, change a session whose envelope is signed',
     doing: 'Reviewing readings',
   },
+  'retest.ask': {
+    roles: ['admin', 'engineer'],
+    lets: 'ask the crew for a re-test of a session, a pose or a reading, and close or reopen the request',
+    doing: 'Asking for a re-test',
+  },
+  'retest.answer': {
+    roles: ['admin', 'engineer', 'tester'],
+    lets: 'answer a re-test request from the field',
+    doing: 'Answering a re-test request',
+  },
   'session.delete': { roles: ['admin', 'engineer'], lets: 'delete a test session', doing: 'Deleting a test session' },
   'envelope.read': {
     roles: ['admin', 'engineer', 'tester'],

@@ -9,8 +9,10 @@ import { createHash } from 'node:crypto';
 import type { Request, Response } from 'express';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { VehicleModel } from '../models';
+import { records, syncEntities } from '../../shared/records';
 
-const SYNCED_TABLES = ['vehicles', 'gauge_points', 'test_sessions', 'poses', 'readings', 'photos', 'envelopes'];
+/** Every table with a change cursor: the registry's synced records, photos and envelopes. */
+const SYNCED_TABLES = [...syncEntities.map((e) => records[e].table), 'photos', 'envelopes'];
 
 /** The team's change cursor: the largest change_seq of its rows (0 before its first). */
 export const teamCursorSql = `greatest(0, ${SYNCED_TABLES.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = $1)`).join(', ')})`;

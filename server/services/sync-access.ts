@@ -10,7 +10,8 @@
 // sending back a whole record with an engineer's exclusion in it, untouched, changes nothing it
 // may not. A refused change rejects the batch with a 400 naming each refused field; nothing of it
 // is written. Every accepted change to a record the server had leaves a history event with the
-// before and after value of each field, in the same transaction as the write.
+// before and after value of each field, in the same transaction as the write; so does a new re-test
+// request (the engineer's question), whose steps (asked, answered, closed, asked again) are named.
 import type { Transaction } from 'sequelize';
 import canonicalize from 'canonicalize';
 import type { AuthContext } from '../auth/context';
@@ -22,22 +23,27 @@ import { readingEditAction } from './review.service';
 import { db, lockNamedRows, poseSessions, rowKey, select, type BatchReads, type PoseSessions, type Row } from './sync-batch';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
+/** The action a change needs: one per field, or one that depends on the new value and the server's row (a state's step). */
+type FieldRule = Action | ((record: Row, row: Row | undefined) => Action);
+
 interface EntityAccess {
   /** Creating the record. */
   create: Action;
   /** The action that changes each field (every column of the record has one). */
-  fields: Record<string, Action>;
+  fields: Record<string, FieldRule>;
   /** What a new record must hold in each field its author may not set (absent: any value). */
   defaults: Record<string, unknown>;
   /** Part of a session: closed once the session has a signed envelope, except to this action. */
   signedSession?: Action;
+  /** Fields that name who made a change (who answered): when changed to a person, it must be the sender. */
+  sender?: string[];
 }
 
 /**
  * Every field of the record (shared/records) needs `action` to change, but those named in
  * `except`: a field added to a record is guarded like the record's other fields at once.
  */
-const fieldsOf = (entity: SyncEntity, action: Action, except: Record<string, Action> = {}) => ({
+const fieldsOf = (entity: SyncEntity, action: Action, except: Record<string, FieldRule> = {}) => ({
   ...Object.fromEntries(syncTables[entity].columns.map((c) => [c.key, action])),
   ...except,
 });
@@ -74,6 +80,19 @@ export const syncAccess: Record<SyncEntity, EntityAccess> = {
     defaults: { excluded: false, excludeReason: null, flagNote: null, deletedAt: null },
     signedSession: 'session.review',
   },
+  retestRequest: {
+    create: 'retest.ask',
+    // The engineer asks, edits the comment, closes and reopens; the crew answers. Answering a
+    // closed request reopens the question, so it is for those who may reopen.
+    fields: fieldsOf('retestRequest', 'retest.ask', {
+      answer: 'retest.answer',
+      answeredAt: 'retest.answer',
+      answeredBy: 'retest.answer',
+      state: (record, row) => (record.state === 'answered' && row?.state !== 'closed' ? 'retest.answer' : 'retest.ask'),
+    }),
+    defaults: { state: 'open', answer: '', answeredAt: null, answeredBy: null, closedAt: null, closedBy: null, deletedAt: null },
+    sender: ['answeredBy', 'closedBy'],
+  },
 };
 
 export interface AccessItem {
@@ -100,7 +119,14 @@ function shown(col: Column, v: unknown): unknown {
 
 const fieldPath = (index: number, key: string) => `body.changes.${index}.record.${key}`;
 
-const WORDS: Record<SyncEntity, string> = { vehicle: 'a vehicle', gaugePoint: 'a gauge point', testSession: 'a session', pose: 'a pose', reading: 'a reading' };
+const WORDS: Record<SyncEntity, string> = {
+  vehicle: 'a vehicle',
+  gaugePoint: 'a gauge point',
+  testSession: 'a session',
+  pose: 'a pose',
+  reading: 'a reading',
+  retestRequest: 'a re-test request',
+};
 
 /**
  * Checks every change of a push (or a conflict resolved with the phone's version) against the
@@ -157,15 +183,24 @@ export async function enforceSyncAccess(
 
     if (!row && !can(auth.role, rules.create)) refuse('id', rules.create, `add ${WORDS[item.entity]}`);
     for (const col of changed) {
-      const action = rules.fields[col.key];
+      const rule = rules.fields[col.key];
+      const action = typeof rule === 'function' ? rule(item.record, row) : rule;
       if (!can(auth.role, action)) refuse(col.key, action, `${row ? 'change' : 'set'} ${col.key} of ${WORDS[item.entity]}`);
+      const sender = rules.sender?.includes(col.key) && item.record[col.key] != null;
+      if (sender && comparable(col, item.record[col.key]) !== comparable(col, auth.userId)) {
+        errors.push({ field: where(item.index, col.key), message: `${col.key} must be the person who sends the change (you), not someone else` });
+      }
     }
     const closed = rules.signedSession && sessionsOf(item).some((s) => signed.has(s));
     if (closed && !can(auth.role, rules.signedSession!)) {
       refuse(row ? changed[0].key : 'id', rules.signedSession!, `${row ? 'change' : 'add'} ${WORDS[item.entity]} of a session whose envelope is signed`);
     }
-    if (row) {
-      const changes = Object.fromEntries(changed.map((col) => [col.key, { before: shown(col, row[col.column]), after: shown(col, item.record[col.key]) }]));
+    // A new record's arrival is in the field's sync summary; a new re-test request is the engineer's
+    // question, so it is a history event of its own, with what was asked.
+    if (row || item.entity === 'retestRequest') {
+      const before = (col: Column) => (row ? shown(col, row[col.column]) : null);
+      const fields = row ? changed : spec.columns.filter((col) => item.record[col.key] != null && col.key !== 'askedAt');
+      const changes = Object.fromEntries(fields.map((col) => [col.key, { before: before(col), after: shown(col, item.record[col.key]) }]));
       history.push({ item, sessionId: sessionsOf(item)[0] ?? null, changes });
     }
   }
@@ -200,7 +235,9 @@ async function sessionResolver(items: AccessItem[], rows: Map<string, Row>, pose
           ? [item.record.sessionId as string, row?.session_id as string | undefined]
           : item.entity === 'reading'
             ? [sessionOfPose(item.record.poseId as string), row ? sessionOfPose(row.pose_id as string) : undefined]
-            : [];
+            : item.entity === 'retestRequest'
+              ? [item.record.sessionId as string, row?.session_id as string | undefined]
+              : [];
     return [...new Set(ids.filter((x): x is string => !!x))];
   };
 }
@@ -213,7 +250,11 @@ async function recordChanges(
 ) {
   if (!history.length) return;
   const action = (h: (typeof history)[number]) =>
-    h.item.entity === 'reading' ? readingEditAction(h.changes, h.item.record.excluded as boolean) : `${h.item.entity}.edit`;
+    h.item.entity === 'reading'
+      ? readingEditAction(h.changes, h.item.record.excluded as boolean)
+      : h.item.entity === 'retestRequest'
+        ? retestAction(h.changes)
+        : `${h.item.entity}.edit`;
   await db().query(
     `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
      SELECT $1::uuid, u.session_id, u.entity, u.entity_id, u.action, $2::uuid, u.detail
@@ -231,4 +272,12 @@ async function recordChanges(
       transaction,
     },
   );
+}
+
+/** The history action of a change to a re-test request: asked, answered, closed, reopened or edited. */
+export function retestAction(changes: Record<string, { before: unknown; after: unknown }>): string {
+  const state = changes.state;
+  if (!state) return 'retest.edit';
+  if (state.before === null) return 'retest.ask';
+  return { open: 'retest.reopen', answered: 'retest.answer', closed: 'retest.close' }[state.after as string] ?? 'retest.edit';
 }

@@ -176,8 +176,9 @@ async function checkReferences(
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
       for (const item of byEntity.get(entity)!) {
-        const target = item.record[ref.key] as string;
-        if (!known.get(ref.entity)!.has(target)) {
+        const target = item.record[ref.key] as string | null;
+        // An optional reference (a re-test request's pose) may be empty.
+        if (target != null && !known.get(ref.entity)!.has(target)) {
           if (!wanted.has(ref.entity)) wanted.set(ref.entity, new Set());
           wanted.get(ref.entity)!.add(target);
         }
@@ -204,8 +205,8 @@ async function checkReferences(
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
       for (const item of byEntity.get(entity)!) {
-        const target = item.record[ref.key] as string;
-        if (!known.get(ref.entity)!.has(target)) {
+        const target = item.record[ref.key] as string | null;
+        if (target != null && !known.get(ref.entity)!.has(target)) {
           errors.push({
             field: field(item, ref.key),
             message: `${entity} ${short(item.record.id)} refers to ${ref.entity} ${target}, which is neither in this batch nor on the server`,

@@ -7,6 +7,7 @@ import { gaugePointRecord } from './gauge-point';
 import { testSessionRecord } from './test-session';
 import { poseRecord } from './pose';
 import { readingRecord } from './reading';
+import { retestRequestRecord } from './retest-request';
 
 export const records = {
   vehicle: vehicleRecord,
@@ -14,6 +15,7 @@ export const records = {
   testSession: testSessionRecord,
   pose: poseRecord,
   reading: readingRecord,
+  retestRequest: retestRequestRecord,
 };
 
 export type SyncEntity = keyof typeof records;
@@ -34,3 +36,4 @@ export { newGaugePoint } from './gauge-point';
 export { newTestSession } from './test-session';
 export { newPose } from './pose';
 export { newReading } from './reading';
+export { newRetestRequest } from './retest-request';

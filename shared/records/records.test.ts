@@ -2,7 +2,7 @@
 // its schema accepts, and a field added after the first release has a default, so the records
 // already on a phone and the batches already waiting in an outbox stay valid.
 import { describe, expect, it } from 'vitest';
-import { newGaugePoint, newPose, newReading, newTestSession, newVehicle, records, syncEntities, type SyncEntity } from './index';
+import { newGaugePoint, newPose, newReading, newRetestRequest, newTestSession, newVehicle, records, syncEntities, type SyncEntity } from './index';
 import { pushRequest } from '../schemas/sync';
 
 const VEHICLE_ID = '0d3c5a10-0000-4000-8000-000000000001';
@@ -35,6 +35,7 @@ describe('the record registry', () => {
       testSession: newTestSession({ vehicleId: VEHICLE_ID }),
       pose: newPose({ sessionId: VEHICLE_ID, seq: 0 }),
       reading: newReading({ poseId: VEHICLE_ID, gaugePointId: VEHICLE_ID, axis: 'lateral', valueMm: 12 }),
+      retestRequest: newRetestRequest({ sessionId: VEHICLE_ID, comment: 'Read point A again' }),
     } satisfies Record<SyncEntity, unknown>;
     for (const entity of syncEntities) expect(records[entity].schema.safeParse(made[entity]).error, entity).toBeUndefined();
   });
@@ -78,6 +79,8 @@ const FIRST_RELEASE: Record<SyncEntity, string[]> = {
     'recordedAt',
   ],
   reading: ['id', 'version', 'deletedAt', 'poseId', 'gaugePointId', 'axis', 'valueMm', 'excluded', 'excludeReason', 'flagNote'],
+  // Added with migration 0006, whole.
+  retestRequest: Object.keys(records.retestRequest.schema.shape),
 };
 
 const oldShaped = <T extends object>(record: T, entity: SyncEntity) =>
@@ -91,6 +94,7 @@ describe('records made before a field existed', () => {
     // A ramp pose with its wheel (migration 0004 added the wheel on the ramp).
     pose: newPose({ sessionId: VEHICLE_ID, seq: 1, kind: 'ramp', rampAngleDeg: 20, rampDistanceMm: 1500, rampWheel: 'fl', liftFlMm: 513 }),
     reading: newReading({ poseId: VEHICLE_ID, gaugePointId: VEHICLE_ID, axis: 'lateral', valueMm: 12 }),
+    retestRequest: newRetestRequest({ sessionId: VEHICLE_ID, poseId: VEHICLE_ID, gaugePointId: VEHICLE_ID, axis: 'vertical', comment: 'Tape slipped?' }),
   } satisfies Record<SyncEntity, unknown>;
 
   it.each(syncEntities)('a %s stored on a phone without the later fields still reads back, the new fields at their defaults', (entity) => {
@@ -114,5 +118,26 @@ describe('records made before a field existed', () => {
   it('a field added without a default would fail here (the trap this test guards)', () => {
     const withoutDefault = records.pose.schema.extend({ addedWithoutDefault: records.pose.schema.shape.label });
     expect(withoutDefault.safeParse(oldShaped(current.pose, 'pose')).success).toBe(false);
+  });
+});
+
+describe('a re-test request', () => {
+  const base = newRetestRequest({ sessionId: VEHICLE_ID, poseId: VEHICLE_ID, comment: 'Pose 3 again, the rear left was off the boulder' });
+  const problems = (r: object) => records.retestRequest.schema.safeParse(r).error?.issues.map((i) => `${i.path.join('.')}: ${i.message}`) ?? [];
+
+  it('names a reading by its gauge point and axis together, in a pose', () => {
+    expect(problems({ ...base, gaugePointId: VEHICLE_ID })).toEqual(['axis: a reading is named by its gauge point and its axis together']);
+    expect(problems({ ...base, poseId: null, gaugePointId: VEHICLE_ID, axis: 'lateral' })).toEqual(['poseId: a reading is named in a pose: give the pose']);
+  });
+
+  it('is answered only with an answer, who and when; closed only with who and when', () => {
+    expect(problems({ ...base, comment: '  ' })).toEqual(['comment: say what to measure again and why']);
+    expect(problems({ ...base, state: 'answered' })).toEqual(['answer: an answered request needs the answer']);
+    expect(problems({ ...base, state: 'answered', answer: 'Read again: 41 mm', answeredAt: '2026-05-02T10:00:00Z' })).toEqual([
+      'answeredBy: an answer carries who answered and when, together',
+    ]);
+    expect(problems({ ...base, state: 'answered', answer: 'Read again: 41 mm', answeredAt: '2026-05-02T10:00:00Z', answeredBy: VEHICLE_ID })).toEqual([]);
+    expect(problems({ ...base, state: 'closed' })).toEqual(['closedAt: a closed request needs when it was closed']);
+    expect(problems({ ...base, closedAt: '2026-05-02T10:00:00Z', closedBy: VEHICLE_ID })).toEqual(['closedAt: only a closed request has a closing time']);
   });
 });

@@ -5,4 +5,5 @@ export * from '../records/gauge-point';
 export * from '../records/test-session';
 export * from '../records/pose';
 export * from '../records/reading';
+export * from '../records/retest-request';
 export * from './photo';

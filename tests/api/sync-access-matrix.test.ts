@@ -10,6 +10,7 @@
 //   a reading's review (excluded, excludeReason, flagNote), deleting a vehicle or a session, and
 //   anything at all in a session whose envelope is signed;
 // - a viewer may not push (403).
+// Re-test requests move through states with rules of their own: tests/api/retest-requests.test.ts.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
@@ -19,7 +20,7 @@ import { changedTables, insertRow, scopedTables, snapshot, type ScopedTable } fr
 import { syncTables } from '../../server/services/sync-tables';
 import { toRecord } from '../../server/services/to-record';
 import { syncAccess } from '../../server/services/sync-access';
-import type { SyncEntity } from '../../shared/schemas/sync';
+import { syncEntities, type SyncEntity } from '../../shared/schemas/sync';
 import type { Role } from '../../shared/schemas';
 import { newGaugePoint, newPose, newReading, newTestSession, newVehicle } from '../../shared/records';
 import { roles as allRoles } from '../../shared/permissions';
@@ -35,11 +36,12 @@ beforeAll(async () => {
 afterAll(async () => ts?.close());
 
 type Patch = Record<string, unknown>;
-const entities: SyncEntity[] = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'];
+const entities = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'] as const satisfies SyncEntity[];
+type Entity = (typeof entities)[number];
 const roles: Role[] = [...allRoles];
 
 /** What the product promises, in words (see the file's head). */
-function promised(role: Role, entity: SyncEntity, fields: string[], inSignedSession: boolean): 'allowed' | 'refused' | 'forbidden' {
+function promised(role: Role, entity: Entity, fields: string[], inSignedSession: boolean): 'allowed' | 'refused' | 'forbidden' {
   if (role === 'viewer') return 'forbidden';
   if (role === 'admin' || role === 'engineer') return 'allowed';
   if (inSignedSession) return 'refused';
@@ -129,10 +131,10 @@ const axes = ['foreAft', 'lateral', 'vertical'];
 const swap = (v: unknown, a: string, b: string) => (v === a ? b : a);
 
 /** A different, valid value for one field (a patch: excluding a reading brings its reason along). */
-function changeOf(entity: SyncEntity, field: string, r: Record<string, unknown>, f: Fixture): Patch {
+function changeOf(entity: Entity, field: string, r: Record<string, unknown>, f: Fixture): Patch {
   const more = (n: unknown) => (n as number) + 10;
   const text = (v: unknown) => `${String(v ?? '')} changed`.trim();
-  const by: Record<SyncEntity, Record<string, () => Patch>> = {
+  const by: Record<Entity, Record<string, () => Patch>> = {
     vehicle: {
       opening: () => ({ opening: { ...(r.opening as object), widthMm: more((r.opening as { widthMm: number }).widthMm) } }),
     },
@@ -178,7 +180,7 @@ function changeOf(entity: SyncEntity, field: string, r: Record<string, unknown>,
 }
 
 /** Which record of the fixture each case edits: in an open session, and (for session parts) in the signed one. */
-const targets = (f: Fixture): Record<SyncEntity, { open: string; signed?: string }> => ({
+const targets = (f: Fixture): Record<Entity, { open: string; signed?: string }> => ({
   vehicle: { open: f.ids.v2 },
   gaugePoint: { open: f.ids.g2 },
   testSession: { open: f.ids.openSession, signed: f.ids.signedSession },
@@ -196,7 +198,7 @@ const freeSlots = (f: Fixture) => [
 ];
 
 /** A new record of each kind, with every field at its default (in an open session, or a signed one). */
-function newRecord(entity: SyncEntity, f: Fixture, inSigned: boolean): Record<string, unknown> & { id: string; version: number } {
+function newRecord(entity: Entity, f: Fixture, inSigned: boolean): Record<string, unknown> & { id: string; version: number } {
   const id = randomUUID();
   const base = { id, deletedAt: null };
   switch (entity) {
@@ -226,7 +228,7 @@ function newRecord(entity: SyncEntity, f: Fixture, inSigned: boolean): Record<st
 
 interface Case {
   name: string;
-  entity: SyncEntity;
+  entity: Entity;
   /** The record to push with the change made (built when the case runs: earlier cases move versions on). */
   build: () => Promise<{ record: Record<string, unknown> & { id: string; version: number }; changedFields: string[] }>;
   /** The field the refusal must name. */
@@ -289,7 +291,7 @@ const same = (a: unknown, b: unknown) => {
 
 describe('the sync rules table', () => {
   it('has a rule for every field of every synced record', () => {
-    for (const entity of entities) {
+    for (const entity of syncEntities) {
       expect(Object.keys(syncAccess[entity].fields).sort(), entity).toEqual(syncTables[entity].columns.map((c) => c.key).sort());
     }
   });

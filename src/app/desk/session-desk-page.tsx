@@ -1,4 +1,5 @@
-import { lazy, Suspense, useState } from 'react';
+import { lazy, Suspense, useEffect, useRef, useState, useSyncExternalStore } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { QueryState } from '@/components/query-state';
 import { SafetyNotice } from '@/components/safety-notice';
@@ -7,7 +8,12 @@ import { envelopeRemarks } from '@shared/envelope-rows';
 import { plural } from '@shared/plural';
 import { useMe } from '@/lib/auth/get-me';
 import { useCan } from '@/lib/auth/can';
-import { useReview, type SessionReview } from '@/features/review/api/get-review';
+import { reviewQueries, useReview, type SessionReview } from '@/features/review/api/get-review';
+import { useTeam } from '@/features/team/api/team';
+import { syncState } from '@/features/sync/engine/sync-engine';
+import { useLocalRetests } from '@/lib/db/live';
+import { AskRetest, RetestList, type RetestLookups } from '@/components/retest-requests';
+import { retestTargetWords } from '@shared/retest-words';
 import { useFitFlags } from '@/features/review/hooks/use-fit-flags';
 import { ReadingsTable } from '@/features/review/components/readings-table';
 import { ReadingEditor } from '@/features/review/components/reading-editor';
@@ -34,7 +40,33 @@ export function SessionDeskPage() {
   return <QueryState query={review}>{(data) => <SessionDesk review={data} />}</QueryState>;
 }
 
+/**
+ * Asks for the review again after each sync run: re-test requests and the crew's answers travel
+ * through the phone store's sync, and the history that records them is the server's.
+ */
+function useReviewAfterSync(sessionId: string) {
+  const queryClient = useQueryClient();
+  const running = useSyncExternalStore(syncState.subscribe, () => syncState.get().running);
+  const wasRunning = useRef(running);
+  useEffect(() => {
+    if (wasRunning.current && !running) void queryClient.invalidateQueries({ queryKey: reviewQueries.detail(sessionId).queryKey });
+    wasRunning.current = running;
+  }, [running, sessionId, queryClient]);
+}
+
 function SessionDesk({ review }: { review: SessionReview }) {
+  useReviewAfterSync(review.session.id);
+  const retests = useLocalRetests(review.session.id)?.requests ?? [];
+  const team = useTeam();
+  const nameOf = (userId: string) => team.data?.members.find((m) => m.userId === userId)?.name;
+  const look: RetestLookups = {
+    pose: (pid) => review.poses.find((p) => p.id === pid),
+    point: (gid) => review.gaugePoints.find((g) => g.id === gid),
+  };
+  const retestOf = (id: string) => {
+    const r = retests.find((x) => x.id === id);
+    return r ? retestTargetWords(r, look) : null;
+  };
   const me = useMe();
   const unit = me.data?.user.unitSystem ?? me.data?.team.unitSystem ?? 'mm';
   const can = useCan();
@@ -83,12 +115,38 @@ function SessionDesk({ review }: { review: SessionReview }) {
       {section === 'readings' && (
         <div className="space-y-3">
           <SessionConditions session={review.session} />
+          <section className="card space-y-2" aria-label="Re-test requests of this session">
+            <h2 className="font-bold">
+              Re-test requests
+              {retests.length > 0 &&
+                ` · ${plural(retests.filter((r) => r.state === 'open').length, 'open request')}, ${retests.filter((r) => r.state === 'answered').length} answered`}
+            </h2>
+            <RetestList
+              requests={retests}
+              look={look}
+              me={me.data?.user.id}
+              canAnswer={false}
+              canAsk={can('retest.ask')}
+              nameOf={nameOf}
+              empty="No re-test requests: ask for one on the session, a pose (beside its notes) or a reading (open it in the table)."
+            />
+            {can('retest.ask') && <AskRetest target={{ sessionId: review.session.id }} what="the whole session" />}
+          </section>
           <ReadingsTable
             review={review}
             flags={fit.flags}
             unit={unit}
             selectedId={selected}
             onSelect={can('session.review') ? setSelected : undefined}
+            poseExtra={(pose) => {
+              const waiting = retests.filter((r) => r.poseId === pose.id && r.state === 'open').length;
+              return (
+                <p className="flex flex-wrap items-center gap-2">
+                  {waiting > 0 && <b>{plural(waiting, 're-test request')} waiting for the crew</b>}
+                  {can('retest.ask') && <AskRetest target={{ sessionId: review.session.id, poseId: pose.id }} what={pose.label || `Pose ${pose.seq}`} />}
+                </p>
+              );
+            }}
             editor={
               selected && (
                 <ReadingEditor
@@ -131,7 +189,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
         </div>
       )}
       {section === 'envelope' && <EnvelopePanel data={review} unit={unit} canDesign={can('envelope.design')} canSign={can('envelope.signOff')} />}
-      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} unit={unit} />}
+      {section === 'history' && <HistoryList events={review.history} labelOf={labelOf} retestOf={retestOf} unit={unit} />}
     </div>
   );
 }

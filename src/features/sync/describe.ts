@@ -3,6 +3,7 @@
 import type { UnitSystem } from '@shared/schemas';
 import type { SyncEntity } from '@shared/schemas/sync';
 import { AXIS_NAMES } from '@shared/format';
+import { RETEST_STATE_WORDS, retestTargetWords } from '@shared/retest-words';
 import { formatLength } from '@shared/units';
 import type { FieldLookups } from '@/lib/db/unsent';
 
@@ -67,6 +68,21 @@ const FIELDS: Record<SyncEntity, Record<string, [name: string, kind: Kind]>> = {
     axis: ['Axis', 'choice'],
     deletedAt: ['Cleared', 'time'],
   },
+  retestRequest: {
+    comment: ['What to measure again', 'text'],
+    state: ['State', 'choice'],
+    answer: ['Answer', 'text'],
+    answeredAt: ['Answered at', 'time'],
+    closedAt: ['Closed at', 'time'],
+    askedAt: ['Asked at', 'time'],
+    sessionId: ['Session', 'text'],
+    poseId: ['Pose', 'text'],
+    gaugePointId: ['Gauge point', 'text'],
+    axis: ['Axis', 'choice'],
+    answeredBy: ['Answered by', 'text'],
+    closedBy: ['Closed by', 'text'],
+    deletedAt: ['Withdrawn', 'time'],
+  },
 };
 
 const CHOICES: Record<string, string> = {
@@ -75,6 +91,7 @@ const CHOICES: Record<string, string> = {
   ramp: 'ramp',
   gap: 'raw gaps',
   displacement: 'displacements',
+  ...RETEST_STATE_WORDS,
   ...AXIS_NAMES,
 };
 
@@ -98,6 +115,13 @@ export function recordTitle(entity: SyncEntity, r: Rec, look: FieldLookups): str
       return `Session “${String(r.title) || 'Flex test'}” of ${String(r.testedOn)}`;
     case 'vehicle':
       return `Vehicle ${String(r.name)}`;
+    case 'retestRequest': {
+      const target = retestTargetWords(r as Parameters<typeof retestTargetWords>[0], {
+        pose: (id) => look.poses.get(id),
+        point: (id) => look.gaugePoints.get(id),
+      });
+      return `Re-test request on ${target}`;
+    }
   }
 }
 

@@ -1,7 +1,7 @@
 // What the field client keeps in the browser, and where: one IndexedDB database ("twistlog-field")
 // opened through Dexie.
-//   vehicles, gaugePoints, sessions, poses, readings — records as in shared/schemas (local edits
-//     and pulled server rows alike), keyed by their client-generated UUIDs;
+//   vehicles, gaugePoints, sessions, poses, readings, retestRequests — records as in shared/records
+//     (local edits and pulled server rows alike), keyed by their client-generated UUIDs;
 //   outbox   — one entry per record waiting to be pushed (entity + id; the content is read from the
 //     record table when a batch is formed), or held back with the server's reason until fixed;
 //   batches  — a formed batch with its idempotency key and exact contents, kept until the server
@@ -12,7 +12,7 @@
 // Every write transaction uses durability 'strict': Chrome's default ('relaxed') may report
 // success before the data is on disk. Keep every earlier version() when the schema changes.
 import Dexie, { type EntityTable } from 'dexie';
-import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
+import type { GaugePoint, Pose, Reading, RetestRequest, TestSession, Vehicle } from '@shared/schemas';
 import type { FieldError } from '@shared/schemas/common';
 import type { PushRequest, SyncConflict, SyncEntity } from '@shared/schemas/sync';
 import { records, syncEntities } from '@shared/records';
@@ -73,9 +73,12 @@ export interface MetaEntry {
  * only when the version number rises: a changed index needs a new version() with these stores
  * (field-db.test.ts pins version 1's), never an edit of an earlier one.
  */
-export function recordStores(): Record<string, string> {
-  return Object.fromEntries(syncEntities.map((e) => [records[e].dexie.table, ['id', ...records[e].dexie.indexes].join(', ')]));
+export function recordStores(entities: readonly SyncEntity[] = syncEntities): Record<string, string> {
+  return Object.fromEntries(entities.map((e) => [records[e].dexie.table, ['id', ...records[e].dexie.indexes].join(', ')]));
 }
+
+/** The records of version 1; every later version() adds its own. */
+export const VERSION_1_RECORDS = ['vehicle', 'gaugePoint', 'testSession', 'pose', 'reading'] as const satisfies SyncEntity[];
 
 export class FieldDb extends Dexie {
   vehicles!: EntityTable<Vehicle, 'id'>;
@@ -83,6 +86,7 @@ export class FieldDb extends Dexie {
   sessions!: EntityTable<TestSession, 'id'>;
   poses!: EntityTable<Pose, 'id'>;
   readings!: EntityTable<Reading, 'id'>;
+  retestRequests!: EntityTable<RetestRequest, 'id'>;
   outbox!: EntityTable<OutboxEntry, 'seq'>;
   batches!: EntityTable<PendingBatch, 'key'>;
   photos!: EntityTable<StoredPhoto, 'id'>;
@@ -92,13 +96,15 @@ export class FieldDb extends Dexie {
   constructor(name = 'twistlog-field') {
     super(name, { chromeTransactionDurability: 'strict' });
     this.version(1).stores({
-      ...recordStores(),
+      ...recordStores(VERSION_1_RECORDS),
       outbox: '++seq, [entity+recordId], batchKey',
       batches: 'key',
       photos: 'id, sessionId, status',
       conflicts: 'id, entityId',
       meta: 'key',
     });
+    // Re-test requests, found by their session.
+    this.version(2).stores(recordStores(['retestRequest']));
   }
 }
 

@@ -2,7 +2,7 @@
 // tables it reads change. Records are checked with the shared schemas on the way out; deleted
 // ones are left out; corrupt rows are counted, not shown as data.
 import { useLiveQuery } from 'dexie-react-hooks';
-import type { GaugePoint, Pose, Reading, TestSession, Vehicle } from '@shared/schemas';
+import type { GaugePoint, Pose, Reading, RetestRequest, TestSession, Vehicle } from '@shared/schemas';
 import { fieldDb } from './field-db';
 import { checkRows } from './records';
 import { getMeta, type MetaValues } from './meta';
@@ -49,6 +49,10 @@ export function useLocalSessions() {
     }
     for (const r of waitingReadings) if (r) count(sessionOfPose.get(r.poseId));
     for (const p of await fieldDb.photos.where('status').equals('pending').toArray()) count(p.sessionId);
+    const openRetests = new Map<string, number>();
+    for (const r of live(checkRows<RetestRequest>('retestRequest', await fieldDb.retestRequests.toArray()).records)) {
+      if (r.state === 'open') openRetests.set(r.sessionId, (openRetests.get(r.sessionId) ?? 0) + 1);
+    }
     return {
       sessions: live(checked.records)
         .sort((a, b) => b.testedOn.localeCompare(a.testedOn))
@@ -57,6 +61,7 @@ export function useLocalSessions() {
           vehicleName: vehicles.get(s.vehicleId) ?? '(vehicle not on this phone)',
           poseCount: poses.filter((p) => p.sessionId === s.id).length,
           unsent: unsent.get(s.id) ?? 0,
+          openRetests: openRetests.get(s.id) ?? 0,
         })),
       corrupt: checked.corrupt,
     };
@@ -92,6 +97,17 @@ export function useLocalSession(id: string | undefined) {
       corrupt: [...points.corrupt, ...poses.corrupt, ...readings.corrupt],
     };
   }, [id]);
+}
+
+/** A session's re-test requests, open ones first, then newest first; withdrawn ones left out. */
+export function useLocalRetests(sessionId: string | undefined) {
+  return useLiveQuery(async () => {
+    if (!sessionId) return { requests: [], corrupt: [] };
+    const checked = checkRows<RetestRequest>('retestRequest', await fieldDb.retestRequests.where('sessionId').equals(sessionId).toArray());
+    const order = { open: 0, answered: 1, closed: 2 } as const;
+    const requests = live(checked.records).sort((a, b) => order[a.state] - order[b.state] || b.askedAt.localeCompare(a.askedAt));
+    return { requests, corrupt: checked.corrupt };
+  }, [sessionId]);
 }
 
 export function useSessionPhotos(sessionId: string | undefined) {

@@ -1,7 +1,8 @@
 // Whose records the phone's store holds (meta 'owner'). A store is synced only by the person and
 // workshop who wrote it: pushed under someone else's session, its records would land in the wrong
 // workshop, and a second person on a shared phone must not see the first one's records.
-import { fieldDb, type FieldDb } from './field-db';
+import { syncEntities } from '@shared/records';
+import { fieldDb, tableOf, type FieldDb } from './field-db';
 import { getMeta, setMeta, type StoreOwner } from './meta';
 import { replayTyping } from './records';
 
@@ -10,7 +11,7 @@ export type StoreClaim = { kind: 'own' } | { kind: 'foreign'; owner: StoreOwner;
 const sameOwner = (a: StoreOwner, b: StoreOwner) => a.userId === b.userId && a.teamId === b.teamId;
 
 function allTables(db: FieldDb) {
-  return [db.vehicles, db.gaugePoints, db.sessions, db.poses, db.readings, db.outbox, db.batches, db.photos, db.conflicts, db.meta];
+  return [...syncEntities.map((e) => tableOf(db, e)), db.outbox, db.batches, db.photos, db.conflicts, db.meta];
 }
 
 async function emptyFor(me: StoreOwner, db: FieldDb) {

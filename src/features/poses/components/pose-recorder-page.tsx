@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { axes, liftKeyOf, pose as poseSchema, wheels, type Axis, type Pose, type Wheel } from '@shared/schemas';
 import { useLocalSession, type LocalSession } from '@/lib/db/live';
+import { FieldRetests } from '@/components/retest-requests';
 import { patchRecord, setReadingValue, type ItemResult } from '@/lib/db/records';
 import { useWritesInFlight } from '@/lib/db/writes-in-flight';
 import { LengthInput, limitsOf } from '@/components/field/length-input';
@@ -116,6 +117,11 @@ function PoseRecorder({ data, pose }: { data: LocalSession & { vehicle: NonNulla
         <h1 className="mr-auto text-2xl font-bold">{pose.label || `Pose ${pose.seq}`}</h1>
         <UnitToggle unit={unit} onChange={setUnit} />
       </div>
+      <FieldRetests
+        sessionId={session.id}
+        poseId={pose.id}
+        look={{ pose: (pid) => poses.find((p) => p.id === pid), point: (gid) => gaugePoints.find((g) => g.id === gid) }}
+      />
       <div>
         <label htmlFor="pose-name" className="field-label">
           Pose name

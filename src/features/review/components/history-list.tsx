@@ -2,6 +2,8 @@ import type { HistoryEventRecord } from '@shared/schemas/envelope';
 import type { UnitSystem } from '@shared/schemas/common';
 import { formatLength, formatTimestamp } from '@shared/format';
 import { plural } from '@shared/plural';
+import { RETEST_STATE_WORDS } from '@shared/retest-words';
+import type { RetestState } from '@shared/schemas';
 
 /** Envelope parameters as the engineer reads them: lengths in their unit, fractions in percent. */
 const PARAM_WORDS: Record<string, { name: string; show: (v: unknown, unit: UnitSystem) => string }> = {
@@ -48,12 +50,29 @@ const ACTION_WORDS: Record<string, string> = {
   'envelope.params': 'changed envelope parameters',
   'envelope.sign': 'signed off an envelope',
   'envelope.send': 'sent a fabrication sheet',
+  'retest.ask': 'asked for a re-test',
+  'retest.answer': 'answered a re-test request',
+  'retest.close': 'closed a re-test request',
+  'retest.reopen': 'asked again for a re-test',
+  'retest.edit': 'edited a re-test request',
 };
 
-function describe(event: HistoryEventRecord, labelOf: (readingId: string) => string | null, unit: UnitSystem) {
+/** A re-test request's fields as the history names them; who and when are the event's own. */
+const RETEST_FIELDS: Record<string, string> = { comment: 'comment', state: 'state', answer: 'answer' };
+
+function describe(event: HistoryEventRecord, labelOf: (readingId: string) => string | null, retestOf: (id: string) => string | null, unit: UnitSystem) {
   const d = event.detail as Record<string, { before?: unknown; after?: unknown } | unknown>;
   const parts: string[] = [];
-  if (event.entity === 'reading') {
+  if (event.entity === 'retestRequest') {
+    parts.push(`on ${retestOf(event.entityId) ?? 'a request not on this device'}`);
+    // In the fields' own order: the stored detail's keys come back in PostgreSQL's (jsonb) order.
+    for (const [key, name] of Object.entries(RETEST_FIELDS)) {
+      if (!(key in d)) continue;
+      const c = d[key] as { before?: unknown; after?: unknown };
+      const words = (v: unknown) => (v == null || v === '' ? '—' : key === 'state' ? (RETEST_STATE_WORDS[v as RetestState] ?? String(v)) : `“${String(v)}”`);
+      parts.push(`${name}: ${words(c.before)} → ${words(c.after)}`);
+    }
+  } else if (event.entity === 'reading') {
     const label = labelOf(event.entityId);
     if (label) parts.push(label);
     for (const [key, change] of Object.entries(d)) {
@@ -80,14 +99,25 @@ function describe(event: HistoryEventRecord, labelOf: (readingId: string) => str
 }
 
 /** The session's history: every change a person made, from the field or the desk, newest first. */
-export function HistoryList({ events, labelOf, unit }: { events: HistoryEventRecord[]; labelOf: (readingId: string) => string | null; unit: UnitSystem }) {
+export function HistoryList({
+  events,
+  labelOf,
+  retestOf = () => null,
+  unit,
+}: {
+  events: HistoryEventRecord[];
+  labelOf: (readingId: string) => string | null;
+  /** What a re-test request is about, in words. */
+  retestOf?: (retestId: string) => string | null;
+  unit: UnitSystem;
+}) {
   if (events.length === 0) return <p className="text-sm">No changes yet: readings are as the crew entered them.</p>;
   return (
     <ol className="space-y-1 text-sm" aria-label="Session history">
       {events.map((e) => (
         <li key={e.id} className="border-b border-rule py-1">
           <span className="tabular-nums">{formatTimestamp(e.createdAt)}</span> · <b>{e.userName ?? 'someone'}</b> {ACTION_WORDS[e.action] ?? e.action}
-          {describe(e, labelOf, unit) && <> — {describe(e, labelOf, unit)}</>}
+          {describe(e, labelOf, retestOf, unit) && <> — {describe(e, labelOf, retestOf, unit)}</>}
         </li>
       ))}
     </ol>

@@ -6,6 +6,8 @@ import { fromDisplay } from '@shared/units';
 import type { SessionReview } from '../api/get-review';
 import { useReviewReading } from '../api/review-reading';
 import type { FitFlag } from '../hooks/use-fit-flags';
+import { AskRetest } from '@/components/retest-requests';
+import { useCan } from '@/lib/auth/can';
 
 interface Props {
   review: SessionReview;
@@ -15,7 +17,7 @@ interface Props {
   onClose: () => void;
 }
 
-/** One reading under review: flag it with a note, exclude it with a reason, or correct its value. */
+/** One reading under review: flag it with a note, exclude it with a reason, correct its value, or ask the crew to measure it again. */
 export function ReadingEditor({ review, readingId, flag, unit, onClose }: Props) {
   const reading = review.readings.find((r) => r.id === readingId);
   const pose = review.poses.find((p) => p.id === reading?.poseId);
@@ -26,6 +28,7 @@ export function ReadingEditor({ review, readingId, flag, unit, onClose }: Props)
   const [reason, setReason] = useState(reading?.excludeReason ?? '');
   const [value, setValue] = useState(reading ? formatLengthValue(reading.valueMm, unit) : '');
   const [problem, setProblem] = useState<string | null>(null);
+  const can = useCan();
   if (!reading || !pose || !point) return null;
 
   const save = () => {
@@ -88,6 +91,12 @@ export function ReadingEditor({ review, readingId, flag, unit, onClose }: Props)
           Close
         </button>
       </div>
+      {can('retest.ask') && (
+        <AskRetest
+          target={{ sessionId: review.session.id, poseId: pose.id, gaugePointId: point.id, axis: reading.axis }}
+          what={`point ${point.label} ${AXIS_NAMES[reading.axis]} in ${pose.label || `Pose ${pose.seq}`}`}
+        />
+      )}
     </section>
   );
 }

@@ -1,6 +1,6 @@
 import { ColumnHeads } from '@/components/column-heads';
 import type { ReactNode } from 'react';
-import type { Axis } from '@shared/schemas';
+import type { Axis, Pose } from '@shared/schemas';
 import { PoseContext } from './pose-context';
 import type { UnitSystem } from '@shared/schemas/common';
 import { AXIS_NAMES, formatLengthValue } from '@shared/format';
@@ -17,10 +17,12 @@ interface Props {
   onSelect?: (readingId: string) => void;
   /** The editor of the selected reading, shown in the row under it, where the engineer clicked. */
   editor?: ReactNode;
+  /** More about a pose, under its context (the desk's re-test requests). */
+  poseExtra?: (pose: Pose) => ReactNode;
 }
 
 /** Readings as pose × gauge point rows with one column per axis; flags and exclusions marked in the cell. */
-export function ReadingsTable({ review, flags, unit, selectedId, onSelect, editor }: Props) {
+export function ReadingsTable({ review, flags, unit, selectedId, onSelect, editor, poseExtra }: Props) {
   const at = new Map(review.readings.map((r) => [`${r.poseId}|${r.gaugePointId}|${r.axis}`, r]));
   const photosOf = (poseId: string) => review.photos.filter((p) => p.poseId === poseId);
   return (
@@ -36,6 +38,7 @@ export function ReadingsTable({ review, flags, unit, selectedId, onSelect, edito
             <tr key={`${pose.id}-context`} className="border-t-4 border-rule bg-paper">
               <td colSpan={AXES.length + 3} className="border border-rule p-2">
                 <PoseContext pose={pose} photos={photosOf(pose.id)} wheelbaseMm={review.vehicle.wheelbaseMm} unit={unit} />
+                {poseExtra?.(pose)}
               </td>
             </tr>,
             ...review.gaugePoints.flatMap((point, pi) => {

@@ -6,6 +6,7 @@ import { useLocalSession } from '@/lib/db/live';
 import { patchRecord, type ItemResult } from '@/lib/db/records';
 import { SaveProblems } from '@/components/field/save-problems';
 import { addPose, nextPose, restorePose, type DeletedPose } from '@/lib/field/pose-actions';
+import { FieldRetests } from '@/components/retest-requests';
 import { SafetyChecklist } from './safety-checklist';
 import { SessionFields, type SessionDetails } from './session-fields';
 import { pathTo } from '@/paths';
@@ -107,6 +108,15 @@ export function FieldSessionPage() {
           </button>
         </div>
       )}
+      <FieldRetests
+        sessionId={session.id}
+        look={{ pose: (pid) => poses.find((p) => p.id === pid), point: (gid) => data.gaugePoints.find((g) => g.id === gid) }}
+        poseLink={(pid) => (
+          <Link className="btn" to={pathTo('fieldPose', { id: session.id, poseId: pid })}>
+            Open the pose
+          </Link>
+        )}
+      />
       {!session.safetyAckAt ? (
         <div className="space-y-2">
           <SafetyChecklist onLeftChange={(left) => setSafe(left === 0)} />

@@ -10,8 +10,8 @@ const time = (ms: number) => new Date(ms).toLocaleString([], { dateStyle: 'short
 
 /**
  * Field home: the sessions on this phone (recorded here or pulled from the server), newest first,
- * each with its state: how many poses, how many records and photos still wait to be sent (from
- * the phone's own store), and whether an engineer has signed off its envelope. The signed-off
+ * each with its state: how many poses, how many records and photos still wait to be sent and how
+ * many re-test requests wait for an answer (from the phone's own store), and whether an engineer has signed off its envelope. The signed-off
  * state comes from the server's session list, kept in the app's cache: offline it shows what was
  * last heard, and says since when.
  */
@@ -60,6 +60,9 @@ export function FieldSessionsPage() {
                     {s.poseCount} pose{s.poseCount === 1 ? '' : 's'}
                   </span>
                   {s.unsent > 0 ? <span className="rounded bg-signal/30 px-1 font-bold">{s.unsent} not yet sent</span> : <span>all sent</span>}
+                  {s.openRetests > 0 && (
+                    <span className="rounded border-2 border-signal-dark px-1 font-bold">{plural(s.openRetests, 're-test request')} to answer</span>
+                  )}
                   {signed ? (
                     <span className="rounded bg-good-light px-1 font-bold text-good">signed off, revision {signed.revision}</span>
                   ) : heard ? (

@@ -26,6 +26,8 @@ function pageOf(entity: SyncEntity, r: Record<string, unknown>, look: FieldLooku
       return pathTo('vehicle', { id: String(r.vehicleId) });
     case 'vehicle':
       return pathTo('vehicle', { id: String(r.id) });
+    case 'retestRequest':
+      return r.poseId ? poseUrl(String(r.poseId)) : pathTo('fieldSession', { id: String(r.sessionId) });
   }
 }
 
