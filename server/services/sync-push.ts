@@ -82,26 +82,17 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
     await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
-    // The batch's history events and its stored answer go in one statement.
-    await db().query(
-      `WITH history AS (
-         INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
-         SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $3::uuid, u.detail FROM unnest($6::uuid[], $7::jsonb[]) AS u(id, detail)
-       )
-       INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)`,
-      {
-        bind: [
-          auth.teamId,
-          req.idempotencyKey,
-          auth.userId,
-          hash,
-          JSON.stringify(response),
-          [...arrivals.keys()],
-          [...arrivals.values()].map((t) => JSON.stringify(t)),
-        ],
-        transaction,
-      },
-    );
+    if (arrivals.size) {
+      await db().query(
+        `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+         SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $2::uuid, u.detail FROM unnest($3::uuid[], $4::jsonb[]) AS u(id, detail)`,
+        { bind: [auth.teamId, auth.userId, [...arrivals.keys()], [...arrivals.values()].map((t) => JSON.stringify(t))], transaction },
+      );
+    }
+    await db().query('INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)', {
+      bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)],
+      transaction,
+    });
     return response;
   });
 }
@@ -238,7 +229,7 @@ async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction
 
 type Tally = { added: Partial<Record<SyncEntity, number>>; changed: Partial<Record<SyncEntity, number>>; conflicts: number };
 
-/** What arrived from the field per session the batch touched: one history event each, written with the batch's stored answer. */
+/** What arrived from the field per session the batch touched: one history event each, and who sent it. */
 async function fieldArrivals(plan: Plan, poses: PoseSessions): Promise<Map<string, Tally>> {
   const items = (m: Map<SyncEntity, Item[]>, e: SyncEntity) => m.get(e) ?? [];
   const poseSession = new Map<string, string>();

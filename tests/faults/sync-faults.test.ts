@@ -162,8 +162,7 @@ describe('the server killed in the middle of a batch', () => {
 
     const big = { idempotencyKey: `big-${uuid()}`, changes: records.readings.slice(0, 10_000).map((record) => ({ entity: 'reading', record })) };
     // Hold the batch just before its last write: a SHARE lock on sync_batches lets the push read it
-    // and write every reading, then makes its final statement (the history and the stored answer)
-    // wait. That is the moment to kill.
+    // and write every reading, then makes its final INSERT wait. That is the moment to kill.
     const blocker = await sequelize.transaction();
     await sequelize.query('LOCK TABLE sync_batches IN SHARE MODE', { transaction: blocker });
     const sending = post(big).catch(() => null);
@@ -171,7 +170,7 @@ describe('the server killed in the middle of a batch', () => {
     let waitingPid: number | undefined;
     while (!waitingPid) {
       const rows = await sequelize.query<{ pid: number }>(
-        "SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE '%INSERT INTO sync_batches%'",
+        "SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE 'INSERT INTO sync_batches%'",
         { type: QueryTypes.SELECT },
       );
       waitingPid = rows[0]?.pid;
