@@ -4,8 +4,10 @@ import * as z from 'zod';
 import { id, role, text, unitSystem } from './common';
 
 export const emailAddress = z.string().trim().toLowerCase().pipe(z.email('enter a valid e-mail address').max(254));
+/** The least length of a chosen password: the schema's rule and the forms' hint. */
+export const NEW_PASSWORD_MIN_LENGTH = 10;
 /** At least 10 characters; long passphrases welcome (Argon2id hashes any length up to the cap). */
-export const newPassword = z.string().min(10, 'use at least 10 characters').max(256, 'use at most 256 characters');
+export const newPassword = z.string().min(NEW_PASSWORD_MIN_LENGTH, `use at least ${NEW_PASSWORD_MIN_LENGTH} characters`).max(256, 'use at most 256 characters');
 export const personName = text(120, 1, 'enter a name');
 export const teamName = text(120, 1, 'enter the workshop name');
 /** A token from an e-mailed link (base64url of 32 random bytes). */

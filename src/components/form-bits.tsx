@@ -5,6 +5,7 @@ import { Link } from 'react-router-dom';
 import type { ZodError } from 'zod';
 import { ApiError } from '@/lib/api-client';
 import { pathTo } from '@/paths';
+import { NEW_PASSWORD_MIN_LENGTH } from '@shared/schemas/account';
 
 export type FieldErrors = Record<string, string>;
 
@@ -113,3 +114,18 @@ export function DevMailboxLink({ href }: { href?: string }) {
 /** A 400 whose message is meant for a person (not a field): the server's words. */
 export const bannerText = (err: unknown, fields: FieldErrors) =>
   err instanceof ApiError && Object.keys(fields).length === 0 ? err.message : err instanceof ApiError ? null : err ? String(err) : null;
+
+/** A field for choosing a password: masked, offered to password managers as a new one, with the length rule as its hint. */
+export function NewPasswordField(props: { label: string; name: string; error?: string; advice?: string }) {
+  const rule = `At least ${NEW_PASSWORD_MIN_LENGTH} characters`;
+  return (
+    <TextField
+      label={props.label}
+      name={props.name}
+      type="password"
+      autoComplete="new-password"
+      hint={props.advice ? `${rule}; ${props.advice}` : `${rule}.`}
+      error={props.error}
+    />
+  );
+}

@@ -18,7 +18,7 @@ import { buildServer } from '../../server/scripts/build-server.mjs';
 import { createTeam, repoRoot, startTestServer, TEST_PASSWORD, type TestServer, type TestTeam } from '../support/test-app';
 import { nodeTransport, signInCookie, startServerProcess, type ServerProcess } from '../faults/fault-rig';
 import { startMailSink, type MailSink } from '../../server/mail/sink';
-import { buildSyntheticSession } from '../../shared/flex';
+import { syntheticRecords } from '../support/synthetic-records';
 import { DEFAULT_DRAFT_PARAMS } from '../../shared/schemas/envelope';
 import { ReadingModel } from '../../server/models';
 import { signInThrottle } from '../../server/auth/throttle';
@@ -76,74 +76,14 @@ async function desk(server: ServerProcess, cookie: string, method: string, path:
 
 /** A whole session as the phone stores it: vehicle, gauge points, poses and readings of a synthetic flex test. */
 function phoneSession() {
-  const synthetic = buildSyntheticSession({
-    poses: 6,
-    gaugePoints: 6,
-    seed: 11,
-    mode: 'gap',
-    nominalGapMm: 90,
-    motionPerDeg: { t: { x: 0.6, y: 9, z: 1.2 }, omega: { x: 0.0012, y: 0.0002, z: -0.0004 } },
-  });
-  const o = synthetic.outline;
-  const vehicle = {
-    id: randomUUID(),
-    version: 1,
+  const made = syntheticRecords({
     name: 'Two instance truck',
-    chassis: '',
-    body: '',
-    wheelbaseMm: 3800,
-    trackFrontMm: synthetic.tracks.frontMm,
-    trackRearMm: synthetic.tracks.rearMm,
-    opening: { widthMm: o.width, heightMm: o.height, cornerRadiusMm: o.cornerRadius, centreYMm: o.centreY ?? 0, bottomZMm: o.bottomZ ?? 0 },
-    nominalGapMm: 90,
-    notes: '',
-  };
-  const pointIds = new Map(synthetic.gaugePoints.map((g) => [g.id, randomUUID()]));
-  const points = synthetic.gaugePoints.map((g) => ({ id: pointIds.get(g.id)!, version: 1, vehicleId: vehicle.id, label: g.id, yMm: g.y, zMm: g.z }));
-  const session = {
-    id: randomUUID(),
-    version: 1,
-    vehicleId: vehicle.id,
-    title: 'Yard flex, two instances',
+    seed: 11,
     testedOn: '2026-11-30',
-    conditions: 'dry',
-    loadState: '',
-    tyrePressures: '',
-    crew: 'tester and spotter',
-    readingMode: 'gap',
-    safetyAckAt: '2026-11-30T09:00:00.000Z',
-    notes: '',
-  };
-  const poses = synthetic.poses.map((p, i) => ({
-    id: randomUUID(),
-    version: 1,
-    sessionId: session.id,
-    seq: i,
-    label: i === 0 ? 'Level' : `Diagonal ${i}`,
-    kind: i === 0 ? 'level' : 'wheels',
-    liftFlMm: p.lifts.fl,
-    liftFrMm: p.lifts.fr,
-    liftRlMm: p.lifts.rl,
-    liftRrMm: p.lifts.rr,
-    rampAngleDeg: null,
-    rampDistanceMm: null,
-    notes: '',
-    recordedAt: new Date(Date.parse('2026-11-30T09:00:00Z') + i * 600_000).toISOString(),
-  }));
-  const readings = synthetic.poses.flatMap((p, i) =>
-    p.readings.map((r) => ({
-      id: randomUUID(),
-      version: 1,
-      poseId: poses[i].id,
-      gaugePointId: pointIds.get(r.pointId)!,
-      axis: r.axis,
-      valueMm: Math.round(r.value * 2) / 2,
-      excluded: false,
-      excludeReason: null,
-      flagNote: null,
-    })),
-  );
-  return { vehicle, points, session, poses, readings };
+    session: { title: 'Yard flex, two instances', conditions: 'dry', crew: 'tester and spotter', safetyAckAt: '2026-11-30T09:00:00.000Z' },
+  });
+  const readings = made.readingsByPose.flatMap((rs) => rs.map(({ reading }) => reading));
+  return { vehicle: made.vehicle, points: made.points, session: made.session, poses: made.poses, readings };
 }
 
 describe('two instances on one database, one photo store and one mail sink', () => {

@@ -44,6 +44,25 @@ async function holdOpen(sql: string, replacements: Record<string, unknown> = {})
 /** The answer, or 'still waiting' after `ms`. */
 const within = <T>(p: PromiseLike<T>, ms: number) => Promise.race([p, new Promise<'still waiting'>((r) => setTimeout(() => r('still waiting'), ms))]);
 
+/** A vehicle with one gauge point, a session, a level pose and one lateral reading, written straight to the tables. */
+async function insertOneReading(t: string, by: string, names: { truck: string; label: string }) {
+  const ids = { v: randomUUID(), g: randomUUID(), s: randomUUID(), p: randomUUID(), r: randomUUID() };
+  await insertRow(ts.sequelize, 'vehicles', {
+    id: ids.v,
+    team_id: t,
+    name: names.truck,
+    wheelbase_mm: 3800,
+    track_front_mm: 1900,
+    track_rear_mm: 1880,
+    opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
+  });
+  await insertRow(ts.sequelize, 'gauge_points', { id: ids.g, team_id: t, vehicle_id: ids.v, label: names.label, y_mm: 300, z_mm: 800 });
+  await insertRow(ts.sequelize, 'test_sessions', { id: ids.s, team_id: t, vehicle_id: ids.v, tested_on: '2026-05-01', created_by: by });
+  await insertRow(ts.sequelize, 'poses', { id: ids.p, team_id: t, session_id: ids.s, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
+  await insertRow(ts.sequelize, 'readings', { id: ids.r, team_id: t, pose_id: ids.p, gauge_point_id: ids.g, axis: 'lateral', value_mm: 90, entered_by: by });
+  return ids;
+}
+
 describe('password reset', () => {
   it('answers a known address as fast as an unknown one: nothing is looked up before the answer', async () => {
     const team = await createTeam();
@@ -83,22 +102,7 @@ describe('database time limits', () => {
   it('answers 503 with Retry-After when a row stays locked, instead of waiting for it', async () => {
     const team = await createTeam();
     const engineer = await sessionAgent(ts, team.members.engineer.userId, team.teamId);
-    const ids = { v: randomUUID(), g: randomUUID(), s: randomUUID(), p: randomUUID(), r: randomUUID() };
-    const t = team.teamId;
-    const by = team.members.engineer.userId;
-    await insertRow(ts.sequelize, 'vehicles', {
-      id: ids.v,
-      team_id: t,
-      name: 'Locked truck',
-      wheelbase_mm: 3800,
-      track_front_mm: 1900,
-      track_rear_mm: 1880,
-      opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
-    });
-    await insertRow(ts.sequelize, 'gauge_points', { id: ids.g, team_id: t, vehicle_id: ids.v, label: 'A', y_mm: 300, z_mm: 800 });
-    await insertRow(ts.sequelize, 'test_sessions', { id: ids.s, team_id: t, vehicle_id: ids.v, tested_on: '2026-05-01', created_by: by });
-    await insertRow(ts.sequelize, 'poses', { id: ids.p, team_id: t, session_id: ids.s, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
-    await insertRow(ts.sequelize, 'readings', { id: ids.r, team_id: t, pose_id: ids.p, gauge_point_id: ids.g, axis: 'lateral', value_mm: 90, entered_by: by });
+    const ids = await insertOneReading(team.teamId, team.members.engineer.userId, { truck: 'Locked truck', label: 'A' });
     const lock = await holdOpen('SELECT id FROM readings WHERE id = :id FOR UPDATE', { id: ids.r });
     try {
       const started = Date.now();
@@ -121,22 +125,7 @@ describe('push errors', () => {
   it("never echo another workshop's ids or labels", async () => {
     const mine = await createTeam('Own workshop');
     const theirs = await createTeam('Neighbour workshop');
-    const t = theirs.teamId;
-    const by = theirs.members.engineer.userId;
-    const ids = { v: randomUUID(), g: randomUUID(), s: randomUUID(), p: randomUUID(), r: randomUUID() };
-    await insertRow(ts.sequelize, 'vehicles', {
-      id: ids.v,
-      team_id: t,
-      name: 'Their truck',
-      wheelbase_mm: 3800,
-      track_front_mm: 1900,
-      track_rear_mm: 1880,
-      opening: { widthMm: 700, heightMm: 500, cornerRadiusMm: 80, centreYMm: 0, bottomZMm: 350 },
-    });
-    await insertRow(ts.sequelize, 'gauge_points', { id: ids.g, team_id: t, vehicle_id: ids.v, label: 'SECRET7', y_mm: 300, z_mm: 800 });
-    await insertRow(ts.sequelize, 'test_sessions', { id: ids.s, team_id: t, vehicle_id: ids.v, tested_on: '2026-05-01', created_by: by });
-    await insertRow(ts.sequelize, 'poses', { id: ids.p, team_id: t, session_id: ids.s, seq: 0, kind: 'level', recorded_at: new Date(), created_by: by });
-    await insertRow(ts.sequelize, 'readings', { id: ids.r, team_id: t, pose_id: ids.p, gauge_point_id: ids.g, axis: 'lateral', value_mm: 90, entered_by: by });
+    const ids = await insertOneReading(theirs.teamId, theirs.members.engineer.userId, { truck: 'Their truck', label: 'SECRET7' });
     const tester = await sessionAgent(ts, mine.members.tester.userId, mine.teamId);
     const res = await tester.post('/api/sync/push').send({
       idempotencyKey: batchKey(),

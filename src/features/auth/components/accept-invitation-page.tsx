@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { newPassword, personName } from '@shared/schemas/account';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account';
-import { AuthFrame, bannerText, ErrorBanner, fieldErrors, TextField, type FieldErrors } from '@/components/form-bits';
+import { AuthFrame, bannerText, ErrorBanner, fieldErrors, NewPasswordField, TextField, type FieldErrors } from '@/components/form-bits';
 import { roleTable } from '@shared/permissions';
 import { pathTo } from '@/paths';
 
@@ -72,14 +72,7 @@ export function AcceptInvitationPage() {
         ) : (
           <>
             <TextField label="Your name" name="name" autoComplete="name" error={errors.name} />
-            <TextField
-              label="Choose a password"
-              name="password"
-              type="password"
-              autoComplete="new-password"
-              hint="At least 10 characters."
-              error={errors.password}
-            />
+            <NewPasswordField label="Choose a password" name="password" error={errors.password} />
           </>
         )}
         <ErrorBanner>{bannerText(accept.error, errors)}</ErrorBanner>

@@ -4,7 +4,7 @@ import type { UnitSystem } from '@shared/schemas';
 import { changePasswordInput } from '@shared/schemas/account';
 import { useMe } from '@/lib/auth/get-me';
 import { useChangePassword, useSignOutEverywhere, useUpdateMe } from '../api/account';
-import { bannerText, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { bannerText, ErrorBanner, fieldErrors, NewPasswordField, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { pathTo } from '@/paths';
 
 /** The signed-in person's own page: units, password, signing out of every device. */
@@ -102,14 +102,7 @@ function ChangePasswordSection() {
       <p className="text-sm">Every other device you use is signed out; this one stays signed in.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
         <TextField label="Current password" name="currentPassword" type="password" autoComplete="current-password" error={errors.currentPassword} />
-        <TextField
-          label="New password"
-          name="newPassword"
-          type="password"
-          autoComplete="new-password"
-          hint="At least 10 characters."
-          error={errors.newPassword}
-        />
+        <NewPasswordField label="New password" name="newPassword" error={errors.newPassword} />
         <ErrorBanner>{bannerText(change.error, errors)}</ErrorBanner>
         {done && <Notice>Password changed.</Notice>}
         <button type="submit" className="btn-primary w-full" disabled={change.isPending}>

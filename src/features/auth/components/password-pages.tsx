@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { emailAddress, newPassword } from '@shared/schemas/account';
 import { useRequestPasswordReset, useResetPassword } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, NewPasswordField, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { pathTo } from '@/paths';
 
 const backToSignIn = (
@@ -79,7 +79,7 @@ export function ResetPasswordPage() {
     <AuthFrame title="Choose a new password" footer={backToSignIn}>
       <p>Setting a new password signs you out on every device, and signs you in here.</p>
       <form onSubmit={submit} className="space-y-4" noValidate>
-        <TextField label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} />
+        <NewPasswordField label="New password" name="password" error={errors.password} />
         <TextField label="Repeat the new password" name="repeat" type="password" autoComplete="new-password" error={errors.repeat} />
         <ErrorBanner>{bannerText(reset.error, errors)}</ErrorBanner>
         {reset.error && !Object.keys(errors).length && (

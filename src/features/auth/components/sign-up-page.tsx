@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { signUpInput } from '@shared/schemas/account';
 import { useConfirmSignUp, useSignUp } from '../api/account';
-import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, Notice, TextField, type FieldErrors } from '@/components/form-bits';
+import { AuthFrame, bannerText, DevMailboxLink, ErrorBanner, fieldErrors, NewPasswordField, Notice, TextField, type FieldErrors } from '@/components/form-bits';
 import { pathTo } from '@/paths';
 
 /** Create a workshop and become its first admin: confirmed by the link in an e-mail. */
@@ -51,14 +51,7 @@ export function SignUpPage() {
         <TextField label="Workshop name" name="teamName" autoComplete="organization" error={errors.teamName} />
         <TextField label="Your name" name="name" autoComplete="name" error={errors.name} />
         <TextField label="E-mail" name="email" type="email" autoComplete="email" error={errors.email} />
-        <TextField
-          label="Password"
-          name="password"
-          type="password"
-          autoComplete="new-password"
-          hint="At least 10 characters; a few words make a good one."
-          error={errors.password}
-        />
+        <NewPasswordField label="Password" name="password" advice="a few words make a good one." error={errors.password} />
         <ErrorBanner>{bannerText(signUp.error, errors)}</ErrorBanner>
         <button type="submit" className="btn-primary w-full" disabled={signUp.isPending}>
           {signUp.isPending ? 'Sending…' : 'Create workshop'}

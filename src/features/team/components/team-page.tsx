@@ -251,61 +251,78 @@ function PendingInvitations() {
 function WorkshopUnitsSetting({ value }: { value: UnitSystem }) {
   const update = useUpdateTeamSettings();
   const qc = useQueryClient();
-  const choose = (unitSystem: UnitSystem) => {
-    // Members without their own choice see the new units at once: their identity carries the workshop's.
-    if (unitSystem !== value) update.mutate({ unitSystem }, { onSuccess: () => qc.invalidateQueries({ queryKey: meQuery().queryKey }) });
-  };
   return (
-    <section className="card space-y-2" aria-labelledby="workshop-units">
-      <h2 id="workshop-units" className="text-xl font-bold">
-        Workshop units
-      </h2>
-      <p className="text-sm">
-        What everyone in the workshop sees and types, unless they chose their own units on their Account page. Everything is stored in millimetres.
-      </p>
-      <fieldset className="space-y-2" disabled={update.isPending}>
-        <legend className="sr-only">Workshop units</legend>
-        <label className="flex min-h-12 items-center gap-3">
-          <input type="radio" name="workshop-units" checked={value === 'mm'} onChange={() => choose('mm')} className="h-6 w-6" />
-          <span>Millimetres (mm)</span>
-        </label>
-        <label className="flex min-h-12 items-center gap-3">
-          <input type="radio" name="workshop-units" checked={value === 'in'} onChange={() => choose('in')} className="h-6 w-6" />
-          <span>Inches (in), to 0.01 in on screen; sheets also to the nearest 1/16 in</span>
-        </label>
-      </fieldset>
-      {update.isSuccess && <p role="status">Saved: the workshop now works in {value === 'in' ? 'inches' : 'millimetres'}.</p>}
-      <ErrorBanner>{update.error?.message}</ErrorBanner>
-    </section>
+    <ChoiceSetting
+      name="workshop-units"
+      title="Workshop units"
+      text="What everyone in the workshop sees and types, unless they chose their own units on their Account page. Everything is stored in millimetres."
+      value={value}
+      options={[
+        { value: 'mm', label: 'Millimetres (mm)' },
+        { value: 'in', label: 'Inches (in), to 0.01 in on screen; sheets also to the nearest 1/16 in' },
+      ]}
+      // Members without their own choice see the new units at once: their identity carries the workshop's.
+      choose={(unitSystem) => update.mutate({ unitSystem }, { onSuccess: () => qc.invalidateQueries({ queryKey: meQuery().queryKey }) })}
+      update={update}
+      saved={`Saved: the workshop now works in ${value === 'in' ? 'inches' : 'millimetres'}.`}
+    />
   );
 }
 
 /** Whether photos keep where they were taken (GPS from the camera) or lose it at upload. */
 function PhotoLocationSetting({ value }: { value: PhotoGps }) {
   const update = useUpdateTeamSettings();
-  const choose = (photoGps: PhotoGps) => {
-    if (photoGps !== value) update.mutate({ photoGps });
-  };
   return (
-    <section className="card space-y-2" aria-labelledby="photo-gps">
-      <h2 id="photo-gps" className="text-xl font-bold">
-        Photo locations
+    <ChoiceSetting
+      name="photo-gps"
+      title="Photo locations"
+      text="Phone cameras record where a photo was taken. Twistlog never keeps it in the photo files it stores; this decides whether the position is kept beside the photo for the workshop to see."
+      value={value}
+      options={[
+        { value: 'drop', label: 'Drop the location of every photo (also erases locations kept so far)' },
+        { value: 'keep', label: 'Keep the location of photos uploaded from now on' },
+      ]}
+      choose={(photoGps) => update.mutate({ photoGps })}
+      update={update}
+    />
+  );
+}
+
+/** One workshop setting as a card of radio choices, saved as soon as another one is picked. */
+function ChoiceSetting<V extends string>(props: {
+  name: string;
+  title: string;
+  text: string;
+  value: V;
+  options: { value: V; label: string }[];
+  choose: (value: V) => void;
+  update: { isPending: boolean; isSuccess: boolean; error: Error | null };
+  /** Said once the change is saved; nothing is said when left out. */
+  saved?: string;
+}) {
+  const { update } = props;
+  return (
+    <section className="card space-y-2" aria-labelledby={props.name}>
+      <h2 id={props.name} className="text-xl font-bold">
+        {props.title}
       </h2>
-      <p className="text-sm">
-        Phone cameras record where a photo was taken. Twistlog never keeps it in the photo files it stores; this decides whether the position is kept beside the
-        photo for the workshop to see.
-      </p>
+      <p className="text-sm">{props.text}</p>
       <fieldset className="space-y-2" disabled={update.isPending}>
-        <legend className="sr-only">Photo locations</legend>
-        <label className="flex min-h-12 items-center gap-3">
-          <input type="radio" name="photo-gps" checked={value === 'drop'} onChange={() => choose('drop')} className="h-6 w-6" />
-          <span>Drop the location of every photo (also erases locations kept so far)</span>
-        </label>
-        <label className="flex min-h-12 items-center gap-3">
-          <input type="radio" name="photo-gps" checked={value === 'keep'} onChange={() => choose('keep')} className="h-6 w-6" />
-          <span>Keep the location of photos uploaded from now on</span>
-        </label>
+        <legend className="sr-only">{props.title}</legend>
+        {props.options.map((o) => (
+          <label key={o.value} className="flex min-h-12 items-center gap-3">
+            <input
+              type="radio"
+              name={props.name}
+              checked={props.value === o.value}
+              onChange={() => o.value !== props.value && props.choose(o.value)}
+              className="h-6 w-6"
+            />
+            <span>{o.label}</span>
+          </label>
+        ))}
       </fieldset>
+      {props.saved && update.isSuccess && <p role="status">{props.saved}</p>}
       <ErrorBanner>{update.error?.message}</ErrorBanner>
     </section>
   );
