@@ -31,7 +31,9 @@ describe('GET /api/vehicles/:id', () => {
     expect(answer.gaugePoints.map((g) => g.label)).toEqual(['P01', 'P02', 'P03', 'P04', 'P05', 'P06']);
     expect(answer.sessions.map((s) => s.id)).toEqual([desk.sessionId]);
     const [session] = answer.sessions;
-    expect(session.poseCount).toBe(4);
+    // The level baseline and four twisted poses.
+    expect(session.poseCount).toBe(desk.poseIds.length);
+    expect(session.poseCount).toBe(5);
     expect(session.readingCount).toBe(desk.readingIdList.length);
     expect(session.envelopes.map((e) => [e.id, e.revision, e.status])).toEqual([
       [r3.id, 3, 'draft'],

@@ -85,7 +85,7 @@ function SessionDesk({ review }: { review: SessionReview }) {
       <SafetyNotice compact />
       <header>
         <h1 className="text-2xl font-bold">
-          <Link className="underline" to={pathTo('deskVehicle', { id: review.vehicle.id })}>
+          <Link className="inline-flex min-h-touch items-center underline" to={pathTo('deskVehicle', { id: review.vehicle.id })}>
             {review.vehicle.name}
           </Link>
         </h1>
