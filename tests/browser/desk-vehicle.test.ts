@@ -32,7 +32,8 @@ describe('the desk page of a vehicle', () => {
     await expect.poll(() => points.locator('tbody tr').count()).toBe(6);
 
     const session = page.getByRole('listitem').filter({ has: page.getByText('Signed off: revision 2 is current, revision 3 in draft') });
-    await session.getByText('4 poses').waitFor();
+    // The level baseline and four twisted poses.
+    await session.getByText('5 poses').waitFor();
     const revisions = session.getByRole('list', { name: 'Envelope revisions' }).getByRole('listitem');
     expect(await revisions.allInnerTexts()).toEqual(['Envelope revision 3 draft', 'Envelope revision 2 current', 'Envelope revision 1 superseded']);
 
