@@ -1,4 +1,4 @@
-import { defineConfig } from 'vite';
+import { defineConfig, type Plugin } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { VitePWA } from 'vite-plugin-pwa';
@@ -17,6 +17,7 @@ export default defineConfig({
     },
   },
   plugins: [
+    zodWithoutEval(),
     react(),
     tailwindcss(),
     VitePWA({
@@ -73,3 +74,20 @@ export default defineConfig({
     proxy: { '/api': 'http://127.0.0.1:5180', '/dev': 'http://127.0.0.1:5180' },
   },
 });
+
+/**
+ * zod's fast path compiles parsers with new Function(), which the app's Content-Security-Policy
+ * forbids (no 'unsafe-eval', server/http/security-headers.ts); zod even probes for it when an
+ * object schema is defined, and the probe alone is reported as a violation. So the client's zod is
+ * jitless from the moment its core module runs, before any chunk defines a schema: a setting made
+ * in main.tsx came too late once a shared chunk held schemas of its own.
+ */
+function zodWithoutEval(): Plugin {
+  return {
+    name: 'twistlog-zod-without-eval',
+    transform(code, id) {
+      if (!/[\\/]node_modules[\\/]zod[\\/]v4[\\/]core[\\/]core\.js$/.test(id)) return null;
+      return { code: `${code}\nglobalConfig.jitless = true;\n`, map: null };
+    },
+  };
+}

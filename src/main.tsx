@@ -1,5 +1,3 @@
-// First of all: other modules parse with zod as they load.
-import './lib/zod-without-eval';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router-dom';
