@@ -267,6 +267,7 @@ function checkPoses(
   const codes = new Int32Array(total);
   const values = new Float64Array(total);
   const codeStart = new Int32Array(poses.length);
+  const pointIds = input.gaugePoints.map((point) => point.id);
   let next = 0;
   const liftTwists = poses.map((pose, i) => {
     if (pose === null || typeof pose !== 'object' || typeof pose.id !== 'string') throw new FlexInputError(FN, `poses[${i}].id`, 'must be a string');
@@ -289,18 +290,26 @@ function checkPoses(
     const readings = pose.readings;
     if (!Array.isArray(readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
     codeStart[i] = next;
-    // A point's readings usually come together (one per axis): look its id up once for the run.
+    // Poses are usually read in the same order: the reading at the same place in the previous pose
+    // names the point to try first; else a point's readings usually come together (one per axis),
+    // so its id is looked up once for the run.
+    const previousStart = i === 0 ? 0 : codeStart[i - 1];
+    const previousCount = next - previousStart;
     let lastId: unknown = undefined;
     let lastAt: number | undefined = undefined;
     for (let j = 0; j < readings.length; j++) {
       const reading = readings[j];
       let at: number | undefined = undefined;
       if (reading !== null && typeof reading === 'object') {
-        if (reading.pointId !== lastId) {
-          lastId = reading.pointId;
-          lastAt = points.get(reading.pointId);
+        const guess = j < previousCount ? (codes[previousStart + j] / 3) | 0 : -1;
+        if (guess >= 0 && reading.pointId === pointIds[guess]) at = guess;
+        else {
+          if (reading.pointId !== lastId) {
+            lastId = reading.pointId;
+            lastAt = points.get(reading.pointId);
+          }
+          at = lastAt;
         }
-        at = lastAt;
       }
       const axis = at === undefined ? -1 : reading.axis === 'foreAft' ? 0 : reading.axis === 'lateral' ? 1 : reading.axis === 'vertical' ? 2 : -1;
       const value = at === undefined ? undefined : reading.value;
