@@ -254,18 +254,16 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
  * twist and, per reading in input order, its point × 3 + axis code and its value (so no reading
  * object is read twice).
  */
-function checkPoses(
-  input: EnvelopeInput,
-  points: Map<string, number>,
-): { liftTwists: number[]; codes: Int32Array; values: Float64Array; codeStart: Int32Array } {
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; scratch: Scratch; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
   const stamp = new Int32Array(points.size * 3);
   let total = 0;
   for (const pose of poses) if (pose !== null && typeof pose === 'object' && Array.isArray(pose.readings)) total += pose.readings.length;
-  const codes = new Int32Array(total);
-  const values = new Float64Array(total);
+  const scratch = scratchFor(total);
+  const codes = scratch.inputCode;
+  const values = scratch.inputValue;
   const codeStart = new Int32Array(poses.length);
   const pointIds = input.gaugePoints.map((point) => point.id);
   let next = 0;
@@ -312,8 +310,10 @@ function checkPoses(
         }
       }
       const axis = at === undefined ? -1 : reading.axis === 'foreAft' ? 0 : reading.axis === 'lateral' ? 1 : reading.axis === 'vertical' ? 2 : -1;
-      const value = at === undefined ? undefined : reading.value;
-      if (at === undefined || axis < 0 || !isLength(value)) readingProblem(i, j, reading, points);
+      if (at === undefined || axis < 0) readingProblem(i, j, reading, points);
+      // Read apart from the checks above so the number stays unboxed (a value that may be undefined would be boxed).
+      const value = reading.value;
+      if (!isLength(value)) readingProblem(i, j, reading, points);
       const key = at * 3 + axis;
       if (stamp[key] === i + 1) readingProblem(i, j, reading, points);
       stamp[key] = i + 1;
@@ -322,14 +322,13 @@ function checkPoses(
     }
     return twist;
   });
-  return { liftTwists, codes, values, codeStart };
+  return { liftTwists, scratch, codeStart };
 }
 
 interface Session {
   points: GaugeLocation[];
-  /** Per reading in input order, pose after pose from codeStart[pose]: point index × 3 + axis code, and the value read. */
-  codes: Int32Array;
-  values: Float64Array;
+  /** Where the readings are flattened; inputCode and inputValue hold, per reading in input order, pose after pose from codeStart[pose], its point index × 3 + axis code and its value. */
+  scratch: Scratch;
   codeStart: Int32Array;
   baselineIndex: number;
   liftTwists: number[];
@@ -358,25 +357,37 @@ interface Flat {
  * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
  * tens of megabytes alive in a long-running server or tab.
  */
-type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; code: Int32Array; scatter: Float64Array };
+type Scratch = {
+  buffer: PoseBuffer;
+  inputIndex: Int32Array;
+  code: Int32Array;
+  scatter: Float64Array;
+  /** Per reading in input order (every pose, the baseline too): its code and its value. */
+  inputCode: Int32Array;
+  inputValue: Float64Array;
+};
 let scratch: Scratch | null = null;
 const KEPT_SCRATCH = 1 << 16;
 
+/** Scratch arrays for a session of `total` readings (every pose's, the baseline's too). */
 function scratchFor(total: number): Scratch {
   if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
   const size = Math.max(total, 1024);
-  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), code: new Int32Array(size), scatter: new Float64Array(size) };
+  const fresh = {
+    buffer: poseBuffer(size),
+    inputIndex: new Int32Array(size),
+    code: new Int32Array(size),
+    scatter: new Float64Array(size),
+    inputCode: new Int32Array(size),
+    inputValue: new Float64Array(size),
+  };
   if (size <= KEPT_SCRATCH) scratch = fresh;
   return fresh;
 }
 
 function flatten(input: EnvelopeInput, s: Session): Flat {
   const { poses } = input;
-  let total = 0;
-  poses.forEach((pose, i) => {
-    if (i !== s.baselineIndex) total += pose.readings.length;
-  });
-  const { buffer, inputIndex, code: codeAt, scatter } = scratchFor(total);
+  const { buffer, inputIndex, code: codeAt, scatter, inputCode, inputValue } = s.scratch;
   const start = new Int32Array(poses.length).fill(-1);
   const count = new Int32Array(poses.length);
   const missingBaseline = new Int32Array(poses.length);
@@ -385,7 +396,7 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   if (gap) {
     const from = s.codeStart[s.baselineIndex];
     const end = from + poses[s.baselineIndex].readings.length;
-    for (let j = from; j < end; j++) reference[s.codes[j]] = s.values[j];
+    for (let j = from; j < end; j++) reference[inputCode[j]] = inputValue[j];
   }
   const ys = new Float64Array(s.points.length);
   const zs = new Float64Array(s.points.length);
@@ -400,8 +411,8 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
     const from = s.codeStart[i];
     const length = poses[i].readings.length;
     for (let j = 0; j < length; j++) {
-      const code = s.codes[from + j];
-      let value = s.values[from + j];
+      const code = inputCode[from + j];
+      let value = inputValue[from + j];
       if (gap) {
         const base = reference[code];
         if (Number.isNaN(base)) {
@@ -777,7 +788,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   requireTrack('tracks.rearMm', input.tracks.rearMm);
   validateOutline(FN, input.outline);
   const pointIndex = indexGaugeLocations(FN, 'gaugePoints', input.gaugePoints);
-  const { liftTwists, codes, values, codeStart } = checkPoses(input, pointIndex);
+  const { liftTwists, scratch, codeStart } = checkPoses(input, pointIndex);
   if (input.readingMode !== 'gap' && input.readingMode !== 'displacement') {
     throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(input.readingMode)}'`);
   }
@@ -802,7 +813,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   });
 
   const notes: string[] = [];
-  const session: Session = { points: input.gaugePoints, codes, values, codeStart, baselineIndex, liftTwists, relativeTwists };
+  const session: Session = { points: input.gaugePoints, scratch, codeStart, baselineIndex, liftTwists, relativeTwists };
   const { poses, scatterMm, flags } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });

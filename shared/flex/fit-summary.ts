@@ -57,6 +57,9 @@ export interface RelativeMotionFit {
   outliers: FlaggedReading[];
 }
 
+/** No readings left unchecked (shared: read, never written). */
+const NONE: readonly string[] = [];
+
 /** The number of times over as words: "12 times over", or "without limit". */
 function magnified(ratio: number | null): string {
   return ratio === null || !Number.isFinite(ratio) ? 'without limit' : `${ratio.toFixed(1)} times over`;
@@ -100,7 +103,7 @@ function partReason(kind: 'outOfPlane' | 'inPlane', core: PartCore, counts: { la
 }
 
 /** What limited a part's outlier check; null when every reading was judged or there were none. */
-function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: OutlierCheck, unchecked: string[]): string | null {
+function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: OutlierCheck, unchecked: readonly string[]): string | null {
   if (core.readingCount === 0) return null;
   const name = kind === 'outOfPlane' ? 'fore-aft' : 'lateral and vertical';
   // A reading that alone fixes part of the fit is matched exactly whatever its value.
@@ -120,7 +123,7 @@ function summarisePart(
   judgement: PoseJudgement,
   rms: number,
   counts: { lateral: number; vertical: number },
-  unchecked: string[],
+  unchecked: readonly string[],
 ): FitPart {
   const part = kind === 'outOfPlane' ? judgement.outOfPlane : judgement.inPlane;
   const redundancy = core.readingCount - core.parameterCount;
@@ -197,8 +200,8 @@ export function packFit(
     motion: { t: { x: core.tx, y: core.ty, z: core.tz }, omega: { x: core.wx, y: core.wy, z: core.wz } },
     residuals,
     residualRms: rmsOf(total, buffer.count),
-    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement, rmsOf(squaresOut, core.outOfPlane.readingCount), counts, uncheckedOut ?? []),
-    inPlane: summarisePart('inPlane', core.inPlane, judgement, rmsOf(squaresIn, core.inPlane.readingCount), counts, uncheckedIn ?? []),
+    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement, rmsOf(squaresOut, core.outOfPlane.readingCount), counts, uncheckedOut ?? NONE),
+    inPlane: summarisePart('inPlane', core.inPlane, judgement, rmsOf(squaresIn, core.inPlane.readingCount), counts, uncheckedIn ?? NONE),
     outliers,
   };
 }
