@@ -16,7 +16,7 @@
  * (5th ed.), ch. 2 (prediction of new observations; regression through the origin) and ch. 5
  * (weighted least squares); NIST/SEMATECH e-Handbook of Statistical Methods §4.4.5.2 and §7.2.6.3.
  */
-import { linearFit } from './linear-fit';
+import { lineSummary } from './linear-fit';
 import { upperPredictionBoundAt, type LinearFitSummary } from './prediction-bound';
 
 export type TwistDirection = 'positive' | 'negative';
@@ -65,10 +65,15 @@ export interface BoundSettings {
 /** Poses twisted less than this (degrees) carry no usable slope: the reading resolution dominates. */
 export const MIN_FIT_TWIST_DEG = 1;
 
-function largest(xs: readonly number[]): number {
+function largest(xs: ArrayLike<number>): number {
   let most = 0;
-  for (const x of xs) if (x > most) most = x;
+  for (let i = 0; i < xs.length; i++) if (xs[i] > most) most = xs[i];
   return most;
+}
+
+function allEqual(xs: ArrayLike<number>): boolean {
+  for (let i = 1; i < xs.length; i++) if (xs[i] !== xs[0]) return false;
+  return true;
 }
 
 /**
@@ -78,22 +83,21 @@ function largest(xs: readonly number[]): number {
  * @returns the line, the projection and the upper bound at the design twist, or why there is none.
  * @example predictionDirectionBound('positive', [5, 10, 15], [45, 91, 134], settings).upperBoundMm // => about 185 at 20°
  */
-export function predictionDirectionBound(direction: TwistDirection, xs: number[], ys: number[], s: BoundSettings): DirectionBound {
+export function predictionDirectionBound(direction: TwistDirection, xs: ArrayLike<number>, ys: ArrayLike<number>, s: BoundSettings): DirectionBound {
   const twistReachedDeg = largest(xs);
   const base = { direction, poseCount: xs.length, twistReachedDeg, fit: null, tolerance: null, projectedMm: null, upperBoundMm: null };
   const needed = s.throughOrigin ? 2 : 3;
   if (xs.length < needed) {
     return { ...base, unavailable: `needs at least ${needed} poses twisted this way by ${MIN_FIT_TWIST_DEG}° or more, has ${xs.length}` };
   }
-  if (!s.throughOrigin && xs.every((x) => x === xs[0])) {
+  if (!s.throughOrigin && allEqual(xs)) {
     return { ...base, unavailable: 'needs poses at two different twists for a line with an intercept' };
   }
-  const line = linearFit(xs, ys, { throughOrigin: s.throughOrigin, scatter: 'proportional' });
-  const { predict: _predict, leverage: _leverage, upperPredictionBound: _bound, ...fit } = line;
+  const fit = lineSummary(xs, ys, s.throughOrigin, 'proportional');
   return {
     ...base,
     fit,
-    projectedMm: line.predict(s.designTwistDeg),
+    projectedMm: fit.intercept + fit.slope * s.designTwistDeg,
     upperBoundMm: upperPredictionBoundAt(fit, s.designTwistDeg, s.confidence, s.tFor(fit.df)),
     unavailable: null,
   };
@@ -106,17 +110,24 @@ export function predictionDirectionBound(direction: TwistDirection, xs: number[]
  * @returns mean + k1·s of the runs scaled to the design twist, or why there is none.
  * @example toleranceDirectionBound('positive', [10, 10, 10.2], [90, 92, 91], 10, settings).tolerance?.n // => 3
  */
-export function toleranceDirectionBound(direction: TwistDirection, xs: number[], ys: number[], medianTwistDeg: number, s: BoundSettings): DirectionBound {
+export function toleranceDirectionBound(
+  direction: TwistDirection,
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  medianTwistDeg: number,
+  s: BoundSettings,
+): DirectionBound {
   const twistReachedDeg = largest(xs);
   const base = { direction, poseCount: xs.length, twistReachedDeg, fit: null, tolerance: null, projectedMm: null, upperBoundMm: null };
   const n = xs.length;
   if (n < 2) return { ...base, unavailable: `needs at least 2 runs twisted this way by ${MIN_FIT_TWIST_DEG}° or more, has ${n}` };
   let sum = 0;
-  const scaled = xs.map((x, i) => (ys[i] * s.designTwistDeg) / x);
-  for (const v of scaled) sum += v;
+  const scaled = new Float64Array(n);
+  for (let i = 0; i < n; i++) scaled[i] = (ys[i] * s.designTwistDeg) / xs[i];
+  for (let i = 0; i < n; i++) sum += scaled[i];
   const meanMm = sum / n;
   let squares = 0;
-  for (const v of scaled) squares += (v - meanMm) * (v - meanMm);
+  for (let i = 0; i < n; i++) squares += (scaled[i] - meanMm) * (scaled[i] - meanMm);
   const sdMm = Math.sqrt(squares / (n - 1));
   const k1 = s.k1For(n);
   return {

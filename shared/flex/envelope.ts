@@ -251,17 +251,21 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
 
 /**
  * Checks every pose and reading, naming each field as the caller gave it. Returns each pose's lift
- * twist and, per reading in input order, its point × 3 + axis code (so nothing is looked up twice).
+ * twist and, per reading in input order, its point × 3 + axis code and its value (so no reading
+ * object is read twice).
  */
-function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; codes: Int32Array; codeStart: Int32Array } {
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; scratch: Scratch; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
   const stamp = new Int32Array(points.size * 3);
   let total = 0;
   for (const pose of poses) if (pose !== null && typeof pose === 'object' && Array.isArray(pose.readings)) total += pose.readings.length;
-  const codes = new Int32Array(total);
+  const scratch = scratchFor(total);
+  const codes = scratch.inputCode;
+  const values = scratch.inputValue;
   const codeStart = new Int32Array(poses.length);
+  const pointIds = input.gaugePoints.map((point) => point.id);
   let next = 0;
   const liftTwists = poses.map((pose, i) => {
     if (pose === null || typeof pose !== 'object' || typeof pose.id !== 'string') throw new FlexInputError(FN, `poses[${i}].id`, 'must be a string');
@@ -284,35 +288,47 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
     const readings = pose.readings;
     if (!Array.isArray(readings)) throw new FlexInputError(FN, `poses[${i}].readings`, 'must be an array');
     codeStart[i] = next;
-    // A point's readings usually come together (one per axis): look its id up once for the run.
+    // Poses are usually read in the same order: the reading at the same place in the previous pose
+    // names the point to try first; else a point's readings usually come together (one per axis),
+    // so its id is looked up once for the run.
+    const previousStart = i === 0 ? 0 : codeStart[i - 1];
+    const previousCount = next - previousStart;
     let lastId: unknown = undefined;
     let lastAt: number | undefined = undefined;
     for (let j = 0; j < readings.length; j++) {
       const reading = readings[j];
       let at: number | undefined = undefined;
       if (reading !== null && typeof reading === 'object') {
-        if (reading.pointId !== lastId) {
-          lastId = reading.pointId;
-          lastAt = points.get(reading.pointId);
+        const guess = j < previousCount ? (codes[previousStart + j] / 3) | 0 : -1;
+        if (guess >= 0 && reading.pointId === pointIds[guess]) at = guess;
+        else {
+          if (reading.pointId !== lastId) {
+            lastId = reading.pointId;
+            lastAt = points.get(reading.pointId);
+          }
+          at = lastAt;
         }
-        at = lastAt;
       }
       const axis = at === undefined ? -1 : reading.axis === 'foreAft' ? 0 : reading.axis === 'lateral' ? 1 : reading.axis === 'vertical' ? 2 : -1;
-      if (at === undefined || axis < 0 || !isLength(reading.value)) readingProblem(i, j, reading, points);
+      if (at === undefined || axis < 0) readingProblem(i, j, reading, points);
+      // Read apart from the checks above so the number stays unboxed (a value that may be undefined would be boxed).
+      const value = reading.value;
+      if (!isLength(value)) readingProblem(i, j, reading, points);
       const key = at * 3 + axis;
       if (stamp[key] === i + 1) readingProblem(i, j, reading, points);
       stamp[key] = i + 1;
+      values[next] = value;
       codes[next++] = key;
     }
     return twist;
   });
-  return { liftTwists, codes, codeStart };
+  return { liftTwists, scratch, codeStart };
 }
 
 interface Session {
   points: GaugeLocation[];
-  /** Per reading in input order, pose after pose from codeStart[pose]: point index × 3 + axis code. */
-  codes: Int32Array;
+  /** Where the readings are flattened; inputCode and inputValue hold, per reading in input order, pose after pose from codeStart[pose], its point index × 3 + axis code and its value. */
+  scratch: Scratch;
   codeStart: Int32Array;
   baselineIndex: number;
   liftTwists: number[];
@@ -341,34 +357,46 @@ interface Flat {
  * Sessions beyond KEPT_SCRATCH readings get arrays of their own, so one huge session does not keep
  * tens of megabytes alive in a long-running server or tab.
  */
-type Scratch = { buffer: PoseBuffer; inputIndex: Int32Array; code: Int32Array; scatter: Float64Array };
+type Scratch = {
+  buffer: PoseBuffer;
+  inputIndex: Int32Array;
+  code: Int32Array;
+  scatter: Float64Array;
+  /** Per reading in input order (every pose, the baseline too): its code and its value. */
+  inputCode: Int32Array;
+  inputValue: Float64Array;
+};
 let scratch: Scratch | null = null;
 const KEPT_SCRATCH = 1 << 16;
 
+/** Scratch arrays for a session of `total` readings (every pose's, the baseline's too). */
 function scratchFor(total: number): Scratch {
   if (scratch !== null && scratch.inputIndex.length >= total) return scratch;
   const size = Math.max(total, 1024);
-  const fresh = { buffer: poseBuffer(size), inputIndex: new Int32Array(size), code: new Int32Array(size), scatter: new Float64Array(size) };
+  const fresh = {
+    buffer: poseBuffer(size),
+    inputIndex: new Int32Array(size),
+    code: new Int32Array(size),
+    scatter: new Float64Array(size),
+    inputCode: new Int32Array(size),
+    inputValue: new Float64Array(size),
+  };
   if (size <= KEPT_SCRATCH) scratch = fresh;
   return fresh;
 }
 
 function flatten(input: EnvelopeInput, s: Session): Flat {
   const { poses } = input;
-  let total = 0;
-  poses.forEach((pose, i) => {
-    if (i !== s.baselineIndex) total += pose.readings.length;
-  });
-  const { buffer, inputIndex, code: codeAt, scatter } = scratchFor(total);
+  const { buffer, inputIndex, code: codeAt, scatter, inputCode, inputValue } = s.scratch;
   const start = new Int32Array(poses.length).fill(-1);
   const count = new Int32Array(poses.length);
   const missingBaseline = new Int32Array(poses.length);
   const reference = new Float64Array(s.points.length * 3).fill(Number.NaN);
   const gap = input.readingMode === 'gap';
   if (gap) {
-    const baseline = poses[s.baselineIndex].readings;
     const from = s.codeStart[s.baselineIndex];
-    for (let j = 0; j < baseline.length; j++) reference[s.codes[from + j]] = baseline[j].value;
+    const end = from + poses[s.baselineIndex].readings.length;
+    for (let j = from; j < end; j++) reference[inputCode[j]] = inputValue[j];
   }
   const ys = new Float64Array(s.points.length);
   const zs = new Float64Array(s.points.length);
@@ -380,11 +408,11 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
   for (let i = 0; i < poses.length; i++) {
     if (i === s.baselineIndex) continue;
     start[i] = k;
-    const readings = poses[i].readings;
     const from = s.codeStart[i];
-    for (let j = 0; j < readings.length; j++) {
-      const code = s.codes[from + j];
-      let value = readings[j].value;
+    const length = poses[i].readings.length;
+    for (let j = 0; j < length; j++) {
+      const code = inputCode[from + j];
+      let value = inputValue[from + j];
       if (gap) {
         const base = reference[code];
         if (Number.isNaN(base)) {
@@ -589,33 +617,33 @@ function directionName(direction: TwistDirection): string {
 
 interface DirectionData {
   poseIndexes: number[];
-  xs: number[];
+  /** The poses' twist magnitudes (degrees), in the order of poseIndexes. */
+  xs: Float64Array;
   medianTwistDeg: number;
 }
 
 /** The fitted poses of each twist direction, checked as repeats for the tolerance method. */
 function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: EnvelopeParameters, notes: string[]): Record<TwistDirection, DirectionData> {
-  const data: Record<TwistDirection, DirectionData> = {
-    positive: { poseIndexes: [], xs: [], medianTwistDeg: 0 },
-    negative: { poseIndexes: [], xs: [], medianTwistDeg: 0 },
-  };
+  const indexes: Record<TwistDirection, number[]> = { positive: [], negative: [] };
   const slight: string[] = [];
-  poses.forEach((pose, i) => {
-    if (pose.measures === null) return;
-    const magnitude = Math.abs(pose.twistDeg);
-    if (magnitude < MIN_FIT_TWIST_DEG) {
-      slight.push(pose.poseId);
-      return;
-    }
-    const d = data[pose.twistDeg > 0 ? 'positive' : 'negative'];
-    d.poseIndexes.push(i);
-    d.xs.push(magnitude);
-  });
+  for (let i = 0; i < poses.length; i++) {
+    const pose = poses[i];
+    if (pose.measures === null) continue;
+    if (Math.abs(pose.twistDeg) < MIN_FIT_TWIST_DEG) slight.push(pose.poseId);
+    else indexes[pose.twistDeg > 0 ? 'positive' : 'negative'].push(i);
+  }
+  const data = {} as Record<TwistDirection, DirectionData>;
+  for (const direction of TWIST_DIRECTIONS) {
+    const poseIndexes = indexes[direction];
+    const xs = new Float64Array(poseIndexes.length);
+    for (let k = 0; k < xs.length; k++) xs[k] = Math.abs(poses[poseIndexes[k]].twistDeg);
+    data[direction] = { poseIndexes, xs, medianTwistDeg: 0 };
+  }
   if (slight.length > 0)
     notes.push(`${slight.join(', ')}: twisted less than ${MIN_FIT_TWIST_DEG}° from the baseline: measured, but not used for the twist lines`);
   for (const direction of TWIST_DIRECTIONS) {
     const d = data[direction];
-    const sorted = [...d.xs].sort((a, b) => a - b);
+    const sorted = d.xs.slice().sort();
     const mid = sorted.length >> 1;
     d.medianTwistDeg = sorted.length === 0 ? 0 : sorted.length % 2 === 1 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
     if (p.method === 'tolerance') {
@@ -638,7 +666,8 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
     } else if (p.designTwistDeg < d.medianTwistDeg && p.method === 'tolerance') {
       notes.push(`the design twist (${p.designTwistDeg}°) is below the repeated runs' twist ${directionName(direction)} (${d.medianTwistDeg.toFixed(1)}°)`);
     } else {
-      const reached = Math.max(...d.xs);
+      let reached = -Infinity;
+      for (const x of d.xs) reached = Math.max(reached, x);
       if (p.designTwistDeg < reached) {
         notes.push(`the design twist (${p.designTwistDeg}°) is below the largest twist reached ${directionName(direction)} (${reached.toFixed(1)}°)`);
       } else if (p.designTwistDeg > FAR_EXTRAPOLATION * reached) {
@@ -651,26 +680,47 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
   return data;
 }
 
+/** Per measure, each pose's value and its 1-SD uncertainty (NaN where unknown or for a pose without measures). */
+type MeasureColumns = Record<EnvelopeMeasure, { values: Float64Array; uncertainties: Float64Array }>;
+
+/** The poses' measures as columns, so each measure's bound reads flat arrays. */
+function measureColumns(poses: readonly PoseResult[]): MeasureColumns {
+  const columns = {} as MeasureColumns;
+  for (const measure of ENVELOPE_MEASURES) {
+    const values = new Float64Array(poses.length);
+    const uncertainties = new Float64Array(poses.length);
+    for (let i = 0; i < poses.length; i++) {
+      const m = poses[i].measures?.[measure];
+      values[i] = m === undefined ? Number.NaN : m.valueMm;
+      uncertainties[i] = m === undefined || m.uncertaintyMm === null ? Number.NaN : m.uncertaintyMm;
+    }
+    columns[measure] = { values, uncertainties };
+  }
+  return columns;
+}
+
 function measureEnvelope(
   measure: EnvelopeMeasure,
   poses: readonly PoseResult[],
+  columns: MeasureColumns,
   data: Record<TwistDirection, DirectionData>,
   p: EnvelopeParameters,
   settings: BoundSettings,
 ): MeasureEnvelope {
+  const { values, uncertainties } = columns[measure];
   let worstIndex = -1;
   let fitUncertaintyMm: number | null = null;
-  poses.forEach((pose, i) => {
-    if (pose.measures === null) return;
-    const m = pose.measures[measure];
-    if (worstIndex < 0 || m.valueMm > (poses[worstIndex].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure].valueMm) worstIndex = i;
-    if (m.uncertaintyMm !== null) fitUncertaintyMm = Math.max(fitUncertaintyMm ?? 0, m.uncertaintyMm);
-  });
+  for (let i = 0; i < poses.length; i++) {
+    if (poses[i].measures === null) continue;
+    if (worstIndex < 0 || values[i] > values[worstIndex]) worstIndex = i;
+    if (!Number.isNaN(uncertainties[i])) fitUncertaintyMm = Math.max(fitUncertaintyMm ?? 0, uncertainties[i]);
+  }
   const worst = (poses[worstIndex].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure];
   const directions = {} as Record<TwistDirection, DirectionBound>;
   for (const direction of TWIST_DIRECTIONS) {
     const d = data[direction];
-    const ys = d.poseIndexes.map((i) => (poses[i].measures as Record<EnvelopeMeasure, PoseMeasure>)[measure].valueMm);
+    const ys = new Float64Array(d.poseIndexes.length);
+    for (let k = 0; k < ys.length; k++) ys[k] = values[d.poseIndexes[k]];
     directions[direction] =
       p.method === 'prediction'
         ? predictionDirectionBound(direction, d.xs, ys, settings)
@@ -738,7 +788,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   requireTrack('tracks.rearMm', input.tracks.rearMm);
   validateOutline(FN, input.outline);
   const pointIndex = indexGaugeLocations(FN, 'gaugePoints', input.gaugePoints);
-  const { liftTwists, codes, codeStart } = checkPoses(input, pointIndex);
+  const { liftTwists, scratch, codeStart } = checkPoses(input, pointIndex);
   if (input.readingMode !== 'gap' && input.readingMode !== 'displacement') {
     throw new FlexInputError(FN, 'readingMode', `must be 'gap' or 'displacement', got '${String(input.readingMode)}'`);
   }
@@ -763,7 +813,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
   });
 
   const notes: string[] = [];
-  const session: Session = { points: input.gaugePoints, codes, codeStart, baselineIndex, liftTwists, relativeTwists };
+  const session: Session = { points: input.gaugePoints, scratch, codeStart, baselineIndex, liftTwists, relativeTwists };
   const { poses, scatterMm, flags } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
@@ -787,6 +837,7 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     },
   };
   const measures = {} as Record<EnvelopeMeasure, MeasureEnvelope>;
-  for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, data, p, settings);
+  const columns = measureColumns(poses);
+  for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, columns, data, p, settings);
   return { parameters: p, baselineTwistDeg, scatterMm, poses, measures, flags, readingNotes, notes };
 }

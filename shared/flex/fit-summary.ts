@@ -57,6 +57,9 @@ export interface RelativeMotionFit {
   outliers: FlaggedReading[];
 }
 
+/** No readings left unchecked (shared: read, never written). */
+const NONE: readonly string[] = [];
+
 /** The number of times over as words: "12 times over", or "without limit". */
 function magnified(ratio: number | null): string {
   return ratio === null || !Number.isFinite(ratio) ? 'without limit' : `${ratio.toFixed(1)} times over`;
@@ -100,7 +103,7 @@ function partReason(kind: 'outOfPlane' | 'inPlane', core: PartCore, counts: { la
 }
 
 /** What limited a part's outlier check; null when every reading was judged or there were none. */
-function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: OutlierCheck, unchecked: string[]): string | null {
+function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: OutlierCheck, unchecked: readonly string[]): string | null {
   if (core.readingCount === 0) return null;
   const name = kind === 'outOfPlane' ? 'fore-aft' : 'lateral and vertical';
   // A reading that alone fixes part of the fit is matched exactly whatever its value.
@@ -120,7 +123,7 @@ function summarisePart(
   judgement: PoseJudgement,
   rms: number,
   counts: { lateral: number; vertical: number },
-  unchecked: string[],
+  unchecked: readonly string[],
 ): FitPart {
   const part = kind === 'outOfPlane' ? judgement.outOfPlane : judgement.inPlane;
   const redundancy = core.readingCount - core.parameterCount;
@@ -154,21 +157,32 @@ export function packFit(
   judgement: PoseJudgement,
   labelOf: (i: number) => { pointId: string; axis: Axis; index: number },
 ): RelativeMotionFit {
-  const residuals: number[] = [];
-  const squares = [0, 0];
-  const counts = { lateral: 0, vertical: 0 };
-  const unchecked: [string[], string[]] = [[], []];
+  const { start, count, axis, residual, standardized } = buffer;
+  const residuals = new Array<number>(count);
+  let squaresOut = 0;
+  let squaresIn = 0;
+  let lateral = 0;
+  let vertical = 0;
+  let uncheckedOut: string[] | null = null;
+  let uncheckedIn: string[] | null = null;
   let total = 0;
-  for (let i = buffer.start; i < buffer.start + buffer.count; i++) {
-    const e = buffer.residual[i];
-    const which = buffer.axis[i] === 0 ? 0 : 1;
-    residuals.push(e);
+  for (let k = 0; k < count; k++) {
+    const i = start + k;
+    const e = residual[i];
+    residuals[k] = e;
     total += e * e;
-    squares[which] += e * e;
-    if (buffer.axis[i] === 1) counts.lateral++;
-    else if (buffer.axis[i] === 2) counts.vertical++;
-    if (Number.isNaN(buffer.standardized[i])) unchecked[which].push(labelOf(i).pointId);
+    if (axis[i] === 0) squaresOut += e * e;
+    else {
+      squaresIn += e * e;
+      if (axis[i] === 1) lateral++;
+      else vertical++;
+    }
+    if (Number.isNaN(standardized[i])) {
+      if (axis[i] === 0) (uncheckedOut ??= []).push(labelOf(i).pointId);
+      else (uncheckedIn ??= []).push(labelOf(i).pointId);
+    }
   }
+  const counts = { lateral, vertical };
   const rmsOf = (sum: number, n: number): number => (n === 0 ? 0 : Math.sqrt(sum / n));
   const outliers = judgement.flagged.map((i): FlaggedReading => {
     const label = labelOf(i);
@@ -186,8 +200,8 @@ export function packFit(
     motion: { t: { x: core.tx, y: core.ty, z: core.tz }, omega: { x: core.wx, y: core.wy, z: core.wz } },
     residuals,
     residualRms: rmsOf(total, buffer.count),
-    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement, rmsOf(squares[0], core.outOfPlane.readingCount), counts, unchecked[0]),
-    inPlane: summarisePart('inPlane', core.inPlane, judgement, rmsOf(squares[1], core.inPlane.readingCount), counts, unchecked[1]),
+    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement, rmsOf(squaresOut, core.outOfPlane.readingCount), counts, uncheckedOut ?? NONE),
+    inPlane: summarisePart('inPlane', core.inPlane, judgement, rmsOf(squaresIn, core.inPlane.readingCount), counts, uncheckedIn ?? NONE),
     outliers,
   };
 }

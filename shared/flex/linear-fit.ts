@@ -42,6 +42,11 @@ export interface LinearFit extends LinearFitSummary {
 
 /** Magnitude limit for x and y: keeps every sum of squares finite. */
 const MAX_ABS_VALUE = 1e100;
+const FN = 'linearFit';
+
+function isNumberArray(values: unknown): boolean {
+  return Array.isArray(values) || values instanceof Float64Array;
+}
 
 /**
  * Fits the line.
@@ -51,13 +56,30 @@ const MAX_ABS_VALUE = 1e100;
  * @example linearFit([1, 2, 3], [2.1, 3.9, 6.0]).slope // => 1.9929 (through the origin)
  */
 export function linearFit(xs: readonly number[], ys: readonly number[], options: LinearFitOptions = {}): LinearFit {
-  const fn = 'linearFit';
-  const throughOrigin = options.throughOrigin ?? true;
-  const scatter = options.scatter ?? 'constant';
+  const summary = lineSummary(xs, ys, options.throughOrigin ?? true, options.scatter ?? 'constant');
+  const { intercept, slope } = summary;
+  return {
+    ...summary,
+    predict: (x: number): number => intercept + slope * requireFinite(FN, 'x', x),
+    leverage: (x: number): number => predictionLeverage(summary, x),
+    upperPredictionBound: (x: number, confidence: number): number => upperPredictionBoundAt(summary, x, confidence),
+  };
+}
+
+/**
+ * The fitted line as plain data (what linearFit returns without its methods), from any array of
+ * numbers; designEnvelope fits each measure's line with it, with no methods to build per bound.
+ * @param xs explanatory values. @param ys responses. @param throughOrigin the line passes through (0, 0).
+ * @param scatter 'constant' or 'proportional' (weights 1/x², every x > 0).
+ * @returns the line's summary, the same numbers linearFit gives.
+ * @example lineSummary([1, 2, 3], [2.1, 3.9, 6.0], true, 'constant').slope // => 1.9929
+ */
+export function lineSummary(xs: ArrayLike<number>, ys: ArrayLike<number>, throughOrigin: boolean, scatter: ScatterModel): LinearFitSummary {
+  const fn = FN;
   if (scatter !== 'constant' && scatter !== 'proportional') {
     throw new FlexInputError(fn, 'options.scatter', `must be 'constant' or 'proportional', got '${String(scatter)}'`);
   }
-  if (!Array.isArray(xs) || !Array.isArray(ys)) throw new FlexInputError(fn, 'xs', 'and ys must be arrays');
+  if (!isNumberArray(xs) || !isNumberArray(ys)) throw new FlexInputError(fn, 'xs', 'and ys must be arrays');
   if (xs.length !== ys.length) {
     throw new FlexInputError(fn, 'ys', `must have the same length as xs (${xs.length}), got ${ys.length}`);
   }
@@ -116,12 +138,5 @@ export function linearFit(xs: readonly number[], ys: readonly number[], options:
   const df = n - parameters;
   const residualSd = Math.sqrt(ssr / df);
   const rSquared = syy === 0 ? 1 : Math.max(0, 1 - ssr / syy);
-  const summary: LinearFitSummary = { slope, intercept, throughOrigin, scatter, n, df, residualSd, rSquared, sumWeights, meanX, sxx };
-
-  return {
-    ...summary,
-    predict: (x: number): number => intercept + slope * requireFinite(fn, 'x', x),
-    leverage: (x: number): number => predictionLeverage(summary, x),
-    upperPredictionBound: (x: number, confidence: number): number => upperPredictionBoundAt(summary, x, confidence),
-  };
+  return { slope, intercept, throughOrigin, scatter, n, df, residualSd, rSquared, sumWeights, meanX, sxx };
 }

@@ -542,15 +542,20 @@ export function fitPoseParts(buffer: PoseBuffer, corners: EdgeCorners, layout: P
   fit.outOfPlane = partCore(layout.outOfPlane.shape, fitOutOfPlane(buffer, layout.outOfPlane, fit));
   fit.inPlane = partCore(layout.inPlane.shape, fitInPlane(buffer, layout.inPlane, fit));
   const { leverage, rootRest, rest } = layout;
+  const { axis, residual } = buffer;
+  const ssrOut = fit.outOfPlane.ssr;
+  const ssrIn = fit.inPlane.ssr;
+  const spareOut = fit.outOfPlane.readingCount - fit.outOfPlane.parameterCount - 1;
+  const spareIn = fit.inPlane.readingCount - fit.inPlane.parameterCount - 1;
   for (let k = 0; k < buffer.count; k++) {
     const i = buffer.start + k;
-    const part = buffer.axis[i] === 0 ? fit.outOfPlane : fit.inPlane;
-    const e = buffer.residual[i];
-    const spare = part.readingCount - part.parameterCount - 1;
+    const out = axis[i] === 0;
+    const e = residual[i];
+    const spare = out ? spareOut : spareIn;
     buffer.leverage[i] = leverage[k];
     // NaN where the reading alone fixes its fitted value (hᵢ ≈ 1): it has no residual to judge.
     buffer.standardized[i] = e / rootRest[k];
-    buffer.deletedSd[i] = spare >= 1 ? Math.sqrt(Math.max(0, (part.ssr - (e * e) / rest[k]) / spare)) : Number.NaN;
+    buffer.deletedSd[i] = spare >= 1 ? Math.sqrt(Math.max(0, ((out ? ssrOut : ssrIn) - (e * e) / rest[k]) / spare)) : Number.NaN;
   }
   return fit;
 }
