@@ -149,19 +149,20 @@ export async function enforceSyncAccess(
     return row ? row.version === item.record.version : item.record.version === 1;
   });
 
-  const sessionsOf = await sessionResolver(applied, rows, reads?.poseSessions ?? poseSessions(auth, transaction));
+  const poses = reads?.poseSessions ?? poseSessions(auth, transaction);
+  const sessionsOf = await sessionResolver(applied, rows, poses);
   const sessionIds = [...new Set(applied.flatMap((i) => sessionsOf(i)))];
-  const signed = new Set(
-    sessionIds.length
-      ? (
-          await select<{ session_id: string }>(
-            `SELECT DISTINCT session_id FROM envelopes WHERE team_id = $1 AND session_id = ANY($2::uuid[]) AND status = 'signed' AND deleted_at IS NULL`,
-            [auth.teamId, sessionIds],
-            transaction,
-          )
-        ).map((r) => r.session_id)
-      : [],
-  );
+  // The pose look-up already said for the sessions of the poses it found; only the others are asked.
+  const unknown = sessionIds.filter((s) => poses.signed(s) === undefined);
+  const signed = new Set(sessionIds.filter((s) => poses.signed(s)));
+  if (unknown.length) {
+    const found = await select<{ session_id: string }>(
+      `SELECT DISTINCT session_id FROM envelopes WHERE team_id = $1 AND session_id = ANY($2::uuid[]) AND status = 'signed' AND deleted_at IS NULL`,
+      [auth.teamId, unknown],
+      transaction,
+    );
+    for (const r of found) signed.add(r.session_id);
+  }
 
   const errors: FieldError[] = [];
   const history: { item: AccessItem; sessionId: string | null; changes: Record<string, { before: unknown; after: unknown }> }[] = [];

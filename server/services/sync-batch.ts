@@ -1,11 +1,11 @@
 // What push and a conflict resolved with the phone's version share: the items of a batch and
 // the plan of what it writes, the uniqueness rules judged on the state after the batch (reading
-// slots, gauge point labels), and the array-based bulk statements that write a plan's rows.
+// slots, gauge point labels), and the bulk statements that write a plan's rows (one JSON parameter each).
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import type { FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
-import { columnValue, syncOrder, syncTables, type SyncTable } from './sync-tables';
+import { syncOrder, syncTables, type SyncTable } from './sync-tables';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
 export type Row = Record<string, unknown>;
@@ -56,28 +56,42 @@ export async function lockNamedRows(items: Item[], transaction: Transaction): Pr
   return rows;
 }
 
-/** The team's poses a batch refers to but does not carry, each looked up once: whether it exists and its session. */
+/**
+ * The team's poses a batch refers to but does not carry, each looked up once: whether it exists,
+ * its session, and whether that session has a signed envelope (the access rules close it to the
+ * field), so a batch of readings needs no look-up of its own for the envelopes.
+ */
 export interface PoseSessions {
   load(ids: Iterable<string>): Promise<void>;
   /** The session of a loaded pose, or undefined when the team has no such pose. */
   sessionOf(id: string): string | undefined;
+  /** Whether a loaded pose's session has a signed envelope; undefined for a session no loaded pose is in. */
+  signed(sessionId: string): boolean | undefined;
 }
 
 export function poseSessions(auth: AuthContext, transaction: Transaction): PoseSessions {
   const known = new Map<string, string | undefined>();
+  const signed = new Map<string, boolean>();
   return {
     async load(ids) {
       const missing = [...new Set(ids)].filter((id) => !known.has(id));
       if (!missing.length) return;
       for (const id of missing) known.set(id, undefined);
-      const rows = await select<{ id: string; session_id: string }>(
-        'SELECT id, session_id FROM poses WHERE team_id = $1 AND id = ANY($2::uuid[])',
+      const rows = await select<{ id: string; session_id: string; signed: boolean }>(
+        `SELECT p.id, p.session_id, EXISTS (
+           SELECT 1 FROM envelopes e WHERE e.session_id = p.session_id AND e.team_id = $1 AND e.status = 'signed' AND e.deleted_at IS NULL
+         ) AS signed
+         FROM poses p WHERE p.team_id = $1 AND p.id = ANY($2::uuid[])`,
         [auth.teamId, missing],
         transaction,
       );
-      for (const r of rows) known.set(r.id, r.session_id);
+      for (const r of rows) {
+        known.set(r.id, r.session_id);
+        signed.set(r.session_id, r.signed);
+      }
     },
     sessionOf: (id) => known.get(id),
+    signed: (sessionId) => signed.get(sessionId),
   };
 }
 
@@ -154,22 +168,26 @@ export async function checkGaugeLabels(auth: AuthContext, plan: Plan, errors: Fi
   }
 }
 
-/** unnest($n::type[], …) AS u(id, cols…): one typed array per column, so the row count never meets the parameter limit. */
-function unnestSource(spec: SyncTable, items: Item[], firstParam: number) {
-  const bind: unknown[] = [items.map((i) => i.record.id), items.map((i) => i.record.version)];
-  const arrays = [`$${firstParam}::uuid[]`, `$${firstParam + 1}::int4[]`];
-  spec.columns.forEach((col, k) => {
-    bind.push(items.map((i) => columnValue(col, i.record)));
-    arrays.push(`$${firstParam + 2 + k}::${col.type}[]`);
-  });
-  const names = ['id', 'base_version', ...spec.columns.map((col) => col.column)];
-  return { bind, sql: `unnest(${arrays.join(', ')}) AS u(${names.join(', ')})` };
+/**
+ * The batch's records as rows: one JSON parameter that PostgreSQL reads with json_to_recordset,
+ * each field typed by its column. One native JSON.stringify instead of an array literal built and
+ * escaped element by element per column, and the row count never meets the parameter limit. A
+ * missing field and a JSON null are both SQL NULL; a jsonb column takes the field's JSON as it is.
+ */
+function recordSource(spec: SyncTable, items: Item[], param: number) {
+  const fields = [{ key: 'id', column: 'id', type: 'uuid' }, { key: 'version', column: 'base_version', type: 'int4' }, ...spec.columns];
+  const typed = fields.map((f) => `"${f.key}" ${f.type}`).join(', ');
+  const named = fields.map((f) => `r."${f.key}" AS ${f.column}`).join(', ');
+  return {
+    bind: [JSON.stringify(items.map((i) => i.record))],
+    sql: `(SELECT ${named} FROM json_to_recordset($${param}::json) AS r(${typed})) AS u`,
+  };
 }
 
 export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {
   // $2 (the signed-in user) is bound only where a column takes it: PostgreSQL refuses an untyped unused parameter.
   const needsUser = Boolean(spec.createdByColumn);
-  const src = unnestSource(spec, items, needsUser ? 3 : 2);
+  const src = recordSource(spec, items, needsUser ? 3 : 2);
   const cols = spec.columns.map((col) => col.column);
   const extraCols = [...(spec.createdByColumn ? [spec.createdByColumn] : []), ...(spec.entity === 'testSession' ? ['safety_ack_by'] : [])];
   const extraVals = [
@@ -183,7 +201,7 @@ export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item
 
 export async function bulkUpdate(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {
   const needsUser = spec.entity === 'testSession';
-  const src = unnestSource(spec, items, needsUser ? 3 : 2);
+  const src = recordSource(spec, items, needsUser ? 3 : 2);
   const sets = spec.columns.map((col) => `${col.column} = u.${col.column}`);
   if (spec.entity === 'testSession') {
     // Who acknowledged the checklist is the person who first sent the acknowledgement.

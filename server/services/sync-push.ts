@@ -2,11 +2,11 @@
 //
 // Push applies one batch in ONE transaction: every record is checked first (team ownership,
 // references, uniqueness, versions), and any problem rejects the whole batch with field errors
-// naming the record and the field; only then are rows written, with one array-based statement
+// naming the record and the field; only then are rows written, with one bulk statement
 // per table and kind (insert / update), not one query per row. A stale base version is a
 // conflict: the server row stays as it is and both versions are kept in sync_conflicts
 // (sync-conflicts.ts). The answer is stored under the batch's idempotency key, so the same batch
-// twice writes once and answers the same. Pushes hold the team's change lock until they commit,
+// twice writes once and answers the same (stored compactly, see StoredAnswer). Pushes hold the team's change lock until they commit,
 // so a pull never sees a later change number before an earlier one (team-changes.ts).
 import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
@@ -34,9 +34,43 @@ import {
   type PoseSessions,
 } from './sync-batch';
 import { keepConflicts } from './sync-conflicts';
-import type { PushRequest, PushResponse, SyncEntity } from '../../shared/schemas/sync';
+import type { PushRequest, PushResponse, SyncConflict, SyncEntity } from '../../shared/schemas/sync';
 
 const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
+
+/** A written change: its index in the batch and the version the server now holds. */
+type Accepted = { index: number; version: number };
+
+/**
+ * The answer as stored for a retry. A retry carries the same changes (its hash says so), so the
+ * accepted records are kept as runs of consecutive change indexes that took one version
+ * (`[first index, count, version]`), and the answer is rebuilt from the batch: a batch of 1,000
+ * new readings stores one run instead of about 70 kB of JSON. Conflicts are kept whole (a few,
+ * with the server's row as it was then). Rows stored before this form hold the whole answer.
+ */
+type StoredAnswer = { acceptedRuns: [number, number, number][]; conflicts: SyncConflict[] } | PushResponse;
+
+function storedAnswer(accepted: Accepted[], conflicts: SyncConflict[]): StoredAnswer {
+  const acceptedRuns: [number, number, number][] = [];
+  for (const { index, version } of accepted) {
+    const last = acceptedRuns.at(-1);
+    if (last && last[0] + last[1] === index && last[2] === version) last[1] += 1;
+    else acceptedRuns.push([index, 1, version]);
+  }
+  return { acceptedRuns, conflicts };
+}
+
+function answerOf(req: PushRequest, stored: StoredAnswer): PushResponse {
+  if ('accepted' in stored) return stored;
+  const accepted: PushResponse['accepted'] = [];
+  for (const [first, count, version] of stored.acceptedRuns) {
+    for (let index = first; index < first + count; index++) {
+      const { entity, record } = req.changes[index];
+      accepted.push({ entity, id: record.id, version });
+    }
+  }
+  return { accepted, conflicts: stored.conflicts };
+}
 
 export async function pushBatch(auth: AuthContext, req: PushRequest): Promise<PushResponse> {
   const items: Item[] = req.changes.map((c, index) => ({ index, entity: c.entity, record: c.record as Item['record'] }));
@@ -65,35 +99,46 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
   const hash = requestHash(req);
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction);
-    const [earlier] = await select<{ request_hash: string; response: PushResponse }>(
+    const [earlier] = await select<{ request_hash: string; response: StoredAnswer }>(
       'SELECT request_hash, response FROM sync_batches WHERE team_id = $1 AND idempotency_key = $2',
       [auth.teamId, req.idempotencyKey],
       transaction,
     );
     if (earlier) {
       if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
-      return earlier.response;
+      return answerOf(req, earlier.response);
     }
     const reads: BatchReads = { rows: await lockNamedRows(items, transaction), poseSessions: poseSessions(auth, transaction) };
     await enforceSyncAccess(auth, items, transaction, undefined, reads);
     const plan = await checkBatch(auth, items, reads, transaction);
-    const response = await applyPlan(auth, plan, transaction);
+    const { accepted, conflicts } = await applyPlan(auth, plan, transaction);
     const arrivals = await fieldArrivals(plan, reads.poseSessions);
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
     await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
-    if (arrivals.size) {
-      await db().query(
-        `INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
-         SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $2::uuid, u.detail FROM unnest($3::uuid[], $4::jsonb[]) AS u(id, detail)`,
-        { bind: [auth.teamId, auth.userId, [...arrivals.keys()], [...arrivals.values()].map((t) => JSON.stringify(t))], transaction },
-      );
-    }
-    await db().query('INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)', {
-      bind: [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(response)],
-      transaction,
-    });
-    return response;
+    // One statement writes what arrived per session into the history and stores the answer.
+    const stored = storedAnswer(accepted, conflicts);
+    await db().query(
+      `WITH arrived AS (
+         INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
+         SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $3::uuid, u.detail FROM unnest($6::uuid[], $7::jsonb[]) AS u(id, detail)
+       )
+       INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)`,
+      {
+        bind: [
+          auth.teamId,
+          req.idempotencyKey,
+          auth.userId,
+          hash,
+          JSON.stringify(stored),
+          [...arrivals.keys()],
+          [...arrivals.values()].map((t) => JSON.stringify(t)),
+        ],
+        transaction,
+      },
+    );
+    // The first answer is rebuilt from what is stored, as a retry's is: the two cannot differ.
+    return answerOf(req, stored);
   });
 }
 
@@ -208,19 +253,21 @@ async function checkReferences(
   }
 }
 
-async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction): Promise<PushResponse> {
-  const accepted: PushResponse['accepted'] = [];
+async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction): Promise<{ accepted: Accepted[]; conflicts: SyncConflict[] }> {
+  const accepted: Accepted[] = [];
   for (const entity of syncOrder) {
     const spec = syncTables[entity];
     const inserts = plan.inserts.get(entity)!;
     if (inserts.length) {
       await bulkInsert(auth, spec, inserts, transaction);
-      for (const i of inserts) accepted.push({ entity, id: i.record.id, version: 1 });
+      for (const i of inserts) accepted.push({ index: i.index, version: 1 });
     }
     const updates = plan.updates.get(entity)!;
     if (updates.length) {
       const rows = await bulkUpdate(auth, spec, updates, transaction);
-      for (const r of rows) accepted.push({ entity, id: r.id, version: r.version });
+      // PostgreSQL answers with its own spelling of the id (lower case): the change is found by it.
+      const indexOf = new Map(updates.map((i) => [i.record.id.toLowerCase(), i.index]));
+      for (const r of rows) accepted.push({ index: indexOf.get(r.id)!, version: r.version });
     }
   }
   const conflicts = await keepConflicts(auth, plan.conflicts, transaction);

@@ -1,5 +1,5 @@
 // How each synced record maps onto its table, derived from shared/records: the columns a client
-// may write (with their PostgreSQL types, for the array-based bulk statements), the column the
+// may write (with their PostgreSQL types, for the bulk statements), the column the
 // server sets from the session, and the references checked in a batch.
 import { records, syncEntities, type SyncEntity } from '../../shared/records';
 import { columnOf, recordColumns, type Column } from '../../shared/records/define';
@@ -33,11 +33,3 @@ export const syncTables = Object.fromEntries(
 
 /** Parents before children, so a batch's inserts satisfy the foreign keys. */
 export const syncOrder: readonly SyncEntity[] = syncEntities;
-
-/** A record's value for one column, as the bulk statement's typed array wants it. */
-export function columnValue(col: Column, record: Record<string, unknown>): unknown {
-  const v = record[col.key];
-  if (v === undefined) return null;
-  if (col.type === 'jsonb') return v === null ? null : JSON.stringify(v);
-  return v;
-}

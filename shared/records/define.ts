@@ -6,7 +6,7 @@
 // derived from these declarations.
 import type * as z from 'zod';
 
-/** PostgreSQL type of a column; the bulk sync statements pass each column as one typed array. */
+/** PostgreSQL type of a column; the bulk sync statements read each field of a batch's records as this type. */
 export type ColumnType = 'uuid' | 'text' | 'float8' | 'int4' | 'int8' | 'bool' | 'jsonb' | 'date' | 'timestamptz';
 
 /** A column the server fills and the record does not carry (the created-by column aside). */

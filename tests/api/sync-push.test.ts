@@ -2,6 +2,7 @@
 // rejection, team scope, and the pull cursor.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
@@ -51,6 +52,56 @@ describe('push', () => {
     expect(second.body).toEqual(first.body);
     expect(await ReadingModel.count({ where: { poseId: f.level.id } })).toBe(1);
     expect((await ReadingModel.findByPk(f.readings[0].id))?.version).toBe(1);
+  });
+
+  it('answers a retried mixed batch (new, edited, stale) the same, from a stored answer that does not repeat the records', async () => {
+    const f = await fieldSetup();
+    const [r0, r1, r2, r3] = f.readings;
+    await f.tester.post('/api/sync/push').send({
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), change('reading', r0), change('reading', r1), change('reading', r2)],
+    });
+    const engineer = await signedInAgent(ts, f.team.members.engineer.email);
+    await engineer.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('reading', { ...r1, valueMm: 50 })] });
+    // Edited (to version 2), stale (kept as a conflict), new, edited: the answer's order is not the batch's.
+    const body = {
+      idempotencyKey: batchKey(),
+      changes: [
+        change('reading', { ...r0, valueMm: 60 }),
+        change('reading', { ...r1, valueMm: 61 }),
+        change('reading', r3),
+        change('reading', { ...r2, valueMm: 62 }),
+      ],
+    };
+    const first = await f.tester.post('/api/sync/push').send(body);
+    expect(first.status).toBe(200);
+    expect(first.body.accepted).toEqual(
+      expect.arrayContaining([
+        { entity: 'reading', id: r3.id, version: 1 },
+        { entity: 'reading', id: r0.id, version: 2 },
+        { entity: 'reading', id: r2.id, version: 2 },
+      ]),
+    );
+    expect(first.body.accepted).toHaveLength(3);
+    expect(first.body.conflicts).toHaveLength(1);
+    expect(first.body.conflicts[0]).toMatchObject({ entityId: r1.id, baseVersion: 1, serverVersion: 2 });
+    const second = await f.tester.post('/api/sync/push').send(body);
+    expect(second.status).toBe(200);
+    expect(second.body).toEqual(first.body);
+    expect((await ReadingModel.findByPk(r0.id))?.version).toBe(2);
+
+    // A batch of new readings stores one run of change indexes, not a line per reading.
+    const poses = Array.from({ length: 50 }, (_, k) => poseRecord(f.session.id, k + 1));
+    const many = poses.flatMap((p) => f.pointIds.map((g, i) => readingRecord(p.id, g, 'vertical', i)));
+    const big = { idempotencyKey: batchKey(), changes: [...poses.map((p) => change('pose', p)), ...many.map((r) => change('reading', r))] };
+    const answered = await f.tester.post('/api/sync/push').send(big);
+    expect(answered.body.accepted).toHaveLength(250);
+    const [stored] = await ts.sequelize.query<{ response: unknown }>('SELECT response FROM sync_batches WHERE idempotency_key = :key', {
+      replacements: { key: big.idempotencyKey },
+      type: QueryTypes.SELECT,
+    });
+    expect(stored.response).toEqual({ acceptedRuns: [[0, 250, 1]], conflicts: [] });
+    expect((await f.tester.post('/api/sync/push').send(big)).body).toEqual(answered.body);
   });
 
   it('after a lost answer, the retried batch leaves one row and the answer the client missed', async () => {

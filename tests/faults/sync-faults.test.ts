@@ -170,7 +170,8 @@ describe('the server killed in the middle of a batch', () => {
     let waitingPid: number | undefined;
     while (!waitingPid) {
       const rows = await sequelize.query<{ pid: number }>(
-        "SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE 'INSERT INTO sync_batches%'",
+        // The push's last statement writes the history in a WITH before it stores the answer.
+        "SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE '%INSERT INTO sync_batches%'",
         { type: QueryTypes.SELECT },
       );
       waitingPid = rows[0]?.pid;
