@@ -11,6 +11,8 @@
 //   meta     — small values: pull cursor, last sync, last error, display unit.
 // Every write transaction uses durability 'strict': Chrome's default ('relaxed') may report
 // success before the data is on disk. Keep every earlier version() when the schema changes.
+// Dexie's cache of live queries' results is off: a keystroke is written past Dexie
+// (guessed-write.ts), and a cached result would not know of it.
 import Dexie, { type EntityTable } from 'dexie';
 import type { GaugePoint, Pose, Reading, RetestRequest, TestSession, Vehicle } from '@shared/schemas';
 import type { FieldError } from '@shared/schemas/common';
@@ -94,7 +96,7 @@ export class FieldDb extends Dexie {
   meta!: EntityTable<MetaEntry, 'key'>;
 
   constructor(name = 'twistlog-field') {
-    super(name, { chromeTransactionDurability: 'strict' });
+    super(name, { chromeTransactionDurability: 'strict', cache: 'disabled' });
     this.version(1).stores({
       ...recordStores(VERSION_1_RECORDS),
       outbox: '++seq, [entity+recordId], batchKey',

@@ -4,8 +4,8 @@
 // conflict, a pull, an emptied store), the keystroke lands on what is stored, queued once, with
 // the stored version, and nothing of the wrong guess is kept.
 import 'fake-indexeddb/auto';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import type { DBCore } from 'dexie';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { liveQuery } from 'dexie';
 import { newReading } from '@shared/records';
 import { FieldDb } from './field-db';
 import { setReadingValue } from './records';
@@ -129,41 +129,43 @@ describe('a keystroke in a reading slot', () => {
     expect(await db.outbox.count()).toBe(0);
   });
 
-  it('sends the reads that check the guess with the write, not before it', async () => {
+  it("tells the store's live queries of a keystroke written past Dexie", async () => {
+    const slot = slotOf();
+    await type(slot, 4);
+    const seen: (number | null)[] = [];
+    const subscription = liveQuery(() => db.readings.where('poseId').equals(slot.poseId).toArray()).subscribe((rows) => seen.push(rows[0]?.valueMm ?? null));
+    await expect.poll(() => seen.at(-1)).toBe(4);
+    await type(slot, 45);
+    await expect.poll(() => seen.at(-1)).toBe(45);
+    subscription.unsubscribe();
+  });
+
+  it('sends the reads that check the guess with the write, not before it, as the keystroke is typed', async () => {
     // Every request to IndexedDB in order, and when its answer came back.
     const log: string[] = [];
-    db.close();
-    db = new FieldDb(db.name);
-    db.use({
-      stack: 'dbcore',
-      name: 'request-order',
-      create: (down: DBCore): DBCore => ({
-        ...down,
-        table: (name) => {
-          const table = down.table(name);
-          const seen =
-            <R>(what: string, call: () => Promise<R>) =>
-            () => {
-              log.push(`ask ${what} ${name}`);
-              return call().then((r) => (log.push(`answer ${what} ${name}`), r));
-            };
-          return {
-            ...table,
-            mutate: (req) => seen(req.type, () => table.mutate(req))(),
-            get: (req) => seen('get', () => table.get(req))(),
-            getMany: (req) => seen('getMany', () => table.getMany(req))(),
-            query: (req) => seen('query', () => table.query(req))(),
-            openCursor: (req) => seen('cursor', () => table.openCursor(req))(),
-          };
-        },
-      }),
-    });
-    await db.open();
+    const watch = (proto: object, storeOf: (self: never) => IDBObjectStore) => {
+      for (const method of ['get', 'getAll', 'getAllKeys', 'count', 'openCursor', 'put', 'add', 'delete'] as const) {
+        const original = (proto as Record<string, (...args: unknown[]) => IDBRequest>)[method];
+        if (!original) continue;
+        vi.spyOn(proto as Record<string, (...args: unknown[]) => IDBRequest>, method).mockImplementation(function (this: never, ...args: unknown[]) {
+          const what = `${method} ${storeOf(this).name}`;
+          log.push(`ask ${what}`);
+          const request = original.apply(this, args);
+          request.addEventListener('success', () => log.push(`answer ${what}`));
+          return request;
+        });
+      }
+    };
+    watch(IDBObjectStore.prototype, (store: IDBObjectStore) => store);
+    watch(IDBIndex.prototype, (index: IDBIndex) => index.objectStore);
     const slot = slotOf();
     await type(slot, 4);
     log.length = 0;
-    await type(slot, 45);
-    expect(log.filter((l) => l.startsWith('ask'))).toEqual(['ask query readings', 'ask query outbox', 'ask put readings']);
-    expect(log.findIndex((l) => l.startsWith('answer'))).toBe(3);
+    const typed = setReadingValue(slot, 45, db);
+    // The keystroke's requests are made in the input's own handler, before anything else runs.
+    expect(log).toEqual(['ask getAll readings', 'ask getAll outbox', 'ask put readings']);
+    expect(await typed).toMatchObject({ ok: true });
+    expect(log.slice(3)).toEqual(['answer getAll readings', 'answer getAll outbox', 'answer put readings']);
+    vi.restoreAllMocks();
   });
 });

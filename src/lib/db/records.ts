@@ -9,6 +9,7 @@ import type { Reading } from '@shared/schemas';
 import { fieldDb, tableOf, type FieldDb, type OutboxEntry } from './field-db';
 import { tracked } from './writes-in-flight';
 import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
+import { putOnGuess, slotReading, type Slot } from './guessed-write';
 
 /** The shared schema a record of `entity` is checked with, on the way in and out. */
 const schemaOf = (entity: SyncEntity): ZodType => records[entity].schema;
@@ -188,10 +189,9 @@ export function storageMessage(err: unknown): string {
   return `could not save on this device: ${e?.message ?? String(err)}`;
 }
 
-type Slot = { poseId: string; gaugePointId: string; axis: Reading['axis'] };
-
 // Keystrokes arrive faster than IndexedDB answers: writes to one slot run one after another, or
-// two quick keystrokes could both find no reading and create two records for the same slot.
+// two quick keystrokes could both find no reading and create two records for the same slot. A
+// keystroke with no write of its slot in flight starts at once, in the input's own handler.
 const slotWrites = new Map<string, Promise<ItemResult>>();
 
 /**
@@ -202,7 +202,9 @@ export function setReadingValue(slot: Slot, valueMm: number | null, db: FieldDb 
   const key = `${db.name}|${slot.poseId}|${slot.gaugePointId}|${slot.axis}`;
   const previous = slotWrites.get(key);
   const write = journaled(db, { op: 'reading', slot, valueMm }, () =>
-    tracked(() => (previous ? previous.catch(() => undefined) : Promise.resolve()).then(() => writeReadingValue(slot, valueMm, key, db))),
+    tracked(() =>
+      previous ? previous.catch(() => undefined).then(() => writeReadingValue(slot, valueMm, key, db)) : writeReadingValue(slot, valueMm, key, db),
+    ),
   );
   slotWrites.set(key, write);
   void write.finally(() => {
@@ -213,18 +215,15 @@ export function setReadingValue(slot: Slot, valueMm: number | null, db: FieldDb 
 
 // The reading each slot was last given here, exactly as stored. The next keystroke in the slot is
 // written on this guess, with the reads that check it sent in the same round trip to IndexedDB
-// rather than one before the write: a keystroke then costs one round trip and the commit. The
-// guess is never trusted: when the reads show that the slot or its outbox entry changed meanwhile
-// (a push answered with a new version, a batch formed, a pull, another tab), the transaction is
-// aborted before it commits and the keystroke is written from what is stored.
+// rather than one before the write (guessed-write.ts): a keystroke then costs one round trip and
+// the commit. The guess is never trusted: when the reads show that the slot or its outbox entry
+// changed meanwhile, the transaction is aborted before it commits and the keystroke is written
+// from what is stored.
 const lastWritten = new Map<string, Reading>();
 
 class GuessedWrong extends Error {}
 
 const readSlot = (slot: Slot, db: FieldDb) => db.readings.where('[poseId+gaugePointId+axis]').equals([slot.poseId, slot.gaugePointId, slot.axis]).toArray();
-
-/** The slot's reading to edit: the live one, or else a cleared one (pulled from another device). */
-const slotReading = (inSlot: Reading[]): Reading | undefined => inSlot.find((r) => !r.deletedAt) ?? inSlot[0];
 
 /** The slot's reading after a keystroke, from the one stored in it; null when there is nothing to change. */
 function nextReading(existing: Reading | undefined, slot: Slot, valueMm: number | null): Reading | null {
@@ -259,21 +258,16 @@ async function writeAsGuessed(slot: Slot, valueMm: number | null, key: string, d
   const next = nextReading(guess, slot, valueMm);
   const [record] = next ? checkRecords('reading', [next]).valid : [];
   if (!record) return null;
+  if (guess) return (await putOnGuess(db, slot, guess, record)) ? { id: record.id, ok: true, record } : null;
+  // The slot's first keystroke on this page: a new reading and its outbox entry, if the slot is empty.
   try {
     await db.transaction('rw', db.readings, db.outbox, async () => {
-      // IndexedDB runs a transaction's requests in the order they are made: the reads see the slot
-      // and the outbox as they were before this write.
-      const [inSlot, entries] = await Promise.all([
+      const [inSlot] = await Promise.all([
         readSlot(slot, db),
-        guess ? entriesOf('reading', [guess.id], db) : [],
         db.readings.put(record),
-        guess ? undefined : db.outbox.add({ entity: 'reading', recordId: record.id, batchKey: '', queuedAt: new Date().toISOString() }),
+        db.outbox.add({ entity: 'reading', recordId: record.id, batchKey: '', queuedAt: new Date().toISOString() }),
       ]);
-      const unclaimed = entries.filter((e) => e.batchKey === '');
-      const asGuessed = guess
-        ? JSON.stringify(slotReading(inSlot)) === JSON.stringify(guess) && unclaimed.length > 0 && !unclaimed.some((e) => e.held)
-        : inSlot.length === 0;
-      if (!asGuessed) throw new GuessedWrong();
+      if (inSlot.length) throw new GuessedWrong();
     });
     return { id: record.id, ok: true, record };
   } catch (err) {
