@@ -5,6 +5,7 @@ import express, { Router } from 'express';
 import compression from 'compression';
 import fs from 'node:fs';
 import path from 'node:path';
+import type { IncomingMessage, ServerResponse } from 'node:http';
 import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
 import { checkOrigin } from './auth/origin';
@@ -49,8 +50,11 @@ export function createApp(opts: AppOptions) {
       logger: opts.logger,
       // Probes come every few seconds from a load balancer: not worth a line each.
       autoLogging: { ignore: (req) => !req.url?.startsWith('/api') || req.url === '/api/health' || req.url === '/api/ready' },
-      // Session ids never reach the logs.
-      serializers: { req: withoutCookies('cookie'), res: withoutCookies('set-cookie') },
+      // One short line a request: who asked for what, the status and the time. No headers, so no
+      // session id ever reaches the logs; and building a child logger with every header (the
+      // default) cost about a tenth of a small signed-in request's CPU under load.
+      wrapSerializers: false,
+      serializers: { req: requestLine, res: responseLine },
     }),
   );
 
@@ -87,9 +91,8 @@ function cacheRules(res: express.Response, file: string) {
   }
 }
 
-function withoutCookies(header: string) {
-  return (r: { headers?: Record<string, unknown> }) => (r?.headers?.[header] ? { ...r, headers: { ...r.headers, [header]: '[redacted]' } } : r);
-}
+const requestLine = (req: IncomingMessage & { id?: unknown; originalUrl?: string }) => ({ id: req.id, method: req.method, url: req.originalUrl ?? req.url });
+const responseLine = (res: ServerResponse) => ({ statusCode: res.statusCode });
 
 function parseTrustProxy(v: string): boolean | number | string {
   if (v === 'true') return true;

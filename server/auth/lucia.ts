@@ -8,6 +8,7 @@ import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser 
 import { Argon2id } from 'oslo/password';
 import { Op } from 'sequelize';
 import { preparedSelect } from '../db';
+import type { SessionCompanion } from '../http/validator';
 import { UserSessionModel } from '../models';
 import type { Role, UnitSystem } from '../../shared/schemas/common';
 import type { PhotoGps, Team } from '../../shared/schemas/team';
@@ -55,9 +56,28 @@ const SESSION_AND_PERSON_SQL = `SELECT s.user_id, s.team_id, s.expires_at, u.ema
    LEFT JOIN memberships m ON m.user_id = s.user_id AND m.team_id = s.team_id
   WHERE s.id = $1`;
 
+// A route's validator query to read in the look-up's statement (validateSessionCookie): handed to
+// the adapter through this slot, which validateSessionCookie fills just before it calls lucia and
+// empties just after; lucia's validateSession calls the adapter first, within that same
+// synchronous step, so no other request's look-up can see it. The route reads the row back from
+// the companion and fails loudly without it (http/validator.ts companionRow).
+let companionSlot: SessionCompanion | undefined;
+
+/** The look-up, with a validator's query joined to it when one is given: one round trip for both. */
+async function readSession(storedId: string, companion: SessionCompanion | undefined): Promise<SessionRow | undefined> {
+  const sequelize = UserSessionModel.sequelize!;
+  if (!companion) return (await preparedSelect<SessionRow>(sequelize, 'session-and-person', SESSION_AND_PERSON_SQL, [storedId]))[0];
+  const sql = `SELECT p.*, v.* FROM (${SESSION_AND_PERSON_SQL}) p CROSS JOIN LATERAL (${companion.sql}) v`;
+  const [row] = await preparedSelect<SessionRow>(sequelize, `session-and-${companion.name}`, sql, [storedId, ...companion.values]);
+  if (row) companion.row = row;
+  return row;
+}
+
 const sequelizeAdapter: Adapter = {
   async getSessionAndUser(sessionId) {
-    const [row] = await preparedSelect<SessionRow>(UserSessionModel.sequelize!, 'session-and-person', SESSION_AND_PERSON_SQL, [storedSessionId(sessionId)]);
+    const companion = companionSlot;
+    companionSlot = undefined;
+    const row = await readSession(storedSessionId(sessionId), companion);
     if (!row) return [null, null];
     const team = { id: row.team_id, name: row.team_name, unitSystem: row.team_unit_system, photoGps: row.photo_gps };
     const session: DatabaseSession = {
@@ -170,14 +190,21 @@ export interface ValidatedSession {
 }
 
 /**
- * Check the session named by a request's cookies. Returns the session (or null) and the
+ * Check the session named by a request's cookies, reading `companion` (a route's validator query)
+ * in the same statement when given. Returns the session (or null) and the
  * Set-Cookie values to send back: a refreshed cookie when lucia extended the session, a blank
  * one when the cookie named no live session.
  */
-export async function validateSessionCookie(cookieHeader: string | undefined): Promise<{ session: ValidatedSession | null; setCookies: string[] }> {
+export async function validateSessionCookie(
+  cookieHeader: string | undefined,
+  companion?: SessionCompanion,
+): Promise<{ session: ValidatedSession | null; setCookies: string[] }> {
   const sessionId = readSessionId(cookieHeader);
   if (!sessionId) return { session: null, setCookies: [] };
-  const { session, user } = await lucia.validateSession(sessionId);
+  companionSlot = companion;
+  const validating = lucia.validateSession(sessionId);
+  companionSlot = undefined;
+  const { session, user } = await validating;
   if (!session) return { session: null, setCookies: [blankSessionCookie()] };
   const setCookies = session.fresh ? [lucia.createSessionCookie(session.id).serialize()] : [];
   return {

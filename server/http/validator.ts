@@ -14,8 +14,12 @@ import { records, syncEntities } from '../../shared/records';
 /** Every table with a change cursor: the registry's synced records, photos and envelopes. */
 const SYNCED_TABLES = [...syncEntities.map((e) => records[e].table), 'photos', 'envelopes'];
 
-/** The team's change cursor: the largest change_seq of its rows (0 before its first). */
-export const teamCursorSql = `greatest(0, ${SYNCED_TABLES.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = $1)`).join(', ')})`;
+/** The change cursor of the team named by the SQL expression `team`: the largest change_seq of its rows (0 before its first). */
+export const teamCursorSqlOf = (team: string) =>
+  `greatest(0, ${SYNCED_TABLES.map((t) => `(SELECT max(change_seq) FROM ${t} WHERE team_id = ${team})`).join(', ')})`;
+
+/** The change cursor of the team given as $1. */
+export const teamCursorSql = teamCursorSqlOf('$1');
 
 export async function teamCursor(teamId: string, transaction?: Transaction): Promise<number> {
   const [row] = await VehicleModel.sequelize!.query<{ cursor: number }>(`SELECT ${teamCursorSql} AS cursor`, {
@@ -43,6 +47,27 @@ export function etagOf(kind: string, parts: (string | number)[], signInSessionId
 export interface AnswerValidator {
   key: string;
   etag: string;
+}
+
+/**
+ * A validator's query, read in the same round trip as the sign-in session (auth/lucia.ts
+ * `validateSessionCookie`): one prepared statement instead of two for every request of a large
+ * answer. `sql` is one SELECT yielding one row, written over the session's row `p` (`p.team_id`,
+ * `p.user_id`: the validator is always the signed-in person's team's) and its own `values`, which
+ * are numbered from $2. The look-up puts the row it read in `row` when the session is live.
+ */
+export interface SessionCompanion<Row extends object = object> {
+  /** Names the prepared statement: one `sql` text per name. */
+  name: string;
+  sql: string;
+  values: unknown[];
+  row?: Row;
+}
+
+/** The row a validator's query read with the session; a route that declares one always has it. */
+export function companionRow<Row extends object>(companion: SessionCompanion | undefined, name: string): Row {
+  if (!companion?.row || companion.name !== name) throw new Error(`the ${name} query was not read with the session`);
+  return companion.row as Row;
 }
 
 export function answerValidator(kind: string, scope: string[], parts: (string | number)[], signInSessionId: string): AnswerValidator {

@@ -2,7 +2,7 @@ import * as z from 'zod';
 import { route } from './route';
 import { id } from '../../shared/schemas';
 import { readingReviewInput } from '../../shared/schemas/envelope';
-import { getReviewJson, reviewReading, reviewValidator } from '../services/review.service';
+import { getReviewJson, reviewReading, reviewValidator, reviewValidatorQuery } from '../services/review.service';
 import { answeredNotModified } from '../http/validator';
 import { sendCachedJson } from '../http/answer-cache';
 
@@ -14,10 +14,11 @@ export const reviewRoutes = [
     path: '/api/sessions/:id/review',
     access: 'session.review',
     params: byId,
-    // Unchanged since the client's copy: 304 after one small query; else the bytes this instance
-    // already sent for the same validator, or the JSON PostgreSQL builds.
-    handler: async ({ auth, params, req, res }) => {
-      const validator = await reviewValidator(auth, params.id);
+    withSession: ({ params }) => reviewValidatorQuery(params.id),
+    // Unchanged since the client's copy: 304 after the session's one statement; else the bytes
+    // this instance already sent for the same validator, or the JSON PostgreSQL builds.
+    handler: async ({ auth, params, req, res, companion }) => {
+      const validator = reviewValidator(auth, params.id, companion);
       if (answeredNotModified(req, res, validator.etag)) return undefined;
       await sendCachedJson(req, res, validator.key, () => getReviewJson(auth, params.id));
       return undefined;

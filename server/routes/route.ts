@@ -6,7 +6,8 @@ import type { ZodType } from 'zod';
 import { can, refusal, type Action } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
-import { loadAuth } from '../auth/context';
+import { loadAuthWith } from '../auth/context';
+import type { SessionCompanion } from '../http/validator';
 import { DEFAULT_BODY_LIMIT, jsonBody } from '../http/json-body';
 
 export type Access = 'public' | 'signedIn' | Action;
@@ -19,6 +20,8 @@ export interface HandlerInput<B, P, Q, A> {
   body: B;
   params: P;
   query: Q;
+  /** The route's validator query with the row read with the session (RouteDef.withSession). */
+  companion?: SessionCompanion;
 }
 
 export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
@@ -34,6 +37,12 @@ export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
   bodyLimit?: number;
   /** false: the route never looks at the session (health must answer even when sessions cannot be read). */
   session?: false;
+  /**
+   * A large answer's validator query, read in the same statement as the session: one round trip
+   * for both on every request (http/validator.ts SessionCompanion). The handler gets it, with the
+   * row read, as `companion`.
+   */
+  withSession?: (input: { params: P; query: Q }) => SessionCompanion;
   /** Returns the JSON body to send; a handler that writes the response itself returns undefined. */
   handler: (input: HandlerInput<B, P, Q, AuthContext>) => Promise<unknown>;
 }
@@ -50,6 +59,17 @@ export type AnyRoute = RouteDef<any, any, any> | PublicRouteDef<any, any, any>;
 /** Typed helpers: inference of body/params/query from the schemas given. */
 export const route = <B, P, Q>(def: RouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
 export const publicRoute = <B, P, Q>(def: PublicRouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
+
+/** The validator query for a request whose params and query parse (else none: the route answers 400 later). */
+function companionFor(def: AnyRoute) {
+  const withSession = def.withSession;
+  if (!withSession) return undefined;
+  return (req: Request): SessionCompanion | undefined => {
+    const params = def.params ? def.params.safeParse(req.params ?? {}) : { success: true as const, data: req.params };
+    const query = def.query ? def.query.safeParse(req.query ?? {}) : { success: true as const, data: req.query };
+    return params.success && query.success ? withSession({ params: params.data, query: query.data }) : undefined;
+  };
+}
 
 function parse<T>(where: string, schema: ZodType<T> | undefined, value: unknown): T {
   if (!schema) return value as T;
@@ -76,6 +96,7 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
         body: parse('body', def.body, req.body),
         params: parse('params', def.params, req.params),
         query: parse('query', def.query, req.query),
+        companion: req.sessionCompanion,
       };
       const result = await (def.handler as (i: typeof input) => Promise<unknown>)(input);
       if (result !== undefined && !res.headersSent) res.json(result);
@@ -86,7 +107,7 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
       accessCheck(def.access, req.auth);
       next();
     };
-    const session = def.session === false ? [] : [loadAuth];
+    const session = def.session === false ? [] : [loadAuthWith(companionFor(def))];
     const body = def.method === 'get' ? [] : [jsonBody(def.bodyLimit ?? DEFAULT_BODY_LIMIT)];
     router[def.method](def.path, ...session, guard, ...body, ...(def.before ?? []), run);
   }

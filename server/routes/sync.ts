@@ -4,7 +4,7 @@ import { id } from '../../shared/schemas';
 import { pullQuery, pushRequest, resolveConflictInput } from '../../shared/schemas/sync';
 import { pushBatch } from '../services/sync-push';
 import { resolveConflict } from '../services/sync-conflicts';
-import { pullJson, pullValidator } from '../services/pull-answer';
+import { pullJson, pullValidator, pullValidatorQuery } from '../services/pull-answer';
 import { answeredNotModified } from '../http/validator';
 import { sendCachedJson } from '../http/answer-cache';
 
@@ -23,10 +23,11 @@ export const syncRoutes = [
     path: '/api/sync/pull',
     access: 'session.read',
     query: pullQuery,
-    // Nothing changed since the phone's copy of this page: 304 after one small query; else the
-    // bytes this instance already sent for the same validator, or the JSON PostgreSQL builds.
-    handler: async ({ auth, query, req, res }) => {
-      const validator = await pullValidator(auth, query.since, query.limit);
+    withSession: pullValidatorQuery,
+    // Nothing changed since the phone's copy of this page: 304 after the session's one statement;
+    // else the bytes this instance already sent for the same validator, or the JSON PostgreSQL builds.
+    handler: async ({ auth, query, req, res, companion }) => {
+      const validator = pullValidator(auth, query.since, query.limit, companion);
       if (answeredNotModified(req, res, validator.etag)) return undefined;
       await sendCachedJson(req, res, validator.key, () => pullJson(auth, query.since, query.limit));
       return undefined;

@@ -11,18 +11,18 @@ import type { AuthContext } from '../auth/context';
 import { VehicleModel } from '../models';
 import { records, syncEntities } from '../../shared/records';
 import { syncTables } from './sync-tables';
-import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
+import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type SessionCompanion } from '../http/validator';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { lockTeamChanges } from './team-changes';
 import { translateDbError } from './sync-db-errors';
-import { preparedSelect } from '../db';
 
 type Puller = Pick<AuthContext, 'teamId' | 'userId' | 'sessionId'>;
 
 const db = () => VehicleModel.sequelize!;
 
 /** The person's kept conflicts move their own cursor: a conflict row is theirs alone. */
-const conflictCursorSql = (person: string) => `(SELECT coalesce(max(change_seq), 0) FROM sync_conflicts WHERE team_id = $1 AND user_id = ${person})`;
+const conflictCursorSql = (team: string, person: string) =>
+  `(SELECT coalesce(max(change_seq), 0) FROM sync_conflicts WHERE team_id = ${team} AND user_id = ${person})`;
 
 // $1 team, $2 since, $3 limit, $4 person. Written once the models are initialised.
 let pullSqlText: string | undefined;
@@ -59,16 +59,21 @@ SELECT json_build_object(
 )::text AS body FROM cur`);
 };
 
-// $1 team, $2 person. Run on every pull (prepared once per connection).
-const PULL_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS team, ${conflictCursorSql('$2')} AS conflicts`;
+const PULL_VALIDATOR = 'pull-validator';
+
+// Over the session's row p (its team and person). Run on every pull, in the session look-up's statement.
+const PULL_VALIDATOR_SQL = `SELECT ${teamCursorSqlOf('p.team_id')} AS team, ${conflictCursorSql('p.team_id', 'p.user_id')} AS conflicts`;
+
+/** The pull's validator query, read with the sign-in session (http/validator.ts SessionCompanion). */
+export const pullValidatorQuery = (): SessionCompanion => ({ name: PULL_VALIDATOR, sql: PULL_VALIDATOR_SQL, values: [] });
 
 /**
  * The pull's validator: the team's change cursor, the person's conflicts' cursor, and the page
  * asked for, from one small query. Any change a pull from `since` could carry moves one of the
  * cursors. Its key also names the workshop and the person (their conflicts are theirs alone).
  */
-export async function pullValidator(auth: Puller, since: number, limit: number): Promise<AnswerValidator> {
-  const [row] = await preparedSelect<{ team: number; conflicts: number }>(db(), 'pull-validator', PULL_VALIDATOR_SQL, [auth.teamId, auth.userId]);
+export function pullValidator(auth: Puller, since: number, limit: number, companion: SessionCompanion | undefined): AnswerValidator {
+  const row = companionRow<{ team: number; conflicts: number }>(companion, PULL_VALIDATOR);
   return answerValidator('pull', [auth.teamId, auth.userId], [since, limit, Number(row.team), Number(row.conflicts)], auth.sessionId);
 }
 

@@ -10,9 +10,8 @@ import type { ReadingReviewInput } from '../../shared/schemas/envelope';
 import type { SessionReview } from '../../shared/desk-responses';
 import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
-import { preparedSelect } from '../db';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
-import { answerValidator, teamCursorSql, type AnswerValidator } from '../http/validator';
+import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type SessionCompanion } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
@@ -68,26 +67,28 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
  * members or not any more) with a renamed person. Its key also names the workshop and the session, for
  * the answer cache.
  */
-export async function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string): Promise<AnswerValidator> {
-  const [row] = await preparedSelect<{ cursor: number; events: number; last: number; people: number }>(
-    TestSessionModel.sequelize!,
-    'review-validator',
-    REVIEW_VALIDATOR_SQL,
-    [auth.teamId, sessionId],
-  );
+export const REVIEW_VALIDATOR = 'review-validator';
+
+/** The review's validator query for `sessionId`, read with the sign-in session (http/validator.ts SessionCompanion). */
+export const reviewValidatorQuery = (sessionId: string): SessionCompanion => ({ name: REVIEW_VALIDATOR, sql: REVIEW_VALIDATOR_SQL, values: [sessionId] });
+
+/** The review's validator from the row its query read with the session. */
+export function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string, companion: SessionCompanion | undefined): AnswerValidator {
+  const row = companionRow<{ cursor: number; events: number; last: number; people: number }>(companion, REVIEW_VALIDATOR);
   return answerValidator('review', [auth.teamId, sessionId], [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
 
-// $1 team, $2 session. Run on every request for the review (prepared once per connection). The
-// people the answer names are its history's authors and whoever entered its readings: a reading
-// reaches the server only through the sync push, which leaves a history event of the session
-// naming who sent it (services/sync-push.ts), so the session's history authors and the team's
-// members cover them, also after someone has left the workshop, without reading the readings.
-const REVIEW_VALIDATOR_SQL = `SELECT ${teamCursorSql} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+// Over the session's row p (the team is p.team_id) and $2, the reviewed session. Run on every
+// request for the review, in the session look-up's statement. The people the answer names are its
+// history's authors and whoever entered its readings: a reading reaches the server only through
+// the sync push, which leaves a history event of the session naming who sent it
+// (services/sync-push.ts), so the session's history authors and the team's members cover them,
+// also after someone has left the workshop, without reading the readings.
+const REVIEW_VALIDATOR_SQL = `SELECT ${teamCursorSqlOf('p.team_id')} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
    (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
-     JOIN (SELECT user_id FROM memberships WHERE team_id = $1 UNION SELECT user_id FROM history_events WHERE team_id = $1 AND session_id = $2) named
+     JOIN (SELECT user_id FROM memberships WHERE team_id = p.team_id UNION SELECT user_id FROM history_events WHERE team_id = p.team_id AND session_id = $2) named
        ON named.user_id = u.id) AS people
- FROM history_events WHERE team_id = $1 AND session_id = $2`;
+ FROM history_events WHERE team_id = p.team_id AND session_id = $2`;
 
 /** The history action of a change to a reading, at the desk or through sync. */
 export function readingEditAction(changes: Record<string, unknown>, excludedAfter: boolean): string {

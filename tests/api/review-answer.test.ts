@@ -2,8 +2,9 @@
 // field, as the session route's (Sequelize and to-record.ts) and the photos as the pull's; compressed on the wire; and with a
 // cheap validator, so an unchanged review answers 304 with no body, and any change to the session,
 // its readings or its history, or another person asking, gets the whole answer again.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import http from 'node:http';
+import pg from 'pg';
 import zlib from 'node:zlib';
 import { randomUUID } from 'node:crypto';
 import sharp from 'sharp';
@@ -139,6 +140,24 @@ describe('the review answer', () => {
     const theirs = await reviewOf(admin, s.sessionId, afterPush.headers.etag);
     expect(theirs.status).toBe(200);
     expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
+  });
+
+  it('reads the session and the validator in one statement: a 304 costs one round trip, the review and the pull alike', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    const statements = vi.spyOn(pg.Client.prototype, 'query');
+    try {
+      for (const path of [`/api/sessions/${s.sessionId}/review`, '/api/sync/pull?since=0']) {
+        const etag = (await engineer.get(path)).headers.etag;
+        statements.mockClear();
+        const again = await engineer.get(path).set('If-None-Match', etag);
+        expect(again.status).toBe(304);
+        expect(statements).toHaveBeenCalledTimes(1);
+      }
+    } finally {
+      statements.mockRestore();
+    }
   });
 
   it("shows a person renamed since the desk's copy under the new name", async () => {
