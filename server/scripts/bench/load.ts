@@ -16,6 +16,7 @@ import { randomUUID } from 'node:crypto';
 import http from 'node:http';
 import type { BenchRow } from './report';
 import { sessionChanges, startB2, startInstance, type BenchServer, type Child } from './fixture';
+import { describeCpu, postgresPids, withCpuShare, type CpuShare } from './cpu-share';
 
 const CONNECTIONS = 50;
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
@@ -45,6 +46,13 @@ async function hammer(targets: { url: string; connections: number }[], headers: 
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+/** Each part's median over the rounds. */
+function medianCpu(runs: CpuShare[]): CpuShare | null {
+  if (runs.length === 0) return null;
+  const parts = Object.fromEntries(Object.keys(runs[0].parts).map((k) => [k, median(runs.map((r) => r.parts[k]))]));
+  return { parts, machineBusy: median(runs.map((r) => r.machineBusy)), cores: runs[0].cores };
+}
 
 function summary(runs: Run[]) {
   return {
@@ -102,8 +110,20 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     const pull = '/api/sync/pull?since=0';
     // A desk that already holds this review asks again: the validator answers 304.
     const etag = (await fetch(a.baseUrl + review, { headers: signedIn })).headers.get('etag')!;
+    // Where the CPU went during the one- and two-instance review rounds (warm-up round included
+    // in the list, left out of the median like the figures).
+    const pgPort = Number(new URL(s.databaseUrl).port);
+    const cpuRuns: Record<'one' | 'two', CpuShare[]> = { one: [], two: [] };
+    const measured = async (key: 'one' | 'two', parts: Record<string, () => number[]>, work: () => Promise<Run>) => {
+      const { result, cpu } = await withCpuShare(parts, work);
+      if (cpu) cpuRuns[key].push(cpu);
+      return result;
+    };
     const configs: Record<string, () => Promise<Run>> = {
-      reviewApp: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], signedIn),
+      reviewApp: () =>
+        measured('one', { app: () => [a.pid], PostgreSQL: () => postgresPids(pgPort), 'load generator': () => [process.pid] }, () =>
+          hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], signedIn),
+        ),
       reviewBrowser: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS }),
       reviewMiss: () => hammer([{ url: uncached!.baseUrl + review, connections: CONNECTIONS }], signedIn),
       reviewB2: () => hammer([{ url: `${b2!.baseUrl}/review/${workshop.teamId}/${sessionId}`, connections: CONNECTIONS }], {}),
@@ -115,12 +135,14 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
       meSignedIn: () => hammer([{ url: `${a.baseUrl}/api/me`, connections: CONNECTIONS }], signedIn),
       healthUnsigned: () => hammer([{ url: `${a.baseUrl}/api/health`, connections: CONNECTIONS }], {}),
       reviewTwoInstances: () =>
-        hammer(
-          [
-            { url: a.baseUrl + review, connections: CONNECTIONS / 2 },
-            { url: b!.baseUrl + review, connections: CONNECTIONS / 2 },
-          ],
-          signedIn,
+        measured('two', { 'two apps': () => [a.pid, b!.pid], PostgreSQL: () => postgresPids(pgPort), 'load generator': () => [process.pid] }, () =>
+          hammer(
+            [
+              { url: a.baseUrl + review, connections: CONNECTIONS / 2 },
+              { url: b!.baseUrl + review, connections: CONNECTIONS / 2 },
+            ],
+            signedIn,
+          ),
         ),
     };
     // Round 0 warms every configuration up (JIT, pools, PostgreSQL's caches) and is not counted.
@@ -183,6 +205,8 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
         value: ratio(m.reviewTwoInstances.rps, m.reviewApp.rps),
         goal: `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}`,
       },
+      { section, measure: '… CPU during the one-instance review (median round)', value: describeCpu(medianCpu(cpuRuns.one.slice(1))) },
+      { section, measure: '… CPU during the two-instance review (median round)', value: describeCpu(medianCpu(cpuRuns.two.slice(1))) },
       {
         section: 'bytes on the wire',
         measure: 'session review',
