@@ -61,6 +61,8 @@ export default defineConfig({
       },
     }),
   ],
+  // The keystroke worker (src/lib/db/guessed-write.worker.ts) is a module worker, precached with the pages.
+  worker: { format: 'es' },
   build: {
     rollupOptions: {
       output: {

@@ -1,6 +1,9 @@
 // Time from a keystroke in a reading's box on the pose recorder to that reading committed in
-// IndexedDB (the store's 'twistlog:saved' event fires after the strict-durability transaction
-// completes), in Debian's Chromium on a phone-sized screen. 60 keystrokes 120 ms apart, median and p95.
+// IndexedDB, in Debian's Chromium on a phone-sized screen. 60 keystrokes 120 ms apart, median and
+// p95. Two instants are taken for each keystroke: when the strict-durability transaction completed
+// (the 'twistlog:saved' event's detail.committedAt: taken at the transaction's complete event, in
+// the keystroke worker that commits it or in the page), and when the page's main thread announced
+// it (the event itself). The goal is judged on the first: the reading committed.
 import { randomUUID } from 'node:crypto';
 import { chromium } from 'playwright-core';
 import type { BenchRow } from './report';
@@ -31,13 +34,19 @@ export async function runTapBench(s: BenchServer): Promise<BenchRow[]> {
     await box.waitFor({ timeout: 60_000 });
     await box.click();
     await page.evaluate(() => {
-      const w = window as unknown as { __t0: number[]; __dt: number[] };
+      const w = window as unknown as { __t0: number[]; __dt: number[]; __committed: number[] };
       w.__t0 = [];
       w.__dt = [];
+      w.__committed = [];
       document.addEventListener('keydown', () => w.__t0.push(performance.now()), true);
-      window.addEventListener('twistlog:saved', () => {
+      window.addEventListener('twistlog:saved', (e) => {
+        const now = performance.now();
         const t0 = w.__t0.shift();
-        if (t0 !== undefined) w.__dt.push(performance.now() - t0);
+        if (t0 === undefined) return;
+        w.__dt.push(now - t0);
+        // The commit's time since the epoch, comparable between the page and its worker.
+        const committedAt = (e as CustomEvent<{ committedAt?: number }>).detail?.committedAt;
+        w.__committed.push((committedAt === undefined ? now : committedAt - performance.timeOrigin) - t0);
       });
     });
     for (let i = 0; i < KEYSTROKES; i++) {
@@ -48,17 +57,27 @@ export async function runTapBench(s: BenchServer): Promise<BenchRow[]> {
       await page.keyboard.press(i % 2 === 0 ? String((i / 2) % 10) : 'Backspace');
       await page.waitForFunction((n) => (window as unknown as { __dt: number[] }).__dt.length >= n, i + 1, { timeout: 10_000 });
     }
-    const dt = await page.evaluate(() => (window as unknown as { __dt: number[] }).__dt);
-    dt.sort((a, b) => a - b);
-    const median = dt[Math.floor(dt.length / 2)];
-    const met = median <= 10;
-    const p95 = dt[Math.floor(dt.length * 0.95)];
+    const { dt, committed } = await page.evaluate(() => {
+      const w = window as unknown as { __dt: number[]; __committed: number[] };
+      return { dt: w.__dt, committed: w.__committed };
+    });
+    const stats = (xs: number[]) => {
+      const sorted = [...xs].sort((a, b) => a - b);
+      return { median: sorted[Math.floor(sorted.length / 2)], p95: sorted[Math.floor(sorted.length * 0.95)] };
+    };
+    const done = stats(committed);
+    const told = stats(dt);
     return [
       {
         section: 'client',
-        measure: `keystroke → reading committed in IndexedDB (Chromium, ${dt.length} keystrokes)`,
-        value: `median ${median.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms`,
-        goal: `median ≤ 10 ms: ${met ? 'met' : 'NOT met'}`,
+        measure: `keystroke → reading committed in IndexedDB (Chromium, ${committed.length} keystrokes)`,
+        value: `median ${done.median.toFixed(1)} ms, p95 ${done.p95.toFixed(1)} ms`,
+        goal: `median ≤ 10 ms: ${done.median <= 10 ? 'met' : 'NOT met'}`,
+      },
+      {
+        section: 'client',
+        measure: `… keystroke → the commit announced to the page ('twistlog:saved' on its main thread)`,
+        value: `median ${told.median.toFixed(1)} ms, p95 ${told.p95.toFixed(1)} ms`,
       },
     ];
   } finally {

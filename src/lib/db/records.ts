@@ -9,7 +9,8 @@ import type { Reading } from '@shared/schemas';
 import { fieldDb, tableOf, type FieldDb, type OutboxEntry } from './field-db';
 import { tracked } from './writes-in-flight';
 import { crossOff, journalEntries, noteTyping, type TypedEdit } from './typing-journal';
-import { putOnGuess, slotReading, type Slot } from './guessed-write';
+import { putOnGuess, slotReading, startKeystrokeWorker, type Slot } from './guessed-write';
+import { preciseNow } from './guessed-put';
 
 /** The shared schema a record of `entity` is checked with, on the way in and out. */
 const schemaOf = (entity: SyncEntity): ZodType => records[entity].schema;
@@ -177,9 +178,14 @@ export function checkRows<T extends { id: string }>(entity: SyncEntity, rows: un
   return out;
 }
 
-/** Tells whoever listens (the sync engine) that something new waits, without this layer knowing who. */
-export function announceSaved() {
-  if (typeof window !== 'undefined') window.dispatchEvent(new Event('twistlog:saved'));
+/**
+ * Tells whoever listens (the sync engine) that something new waits, without this layer knowing who.
+ * The event's detail says when the write committed (milliseconds since the epoch, `preciseNow`):
+ * a keystroke committed in the keystroke worker is announced here only once the page's main thread
+ * hears of it, which may be several milliseconds later.
+ */
+export function announceSaved(committedAt: number = preciseNow()) {
+  if (typeof window !== 'undefined') window.dispatchEvent(new CustomEvent('twistlog:saved', { detail: { committedAt } }));
 }
 
 export function storageMessage(err: unknown): string {
@@ -237,7 +243,7 @@ async function writeReadingValue(slot: Slot, valueMm: number | null, key: string
     if (written.ok === false) return written;
     if (written.record) {
       lastWritten.set(key, written.record);
-      announceSaved();
+      announceSaved(written.committedAt);
     }
     return { id: written.id, ok: true };
   } catch (err) {
@@ -246,7 +252,7 @@ async function writeReadingValue(slot: Slot, valueMm: number | null, key: string
 }
 
 /** A slot's write: the reading as stored (null: nothing to change), or why it was refused. */
-type SlotWrite = { id: string; ok: true; record: Reading | null } | Extract<ItemResult, { ok: false }>;
+type SlotWrite = { id: string; ok: true; record: Reading | null; committedAt?: number } | Extract<ItemResult, { ok: false }>;
 
 /**
  * Writes the keystroke on the guess that the slot holds what this page last wrote in it (nothing,
@@ -258,7 +264,10 @@ async function writeAsGuessed(slot: Slot, valueMm: number | null, key: string, d
   const next = nextReading(guess, slot, valueMm);
   const [record] = next ? checkRecords('reading', [next]).valid : [];
   if (!record) return null;
-  if (guess) return (await putOnGuess(db, slot, guess, record)) ? { id: record.id, ok: true, record } : null;
+  if (guess) {
+    const put = await putOnGuess(db, slot, guess, record);
+    return put?.ok ? { id: record.id, ok: true, record, committedAt: put.committedAt } : null;
+  }
   // The slot's first keystroke on this page: a new reading and its outbox entry, if the slot is empty.
   try {
     await db.transaction('rw', db.readings, db.outbox, async () => {
@@ -269,6 +278,7 @@ async function writeAsGuessed(slot: Slot, valueMm: number | null, key: string, d
       ]);
       if (inSlot.length) throw new GuessedWrong();
     });
+    startKeystrokeWorker(db);
     return { id: record.id, ok: true, record };
   } catch (err) {
     if (err instanceof GuessedWrong) return null;
