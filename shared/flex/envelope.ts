@@ -8,13 +8,15 @@
  *    (gaugePoints[2].y, poses[3].readings[7].value); a pose may hold one reading per point and axis.
  * 2. Per pose: displacements (pose − baseline in 'gap' mode, as entered in 'displacement' mode);
  *    cross-axle twist from the lifts, taken relative to the baseline pose's own twist (its readings
- *    are the reference); the relative-motion fit (fitPoseParts), identifiability judged against the
+ *    are the reference); the relative-motion fit (poseLayout once per layout, fitPoseValues per
+ *    pose: only numbers are kept until step 3), identifiability judged against the
  *    opening; the extremes of each displacement on the opening's outline (perimeterWorst) with the
  *    fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
  * 3. Outliers: the session's robust residual scatter per fit part (1.4826·median |eᵢ/√(1 − hᵢ)|)
  *    raises the reading SD the outlier rule judges against when the readings scatter more than a
  *    tape is read to (then with a t limit on the scale's effective degrees of freedom, 0.37·Σν);
- *    each pose is judged with judgeOutliers. Flags are reported, never acted on.
+ *    each pose is judged with judgeOutliers, and only then is its result built, once. Flags are
+ *    reported, never acted on.
  * 4. Per measure and twist direction (FL–RR +, FR–RL −), the bound at the design twist
  *    (predictionDirectionBound or toleranceDirectionBound); the larger governs, and the reasons say
  *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
@@ -44,9 +46,9 @@ import {
 import { packFit, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
-import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
+import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName, type PoseJudgement } from './outlier-rule';
 import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
-import { fitPoseParts, poseBuffer, poseLayout, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
+import { fitPoseValues, loadPartCore, poseBuffer, poseLayout, scratchPoseFitCore, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
@@ -254,7 +256,7 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
  * twist and, per reading in input order, its point × 3 + axis code and its value (so no reading
  * object is read twice).
  */
-function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; scratch: Scratch; codeStart: Int32Array } {
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: Float64Array; scratch: Scratch; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
@@ -265,9 +267,14 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
   const codes = scratch.inputCode;
   const values = scratch.inputValue;
   const codeStart = new Int32Array(poses.length);
-  const pointIds = input.gaugePoints.map((point) => point.id);
+  // Built by a plain loop (so are the twists below): an array Array.prototype.map returns can change
+  // its elements kind once V8 optimises the call, and the code reading it would be thrown away then.
+  const pointIds: string[] = [];
+  for (const point of input.gaugePoints) pointIds.push(point.id);
   let next = 0;
-  const liftTwists = poses.map((pose, i) => {
+  const liftTwists = new Float64Array(poses.length);
+  for (let i = 0; i < poses.length; i++) {
+    const pose = poses[i];
     if (pose === null || typeof pose !== 'object' || typeof pose.id !== 'string') throw new FlexInputError(FN, `poses[${i}].id`, 'must be a string');
     if (ids.has(pose.id)) throw new FlexInputError(FN, `poses[${i}].id`, `repeats pose id '${pose.id}'`);
     ids.add(pose.id);
@@ -320,8 +327,8 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
       values[next] = value;
       codes[next++] = key;
     }
-    return twist;
-  });
+    liftTwists[i] = twist;
+  }
   return { liftTwists, scratch, codeStart };
 }
 
@@ -331,8 +338,8 @@ interface Session {
   scratch: Scratch;
   codeStart: Int32Array;
   baselineIndex: number;
-  liftTwists: number[];
-  relativeTwists: number[];
+  liftTwists: Float64Array;
+  relativeTwists: Float64Array;
 }
 
 /** All non-baseline readings of the session as flat arrays, one pose after another. */
@@ -447,18 +454,20 @@ function sameCodes(code: Int32Array, a: number, b: number, countA: number, count
  * from one pass over the readings: fore-aft residuals gathered from the front of the scratch array,
  * lateral and vertical ones from its back (a median does not depend on the order).
  */
-function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
+function sessionScatter(flat: Flat, layouts: (PoseLayout | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
   const values = flat.scatter;
   const { axis, standardized } = flat.buffer;
   let nOut = 0;
   let nIn = 0;
   let redundancyOut = 0;
   let redundancyIn = 0;
-  for (let i = 0; i < cores.length; i++) {
-    const core = cores[i];
-    if (core === null) continue;
-    const spareOut = core.outOfPlane.readingCount - core.outOfPlane.parameterCount;
-    const spareIn = core.inPlane.readingCount - core.inPlane.parameterCount;
+  for (let i = 0; i < layouts.length; i++) {
+    const layout = layouts[i];
+    if (layout === null) continue;
+    const out = layout.outOfPlane.shape;
+    const inPlane = layout.inPlane.shape;
+    const spareOut = out.readingCount - out.parameterCount;
+    const spareIn = inPlane.readingCount - inPlane.parameterCount;
     if (spareOut >= 1) redundancyOut += spareOut;
     if (spareIn >= 1) redundancyIn += spareIn;
     const end = flat.start[i] + flat.count[i];
@@ -506,17 +515,32 @@ function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<Env
   };
 }
 
-function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
+/** The poses' results, the scatter the outlier rule judged against, the flags, and the measures as columns. */
+interface Evaluation {
+  poses: PoseResult[];
+  scatterMm: Record<FitPartName, number>;
+  flags: EnvelopeFlag[];
+  columns: MeasureColumns;
+}
+
+function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
   const flat = flatten(input, s);
   const corners = outlineCorners(input.outline);
   const worstOf = perimeterWorstOn(input.outline);
-  const cores: (PoseFitCore | null)[] = [];
+  const count = input.poses.length;
+  // First pass: every pose is fitted into one reused core, keeping only its layout, its motion
+  // (tx, ty, tz, wx, wy, wz) and each part's sum of squared residuals: the session's scatter must
+  // be known before any pose is judged, and no pose needs objects of its own until then.
+  const layouts: (PoseLayout | null)[] = [];
+  const motions = new Float64Array(count * 6);
+  const ssrs = new Float64Array(count * 2);
+  let core: PoseFitCore | null = null;
   // The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it.
   let layout: PoseLayout | null = null;
   let layoutStart = 0;
-  for (let i = 0; i < input.poses.length; i++) {
+  for (let i = 0; i < count; i++) {
     if (i === s.baselineIndex || flat.count[i] === 0) {
-      cores.push(null);
+      layouts.push(null);
       continue;
     }
     flat.buffer.start = flat.start[i];
@@ -525,12 +549,22 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
       layout = poseLayout(flat.buffer, corners);
       layoutStart = flat.start[i];
     }
-    cores.push(fitPoseParts(flat.buffer, corners, layout));
+    core ??= scratchPoseFitCore(layout);
+    fitPoseValues(flat.buffer, layout, core);
+    layouts.push(layout);
+    motions[6 * i] = core.tx;
+    motions[6 * i + 1] = core.ty;
+    motions[6 * i + 2] = core.tz;
+    motions[6 * i + 3] = core.wx;
+    motions[6 * i + 4] = core.wy;
+    motions[6 * i + 5] = core.wz;
+    ssrs[2 * i] = core.outOfPlane.ssr;
+    ssrs[2 * i + 1] = core.inPlane.ssr;
   }
 
   const scatterMm = {} as Record<FitPartName, number>;
   const limits = {} as Record<FitPartName, (tests: number) => number>;
-  const scatters = sessionScatter(flat, cores);
+  const scatters = sessionScatter(flat, layouts);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
     const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
@@ -547,26 +581,44 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
     };
   }
 
+  // Second pass: each pose judged and its result built from the kept numbers, in the same reused
+  // core and judgement; its measures go straight into the columns the bounds read.
   const flags: EnvelopeFlag[] = [];
   const limitFor = (tests: number, part: FitPartName): number => limits[part](tests);
-  const poses = input.poses.map((pose, i): PoseResult => {
-    const core = cores[i];
+  const columns = emptyMeasureColumns(count);
+  const poses: PoseResult[] = [];
+  let judgement: PoseJudgement | undefined = undefined;
+  let readings: GaugeValue[] = [];
+  let sharedLayout: PoseLayout | null = null;
+  let covarianceOut: number[] = [];
+  let covarianceIn: number[] = [];
+  const labelOf = (k: number): { pointId: string; axis: Axis; index: number } => {
+    const index = flat.inputIndex[k];
+    return { pointId: readings[index].pointId, axis: readings[index].axis, index };
+  };
+  for (let i = 0; i < count; i++) {
+    const pose = input.poses[i];
+    const poseLayout = layouts[i];
     const isBaseline = i === s.baselineIndex;
-    const result: PoseResult = {
-      poseId: pose.id,
-      isBaseline,
-      liftTwistDeg: s.liftTwists[i],
-      twistDeg: s.relativeTwists[i],
-      missingBaselineCount: flat.missingBaseline[i],
-      fit: null,
-      worst: null,
-      measures: null,
-      note: isBaseline ? 'baseline (reference pose)' : null,
-    };
-    if (core === null) {
-      if (!isBaseline) result.note = 'no usable readings: left out of the envelope';
-      return result;
+    if (poseLayout === null || core === null) {
+      const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
+      poses.push(poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note));
+      continue;
     }
+    core.tx = motions[6 * i];
+    core.ty = motions[6 * i + 1];
+    core.tz = motions[6 * i + 2];
+    core.wx = motions[6 * i + 3];
+    core.wy = motions[6 * i + 4];
+    core.wz = motions[6 * i + 5];
+    if (poseLayout !== sharedLayout) {
+      // Poses read at the same points have the same covariance: they share one read-only copy.
+      sharedLayout = poseLayout;
+      covarianceOut = Object.freeze(poseLayout.outOfPlane.shape.covariance.slice()) as number[];
+      covarianceIn = Object.freeze(poseLayout.inPlane.shape.covariance.slice()) as number[];
+    }
+    loadPartCore(core.outOfPlane, poseLayout, 'outOfPlane', ssrs[2 * i], covarianceOut);
+    loadPartCore(core.inPlane, poseLayout, 'inPlane', ssrs[2 * i + 1], covarianceIn);
     const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
     if (!(rotation <= MAX_ROTATION_RAD)) {
       throw new FlexInputError(
@@ -577,15 +629,16 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
     }
     flat.buffer.start = flat.start[i];
     flat.buffer.count = flat.count[i];
-    const judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor);
-    const readings = pose.readings;
-    const fit = packFit(flat.buffer, core, judgement, (k) => {
-      const index = flat.inputIndex[k];
-      return { pointId: readings[index].pointId, axis: readings[index].axis, index };
-    });
-    result.fit = fit;
-    result.worst = worstOf(fit.motion);
-    result.measures = poseMeasures(result.worst, fit);
+    judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor, judgement);
+    readings = pose.readings;
+    const fit = packFit(flat.buffer, core, judgement, labelOf);
+    const worst = worstOf(fit.motion);
+    const measures = poseMeasures(worst, fit);
+    for (const measure of ENVELOPE_MEASURES) {
+      const m = measures[measure];
+      columns[measure].values[i] = m.valueMm;
+      columns[measure].uncertainties[i] = m.uncertaintyMm === null ? Number.NaN : m.uncertaintyMm;
+    }
     for (const o of fit.outliers) {
       flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
     }
@@ -606,9 +659,24 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
         });
       }
     }
-    return result;
-  });
-  return { poses, scatterMm, flags };
+    poses.push(poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null));
+  }
+  return { poses, scatterMm, flags, columns };
+}
+
+/** One pose's result, built once with every field (one shape for all poses). */
+function poseResult(
+  poseId: string,
+  isBaseline: boolean,
+  s: Session,
+  i: number,
+  missingBaselineCount: number,
+  fit: RelativeMotionFit | null,
+  worst: PerimeterWorst | null,
+  measures: Record<EnvelopeMeasure, PoseMeasure> | null,
+  note: string | null,
+): PoseResult {
+  return { poseId, isBaseline, liftTwistDeg: s.liftTwists[i], twistDeg: s.relativeTwists[i], missingBaselineCount, fit, worst, measures, note };
 }
 
 function directionName(direction: TwistDirection): string {
@@ -683,19 +751,11 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
 /** Per measure, each pose's value and its 1-SD uncertainty (NaN where unknown or for a pose without measures). */
 type MeasureColumns = Record<EnvelopeMeasure, { values: Float64Array; uncertainties: Float64Array }>;
 
-/** The poses' measures as columns, so each measure's bound reads flat arrays. */
-function measureColumns(poses: readonly PoseResult[]): MeasureColumns {
+/** Empty measure columns for `count` poses (NaN: no measure). */
+function emptyMeasureColumns(count: number): MeasureColumns {
   const columns = {} as MeasureColumns;
-  for (const measure of ENVELOPE_MEASURES) {
-    const values = new Float64Array(poses.length);
-    const uncertainties = new Float64Array(poses.length);
-    for (let i = 0; i < poses.length; i++) {
-      const m = poses[i].measures?.[measure];
-      values[i] = m === undefined ? Number.NaN : m.valueMm;
-      uncertainties[i] = m === undefined || m.uncertaintyMm === null ? Number.NaN : m.uncertaintyMm;
-    }
-    columns[measure] = { values, uncertainties };
-  }
+  for (const measure of ENVELOPE_MEASURES)
+    columns[measure] = { values: new Float64Array(count).fill(Number.NaN), uncertainties: new Float64Array(count).fill(Number.NaN) };
   return columns;
 }
 
@@ -800,8 +860,9 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     throw new FlexInputError(FN, 'baselinePoseId', "is required when readings are raw gaps (readingMode 'gap')");
   }
   const baselineTwistDeg = baselineIndex < 0 ? 0 : liftTwists[baselineIndex];
-  const relativeTwists = liftTwists.map((twist, i) => {
-    const relative = twist - baselineTwistDeg;
+  const relativeTwists = new Float64Array(liftTwists.length);
+  for (let i = 0; i < liftTwists.length; i++) {
+    const relative = liftTwists[i] - baselineTwistDeg;
     if (Math.abs(relative) > MAX_TWIST_DEG) {
       throw new FlexInputError(
         FN,
@@ -809,12 +870,12 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
         `give a twist of ${relative.toFixed(1)}° relative to the baseline pose, beyond ±${MAX_TWIST_DEG}°: check the lifts`,
       );
     }
-    return relative;
-  });
+    relativeTwists[i] = relative;
+  }
 
   const notes: string[] = [];
   const session: Session = { points: input.gaugePoints, scratch, codeStart, baselineIndex, liftTwists, relativeTwists };
-  const { poses, scatterMm, flags } = evaluatePoses(input, session);
+  const { poses, scatterMm, flags, columns } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
   const data = directionData(input, poses, p, notes);
@@ -837,7 +898,6 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     },
   };
   const measures = {} as Record<EnvelopeMeasure, MeasureEnvelope>;
-  const columns = measureColumns(poses);
   for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, columns, data, p, settings);
   return { parameters: p, baselineTwistDeg, scatterMm, poses, measures, flags, readingNotes, notes };
 }
