@@ -57,7 +57,7 @@ import { oneSidedToleranceFactor } from './tolerance-factor';
 import { crossAxleTwistDeg } from './twist';
 import { TWIST_DIRECTION_NAMES, measureReasons } from './measure-reasons';
 import { readingRemarks } from './reading-remarks';
-import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type WheelLifts } from './types';
+import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type RigidMotion, type WheelLifts } from './types';
 
 export type EnvelopeMethod = 'prediction' | 'tolerance';
 export type ReadingMode = 'gap' | 'displacement';
@@ -523,52 +523,84 @@ interface Evaluation {
   columns: MeasureColumns;
 }
 
+/**
+ * What the two passes over the poses share. Each pose is handled by a function of its own
+ * (fitPose, judgePose): called once per pose, V8 optimises it within the first call or two, where
+ * a loop body inside evaluatePoses (called once per envelope) would wait for on-stack replacement.
+ */
+interface PosePasses {
+  input: EnvelopeInput;
+  s: Session;
+  flat: Flat;
+  corners: number[];
+  /** Per pose: its layout (null for the baseline and poses without usable readings), motion (tx, ty, tz, wx, wy, wz) and each part's sum of squared residuals. */
+  layouts: (PoseLayout | null)[];
+  motions: Float64Array;
+  ssrs: Float64Array;
+  /** The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it. */
+  layout: PoseLayout | null;
+  layoutStart: number;
+  /** One core every pose is fitted into, and one judgement every pose is judged into. */
+  core: PoseFitCore | null;
+  judgement: PoseJudgement;
+  scatterMm: Record<FitPartName, number>;
+  limitFor: (tests: number, part: FitPartName) => number;
+  worstOf: (motion: RigidMotion) => PerimeterWorst;
+  /** The layout whose covariances the poses share, and those read-only copies. */
+  sharedLayout: PoseLayout | null;
+  covarianceOut: number[];
+  covarianceIn: number[];
+  /** The readings of the pose being judged, for labelOf. */
+  readings: GaugeValue[];
+  labelOf: (k: number) => { pointId: string; axis: Axis; index: number };
+  columns: MeasureColumns;
+  flags: EnvelopeFlag[];
+}
+
+function emptyPartJudgement(): PoseJudgement['outOfPlane'] {
+  return { check: 'skipped', scatterMm: 0, limit: null, misfit: false, misfitMm: null };
+}
+
 function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
   const flat = flatten(input, s);
-  const corners = outlineCorners(input.outline);
-  const worstOf = perimeterWorstOn(input.outline);
   const count = input.poses.length;
-  // First pass: every pose is fitted into one reused core, keeping only its layout, its motion
-  // (tx, ty, tz, wx, wy, wz) and each part's sum of squared residuals: the session's scatter must
-  // be known before any pose is judged, and no pose needs objects of its own until then.
-  const layouts: (PoseLayout | null)[] = [];
-  const motions = new Float64Array(count * 6);
-  const ssrs = new Float64Array(count * 2);
-  let core: PoseFitCore | null = null;
-  // The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it.
-  let layout: PoseLayout | null = null;
-  let layoutStart = 0;
-  for (let i = 0; i < count; i++) {
-    if (i === s.baselineIndex || flat.count[i] === 0) {
-      layouts.push(null);
-      continue;
-    }
-    flat.buffer.start = flat.start[i];
-    flat.buffer.count = flat.count[i];
-    if (layout === null || !sameCodes(flat.code, layoutStart, flat.start[i], layout.count, flat.count[i])) {
-      layout = poseLayout(flat.buffer, corners);
-      layoutStart = flat.start[i];
-    }
-    core ??= scratchPoseFitCore(layout);
-    fitPoseValues(flat.buffer, layout, core);
-    layouts.push(layout);
-    motions[6 * i] = core.tx;
-    motions[6 * i + 1] = core.ty;
-    motions[6 * i + 2] = core.tz;
-    motions[6 * i + 3] = core.wx;
-    motions[6 * i + 4] = core.wy;
-    motions[6 * i + 5] = core.wz;
-    ssrs[2 * i] = core.outOfPlane.ssr;
-    ssrs[2 * i + 1] = core.inPlane.ssr;
-  }
+  const passes: PosePasses = {
+    input,
+    s,
+    flat,
+    corners: outlineCorners(input.outline),
+    layouts: [],
+    motions: new Float64Array(count * 6),
+    ssrs: new Float64Array(count * 2),
+    layout: null,
+    layoutStart: 0,
+    core: null,
+    judgement: { outOfPlane: emptyPartJudgement(), inPlane: emptyPartJudgement(), flagged: [] },
+    scatterMm: { outOfPlane: READING_SD_MM, inPlane: READING_SD_MM },
+    limitFor: () => Number.NaN,
+    worstOf: perimeterWorstOn(input.outline),
+    sharedLayout: null,
+    covarianceOut: [],
+    covarianceIn: [],
+    readings: [],
+    labelOf: (k) => {
+      const index = flat.inputIndex[k];
+      const reading = passes.readings[index];
+      return { pointId: reading.pointId, axis: reading.axis, index };
+    },
+    columns: emptyMeasureColumns(count),
+    flags: [],
+  };
+  // First pass: every pose is fitted into one reused core, keeping only numbers: the session's
+  // scatter must be known before any pose is judged, and no pose needs objects of its own until then.
+  for (let i = 0; i < count; i++) fitPose(passes, i);
 
-  const scatterMm = {} as Record<FitPartName, number>;
   const limits = {} as Record<FitPartName, (tests: number) => number>;
-  const scatters = sessionScatter(flat, layouts);
+  const scatters = sessionScatter(flat, passes.layouts);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
     const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
-    scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
+    passes.scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
     const cache = new Map<number, number>();
     limits[part] = (tests) => {
       let limit = cache.get(tests);
@@ -580,88 +612,114 @@ function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
       return limit;
     };
   }
+  passes.limitFor = (tests, part) => limits[part](tests);
 
-  // Second pass: each pose judged and its result built from the kept numbers, in the same reused
-  // core and judgement; its measures go straight into the columns the bounds read.
-  const flags: EnvelopeFlag[] = [];
-  const limitFor = (tests: number, part: FitPartName): number => limits[part](tests);
-  const columns = emptyMeasureColumns(count);
+  // Second pass: each pose judged and its result built once; its measures go straight into the
+  // columns the bounds read.
   const poses: PoseResult[] = [];
-  let judgement: PoseJudgement | undefined = undefined;
-  let readings: GaugeValue[] = [];
-  let sharedLayout: PoseLayout | null = null;
-  let covarianceOut: number[] = [];
-  let covarianceIn: number[] = [];
-  const labelOf = (k: number): { pointId: string; axis: Axis; index: number } => {
-    const index = flat.inputIndex[k];
-    return { pointId: readings[index].pointId, axis: readings[index].axis, index };
-  };
-  for (let i = 0; i < count; i++) {
-    const pose = input.poses[i];
-    const poseLayout = layouts[i];
-    const isBaseline = i === s.baselineIndex;
-    if (poseLayout === null || core === null) {
-      const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
-      poses.push(poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note));
-      continue;
-    }
-    core.tx = motions[6 * i];
-    core.ty = motions[6 * i + 1];
-    core.tz = motions[6 * i + 2];
-    core.wx = motions[6 * i + 3];
-    core.wy = motions[6 * i + 4];
-    core.wz = motions[6 * i + 5];
-    if (poseLayout !== sharedLayout) {
-      // Poses read at the same points have the same covariance: they share one read-only copy.
-      sharedLayout = poseLayout;
-      covarianceOut = Object.freeze(poseLayout.outOfPlane.shape.covariance.slice()) as number[];
-      covarianceIn = Object.freeze(poseLayout.inPlane.shape.covariance.slice()) as number[];
-    }
-    loadPartCore(core.outOfPlane, poseLayout, 'outOfPlane', ssrs[2 * i], covarianceOut);
-    loadPartCore(core.inPlane, poseLayout, 'inPlane', ssrs[2 * i + 1], covarianceIn);
-    const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
-    if (!(rotation <= MAX_ROTATION_RAD)) {
-      throw new FlexInputError(
-        FN,
-        `poses[${i}].readings`,
-        `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
-      );
-    }
-    flat.buffer.start = flat.start[i];
-    flat.buffer.count = flat.count[i];
-    judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor, judgement);
-    readings = pose.readings;
-    const fit = packFit(flat.buffer, core, judgement, labelOf);
-    const worst = worstOf(fit.motion);
-    const measures = poseMeasures(worst, fit);
-    for (const measure of ENVELOPE_MEASURES) {
-      const m = measures[measure];
-      columns[measure].values[i] = m.valueMm;
-      columns[measure].uncertainties[i] = m.uncertaintyMm === null ? Number.NaN : m.uncertaintyMm;
-    }
-    for (const o of fit.outliers) {
-      flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
-    }
-    for (const part of ['outOfPlane', 'inPlane'] as const) {
-      if (!fit[part].misfit) continue;
-      const end = flat.start[i] + flat.count[i];
-      for (let k = flat.start[i]; k < end; k++) {
-        if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
-        const index = flat.inputIndex[k];
-        flags.push({
-          poseId: pose.id,
-          pointId: readings[index].pointId,
-          axis: AXIS_OF_CODE[flat.buffer.axis[k]],
-          valueMm: flat.buffer.value[k],
-          residualMm: flat.buffer.residual[k],
-          score: null,
-          kind: 'misfit',
-        });
-      }
-    }
-    poses.push(poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null));
+  for (let i = 0; i < count; i++) poses.push(judgePose(passes, i));
+  return { poses, scatterMm: passes.scatterMm, flags: passes.flags, columns: passes.columns };
+}
+
+/** First pass, one pose: its fit into the shared core, kept as numbers. */
+function fitPose(passes: PosePasses, i: number): void {
+  const { flat } = passes;
+  if (i === passes.s.baselineIndex || flat.count[i] === 0) {
+    passes.layouts.push(null);
+    return;
   }
-  return { poses, scatterMm, flags, columns };
+  flat.buffer.start = flat.start[i];
+  flat.buffer.count = flat.count[i];
+  let layout = passes.layout;
+  if (layout === null || !sameCodes(flat.code, passes.layoutStart, flat.start[i], layout.count, flat.count[i])) {
+    layout = poseLayout(flat.buffer, passes.corners);
+    passes.layout = layout;
+    passes.layoutStart = flat.start[i];
+  }
+  const core = (passes.core ??= scratchPoseFitCore(layout));
+  fitPoseValues(flat.buffer, layout, core);
+  passes.layouts.push(layout);
+  const m = passes.motions;
+  m[6 * i] = core.tx;
+  m[6 * i + 1] = core.ty;
+  m[6 * i + 2] = core.tz;
+  m[6 * i + 3] = core.wx;
+  m[6 * i + 4] = core.wy;
+  m[6 * i + 5] = core.wz;
+  passes.ssrs[2 * i] = core.outOfPlane.ssr;
+  passes.ssrs[2 * i + 1] = core.inPlane.ssr;
+}
+
+/** Second pass, one pose: judged against the session's scatter, and its result. */
+function judgePose(passes: PosePasses, i: number): PoseResult {
+  const { input, s, flat } = passes;
+  const pose = input.poses[i];
+  const layout = passes.layouts[i];
+  const core = passes.core;
+  const isBaseline = i === s.baselineIndex;
+  if (layout === null || core === null) {
+    const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
+    return poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note);
+  }
+  const m = passes.motions;
+  core.tx = m[6 * i];
+  core.ty = m[6 * i + 1];
+  core.tz = m[6 * i + 2];
+  core.wx = m[6 * i + 3];
+  core.wy = m[6 * i + 4];
+  core.wz = m[6 * i + 5];
+  if (layout !== passes.sharedLayout) {
+    // Poses read at the same points have the same covariance: they share one read-only copy.
+    passes.sharedLayout = layout;
+    passes.covarianceOut = Object.freeze(layout.outOfPlane.shape.covariance.slice()) as number[];
+    passes.covarianceIn = Object.freeze(layout.inPlane.shape.covariance.slice()) as number[];
+  }
+  loadPartCore(core.outOfPlane, layout, 'outOfPlane', passes.ssrs[2 * i], passes.covarianceOut);
+  loadPartCore(core.inPlane, layout, 'inPlane', passes.ssrs[2 * i + 1], passes.covarianceIn);
+  const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
+  if (!(rotation <= MAX_ROTATION_RAD)) {
+    throw new FlexInputError(
+      FN,
+      `poses[${i}].readings`,
+      `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
+    );
+  }
+  flat.buffer.start = flat.start[i];
+  flat.buffer.count = flat.count[i];
+  const judgement = judgeOutliers(flat.buffer, core, passes.scatterMm, passes.limitFor, passes.judgement);
+  const readings = pose.readings;
+  passes.readings = readings;
+  const fit = packFit(flat.buffer, core, judgement, passes.labelOf);
+  const worst = passes.worstOf(fit.motion);
+  const measures = poseMeasures(worst, fit);
+  const columns = passes.columns;
+  for (const measure of ENVELOPE_MEASURES) {
+    const value = measures[measure];
+    columns[measure].values[i] = value.valueMm;
+    columns[measure].uncertainties[i] = value.uncertaintyMm === null ? Number.NaN : value.uncertaintyMm;
+  }
+  const flags = passes.flags;
+  for (const o of fit.outliers) {
+    flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+  }
+  for (const part of ['outOfPlane', 'inPlane'] as const) {
+    if (!fit[part].misfit) continue;
+    const end = flat.start[i] + flat.count[i];
+    for (let k = flat.start[i]; k < end; k++) {
+      if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
+      const index = flat.inputIndex[k];
+      flags.push({
+        poseId: pose.id,
+        pointId: readings[index].pointId,
+        axis: AXIS_OF_CODE[flat.buffer.axis[k]],
+        valueMm: flat.buffer.value[k],
+        residualMm: flat.buffer.residual[k],
+        score: null,
+        kind: 'misfit',
+      });
+    }
+  }
+  return poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null);
 }
 
 /** One pose's result, built once with every field (one shape for all poses). */

@@ -92,7 +92,7 @@ export function judgeOutliers(
   };
   resetPart(judgement.outOfPlane, outOfPlane, scatterMm.outOfPlane, tests > 0 ? limitFor(tests, 'outOfPlane') : null);
   resetPart(judgement.inPlane, inPlane, scatterMm.inPlane, tests > 0 ? limitFor(tests, 'inPlane') : null);
-  judgement.flagged.length = 0;
+  if (judgement.flagged.length > 0) judgement.flagged.length = 0;
   if (tests === 0) return judgement;
   for (let i = buffer.start; i < end; i++) {
     const part = buffer.axis[i] === 0 ? judgement.outOfPlane : judgement.inPlane;
