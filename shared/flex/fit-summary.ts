@@ -24,9 +24,9 @@ export interface FitPart {
   edgeErrorRatio: number;
   /**
    * Unscaled covariance (XᵀX)⁻¹ of (tx, wy, wz) or (ty, tz, wx), row-major 3×3 (× σ² for mm², rad²).
-   * Read-only: in designEnvelope's result the poses read at the same points share one frozen array.
+   * Read-only: in designEnvelope's result the poses read at the same points share one array.
    */
-  covariance: number[];
+  covariance: readonly number[];
   outlierCheck: OutlierCheck;
   /** The reading SD this part's residuals were judged against (mm). */
   scatterMm: number;
