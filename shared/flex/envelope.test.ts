@@ -499,3 +499,18 @@ describe('designEnvelope', () => {
     expect(fit.slope).toBeCloseTo((9 + 9.2 + 133 / 15) / 3, 12);
   });
 });
+
+describe('designEnvelope result', () => {
+  it('shares one covariance among poses read at the same points, and gives a pose read elsewhere its own', () => {
+    const input = sessionInput({ poses: 5, gaugePoints: 6, seed: 21, mode: 'gap' }, { designTwistDeg: 20 });
+    input.poses[3] = { ...input.poses[3], readings: input.poses[3].readings.filter((r) => r.axis !== 'vertical') };
+    const [, a, b, c, d] = designEnvelope(input).poses.map((pose) => pose.fit!);
+    expect(b.outOfPlane.covariance).toBe(a.outOfPlane.covariance);
+    expect(b.inPlane.covariance).toBe(a.inPlane.covariance);
+    // Without vertical readings the in-plane layout differs: so does its covariance (no tz variance).
+    expect(c.inPlane.covariance).not.toBe(a.inPlane.covariance);
+    expect(c.inPlane.covariance[4]).toBe(0);
+    expect(a.inPlane.covariance[4]).toBeGreaterThan(0);
+    expect(d.inPlane.covariance).toEqual(a.inPlane.covariance);
+  });
+});

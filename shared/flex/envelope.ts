@@ -8,13 +8,15 @@
  *    (gaugePoints[2].y, poses[3].readings[7].value); a pose may hold one reading per point and axis.
  * 2. Per pose: displacements (pose − baseline in 'gap' mode, as entered in 'displacement' mode);
  *    cross-axle twist from the lifts, taken relative to the baseline pose's own twist (its readings
- *    are the reference); the relative-motion fit (fitPoseParts), identifiability judged against the
+ *    are the reference); the relative-motion fit (poseLayout once per layout, fitPoseValues per
+ *    pose: only numbers are kept until step 3), identifiability judged against the
  *    opening; the extremes of each displacement on the opening's outline (perimeterWorst) with the
  *    fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
  * 3. Outliers: the session's robust residual scatter per fit part (1.4826·median |eᵢ/√(1 − hᵢ)|)
  *    raises the reading SD the outlier rule judges against when the readings scatter more than a
  *    tape is read to (then with a t limit on the scale's effective degrees of freedom, 0.37·Σν);
- *    each pose is judged with judgeOutliers. Flags are reported, never acted on.
+ *    each pose is judged with judgeOutliers, and only then is its result built, once. Flags are
+ *    reported, never acted on.
  * 4. Per measure and twist direction (FL–RR +, FR–RL −), the bound at the design twist
  *    (predictionDirectionBound or toleranceDirectionBound); the larger governs, and the reasons say
  *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
@@ -44,9 +46,9 @@ import {
 import { packFit, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
-import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName } from './outlier-rule';
+import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName, type PoseJudgement } from './outlier-rule';
 import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
-import { fitPoseParts, poseBuffer, poseLayout, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
+import { fitPoseValues, loadPartCore, poseBuffer, poseLayout, scratchPoseFitCore, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
@@ -55,7 +57,7 @@ import { oneSidedToleranceFactor } from './tolerance-factor';
 import { crossAxleTwistDeg } from './twist';
 import { TWIST_DIRECTION_NAMES, measureReasons } from './measure-reasons';
 import { readingRemarks } from './reading-remarks';
-import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type WheelLifts } from './types';
+import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type RigidMotion, type WheelLifts } from './types';
 
 export type EnvelopeMethod = 'prediction' | 'tolerance';
 export type ReadingMode = 'gap' | 'displacement';
@@ -254,7 +256,7 @@ function readingProblem(i: number, j: number, reading: GaugeValue, points: Map<s
  * twist and, per reading in input order, its point × 3 + axis code and its value (so no reading
  * object is read twice).
  */
-function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: number[]; scratch: Scratch; codeStart: Int32Array } {
+function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTwists: Float64Array; scratch: Scratch; codeStart: Int32Array } {
   const { poses } = input;
   if (!Array.isArray(poses) || poses.length === 0) throw new FlexInputError(FN, 'poses', 'must be a non-empty array');
   const ids = new Set<string>();
@@ -265,9 +267,14 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
   const codes = scratch.inputCode;
   const values = scratch.inputValue;
   const codeStart = new Int32Array(poses.length);
-  const pointIds = input.gaugePoints.map((point) => point.id);
+  // Built by a plain loop (so are the twists below): an array Array.prototype.map returns can change
+  // its elements kind once V8 optimises the call, and the code reading it would be thrown away then.
+  const pointIds: string[] = [];
+  for (const point of input.gaugePoints) pointIds.push(point.id);
   let next = 0;
-  const liftTwists = poses.map((pose, i) => {
+  const liftTwists = new Float64Array(poses.length);
+  for (let i = 0; i < poses.length; i++) {
+    const pose = poses[i];
     if (pose === null || typeof pose !== 'object' || typeof pose.id !== 'string') throw new FlexInputError(FN, `poses[${i}].id`, 'must be a string');
     if (ids.has(pose.id)) throw new FlexInputError(FN, `poses[${i}].id`, `repeats pose id '${pose.id}'`);
     ids.add(pose.id);
@@ -320,8 +327,8 @@ function checkPoses(input: EnvelopeInput, points: Map<string, number>): { liftTw
       values[next] = value;
       codes[next++] = key;
     }
-    return twist;
-  });
+    liftTwists[i] = twist;
+  }
   return { liftTwists, scratch, codeStart };
 }
 
@@ -331,8 +338,8 @@ interface Session {
   scratch: Scratch;
   codeStart: Int32Array;
   baselineIndex: number;
-  liftTwists: number[];
-  relativeTwists: number[];
+  liftTwists: Float64Array;
+  relativeTwists: Float64Array;
 }
 
 /** All non-baseline readings of the session as flat arrays, one pose after another. */
@@ -447,18 +454,20 @@ function sameCodes(code: Int32Array, a: number, b: number, countA: number, count
  * from one pass over the readings: fore-aft residuals gathered from the front of the scratch array,
  * lateral and vertical ones from its back (a median does not depend on the order).
  */
-function sessionScatter(flat: Flat, cores: (PoseFitCore | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
+function sessionScatter(flat: Flat, layouts: (PoseLayout | null)[]): Record<FitPartName, { scaleMm: number | null; df: number }> {
   const values = flat.scatter;
   const { axis, standardized } = flat.buffer;
   let nOut = 0;
   let nIn = 0;
   let redundancyOut = 0;
   let redundancyIn = 0;
-  for (let i = 0; i < cores.length; i++) {
-    const core = cores[i];
-    if (core === null) continue;
-    const spareOut = core.outOfPlane.readingCount - core.outOfPlane.parameterCount;
-    const spareIn = core.inPlane.readingCount - core.inPlane.parameterCount;
+  for (let i = 0; i < layouts.length; i++) {
+    const layout = layouts[i];
+    if (layout === null) continue;
+    const out = layout.outOfPlane.shape;
+    const inPlane = layout.inPlane.shape;
+    const spareOut = out.readingCount - out.parameterCount;
+    const spareIn = inPlane.readingCount - inPlane.parameterCount;
     if (spareOut >= 1) redundancyOut += spareOut;
     if (spareIn >= 1) redundancyIn += spareIn;
     const end = flat.start[i] + flat.count[i];
@@ -481,7 +490,7 @@ function partSd(part: RelativeMotionFit['outOfPlane']): number | null {
 }
 
 /** √(gᵀCg) for a symmetric 3×3 C (row-major). */
-function spread(c: number[], g0: number, g1: number, g2: number): number {
+function spread(c: readonly number[], g0: number, g1: number, g2: number): number {
   return Math.sqrt(Math.max(0, g0 * g0 * c[0] + g1 * g1 * c[4] + g2 * g2 * c[8] + 2 * (g0 * g1 * c[1] + g0 * g2 * c[2] + g1 * g2 * c[5])));
 }
 
@@ -506,35 +515,92 @@ function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<Env
   };
 }
 
-function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[]; scatterMm: Record<FitPartName, number>; flags: EnvelopeFlag[] } {
-  const flat = flatten(input, s);
-  const corners = outlineCorners(input.outline);
-  const worstOf = perimeterWorstOn(input.outline);
-  const cores: (PoseFitCore | null)[] = [];
-  // The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it.
-  let layout: PoseLayout | null = null;
-  let layoutStart = 0;
-  for (let i = 0; i < input.poses.length; i++) {
-    if (i === s.baselineIndex || flat.count[i] === 0) {
-      cores.push(null);
-      continue;
-    }
-    flat.buffer.start = flat.start[i];
-    flat.buffer.count = flat.count[i];
-    if (layout === null || !sameCodes(flat.code, layoutStart, flat.start[i], layout.count, flat.count[i])) {
-      layout = poseLayout(flat.buffer, corners);
-      layoutStart = flat.start[i];
-    }
-    cores.push(fitPoseParts(flat.buffer, corners, layout));
-  }
+/** The poses' results, the scatter the outlier rule judged against, the flags, and the measures as columns. */
+interface Evaluation {
+  poses: PoseResult[];
+  scatterMm: Record<FitPartName, number>;
+  flags: EnvelopeFlag[];
+  columns: MeasureColumns;
+}
 
-  const scatterMm = {} as Record<FitPartName, number>;
+/**
+ * What the two passes over the poses share. Each pose is handled by a function of its own
+ * (fitPose, judgePose): called once per pose, V8 optimises it within the first call or two, where
+ * a loop body inside evaluatePoses (called once per envelope) would wait for on-stack replacement.
+ */
+interface PosePasses {
+  input: EnvelopeInput;
+  s: Session;
+  flat: Flat;
+  corners: number[];
+  /** Per pose: its layout (null for the baseline and poses without usable readings), motion (tx, ty, tz, wx, wy, wz) and each part's sum of squared residuals. */
+  layouts: (PoseLayout | null)[];
+  motions: Float64Array;
+  ssrs: Float64Array;
+  /** The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it. */
+  layout: PoseLayout | null;
+  layoutStart: number;
+  /** One core every pose is fitted into, and one judgement every pose is judged into. */
+  core: PoseFitCore | null;
+  judgement: PoseJudgement;
+  scatterMm: Record<FitPartName, number>;
+  limitFor: (tests: number, part: FitPartName) => number;
+  worstOf: (motion: RigidMotion) => PerimeterWorst;
+  /** The layout whose covariances the poses share, and those copies. */
+  sharedLayout: PoseLayout | null;
+  covarianceOut: number[];
+  covarianceIn: number[];
+  /** The readings of the pose being judged, for labelOf. */
+  readings: GaugeValue[];
+  labelOf: (k: number) => { pointId: string; axis: Axis; index: number };
+  columns: MeasureColumns;
+  flags: EnvelopeFlag[];
+}
+
+function emptyPartJudgement(): PoseJudgement['outOfPlane'] {
+  return { check: 'skipped', scatterMm: 0, limit: null, misfit: false, misfitMm: null };
+}
+
+function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
+  const flat = flatten(input, s);
+  const count = input.poses.length;
+  const passes: PosePasses = {
+    input,
+    s,
+    flat,
+    corners: outlineCorners(input.outline),
+    layouts: [],
+    motions: new Float64Array(count * 6),
+    ssrs: new Float64Array(count * 2),
+    layout: null,
+    layoutStart: 0,
+    core: null,
+    judgement: { outOfPlane: emptyPartJudgement(), inPlane: emptyPartJudgement(), flagged: [] },
+    scatterMm: { outOfPlane: READING_SD_MM, inPlane: READING_SD_MM },
+    limitFor: () => Number.NaN,
+    worstOf: perimeterWorstOn(input.outline),
+    sharedLayout: null,
+    covarianceOut: [],
+    covarianceIn: [],
+    readings: [],
+    labelOf: (k) => {
+      const index = flat.inputIndex[k];
+      const reading = passes.readings[index];
+      return { pointId: reading.pointId, axis: reading.axis, index };
+    },
+    columns: emptyMeasureColumns(count),
+    flags: [],
+  };
+  // First pass: every pose is fitted into one reused core, keeping only numbers: the session's
+  // scatter must be known before any pose is judged, and no pose needs objects of its own until then.
+  for (let i = 0; i < count; i++) fitPose(passes, i);
+
   const limits = {} as Record<FitPartName, (tests: number) => number>;
-  const scatters = sessionScatter(flat, cores);
+  const scatters = sessionScatter(flat, passes.layouts);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
     const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
-    scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
+    passes.scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
     const cache = new Map<number, number>();
     limits[part] = (tests) => {
       let limit = cache.get(tests);
@@ -546,69 +612,130 @@ function evaluatePoses(input: EnvelopeInput, s: Session): { poses: PoseResult[];
       return limit;
     };
   }
+  passes.limitFor = (tests, part) => limits[part](tests);
 
-  const flags: EnvelopeFlag[] = [];
-  const limitFor = (tests: number, part: FitPartName): number => limits[part](tests);
-  const poses = input.poses.map((pose, i): PoseResult => {
-    const core = cores[i];
-    const isBaseline = i === s.baselineIndex;
-    const result: PoseResult = {
-      poseId: pose.id,
-      isBaseline,
-      liftTwistDeg: s.liftTwists[i],
-      twistDeg: s.relativeTwists[i],
-      missingBaselineCount: flat.missingBaseline[i],
-      fit: null,
-      worst: null,
-      measures: null,
-      note: isBaseline ? 'baseline (reference pose)' : null,
-    };
-    if (core === null) {
-      if (!isBaseline) result.note = 'no usable readings: left out of the envelope';
-      return result;
-    }
-    const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
-    if (!(rotation <= MAX_ROTATION_RAD)) {
-      throw new FlexInputError(
-        FN,
-        `poses[${i}].readings`,
-        `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
-      );
-    }
-    flat.buffer.start = flat.start[i];
-    flat.buffer.count = flat.count[i];
-    const judgement = judgeOutliers(flat.buffer, core, scatterMm, limitFor);
-    const readings = pose.readings;
-    const fit = packFit(flat.buffer, core, judgement, (k) => {
+  // Second pass: each pose judged and its result built once; its measures go straight into the
+  // columns the bounds read.
+  const poses: PoseResult[] = [];
+  for (let i = 0; i < count; i++) poses.push(judgePose(passes, i));
+  return { poses, scatterMm: passes.scatterMm, flags: passes.flags, columns: passes.columns };
+}
+
+/** First pass, one pose: its fit into the shared core, kept as numbers. */
+function fitPose(passes: PosePasses, i: number): void {
+  const { flat } = passes;
+  if (i === passes.s.baselineIndex || flat.count[i] === 0) {
+    passes.layouts.push(null);
+    return;
+  }
+  flat.buffer.start = flat.start[i];
+  flat.buffer.count = flat.count[i];
+  let layout = passes.layout;
+  if (layout === null || !sameCodes(flat.code, passes.layoutStart, flat.start[i], layout.count, flat.count[i])) {
+    layout = poseLayout(flat.buffer, passes.corners);
+    passes.layout = layout;
+    passes.layoutStart = flat.start[i];
+  }
+  const core = (passes.core ??= scratchPoseFitCore(layout));
+  fitPoseValues(flat.buffer, layout, core);
+  passes.layouts.push(layout);
+  const m = passes.motions;
+  m[6 * i] = core.tx;
+  m[6 * i + 1] = core.ty;
+  m[6 * i + 2] = core.tz;
+  m[6 * i + 3] = core.wx;
+  m[6 * i + 4] = core.wy;
+  m[6 * i + 5] = core.wz;
+  passes.ssrs[2 * i] = core.outOfPlane.ssr;
+  passes.ssrs[2 * i + 1] = core.inPlane.ssr;
+}
+
+/** Second pass, one pose: judged against the session's scatter, and its result. */
+function judgePose(passes: PosePasses, i: number): PoseResult {
+  const { input, s, flat } = passes;
+  const pose = input.poses[i];
+  const layout = passes.layouts[i];
+  const core = passes.core;
+  const isBaseline = i === s.baselineIndex;
+  if (layout === null || core === null) {
+    const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
+    return poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note);
+  }
+  const m = passes.motions;
+  core.tx = m[6 * i];
+  core.ty = m[6 * i + 1];
+  core.tz = m[6 * i + 2];
+  core.wx = m[6 * i + 3];
+  core.wy = m[6 * i + 4];
+  core.wz = m[6 * i + 5];
+  if (layout !== passes.sharedLayout) {
+    // Poses read at the same points have the same covariance: they share one copy (read-only by its
+    // type; frozen, its reads in poseMeasures took about 5 % longer).
+    passes.sharedLayout = layout;
+    passes.covarianceOut = layout.outOfPlane.shape.covariance.slice();
+    passes.covarianceIn = layout.inPlane.shape.covariance.slice();
+  }
+  loadPartCore(core.outOfPlane, layout, 'outOfPlane', passes.ssrs[2 * i], passes.covarianceOut);
+  loadPartCore(core.inPlane, layout, 'inPlane', passes.ssrs[2 * i + 1], passes.covarianceIn);
+  const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
+  if (!(rotation <= MAX_ROTATION_RAD)) {
+    throw new FlexInputError(
+      FN,
+      `poses[${i}].readings`,
+      `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
+    );
+  }
+  flat.buffer.start = flat.start[i];
+  flat.buffer.count = flat.count[i];
+  const judgement = judgeOutliers(flat.buffer, core, passes.scatterMm, passes.limitFor, passes.judgement);
+  const readings = pose.readings;
+  passes.readings = readings;
+  const fit = packFit(flat.buffer, core, judgement, passes.labelOf);
+  const worst = passes.worstOf(fit.motion);
+  const measures = poseMeasures(worst, fit);
+  const columns = passes.columns;
+  for (const measure of ENVELOPE_MEASURES) {
+    const value = measures[measure];
+    columns[measure].values[i] = value.valueMm;
+    columns[measure].uncertainties[i] = value.uncertaintyMm === null ? Number.NaN : value.uncertaintyMm;
+  }
+  const flags = passes.flags;
+  for (const o of fit.outliers) {
+    flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+  }
+  for (const part of ['outOfPlane', 'inPlane'] as const) {
+    if (!fit[part].misfit) continue;
+    const end = flat.start[i] + flat.count[i];
+    for (let k = flat.start[i]; k < end; k++) {
+      if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
       const index = flat.inputIndex[k];
-      return { pointId: readings[index].pointId, axis: readings[index].axis, index };
-    });
-    result.fit = fit;
-    result.worst = worstOf(fit.motion);
-    result.measures = poseMeasures(result.worst, fit);
-    for (const o of fit.outliers) {
-      flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+      flags.push({
+        poseId: pose.id,
+        pointId: readings[index].pointId,
+        axis: AXIS_OF_CODE[flat.buffer.axis[k]],
+        valueMm: flat.buffer.value[k],
+        residualMm: flat.buffer.residual[k],
+        score: null,
+        kind: 'misfit',
+      });
     }
-    for (const part of ['outOfPlane', 'inPlane'] as const) {
-      if (!fit[part].misfit) continue;
-      const end = flat.start[i] + flat.count[i];
-      for (let k = flat.start[i]; k < end; k++) {
-        if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
-        const index = flat.inputIndex[k];
-        flags.push({
-          poseId: pose.id,
-          pointId: readings[index].pointId,
-          axis: AXIS_OF_CODE[flat.buffer.axis[k]],
-          valueMm: flat.buffer.value[k],
-          residualMm: flat.buffer.residual[k],
-          score: null,
-          kind: 'misfit',
-        });
-      }
-    }
-    return result;
-  });
-  return { poses, scatterMm, flags };
+  }
+  return poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null);
+}
+
+/** One pose's result, built once with every field (one shape for all poses). */
+function poseResult(
+  poseId: string,
+  isBaseline: boolean,
+  s: Session,
+  i: number,
+  missingBaselineCount: number,
+  fit: RelativeMotionFit | null,
+  worst: PerimeterWorst | null,
+  measures: Record<EnvelopeMeasure, PoseMeasure> | null,
+  note: string | null,
+): PoseResult {
+  return { poseId, isBaseline, liftTwistDeg: s.liftTwists[i], twistDeg: s.relativeTwists[i], missingBaselineCount, fit, worst, measures, note };
 }
 
 function directionName(direction: TwistDirection): string {
@@ -683,19 +810,11 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
 /** Per measure, each pose's value and its 1-SD uncertainty (NaN where unknown or for a pose without measures). */
 type MeasureColumns = Record<EnvelopeMeasure, { values: Float64Array; uncertainties: Float64Array }>;
 
-/** The poses' measures as columns, so each measure's bound reads flat arrays. */
-function measureColumns(poses: readonly PoseResult[]): MeasureColumns {
+/** Empty measure columns for `count` poses (NaN: no measure). */
+function emptyMeasureColumns(count: number): MeasureColumns {
   const columns = {} as MeasureColumns;
-  for (const measure of ENVELOPE_MEASURES) {
-    const values = new Float64Array(poses.length);
-    const uncertainties = new Float64Array(poses.length);
-    for (let i = 0; i < poses.length; i++) {
-      const m = poses[i].measures?.[measure];
-      values[i] = m === undefined ? Number.NaN : m.valueMm;
-      uncertainties[i] = m === undefined || m.uncertaintyMm === null ? Number.NaN : m.uncertaintyMm;
-    }
-    columns[measure] = { values, uncertainties };
-  }
+  for (const measure of ENVELOPE_MEASURES)
+    columns[measure] = { values: new Float64Array(count).fill(Number.NaN), uncertainties: new Float64Array(count).fill(Number.NaN) };
   return columns;
 }
 
@@ -800,8 +919,9 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     throw new FlexInputError(FN, 'baselinePoseId', "is required when readings are raw gaps (readingMode 'gap')");
   }
   const baselineTwistDeg = baselineIndex < 0 ? 0 : liftTwists[baselineIndex];
-  const relativeTwists = liftTwists.map((twist, i) => {
-    const relative = twist - baselineTwistDeg;
+  const relativeTwists = new Float64Array(liftTwists.length);
+  for (let i = 0; i < liftTwists.length; i++) {
+    const relative = liftTwists[i] - baselineTwistDeg;
     if (Math.abs(relative) > MAX_TWIST_DEG) {
       throw new FlexInputError(
         FN,
@@ -809,12 +929,12 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
         `give a twist of ${relative.toFixed(1)}° relative to the baseline pose, beyond ±${MAX_TWIST_DEG}°: check the lifts`,
       );
     }
-    return relative;
-  });
+    relativeTwists[i] = relative;
+  }
 
   const notes: string[] = [];
   const session: Session = { points: input.gaugePoints, scratch, codeStart, baselineIndex, liftTwists, relativeTwists };
-  const { poses, scatterMm, flags } = evaluatePoses(input, session);
+  const { poses, scatterMm, flags, columns } = evaluatePoses(input, session);
   if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
   const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
   const data = directionData(input, poses, p, notes);
@@ -837,7 +957,6 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     },
   };
   const measures = {} as Record<EnvelopeMeasure, MeasureEnvelope>;
-  const columns = measureColumns(poses);
   for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, columns, data, p, settings);
   return { parameters: p, baselineTwistDeg, scatterMm, poses, measures, flags, readingNotes, notes };
 }

@@ -22,8 +22,11 @@ export interface FitPart {
   reason: string | null;
   /** 1-SD error of this part's prediction at the opening's worst corner, per mm of reading SD. */
   edgeErrorRatio: number;
-  /** Unscaled covariance (XᵀX)⁻¹ of (tx, wy, wz) or (ty, tz, wx), row-major 3×3 (× σ² for mm², rad²). */
-  covariance: number[];
+  /**
+   * Unscaled covariance (XᵀX)⁻¹ of (tx, wy, wz) or (ty, tz, wx), row-major 3×3 (× σ² for mm², rad²).
+   * Read-only: in designEnvelope's result the poses read at the same points share one array.
+   */
+  covariance: readonly number[];
   outlierCheck: OutlierCheck;
   /** The reading SD this part's residuals were judged against (mm). */
   scatterMm: number;

@@ -62,4 +62,20 @@ describe('judgeOutliers', () => {
     expect(judgeOutliers(b, fit, { outOfPlane: 0.5, inPlane: 0.5 }, bonferroni).flagged).toEqual([0]);
     expect(judgeOutliers(b, fit, { outOfPlane: 2.5, inPlane: 0.5 }, bonferroni).flagged).toEqual([]);
   });
+
+  it('judges into a reused judgement exactly as into a fresh one: nothing of the previous pose is left', () => {
+    const flagged = foreAft(six, [27.3, 1.6, 2.4, 1.8, 2.1, 1.9]);
+    const misfit = foreAft(six.slice(0, 4), [1, 2, 3, 40]);
+    const skipped = foreAft(six.slice(0, 3), [1, 2, 30]);
+    const judgement = judgeOutliers(flagged, fitPoseParts(flagged, corners), { outOfPlane: 0.5, inPlane: 0.5 }, bonferroni);
+    const reused = judgeOutliers(misfit, fitPoseParts(misfit, corners), { outOfPlane: 0.7, inPlane: 0.5 }, bonferroni, judgement);
+    expect(reused).toBe(judgement);
+    expect(reused).toEqual(judgeOutliers(misfit, fitPoseParts(misfit, corners), { outOfPlane: 0.7, inPlane: 0.5 }, bonferroni));
+    expect(reused.flagged).toEqual([]);
+    expect(reused.outOfPlane.misfit).toBe(true);
+    const again = judgeOutliers(skipped, fitPoseParts(skipped, corners), { outOfPlane: 0.5, inPlane: 0.5 }, bonferroni, reused);
+    expect(again).toEqual(judgeOutliers(skipped, fitPoseParts(skipped, corners), { outOfPlane: 0.5, inPlane: 0.5 }, bonferroni));
+    expect(again.outOfPlane.misfit).toBe(false);
+    expect(again.outOfPlane.misfitMm).toBeNull();
+  });
 });

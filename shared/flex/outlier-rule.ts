@@ -51,12 +51,22 @@ function checkOf(redundancy: number): OutlierCheck {
   return redundancy >= 2 ? 'checked' : redundancy === 1 ? 'misfitOnly' : 'skipped';
 }
 
+function resetPart(part: PartJudgement, check: OutlierCheck, scatterMm: number, limit: number | null): void {
+  part.check = check;
+  part.scatterMm = scatterMm;
+  part.limit = limit;
+  part.misfit = false;
+  part.misfitMm = null;
+}
+
 /**
  * Judges one pose's readings (see the module comment).
  * @param buffer the pose's readings and their residual statistics (fitPoseParts); scores are written into buffer.score.
  * @param fit the pose's fit.
  * @param scatterMm σ_floor per part: the reading SD its residuals are judged against (> 0).
  * @param limitFor the score limit of a part for T tests in the pose, e.g. T ↦ z(1 − α/(2T)).
+ * @param into a judgement to overwrite and return instead of a new one (a session judges pose after
+ *   pose into one; read it before the next pose).
  * @returns per part the kind of check and its limit, and the flagged readings (scores in buffer.score).
  * @example judgeOutliers(buffer, fit, { outOfPlane: 0.5, inPlane: 0.5 }, (t) => normalQuantile(1 - 0.01 / (2 * t))).flagged // => [0]
  */
@@ -65,6 +75,7 @@ export function judgeOutliers(
   fit: PoseFitCore,
   scatterMm: Record<FitPartName, number>,
   limitFor: (tests: number, part: FitPartName) => number,
+  into?: PoseJudgement,
 ): PoseJudgement {
   const outOfPlane = checkOf(fit.outOfPlane.readingCount - fit.outOfPlane.parameterCount);
   const inPlane = checkOf(fit.inPlane.readingCount - fit.inPlane.parameterCount);
@@ -74,11 +85,14 @@ export function judgeOutliers(
     buffer.score[i] = Number.NaN;
     if ((buffer.axis[i] === 0 ? outOfPlane : inPlane) === 'checked' && !Number.isNaN(buffer.standardized[i])) tests++;
   }
-  const judgement: PoseJudgement = {
-    outOfPlane: { check: outOfPlane, scatterMm: scatterMm.outOfPlane, limit: tests > 0 ? limitFor(tests, 'outOfPlane') : null, misfit: false, misfitMm: null },
-    inPlane: { check: inPlane, scatterMm: scatterMm.inPlane, limit: tests > 0 ? limitFor(tests, 'inPlane') : null, misfit: false, misfitMm: null },
+  const judgement: PoseJudgement = into ?? {
+    outOfPlane: { check: outOfPlane, scatterMm: 0, limit: null, misfit: false, misfitMm: null },
+    inPlane: { check: inPlane, scatterMm: 0, limit: null, misfit: false, misfitMm: null },
     flagged: [],
   };
+  resetPart(judgement.outOfPlane, outOfPlane, scatterMm.outOfPlane, tests > 0 ? limitFor(tests, 'outOfPlane') : null);
+  resetPart(judgement.inPlane, inPlane, scatterMm.inPlane, tests > 0 ? limitFor(tests, 'inPlane') : null);
+  if (judgement.flagged.length > 0) judgement.flagged.length = 0;
   if (tests === 0) return judgement;
   for (let i = buffer.start; i < end; i++) {
     const part = buffer.axis[i] === 0 ? judgement.outOfPlane : judgement.inPlane;

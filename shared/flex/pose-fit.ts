@@ -538,15 +538,44 @@ function fitInPlane(b: PoseBuffer, l: InPlaneLayout, fit: PoseFitCore): number {
  * @example fitPoseParts(buffer, corners).inPlane.status // => 'full'
  */
 export function fitPoseParts(buffer: PoseBuffer, corners: EdgeCorners, layout: PoseLayout = poseLayout(buffer, corners)): PoseFitCore {
-  const fit: PoseFitCore = { tx: 0, ty: 0, tz: 0, wx: 0, wy: 0, wz: 0, outOfPlane: null as unknown as PartCore, inPlane: null as unknown as PartCore };
-  fit.outOfPlane = partCore(layout.outOfPlane.shape, fitOutOfPlane(buffer, layout.outOfPlane, fit));
-  fit.inPlane = partCore(layout.inPlane.shape, fitInPlane(buffer, layout.inPlane, fit));
+  const fit: PoseFitCore = {
+    tx: 0,
+    ty: 0,
+    tz: 0,
+    wx: 0,
+    wy: 0,
+    wz: 0,
+    outOfPlane: partCore(layout.outOfPlane.shape, 0),
+    inPlane: partCore(layout.inPlane.shape, 0),
+  };
+  fitPoseValues(buffer, layout, fit);
+  return fit;
+}
+
+/**
+ * The part of fitPoseParts that reads the values: the motion into `fit` (its six numbers and each
+ * part's ssr; the rest of `fit` is the caller's), and per reading its residual, leverage,
+ * standardized residual and deleted SD into the buffer. designEnvelope fits a session's poses into
+ * one `fit` this way and keeps only the numbers, so a pose costs no objects until its result is built.
+ * @param buffer the pose's readings. @param layout their layout (poseLayout). @param fit where the motion and ssr go.
+ * @returns nothing; writes into `fit` and the buffer.
+ * @example fitPoseValues(buffer, layout, fit); fit.outOfPlane.ssr // => the fore-aft residuals' sum of squares
+ */
+export function fitPoseValues(buffer: PoseBuffer, layout: PoseLayout, fit: PoseFitCore): void {
+  fit.tx = 0;
+  fit.ty = 0;
+  fit.tz = 0;
+  fit.wx = 0;
+  fit.wy = 0;
+  fit.wz = 0;
+  const ssrOut = fitOutOfPlane(buffer, layout.outOfPlane, fit);
+  const ssrIn = fitInPlane(buffer, layout.inPlane, fit);
+  fit.outOfPlane.ssr = ssrOut;
+  fit.inPlane.ssr = ssrIn;
   const { leverage, rootRest, rest } = layout;
   const { axis, residual } = buffer;
-  const ssrOut = fit.outOfPlane.ssr;
-  const ssrIn = fit.inPlane.ssr;
-  const spareOut = fit.outOfPlane.readingCount - fit.outOfPlane.parameterCount - 1;
-  const spareIn = fit.inPlane.readingCount - fit.inPlane.parameterCount - 1;
+  const spareOut = layout.outOfPlane.shape.readingCount - layout.outOfPlane.shape.parameterCount - 1;
+  const spareIn = layout.inPlane.shape.readingCount - layout.inPlane.shape.parameterCount - 1;
   for (let k = 0; k < buffer.count; k++) {
     const i = buffer.start + k;
     const out = axis[i] === 0;
@@ -557,5 +586,34 @@ export function fitPoseParts(buffer: PoseBuffer, corners: EdgeCorners, layout: P
     buffer.standardized[i] = e / rootRest[k];
     buffer.deletedSd[i] = spare >= 1 ? Math.sqrt(Math.max(0, ((out ? ssrOut : ssrIn) - (e * e) / rest[k]) / spare)) : Number.NaN;
   }
-  return fit;
+}
+
+/**
+ * Loads one part of a reused PoseFitCore with what its layout says and the fit's sum of squared
+ * residuals, as fitPoseParts would give it.
+ * @param into the part core to overwrite. @param layout a pose layout. @param part which part. @param ssr its residuals' sum of squares.
+ * @param covariance the part's covariance as the result keeps it: the layout's values (a caller may
+ *   hand every pose of one layout the same read-only copy); by default a fresh copy.
+ * @returns nothing; writes into `into`.
+ * @example loadPartCore(core.inPlane, layout, 'inPlane', 0.8); core.inPlane.parameterCount // => 3
+ */
+export function loadPartCore(into: PartCore, layout: PoseLayout, part: 'outOfPlane' | 'inPlane', ssr: number, covariance?: number[]): void {
+  const shape = layout[part].shape;
+  into.status = shape.status;
+  into.limitation = shape.limitation;
+  into.readingCount = shape.readingCount;
+  into.parameterCount = shape.parameterCount;
+  into.ssr = ssr;
+  into.edgeErrorRatio = shape.edgeErrorRatio;
+  into.refusedEdgeErrorRatio = shape.refusedEdgeErrorRatio;
+  into.covariance = covariance ?? shape.covariance.slice();
+}
+
+/**
+ * A PoseFitCore to fit poses into again and again (fitPoseValues, loadPartCore).
+ * @param layout any pose layout, for the parts' starting values. @returns a fresh core.
+ * @example scratchPoseFitCore(layout).tx // => 0
+ */
+export function scratchPoseFitCore(layout: PoseLayout): PoseFitCore {
+  return { tx: 0, ty: 0, tz: 0, wx: 0, wy: 0, wz: 0, outOfPlane: partCore(layout.outOfPlane.shape, 0), inPlane: partCore(layout.inPlane.shape, 0) };
 }
