@@ -3,11 +3,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import http from 'node:http';
 import zlib from 'node:zlib';
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
+import { pushRequest } from '../../shared/schemas/sync';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -124,6 +125,32 @@ describe('push', () => {
     const reused = await f.tester.post('/api/sync/push').send({ ...body, changes: [change('testSession', f.session), change('pose', edited)] });
     expect(reused.status).toBe(409);
     expect((await PoseModel.findByPk(f.level.id))?.label).toBe('Level');
+  });
+
+  it("hashes a batch's changes as validated, whatever the order of each record's fields, as every earlier answer was stored", async () => {
+    const f = await fieldSetup();
+    const body = {
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), ...f.readings.map((r) => change('reading', r))],
+    };
+    const first = await f.tester.post('/api/sync/push').send(body);
+    expect(first.status).toBe(200);
+    const [stored] = await ts.sequelize.query<{ request_hash: string }>('SELECT request_hash FROM sync_batches WHERE idempotency_key = $1', {
+      bind: [body.idempotencyKey],
+      type: QueryTypes.SELECT,
+    });
+    expect(stored.request_hash).toBe(
+      createHash('sha256')
+        .update(JSON.stringify(pushRequest.parse(body).changes))
+        .digest('hex'),
+    );
+    // The same records with their fields in reverse order: the same batch, answered the same, written once.
+    const reordered = { ...body, changes: body.changes.map((c) => ({ entity: c.entity, record: Object.fromEntries(Object.entries(c.record).reverse()) })) };
+    expect(JSON.stringify(reordered)).not.toBe(JSON.stringify(body));
+    const retry = await f.tester.post('/api/sync/push').send(reordered);
+    expect(retry.status).toBe(200);
+    expect(retry.body).toEqual(first.body);
+    expect(await ReadingModel.count({ where: { poseId: f.level.id } })).toBe(f.readings.length);
   });
 
   it('keeps both versions of a stale edit as a conflict and leaves the server row unchanged', async () => {
