@@ -2,7 +2,6 @@
 // guard, the route table (each route loads the session, checks access, then parses its body within
 // its limit), the built client, and the one error handler.
 import express, { Router } from 'express';
-import compression from 'compression';
 import fs from 'node:fs';
 import path from 'node:path';
 import type { IncomingMessage, ServerResponse } from 'node:http';
@@ -16,6 +15,7 @@ import { errorHandler } from './http/error-handler';
 import { NotFound } from './http/errors';
 import { trackRequests } from './http/lifecycle';
 import { configureAnswerCache, DEFAULT_ANSWER_CACHE_BYTES } from './http/answer-cache';
+import { appCompression } from './http/compress';
 
 export interface AppOptions {
   logger: Logger;
@@ -42,9 +42,8 @@ export function createApp(opts: AppOptions) {
   app.set('trust proxy', parseTrustProxy(opts.trustProxy ?? 'false'));
   app.use(trackRequests);
   app.use(securityHeaders(opts.production ?? false));
-  // gzip or brotli (quality 4: most of the saving for little CPU) for JSON, HTML, scripts and
-  // styles over 1 kB; photos (JPEG) are sent as they are.
-  app.use(compression({ threshold: 1024 }));
+  // gzip or brotli for answers over 1 kB (http/compress.ts; a route may compress its own faster).
+  app.use(appCompression());
   app.use(
     pinoHttp({
       logger: opts.logger,

@@ -9,6 +9,7 @@ import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
 import { loadAuthWith } from '../auth/context';
 import type { SessionCompanion } from '../http/validator';
 import { DEFAULT_BODY_LIMIT, jsonBody } from '../http/json-body';
+import { fastCompression } from '../http/compress';
 
 export type Access = 'public' | 'signedIn' | Action;
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -33,6 +34,11 @@ export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
   query?: ZodType<Q>;
   /** Middleware that must run before validation (e.g. a multipart parser). */
   before?: RequestHandler[];
+  /**
+   * 'fast': the answer is compressed at the fastest settings (http/compress.ts), for large answers
+   * of mostly random bytes that a route sends often (the push answer).
+   */
+  compression?: 'fast';
   /** Largest JSON body in bytes (default 64 kB, DEFAULT_BODY_LIMIT); only bulk routes raise it. */
   bodyLimit?: number;
   /** false: the route never looks at the session (health must answer even when sessions cannot be read). */
@@ -109,6 +115,7 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
     };
     const session = def.session === false ? [] : [loadAuthWith(companionFor(def))];
     const body = def.method === 'get' ? [] : [jsonBody(def.bodyLimit ?? DEFAULT_BODY_LIMIT)];
-    router[def.method](def.path, ...session, guard, ...body, ...(def.before ?? []), run);
+    const compress = def.compression === 'fast' ? [fastCompression()] : [];
+    router[def.method](def.path, ...compress, ...session, guard, ...body, ...(def.before ?? []), run);
   }
 }

@@ -15,6 +15,8 @@ export const syncRoutes = [
     access: 'session.record',
     // The one bulk route: a long session's readings in one batch (every other route takes 64 kB).
     bodyLimit: 4 * 1024 * 1024,
+    // The answer names every accepted record's id: random bytes, compressed as well at the fastest settings.
+    compression: 'fast',
     body: pushRequest,
     handler: async ({ auth, body }) => pushBatch(auth, body),
   }),

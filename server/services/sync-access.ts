@@ -117,6 +117,18 @@ function shown(col: Column, v: unknown): unknown {
   return v;
 }
 
+/** Per entity, the columns a new record must hold a default in, in column order, with the default as `comparable` gives it. */
+const defaultColumns = new Map<SyncEntity, { col: Column; value: unknown }[]>();
+function defaultsOf(entity: SyncEntity) {
+  let list = defaultColumns.get(entity);
+  if (!list) {
+    const defaults = syncAccess[entity].defaults;
+    list = syncTables[entity].columns.filter((col) => col.key in defaults).map((col) => ({ col, value: comparable(col, defaults[col.key]) }));
+    defaultColumns.set(entity, list);
+  }
+  return list;
+}
+
 const fieldPath = (index: number, key: string) => `body.changes.${index}.record.${key}`;
 
 const WORDS: Record<SyncEntity, string> = {
@@ -150,8 +162,11 @@ export async function enforceSyncAccess(
   });
 
   const poses = reads?.poseSessions ?? poseSessions(auth, transaction);
-  const sessionsOf = await sessionResolver(applied, rows, poses);
-  const sessionIds = [...new Set(applied.flatMap((i) => sessionsOf(i)))];
+  const resolve = await sessionResolver(applied, rows, poses);
+  // Each item's sessions, worked out once (a batch of readings asks for them twice an item).
+  const sessionLists = new Map(applied.map((item) => [item, resolve(item)]));
+  const sessionsOf = (item: AccessItem) => sessionLists.get(item)!;
+  const sessionIds = [...new Set([...sessionLists.values()].flat())];
   // The pose look-up already said for the sessions of the poses it found; only the others are asked.
   const unknown = sessionIds.filter((s) => poses.signed(s) === undefined);
   const signed = new Set(sessionIds.filter((s) => poses.signed(s)));
@@ -174,11 +189,11 @@ export async function enforceSyncAccess(
       errors.push({ field: where(item.index, key), message: `a ${auth.role} may not ${what}: that is for ${whoMay(action)} (${action})` });
 
     const changed: Column[] = [];
-    for (const col of spec.columns) {
-      const after = comparable(col, item.record[col.key]);
-      if (row) {
-        if (after !== comparable(col, row[col.column])) changed.push(col);
-      } else if (col.key in rules.defaults && after !== comparable(col, rules.defaults[col.key])) changed.push(col);
+    if (row) {
+      for (const col of spec.columns) if (comparable(col, item.record[col.key]) !== comparable(col, row[col.column])) changed.push(col);
+    } else {
+      // A new record: only the fields with a default are compared, each with its default's form made once.
+      for (const { col, value } of defaultsOf(item.entity)) if (comparable(col, item.record[col.key]) !== value) changed.push(col);
     }
     if (row && !changed.length) continue;
 
@@ -239,7 +254,9 @@ async function sessionResolver(items: AccessItem[], rows: Map<string, Row>, pose
             : item.entity === 'retestRequest'
               ? [item.record.sessionId as string, row?.session_id as string | undefined]
               : [];
-    return [...new Set(ids.filter((x): x is string => !!x))];
+    const [first, second] = ids;
+    if (!first) return second ? [second] : [];
+    return second && second !== first ? [first, second] : [first];
   };
 }
 

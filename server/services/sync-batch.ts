@@ -174,20 +174,29 @@ export async function checkGaugeLabels(auth: AuthContext, plan: Plan, errors: Fi
  * escaped element by element per column, and the row count never meets the parameter limit. A
  * missing field and a JSON null are both SQL NULL; a jsonb column takes the field's JSON as it is.
  */
-function recordSource(spec: SyncTable, items: Item[], param: number) {
+function recordSource(spec: SyncTable, items: Item[], param: number, json?: RecordsJson) {
   const fields = [{ key: 'id', column: 'id', type: 'uuid' }, { key: 'version', column: 'base_version', type: 'int4' }, ...spec.columns];
   const typed = fields.map((f) => `"${f.key}" ${f.type}`).join(', ');
   const named = fields.map((f) => `r."${f.key}" AS ${f.column}`).join(', ');
   return {
-    bind: [JSON.stringify(items.map((i) => i.record))],
+    bind: [json && json.items.length === items.length && json.items.every((item, k) => item === items[k]) ? json.text : recordsJson(items).text],
     sql: `(SELECT ${named} FROM json_to_recordset($${param}::json) AS r(${typed})) AS u`,
   };
 }
 
-export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {
+/** The records of some items as the bulk statements' JSON parameter, made ahead (sync-push.ts) for the items it names. */
+export interface RecordsJson {
+  items: Item[];
+  text: string;
+}
+
+export const recordsJson = (items: Item[]): RecordsJson => ({ items, text: JSON.stringify(items.map((i) => i.record)) });
+
+/** Inserts the items' records; `json`, made ahead for the same items in the same order, is used as it is. */
+export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction, json?: RecordsJson) {
   // $2 (the signed-in user) is bound only where a column takes it: PostgreSQL refuses an untyped unused parameter.
   const needsUser = Boolean(spec.createdByColumn);
-  const src = recordSource(spec, items, needsUser ? 3 : 2);
+  const src = recordSource(spec, items, needsUser ? 3 : 2, json);
   const cols = spec.columns.map((col) => col.column);
   const extraCols = [...(spec.createdByColumn ? [spec.createdByColumn] : []), ...(spec.entity === 'testSession' ? ['safety_ack_by'] : [])];
   const extraVals = [

@@ -25,6 +25,7 @@ import {
   field,
   lockNamedRows,
   poseSessions,
+  recordsJson,
   rowKey,
   select,
   short,
@@ -32,8 +33,10 @@ import {
   type Item,
   type Plan,
   type PoseSessions,
+  type RecordsJson,
 } from './sync-batch';
 import { keepConflicts } from './sync-conflicts';
+import { alongside } from './alongside';
 import type { PushRequest, PushResponse, SyncConflict, SyncEntity } from '../../shared/schemas/sync';
 
 const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
@@ -95,8 +98,18 @@ function nameConstraint(items: Item[], constraint: string, key: Record<string, s
   return null;
 }
 
+/** Each entity's records of the batch as the bulk insert's JSON parameter (used when all of them are new, as in a batch of new readings). */
+function recordsAhead(items: Item[]): Map<SyncEntity, RecordsJson> {
+  const byEntity = new Map<SyncEntity, Item[]>();
+  for (const item of items) {
+    const list = byEntity.get(item.entity);
+    if (list) list.push(item);
+    else byEntity.set(item.entity, [item]);
+  }
+  return new Map([...byEntity].map(([entity, list]) => [entity, recordsJson(list)]));
+}
+
 async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): Promise<PushResponse> {
-  const hash = requestHash(req);
   return db().transaction(async (transaction) => {
     await lockTeamChanges(auth.teamId, transaction);
     const [earlier] = await select<{ request_hash: string; response: StoredAnswer }>(
@@ -105,13 +118,17 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
       transaction,
     );
     if (earlier) {
-      if (earlier.request_hash !== hash) throw new Conflict('this idempotency key was already used for a different batch');
+      if (earlier.request_hash !== requestHash(req)) throw new Conflict('this idempotency key was already used for a different batch');
       return answerOf(req, earlier.response);
     }
-    const reads: BatchReads = { rows: await lockNamedRows(items, transaction), poseSessions: poseSessions(auth, transaction) };
+    // A new batch: its hash is needed only when its answer is stored, and its records' JSON only
+    // for the inserts; both are made while PostgreSQL reads and locks the rows the batch names.
+    const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => ({ hash: requestHash(req), records: recordsAhead(items) }));
+    const hash = ahead.hash;
+    const reads: BatchReads = { rows, poseSessions: poseSessions(auth, transaction) };
     await enforceSyncAccess(auth, items, transaction, undefined, reads);
     const plan = await checkBatch(auth, items, reads, transaction);
-    const { accepted, conflicts } = await applyPlan(auth, plan, transaction);
+    const { accepted, conflicts } = await applyPlan(auth, plan, transaction, ahead.records);
     const arrivals = await fieldArrivals(plan, reads.poseSessions);
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
@@ -253,13 +270,18 @@ async function checkReferences(
   }
 }
 
-async function applyPlan(auth: AuthContext, plan: Plan, transaction: Transaction): Promise<{ accepted: Accepted[]; conflicts: SyncConflict[] }> {
+async function applyPlan(
+  auth: AuthContext,
+  plan: Plan,
+  transaction: Transaction,
+  ahead: Map<SyncEntity, RecordsJson>,
+): Promise<{ accepted: Accepted[]; conflicts: SyncConflict[] }> {
   const accepted: Accepted[] = [];
   for (const entity of syncOrder) {
     const spec = syncTables[entity];
     const inserts = plan.inserts.get(entity)!;
     if (inserts.length) {
-      await bulkInsert(auth, spec, inserts, transaction);
+      await bulkInsert(auth, spec, inserts, transaction, ahead.get(entity));
       for (const i of inserts) accepted.push({ index: i.index, version: 1 });
     }
     const updates = plan.updates.get(entity)!;

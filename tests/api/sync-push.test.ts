@@ -1,11 +1,14 @@
 // Push and pull through HTTP on the real PostgreSQL: idempotent batches, kept conflicts, whole-batch
 // rejection, team scope, and the pull cursor.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { randomUUID } from 'node:crypto';
+import http from 'node:http';
+import zlib from 'node:zlib';
+import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
 import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
+import { pushRequest } from '../../shared/schemas/sync';
 
 let ts: TestServer;
 beforeAll(async () => {
@@ -124,6 +127,32 @@ describe('push', () => {
     expect((await PoseModel.findByPk(f.level.id))?.label).toBe('Level');
   });
 
+  it("hashes a batch's changes as validated, whatever the order of each record's fields, as every earlier answer was stored", async () => {
+    const f = await fieldSetup();
+    const body = {
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), ...f.readings.map((r) => change('reading', r))],
+    };
+    const first = await f.tester.post('/api/sync/push').send(body);
+    expect(first.status).toBe(200);
+    const [stored] = await ts.sequelize.query<{ request_hash: string }>('SELECT request_hash FROM sync_batches WHERE idempotency_key = $1', {
+      bind: [body.idempotencyKey],
+      type: QueryTypes.SELECT,
+    });
+    expect(stored.request_hash).toBe(
+      createHash('sha256')
+        .update(JSON.stringify(pushRequest.parse(body).changes))
+        .digest('hex'),
+    );
+    // The same records with their fields in reverse order: the same batch, answered the same, written once.
+    const reordered = { ...body, changes: body.changes.map((c) => ({ entity: c.entity, record: Object.fromEntries(Object.entries(c.record).reverse()) })) };
+    expect(JSON.stringify(reordered)).not.toBe(JSON.stringify(body));
+    const retry = await f.tester.post('/api/sync/push').send(reordered);
+    expect(retry.status).toBe(200);
+    expect(retry.body).toEqual(first.body);
+    expect(await ReadingModel.count({ where: { poseId: f.level.id } })).toBe(f.readings.length);
+  });
+
   it('keeps both versions of a stale edit as a conflict and leaves the server row unchanged', async () => {
     const f = await fieldSetup();
     await f.tester
@@ -221,6 +250,56 @@ describe('push', () => {
     const viewer = await signedInAgent(ts, f.team.members.viewer.email);
     const res = await viewer.post('/api/sync/push').send({ idempotencyKey: batchKey(), changes: [change('testSession', f.session)] });
     expect(res.status).toBe(403);
+  });
+});
+
+/** A push as a phone sends it, with the raw answer on the wire for an Accept-Encoding. */
+function pushOnTheWire(cookie: string, body: unknown, encoding: string): Promise<{ status?: number; encoding?: string; raw: Buffer }> {
+  const payload = JSON.stringify(body);
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      `${ts.baseUrl}/api/sync/push`,
+      { method: 'POST', headers: { Cookie: cookie, Origin: ts.origin, 'Content-Type': 'application/json', 'Accept-Encoding': encoding } },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c) => chunks.push(c));
+        res.on('end', () => resolve({ status: res.statusCode, encoding: res.headers['content-encoding'], raw: Buffer.concat(chunks) }));
+      },
+    );
+    req.on('error', reject);
+    req.end(payload);
+  });
+}
+
+describe('the push answer on the wire', () => {
+  it('is compressed at the fastest settings (gzip level 1, brotli quality 1), and decodes to the same answer', async () => {
+    const f = await fieldSetup();
+    const second = poseRecord(f.session.id, 1);
+    const readings = [f.level, second].flatMap((pose) =>
+      f.pointIds.flatMap((p, i) => (['foreAft', 'lateral', 'vertical'] as const).map((axis) => readingRecord(pose.id, p, axis, 10 + i))),
+    );
+    const body = {
+      idempotencyKey: batchKey(),
+      changes: [change('testSession', f.session), change('pose', f.level), change('pose', second), ...readings.map((r) => change('reading', r))],
+    };
+    const cookie = (f.tester as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
+      .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
+      .map((c) => c.toValueString())
+      .join('; ');
+    // The same batch again is answered from the stored answer, byte for byte the same JSON.
+    const plain = await pushOnTheWire(cookie, body, 'identity');
+    const br = await pushOnTheWire(cookie, body, 'br, gzip');
+    const gzip = await pushOnTheWire(cookie, body, 'gzip');
+    expect([plain.status, br.status, gzip.status]).toEqual([200, 200, 200]);
+    expect(plain.encoding).toBeUndefined();
+    expect(JSON.parse(plain.raw.toString('utf8')).accepted).toHaveLength(3 + readings.length);
+    expect(plain.raw.length).toBeGreaterThan(1024);
+    expect(br.encoding).toBe('br');
+    expect(gzip.encoding).toBe('gzip');
+    expect(zlib.brotliDecompressSync(br.raw)).toEqual(plain.raw);
+    expect(zlib.gunzipSync(gzip.raw)).toEqual(plain.raw);
+    expect(br.raw).toEqual(zlib.brotliCompressSync(plain.raw, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 1 } }));
+    expect(gzip.raw).toEqual(zlib.gzipSync(plain.raw, { level: 1 }));
   });
 });
 

@@ -14,7 +14,7 @@ const ROUNDS = 3;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
-async function pushAll(s: BenchServer, batchSize: number) {
+export async function pushAll(s: BenchServer, batchSize: number) {
   const { parents, readings } = sessionChanges(READINGS);
   await s.post('/api/sync/push', { idempotencyKey: randomUUID(), changes: parents });
   const started = performance.now();
@@ -26,7 +26,7 @@ async function pushAll(s: BenchServer, batchSize: number) {
 }
 
 /** The same rows straight into PostgreSQL: one INSERT … VALUES statement of 10,000 rows. */
-async function plainInsert(s: BenchServer) {
+export async function plainInsert(s: BenchServer) {
   const { parents, readings } = sessionChanges(READINGS);
   await s.post('/api/sync/push', { idempotencyKey: randomUUID(), changes: parents });
   // Ids, numbers and axis names only: safe to write as literals.
