@@ -2,7 +2,7 @@
 // schemas of its inputs; `mountRoutes` wires validation and the access check for each, so a
 // test can walk the same table.
 import type { Request, RequestHandler, Response, Router } from 'express';
-import type { ZodType } from 'zod';
+import type { ZodError, ZodType } from 'zod';
 import { can, refusal, type Action } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
@@ -60,22 +60,34 @@ export type AnyRoute = RouteDef<any, any, any> | PublicRouteDef<any, any, any>;
 export const route = <B, P, Q>(def: RouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
 export const publicRoute = <B, P, Q>(def: PublicRouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
 
-/** The validator query for a request whose params and query parse (else none: the route answers 400 later). */
+type Parsed<T> = { success: true; data: T } | { success: false; error: ZodError };
+
+/** A request's params and query, each parsed once whoever asks first (the validator query or the handler). */
+const urlInputs = new WeakMap<Request, { params: Parsed<unknown>; query: Parsed<unknown> }>();
+
+function safeParse<T>(schema: ZodType<T> | undefined, value: unknown): Parsed<T> {
+  return schema ? schema.safeParse(value ?? {}) : { success: true, data: value as T };
+}
+
+function parsedUrl(def: AnyRoute, req: Request) {
+  let inputs = urlInputs.get(req);
+  if (!inputs) urlInputs.set(req, (inputs = { params: safeParse(def.params, req.params), query: safeParse(def.query, req.query) }));
+  return inputs;
+}
+
+function parsed<T>(where: string, r: Parsed<T>): T {
+  if (!r.success) throw Invalid.fromZod(where, r.error);
+  return r.data;
+}
+
+/** The validator query for a request whose params and query parse (else none: the route answers 400 after its access check). */
 function companionFor(def: AnyRoute) {
   const withSession = def.withSession;
   if (!withSession) return undefined;
   return (req: Request): SessionCompanion | undefined => {
-    const params = def.params ? def.params.safeParse(req.params ?? {}) : { success: true as const, data: req.params };
-    const query = def.query ? def.query.safeParse(req.query ?? {}) : { success: true as const, data: req.query };
+    const { params, query } = parsedUrl(def, req);
     return params.success && query.success ? withSession({ params: params.data, query: query.data }) : undefined;
   };
-}
-
-function parse<T>(where: string, schema: ZodType<T> | undefined, value: unknown): T {
-  if (!schema) return value as T;
-  const r = schema.safeParse(value ?? {});
-  if (!r.success) throw Invalid.fromZod(where, r.error);
-  return r.data;
 }
 
 export function accessCheck(access: Access, auth: AuthContext | undefined): void {
@@ -93,9 +105,9 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
         req,
         res,
         auth: req.auth,
-        body: parse('body', def.body, req.body),
-        params: parse('params', def.params, req.params),
-        query: parse('query', def.query, req.query),
+        body: parsed('body', safeParse(def.body, req.body)),
+        params: parsed('params', parsedUrl(def, req).params),
+        query: parsed('query', parsedUrl(def, req).query),
         companion: req.sessionCompanion,
       };
       const result = await (def.handler as (i: typeof input) => Promise<unknown>)(input);
