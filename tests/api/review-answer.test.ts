@@ -24,8 +24,15 @@ const reviewOf = (agent: Agent, sessionId: string, etag?: string) => {
   return etag ? req.set('If-None-Match', etag) : req;
 };
 
-/** The raw bytes on the wire for an Accept-Encoding, and the decoded JSON. */
-function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; json: unknown }> {
+/** The session cookie a supertest agent carries. */
+const cookieOf = (agent: Agent) =>
+  (agent as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
+    .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
+    .map((c) => c.toValueString())
+    .join('; ');
+
+/** The raw bytes on the wire for an Accept-Encoding, and the decoded text and JSON. */
+function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; text: string; json: unknown }> {
   return new Promise((resolve, reject) => {
     http
       .get(`${ts.baseUrl}${path}`, { headers: { Cookie: cookie, 'Accept-Encoding': encoding } }, (res) => {
@@ -35,7 +42,7 @@ function onTheWire(cookie: string, path: string, encoding: string): Promise<{ by
           const raw = Buffer.concat(chunks);
           const enc = res.headers['content-encoding'];
           const text = enc === 'br' ? zlib.brotliDecompressSync(raw) : enc === 'gzip' ? zlib.gunzipSync(raw) : raw;
-          resolve({ bytes: raw.length, encoding: enc, json: JSON.parse(text.toString('utf8')) });
+          resolve({ bytes: raw.length, encoding: enc, text: text.toString('utf8'), json: JSON.parse(text.toString('utf8')) });
         });
       })
       .on('error', reject);
@@ -142,6 +149,21 @@ describe('the review answer', () => {
     expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
   });
 
+  it('sends the review and the pull with no whitespace between tokens, in every encoding', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    for (const path of [`/api/sessions/${s.sessionId}/review`, '/api/sync/pull?since=0']) {
+      const asked = (await engineer.get(path)).body;
+      for (const encoding of ['identity', 'br', 'gzip']) {
+        const sent = await onTheWire(cookieOf(engineer), path, encoding);
+        // Outside its strings, JSON needs no whitespace at all.
+        expect(sent.text.replace(/"(?:[^"\\]|\\.)*"/g, '""'), `${path} ${encoding}`).not.toMatch(/\s/);
+        expect(sent.json).toEqual(asked);
+      }
+    }
+  });
+
   it('reads the session and the validator in one statement: a 304 costs one round trip, the review and the pull alike', async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
@@ -213,10 +235,7 @@ describe('the review answer', () => {
     const team = await createTeam();
     const s = await createDeskSession(team, { poses: 12 });
     const engineer = await signedInAgent(ts, team.members.engineer.email);
-    const cookie = (engineer as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
-      .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
-      .map((c) => c.toValueString())
-      .join('; ');
+    const cookie = cookieOf(engineer);
     const path = `/api/sessions/${s.sessionId}/review`;
     const raw = await onTheWire(cookie, path, 'identity');
     const br = await onTheWire(cookie, path, 'br, gzip');
