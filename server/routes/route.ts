@@ -3,11 +3,11 @@
 // test can walk the same table.
 import type { Request, RequestHandler, Response, Router } from 'express';
 import type { ZodError, ZodType } from 'zod';
-import { can, refusal, type Action } from '../../shared/permissions';
+import { can, refusal, roles, rolesThatCan, type Action } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
 import { loadAuthWith } from '../auth/context';
-import type { SessionCompanion } from '../http/validator';
+import type { CompanionQuery, SessionCompanion } from '../http/validator';
 import { DEFAULT_BODY_LIMIT, jsonBody } from '../http/json-body';
 
 export type Access = 'public' | 'signedIn' | Action;
@@ -40,9 +40,9 @@ export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
   /**
    * A large answer's validator query, read in the same statement as the session: one round trip
    * for both on every request (http/validator.ts SessionCompanion). The handler gets it, with the
-   * row read, as `companion`.
+   * row read, as `companion`. It runs only for a person whose role the route's access lets in.
    */
-  withSession?: (input: { params: P; query: Q }) => SessionCompanion;
+  withSession?: (input: { params: P; query: Q }) => CompanionQuery;
   /** Returns the JSON body to send; a handler that writes the response itself returns undefined. */
   handler: (input: HandlerInput<B, P, Q, AuthContext>) => Promise<unknown>;
 }
@@ -84,9 +84,10 @@ function parsed<T>(where: string, r: Parsed<T>): T {
 function companionFor(def: AnyRoute) {
   const withSession = def.withSession;
   if (!withSession) return undefined;
+  const allowed = def.access === 'public' || def.access === 'signedIn' ? roles : rolesThatCan(def.access);
   return (req: Request): SessionCompanion | undefined => {
     const { params, query } = parsedUrl(def, req);
-    return params.success && query.success ? withSession({ params: params.data, query: query.data }) : undefined;
+    return params.success && query.success ? { ...withSession({ params: params.data, query: query.data }), roles: allowed } : undefined;
   };
 }
 

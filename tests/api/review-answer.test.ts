@@ -108,6 +108,55 @@ describe('the review answer', () => {
     expect((await reviewOf(outsider, '00000000-0000-4000-8000-000000000000')).status).toBe(404);
   });
 
+  it("answers 404 for another workshop's session from the look-up's one statement, without building a review", async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const outsider = await signedInAgent(ts, (await createTeam('Other')).members.engineer.email);
+    const statements = vi.spyOn(pg.Client.prototype, 'query');
+    try {
+      expect((await reviewOf(outsider, s.sessionId)).status).toBe(404);
+      expect(statements).toHaveBeenCalledTimes(1);
+    } finally {
+      statements.mockRestore();
+    }
+  });
+
+  it('runs the validator query only for a role that may see the review: a tester costs the look-up alone', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    /** The plan nodes of the look-up statement a request sent, as PostgreSQL ran them. */
+    const lookUpPlan = async (agent: Agent, status: number) => {
+      const statements = vi.spyOn(pg.Client.prototype, 'query');
+      let sent: { text: string; values: unknown[] } | undefined;
+      try {
+        expect((await reviewOf(agent, s.sessionId)).status).toBe(status);
+        sent = statements.mock.calls.map((c) => c[0] as unknown as { name?: string; text: string; values: unknown[] }).find((q) => q.name?.includes('review'));
+      } finally {
+        statements.mockRestore();
+      }
+      expect(sent).toBeDefined();
+      const client = new pg.Client(process.env.DATABASE_URL);
+      await client.connect();
+      try {
+        const { rows } = await client.query(`EXPLAIN (ANALYZE, FORMAT JSON) ${sent!.text}`, sent!.values);
+        const nodes: { 'Relation Name'?: string; 'Actual Loops': number }[] = [];
+        const walk = (n: { Plans?: unknown[] }) => (nodes.push(n as (typeof nodes)[number]), (n.Plans ?? []).forEach((c) => walk(c as { Plans?: unknown[] })));
+        walk(rows[0]['QUERY PLAN'][0].Plan);
+        return nodes;
+      } finally {
+        await client.end();
+      }
+    };
+    const historyLoops = (nodes: { 'Relation Name'?: string; 'Actual Loops': number }[]) =>
+      nodes.filter((n) => n['Relation Name'] === 'history_events').map((n) => n['Actual Loops']);
+
+    const engineer = await lookUpPlan(await signedInAgent(ts, team.members.engineer.email), 200);
+    expect(historyLoops(engineer).some((loops) => loops > 0)).toBe(true);
+    const tester = await lookUpPlan(await signedInAgent(ts, team.members.tester.email), 403);
+    expect(historyLoops(tester).length).toBeGreaterThan(0);
+    expect(historyLoops(tester).every((loops) => loops === 0)).toBe(true);
+  });
+
   it('answers 304 with no body while nothing changed, and the whole answer after any change', async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
