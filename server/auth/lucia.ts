@@ -63,13 +63,28 @@ const SESSION_AND_PERSON_SQL = `SELECT s.user_id, s.team_id, s.expires_at, u.ema
 // the companion and fails loudly without it (http/validator.ts companionRow).
 let companionSlot: SessionCompanion | undefined;
 
-/** The look-up, with a validator's query joined to it when one is given: one round trip for both. */
+/**
+ * The look-up's statement, with a validator's query joined to it when one is given: one round trip
+ * for both. The validator's query runs only for a person whose role in the session's team is one
+ * of `companion.roles` (the route's access): it sits in a CASE branch, which PostgreSQL never
+ * executes for anyone else, so a request the access check will refuse costs the look-up alone.
+ * Whatever it runs over, it reads only the rows of the session's own team (`p.team_id`).
+ */
+export function sessionLookup(storedId: string, companion: SessionCompanion | undefined): { name: string; text: string; values: unknown[] } {
+  if (!companion) return { name: 'session-and-person', text: SESSION_AND_PERSON_SQL, values: [storedId] };
+  const roles = `$${companion.values.length + 2}::text[]`;
+  return {
+    name: `session-and-${companion.name}`,
+    text: `SELECT p.*, CASE WHEN p.role = ANY(${roles}) THEN (SELECT row_to_json(c) FROM (${companion.sql}) c) END AS companion
+  FROM (${SESSION_AND_PERSON_SQL}) p`,
+    values: [storedId, ...companion.values, companion.roles],
+  };
+}
+
 async function readSession(storedId: string, companion: SessionCompanion | undefined): Promise<SessionRow | undefined> {
-  const sequelize = UserSessionModel.sequelize!;
-  if (!companion) return (await preparedSelect<SessionRow>(sequelize, 'session-and-person', SESSION_AND_PERSON_SQL, [storedId]))[0];
-  const sql = `SELECT p.*, v.* FROM (${SESSION_AND_PERSON_SQL}) p CROSS JOIN LATERAL (${companion.sql}) v`;
-  const [row] = await preparedSelect<SessionRow>(sequelize, `session-and-${companion.name}`, sql, [storedId, ...companion.values]);
-  if (row) companion.row = row;
+  const { name, text, values } = sessionLookup(storedId, companion);
+  const [row] = await preparedSelect<SessionRow & { companion?: object | null }>(UserSessionModel.sequelize!, name, text, values);
+  if (row?.companion && companion) companion.row = row.companion;
   return row;
 }
 

@@ -9,6 +9,7 @@ import { promisify } from 'node:util';
 import { LRUCache } from 'lru-cache';
 import Negotiator from 'negotiator';
 import type { Request, Response } from 'express';
+import { compactJsonBytes } from './compact-json';
 
 export type AnswerEncoding = 'br' | 'gzip' | 'identity';
 
@@ -55,20 +56,25 @@ export function answerEncoding(req: Request): AnswerEncoding {
 }
 
 /** The answer's bytes in `encoding`, from the cache or built once (and compressed once) for `key`. */
-export async function cachedAnswer(key: string, encoding: AnswerEncoding, build: () => Promise<string>): Promise<Buffer> {
+export async function cachedAnswer(key: string, encoding: AnswerEncoding, build: () => Promise<Buffer | string>): Promise<Buffer> {
   const kept = async (k: string, make: Build) => (cache ? (await cache.fetch(k, { context: make }))! : make());
-  const plain = () => kept(`${key} identity`, async () => Buffer.from(await build(), 'utf8'));
+  const plain = () =>
+    kept(`${key} identity`, async () => {
+      const built = await build();
+      return typeof built === 'string' ? Buffer.from(built, 'utf8') : built;
+    });
   if (encoding === 'identity') return plain();
   return kept(`${key} ${encoding}`, async () => compress[encoding](await plain()));
 }
 
 /**
  * Sends a JSON answer through the cache: `key` names exactly the state the answer shows (the
- * validator's parts and whose answer it is), `build` gives its JSON text on a miss.
+ * validator's parts and whose answer it is), `build` gives its JSON text on a miss, kept without
+ * the whitespace between its tokens (compact-json.ts).
  */
 export async function sendCachedJson(req: Request, res: Response, key: string, build: () => Promise<string>): Promise<void> {
   const encoding = answerEncoding(req);
-  const bytes = await cachedAnswer(key, encoding, build);
+  const bytes = await cachedAnswer(key, encoding, async () => compactJsonBytes(await build()));
   res.vary('Accept-Encoding');
   if (encoding !== 'identity') res.setHeader('Content-Encoding', encoding);
   res.type('application/json').send(bytes);

@@ -10,6 +10,7 @@ import type { Request, Response } from 'express';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { VehicleModel } from '../models';
 import { records, syncEntities } from '../../shared/records';
+import type { Role } from '../../shared/schemas/common';
 
 /** Every table with a change cursor: the registry's synced records, photos and envelopes. */
 const SYNCED_TABLES = [...syncEntities.map((e) => records[e].table), 'photos', 'envelopes'];
@@ -54,15 +55,21 @@ export interface AnswerValidator {
  * `validateSessionCookie`): one prepared statement instead of two for every request of a large
  * answer. `sql` is one SELECT yielding one row, written over the session's row `p` (`p.team_id`,
  * `p.user_id`: the validator is always the signed-in person's team's) and its own `values`, which
- * are numbered from $2. The look-up puts the row it read in `row` when the session is live.
+ * are numbered from $2. It runs only when the person's role is one of `roles` (the route's access,
+ * filled in by routes/route.ts), and the look-up then puts the row it read in `row`.
  */
 export interface SessionCompanion<Row extends object = object> {
   /** Names the prepared statement: one `sql` text per name. */
   name: string;
   sql: string;
   values: unknown[];
+  /** The roles the route's access lets in: for any other the query is not run. */
+  roles: readonly Role[];
   row?: Row;
 }
+
+/** A validator's query as a route declares it (RouteDef.withSession); the route table adds the roles. */
+export type CompanionQuery = Omit<SessionCompanion, 'roles' | 'row'>;
 
 /** The row a validator's query read with the session; a route that declares one always has it. */
 export function companionRow<Row extends object>(companion: SessionCompanion | undefined, name: string): Row {

@@ -2,12 +2,12 @@
 // schemas of its inputs; `mountRoutes` wires validation and the access check for each, so a
 // test can walk the same table.
 import type { Request, RequestHandler, Response, Router } from 'express';
-import type { ZodType } from 'zod';
-import { can, refusal, type Action } from '../../shared/permissions';
+import type { ZodError, ZodType } from 'zod';
+import { can, refusal, roles, rolesThatCan, type Action } from '../../shared/permissions';
 import type { AuthContext } from '../auth/context';
 import { Forbidden, Invalid, Unauthenticated } from '../http/errors';
 import { loadAuthWith } from '../auth/context';
-import type { SessionCompanion } from '../http/validator';
+import type { CompanionQuery, SessionCompanion } from '../http/validator';
 import { DEFAULT_BODY_LIMIT, jsonBody } from '../http/json-body';
 import { fastCompression } from '../http/compress';
 
@@ -46,9 +46,9 @@ export interface RouteDef<B = unknown, P = unknown, Q = unknown> {
   /**
    * A large answer's validator query, read in the same statement as the session: one round trip
    * for both on every request (http/validator.ts SessionCompanion). The handler gets it, with the
-   * row read, as `companion`.
+   * row read, as `companion`. It runs only for a person whose role the route's access lets in.
    */
-  withSession?: (input: { params: P; query: Q }) => SessionCompanion;
+  withSession?: (input: { params: P; query: Q }) => CompanionQuery;
   /** Returns the JSON body to send; a handler that writes the response itself returns undefined. */
   handler: (input: HandlerInput<B, P, Q, AuthContext>) => Promise<unknown>;
 }
@@ -66,22 +66,35 @@ export type AnyRoute = RouteDef<any, any, any> | PublicRouteDef<any, any, any>;
 export const route = <B, P, Q>(def: RouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
 export const publicRoute = <B, P, Q>(def: PublicRouteDef<B, P, Q>): AnyRoute => def as AnyRoute;
 
-/** The validator query for a request whose params and query parse (else none: the route answers 400 later). */
+type Parsed<T> = { success: true; data: T } | { success: false; error: ZodError };
+
+/** A request's params and query, each parsed once whoever asks first (the validator query or the handler). */
+const urlInputs = new WeakMap<Request, { params: Parsed<unknown>; query: Parsed<unknown> }>();
+
+function safeParse<T>(schema: ZodType<T> | undefined, value: unknown): Parsed<T> {
+  return schema ? schema.safeParse(value ?? {}) : { success: true, data: value as T };
+}
+
+function parsedUrl(def: AnyRoute, req: Request) {
+  let inputs = urlInputs.get(req);
+  if (!inputs) urlInputs.set(req, (inputs = { params: safeParse(def.params, req.params), query: safeParse(def.query, req.query) }));
+  return inputs;
+}
+
+function parsed<T>(where: string, r: Parsed<T>): T {
+  if (!r.success) throw Invalid.fromZod(where, r.error);
+  return r.data;
+}
+
+/** The validator query for a request whose params and query parse (else none: the route answers 400 after its access check). */
 function companionFor(def: AnyRoute) {
   const withSession = def.withSession;
   if (!withSession) return undefined;
+  const allowed = def.access === 'public' || def.access === 'signedIn' ? roles : rolesThatCan(def.access);
   return (req: Request): SessionCompanion | undefined => {
-    const params = def.params ? def.params.safeParse(req.params ?? {}) : { success: true as const, data: req.params };
-    const query = def.query ? def.query.safeParse(req.query ?? {}) : { success: true as const, data: req.query };
-    return params.success && query.success ? withSession({ params: params.data, query: query.data }) : undefined;
+    const { params, query } = parsedUrl(def, req);
+    return params.success && query.success ? { ...withSession({ params: params.data, query: query.data }), roles: allowed } : undefined;
   };
-}
-
-function parse<T>(where: string, schema: ZodType<T> | undefined, value: unknown): T {
-  if (!schema) return value as T;
-  const r = schema.safeParse(value ?? {});
-  if (!r.success) throw Invalid.fromZod(where, r.error);
-  return r.data;
 }
 
 export function accessCheck(access: Access, auth: AuthContext | undefined): void {
@@ -99,9 +112,9 @@ export function mountRoutes(router: Router, routes: AnyRoute[]) {
         req,
         res,
         auth: req.auth,
-        body: parse('body', def.body, req.body),
-        params: parse('params', def.params, req.params),
-        query: parse('query', def.query, req.query),
+        body: parsed('body', safeParse(def.body, req.body)),
+        params: parsed('params', parsedUrl(def, req).params),
+        query: parsed('query', parsedUrl(def, req).query),
         companion: req.sessionCompanion,
       };
       const result = await (def.handler as (i: typeof input) => Promise<unknown>)(input);

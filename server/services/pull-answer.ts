@@ -11,7 +11,7 @@ import type { AuthContext } from '../auth/context';
 import { VehicleModel } from '../models';
 import { records, syncEntities } from '../../shared/records';
 import { syncTables } from './sync-tables';
-import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type SessionCompanion } from '../http/validator';
+import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type CompanionQuery, type SessionCompanion } from '../http/validator';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
 import { lockTeamChanges } from './team-changes';
 import { translateDbError } from './sync-db-errors';
@@ -65,7 +65,7 @@ const PULL_VALIDATOR = 'pull-validator';
 const PULL_VALIDATOR_SQL = `SELECT ${teamCursorSqlOf('p.team_id')} AS team, ${conflictCursorSql('p.team_id', 'p.user_id')} AS conflicts`;
 
 /** The pull's validator query, read with the sign-in session (http/validator.ts SessionCompanion). */
-export const pullValidatorQuery = (): SessionCompanion => ({ name: PULL_VALIDATOR, sql: PULL_VALIDATOR_SQL, values: [] });
+export const pullValidatorQuery = (): CompanionQuery => ({ name: PULL_VALIDATOR, sql: PULL_VALIDATOR_SQL, values: [] });
 
 /**
  * The pull's validator: the team's change cursor, the person's conflicts' cursor, and the page

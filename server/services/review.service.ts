@@ -11,7 +11,7 @@ import type { SessionReview } from '../../shared/desk-responses';
 import { readingOut } from './sessions.service';
 import { withTeamChanges } from './team-changes';
 import { isoSql, photoJsonSql, syncedRecordJsonSql } from './record-json';
-import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type SessionCompanion } from '../http/validator';
+import { answerValidator, companionRow, teamCursorSqlOf, type AnswerValidator, type CompanionQuery, type SessionCompanion } from '../http/validator';
 
 type Reviewer = Pick<AuthContext, 'teamId' | 'userId'>;
 
@@ -70,11 +70,15 @@ export async function getReview(auth: Pick<AuthContext, 'teamId'>, sessionId: st
 export const REVIEW_VALIDATOR = 'review-validator';
 
 /** The review's validator query for `sessionId`, read with the sign-in session (http/validator.ts SessionCompanion). */
-export const reviewValidatorQuery = (sessionId: string): SessionCompanion => ({ name: REVIEW_VALIDATOR, sql: REVIEW_VALIDATOR_SQL, values: [sessionId] });
+export const reviewValidatorQuery = (sessionId: string): CompanionQuery => ({ name: REVIEW_VALIDATOR, sql: REVIEW_VALIDATOR_SQL, values: [sessionId] });
 
-/** The review's validator from the row its query read with the session. */
+/**
+ * The review's validator from the row its query read with the session; a session that is not the
+ * caller's workshop's (or is deleted) is a 404 here, before any 304 or the review's statement.
+ */
 export function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>, sessionId: string, companion: SessionCompanion | undefined): AnswerValidator {
-  const row = companionRow<{ cursor: number; events: number; last: number; people: number }>(companion, REVIEW_VALIDATOR);
+  const row = companionRow<{ found: boolean; cursor: number; events: number; last: number; people: number }>(companion, REVIEW_VALIDATOR);
+  if (!row.found) throw new NotFound('session');
   return answerValidator('review', [auth.teamId, sessionId], [row.cursor, row.events, row.last, row.people], auth.sessionId);
 }
 
@@ -83,8 +87,10 @@ export function reviewValidator(auth: Pick<AuthContext, 'teamId' | 'sessionId'>,
 // history's authors and whoever entered its readings: a reading reaches the server only through
 // the sync push, which leaves a history event of the session naming who sent it
 // (services/sync-push.ts), so the session's history authors and the team's members cover them,
-// also after someone has left the workshop, without reading the readings.
-const REVIEW_VALIDATOR_SQL = `SELECT ${teamCursorSqlOf('p.team_id')} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
+// also after someone has left the workshop, without reading the readings. `found`: the session is
+// the team's and not deleted.
+const REVIEW_VALIDATOR_SQL = `SELECT EXISTS (SELECT 1 FROM test_sessions WHERE id = $2 AND team_id = p.team_id AND deleted_at IS NULL) AS found,
+   ${teamCursorSqlOf('p.team_id')} AS cursor, count(*)::int AS events, coalesce(max(id), 0) AS last,
    (SELECT coalesce(floor(extract(epoch FROM max(u.updated_at)) * 1000), 0)::bigint FROM users u
      JOIN (SELECT user_id FROM memberships WHERE team_id = p.team_id UNION SELECT user_id FROM history_events WHERE team_id = p.team_id AND session_id = $2) named
        ON named.user_id = u.id) AS people

@@ -24,8 +24,15 @@ const reviewOf = (agent: Agent, sessionId: string, etag?: string) => {
   return etag ? req.set('If-None-Match', etag) : req;
 };
 
-/** The raw bytes on the wire for an Accept-Encoding, and the decoded JSON. */
-function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; json: unknown }> {
+/** The session cookie a supertest agent carries. */
+const cookieOf = (agent: Agent) =>
+  (agent as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
+    .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
+    .map((c) => c.toValueString())
+    .join('; ');
+
+/** The raw bytes on the wire for an Accept-Encoding, and the decoded text and JSON. */
+function onTheWire(cookie: string, path: string, encoding: string): Promise<{ bytes: number; encoding?: string; text: string; json: unknown }> {
   return new Promise((resolve, reject) => {
     http
       .get(`${ts.baseUrl}${path}`, { headers: { Cookie: cookie, 'Accept-Encoding': encoding } }, (res) => {
@@ -35,7 +42,7 @@ function onTheWire(cookie: string, path: string, encoding: string): Promise<{ by
           const raw = Buffer.concat(chunks);
           const enc = res.headers['content-encoding'];
           const text = enc === 'br' ? zlib.brotliDecompressSync(raw) : enc === 'gzip' ? zlib.gunzipSync(raw) : raw;
-          resolve({ bytes: raw.length, encoding: enc, json: JSON.parse(text.toString('utf8')) });
+          resolve({ bytes: raw.length, encoding: enc, text: text.toString('utf8'), json: JSON.parse(text.toString('utf8')) });
         });
       })
       .on('error', reject);
@@ -101,6 +108,55 @@ describe('the review answer', () => {
     expect((await reviewOf(outsider, '00000000-0000-4000-8000-000000000000')).status).toBe(404);
   });
 
+  it("answers 404 for another workshop's session from the look-up's one statement, without building a review", async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const outsider = await signedInAgent(ts, (await createTeam('Other')).members.engineer.email);
+    const statements = vi.spyOn(pg.Client.prototype, 'query');
+    try {
+      expect((await reviewOf(outsider, s.sessionId)).status).toBe(404);
+      expect(statements).toHaveBeenCalledTimes(1);
+    } finally {
+      statements.mockRestore();
+    }
+  });
+
+  it('runs the validator query only for a role that may see the review: a tester costs the look-up alone', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    /** The plan nodes of the look-up statement a request sent, as PostgreSQL ran them. */
+    const lookUpPlan = async (agent: Agent, status: number) => {
+      const statements = vi.spyOn(pg.Client.prototype, 'query');
+      let sent: { text: string; values: unknown[] } | undefined;
+      try {
+        expect((await reviewOf(agent, s.sessionId)).status).toBe(status);
+        sent = statements.mock.calls.map((c) => c[0] as unknown as { name?: string; text: string; values: unknown[] }).find((q) => q.name?.includes('review'));
+      } finally {
+        statements.mockRestore();
+      }
+      expect(sent).toBeDefined();
+      const client = new pg.Client(process.env.DATABASE_URL);
+      await client.connect();
+      try {
+        const { rows } = await client.query(`EXPLAIN (ANALYZE, FORMAT JSON) ${sent!.text}`, sent!.values);
+        const nodes: { 'Relation Name'?: string; 'Actual Loops': number }[] = [];
+        const walk = (n: { Plans?: unknown[] }) => (nodes.push(n as (typeof nodes)[number]), (n.Plans ?? []).forEach((c) => walk(c as { Plans?: unknown[] })));
+        walk(rows[0]['QUERY PLAN'][0].Plan);
+        return nodes;
+      } finally {
+        await client.end();
+      }
+    };
+    const historyLoops = (nodes: { 'Relation Name'?: string; 'Actual Loops': number }[]) =>
+      nodes.filter((n) => n['Relation Name'] === 'history_events').map((n) => n['Actual Loops']);
+
+    const engineer = await lookUpPlan(await signedInAgent(ts, team.members.engineer.email), 200);
+    expect(historyLoops(engineer).some((loops) => loops > 0)).toBe(true);
+    const tester = await lookUpPlan(await signedInAgent(ts, team.members.tester.email), 403);
+    expect(historyLoops(tester).length).toBeGreaterThan(0);
+    expect(historyLoops(tester).every((loops) => loops === 0)).toBe(true);
+  });
+
   it('answers 304 with no body while nothing changed, and the whole answer after any change', async () => {
     const team = await createTeam();
     const s = await createDeskSession(team);
@@ -140,6 +196,21 @@ describe('the review answer', () => {
     const theirs = await reviewOf(admin, s.sessionId, afterPush.headers.etag);
     expect(theirs.status).toBe(200);
     expect(theirs.body.readings).toHaveLength(s.readingIdList.length);
+  });
+
+  it('sends the review and the pull with no whitespace between tokens, in every encoding', async () => {
+    const team = await createTeam();
+    const s = await createDeskSession(team);
+    const engineer = await signedInAgent(ts, team.members.engineer.email);
+    for (const path of [`/api/sessions/${s.sessionId}/review`, '/api/sync/pull?since=0']) {
+      const asked = (await engineer.get(path)).body;
+      for (const encoding of ['identity', 'br', 'gzip']) {
+        const sent = await onTheWire(cookieOf(engineer), path, encoding);
+        // Outside its strings, JSON needs no whitespace at all.
+        expect(sent.text.replace(/"(?:[^"\\]|\\.)*"/g, '""'), `${path} ${encoding}`).not.toMatch(/\s/);
+        expect(sent.json).toEqual(asked);
+      }
+    }
   });
 
   it('reads the session and the validator in one statement: a 304 costs one round trip, the review and the pull alike', async () => {
@@ -213,10 +284,7 @@ describe('the review answer', () => {
     const team = await createTeam();
     const s = await createDeskSession(team, { poses: 12 });
     const engineer = await signedInAgent(ts, team.members.engineer.email);
-    const cookie = (engineer as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
-      .getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false })
-      .map((c) => c.toValueString())
-      .join('; ');
+    const cookie = cookieOf(engineer);
     const path = `/api/sessions/${s.sessionId}/review`;
     const raw = await onTheWire(cookie, path, 'identity');
     const br = await onTheWire(cookie, path, 'br, gzip');
