@@ -49,18 +49,24 @@ export function postgresPids(port: number): number[] {
   return [postmaster, ...pids.filter((pid) => readStat(pid)?.ppid === postmaster)];
 }
 
-function machineTicks(): { busy: number; total: number } {
-  const [cpu] = fs.readFileSync('/proc/stat', 'utf8').split('\n');
+function machineTicks(): { busy: number; total: number; cores: number } {
+  const stat = fs.readFileSync('/proc/stat', 'utf8');
+  const [cpu] = stat.split('\n');
   const n = cpu.trim().split(/\s+/).slice(1).map(Number);
   // user nice system idle iowait irq softirq steal: idle and iowait are the idle ones.
   const total = n.slice(0, 8).reduce((a, b) => a + b, 0);
-  return { busy: total - n[3] - n[4], total };
+  return { busy: total - n[3] - n[4], total, cores: stat.match(/^cpu\d+ /gm)?.length ?? 1 };
 }
 
 function snapshot(parts: Record<string, () => number[]>) {
   const ticks: Record<string, Map<number, number>> = {};
   for (const [name, pids] of Object.entries(parts)) {
-    ticks[name] = new Map(pids().flatMap((pid) => (readStat(pid) ? [[pid, readStat(pid)!.ticks] as [number, number]] : [])));
+    ticks[name] = new Map(
+      pids().flatMap((pid) => {
+        const stat = readStat(pid);
+        return stat ? [[pid, stat.ticks] as [number, number]] : [];
+      }),
+    );
   }
   return { ticks, machine: machineTicks(), at: performance.now() };
 }
@@ -86,7 +92,7 @@ export async function withCpuShare<T>(parts: Record<string, () => number[]>, wor
   const total = after.machine.total - before.machine.total;
   return {
     result,
-    cpu: { parts: share, machineBusy: total > 0 ? (busy / total) * 100 : 0, cores: fs.readFileSync('/proc/stat', 'utf8').match(/^cpu\d+ /gm)?.length ?? 1 },
+    cpu: { parts: share, machineBusy: total > 0 ? (busy / total) * 100 : 0, cores: after.machine.cores },
   };
 }
 
