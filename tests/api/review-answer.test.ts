@@ -24,6 +24,14 @@ const reviewOf = (agent: Agent, sessionId: string, etag?: string) => {
   return etag ? req.set('If-None-Match', etag) : req;
 };
 
+/**
+ * The statements a `pg.Client#query` spy saw, less the sign-in's own bookkeeping: a successful
+ * sign-in clears its throttle record once its answer is sent, so under load that DELETE can land
+ * in the window of the request a test counts.
+ */
+const statementsOf = (spy: { mock: { calls: unknown[][] } }) =>
+  spy.mock.calls.map(([q]) => (typeof q === 'string' ? q : (q as { text: string }).text)).filter((text) => !/\bsign_in_throttle\b/.test(text));
+
 /** The session cookie a supertest agent carries. */
 const cookieOf = (agent: Agent) =>
   (agent as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }).jar
@@ -115,7 +123,7 @@ describe('the review answer', () => {
     const statements = vi.spyOn(pg.Client.prototype, 'query');
     try {
       expect((await reviewOf(outsider, s.sessionId)).status).toBe(404);
-      expect(statements).toHaveBeenCalledTimes(1);
+      expect(statementsOf(statements)).toHaveLength(1);
     } finally {
       statements.mockRestore();
     }
@@ -224,7 +232,7 @@ describe('the review answer', () => {
         statements.mockClear();
         const again = await engineer.get(path).set('If-None-Match', etag);
         expect(again.status).toBe(304);
-        expect(statements).toHaveBeenCalledTimes(1);
+        expect(statementsOf(statements)).toHaveLength(1);
       }
     } finally {
       statements.mockRestore();
