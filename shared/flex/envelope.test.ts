@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { ENVELOPE_MEASURES, designEnvelope, type EnvelopeInput, type EnvelopePose } from './envelope';
 import { linearFit } from './linear-fit';
+import { perimeterWorst } from './perimeter';
 import { scaleMotion } from './predict-displacement';
 import { buildSyntheticSession, seededNormal, seededRandom, syntheticEnvelopeInput, type SyntheticSessionOptions } from './synthetic-session';
 import { SIX_POINTS, readingsAt } from './test-fixtures';
@@ -512,5 +513,51 @@ describe('designEnvelope result', () => {
     expect(c.inPlane.covariance[4]).toBe(0);
     expect(a.inPlane.covariance[4]).toBeGreaterThan(0);
     expect(d.inPlane.covariance).toEqual(a.inPlane.covariance);
+  });
+
+  it('writes each pose to JSON with the fields of a plain result, in their order, worst and measures included', () => {
+    const result = designEnvelope(sessionInput({ poses: 4, gaugePoints: 6, seed: 22, mode: 'gap' }, { designTwistDeg: 20 }));
+    for (const pose of result.poses) {
+      const plain = {
+        poseId: pose.poseId,
+        isBaseline: pose.isBaseline,
+        liftTwistDeg: pose.liftTwistDeg,
+        twistDeg: pose.twistDeg,
+        missingBaselineCount: pose.missingBaselineCount,
+        fit: pose.fit,
+        worst: pose.worst,
+        measures: pose.measures,
+        note: pose.note,
+      };
+      expect(JSON.stringify(pose)).toBe(JSON.stringify(plain));
+    }
+    const fitted = JSON.parse(JSON.stringify(result.poses[1])) as Record<string, unknown>;
+    expect(Object.keys(fitted)).toEqual(['poseId', 'isBaseline', 'liftTwistDeg', 'twistDeg', 'missingBaselineCount', 'fit', 'worst', 'measures', 'note']);
+    expect(Object.keys(fitted.worst as object)).toEqual(['foreAft', 'lateral', 'vertical']);
+    expect(Object.keys(fitted.measures as object)).toEqual(['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical']);
+    expect(JSON.parse(JSON.stringify(result.poses[0]))).toMatchObject({ isBaseline: true, fit: null, worst: null, measures: null });
+  });
+
+  it("builds a pose's extremes and measures when read, once, matching the outline and the measures the bounds used", () => {
+    const input = sessionInput({ poses: 6, gaugePoints: 6, seed: 23, mode: 'gap' }, { designTwistDeg: 20 });
+    const result = designEnvelope(input);
+    for (const pose of result.poses.slice(1)) {
+      expect(pose.worst).toBe(pose.worst);
+      expect(pose.measures).toBe(pose.measures);
+      expect(pose.worst).toEqual(perimeterWorst(pose.fit!.motion, input.outline));
+      expect(pose.measures!.foreAftOpening.valueMm).toBe(Math.max(0, pose.worst!.foreAft.highest.valueMm));
+      expect(pose.measures!.foreAftClosing.valueMm).toBe(Math.max(0, -pose.worst!.foreAft.lowest.valueMm));
+      expect(pose.measures!.lateral.valueMm).toBe(Math.abs(pose.worst!.lateral.valueMm));
+      expect(pose.measures!.vertical).toMatchObject({ valueMm: Math.abs(pose.worst!.vertical.valueMm), y: pose.worst!.vertical.y });
+    }
+    for (const measure of ENVELOPE_MEASURES) {
+      const m = result.measures[measure];
+      const values = result.poses.slice(1).map((pose) => pose.measures![measure].valueMm);
+      expect(m.measuredWorstMm).toBe(Math.max(...values));
+      const worstPose = result.poses.find((pose) => pose.poseId === m.measuredWorstPoseId)!;
+      expect(m.measuredWorstAt).toEqual({ y: worstPose.measures![measure].y, z: worstPose.measures![measure].z, side: worstPose.measures![measure].side });
+      const uncertainties = result.poses.slice(1).map((pose) => pose.measures![measure].uncertaintyMm!);
+      expect(m.fitUncertaintyMm).toBe(Math.max(...uncertainties));
+    }
   });
 });

@@ -47,7 +47,17 @@ import { packFit, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
 import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName, type PoseJudgement } from './outlier-rule';
-import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
+import {
+  EXTREME_STRIDE,
+  lowestIsWorst,
+  outlineCorners,
+  outlineExtremesOn,
+  perimeterWorstOn,
+  validateOutline,
+  type OpeningOutline,
+  type OutlineSide,
+  type PerimeterWorst,
+} from './perimeter';
 import { fitPoseValues, loadPartCore, poseBuffer, poseLayout, scratchPoseFitCore, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
@@ -494,25 +504,117 @@ function spread(c: readonly number[], g0: number, g1: number, g2: number): numbe
   return Math.sqrt(Math.max(0, g0 * g0 * c[0] + g1 * g1 * c[4] + g2 * g2 * c[8] + 2 * (g0 * g1 * c[1] + g0 * g2 * c[2] + g1 * g2 * c[5])));
 }
 
-function poseMeasure(at: OutlineValue, valueMm: number, uncertaintyMm: number | null): PoseMeasure {
-  return { valueMm, y: at.y, z: at.z, side: at.side, uncertaintyMm };
+/** A measure's size (mm, ≥ 0) from the extreme value behind it: the gap's opening and closing apart, the others either way. */
+function measureSize(measure: EnvelopeMeasure, valueMm: number): number {
+  if (measure === 'foreAftOpening') return Math.max(0, valueMm);
+  if (measure === 'foreAftClosing') return Math.max(0, -valueMm);
+  return Math.abs(valueMm);
 }
 
-/** The measures of one pose from its fit's extremes on the outline, with the fit's 1-SD uncertainty there. */
+/**
+ * The fit's 1-SD uncertainty of a measure at its extreme (y, z), σ·√(gᵀ(XᵀX)⁻¹g); NaN where the
+ * part behind it had no readings. The one place it is worked out, for the columns the bounds read
+ * and for the measures a pose shows.
+ */
+function measureUncertainty(measure: EnvelopeMeasure, y: number, z: number, fit: RelativeMotionFit): number {
+  if (measure === 'foreAftOpening' || measure === 'foreAftClosing') {
+    const sd = partSd(fit.outOfPlane);
+    return sd === null ? Number.NaN : sd * spread(fit.outOfPlane.covariance, 1, z, -y);
+  }
+  const sd = partSd(fit.inPlane);
+  if (sd === null) return Number.NaN;
+  return measure === 'lateral' ? sd * spread(fit.inPlane.covariance, 1, 0, -z) : sd * spread(fit.inPlane.covariance, 0, 1, y);
+}
+
+/** Where each measure's extreme is in outlineExtremesOn's numbers (its value, y and z follow). */
+function extremeAt(measure: EnvelopeMeasure, extremes: Float64Array): number {
+  if (measure === 'foreAftOpening') return 0;
+  if (measure === 'foreAftClosing') return 3;
+  // Lateral and vertical: the larger |value| of the component, as PerimeterWorst's own value.
+  const at = measure === 'lateral' ? EXTREME_STRIDE : 2 * EXTREME_STRIDE;
+  return lowestIsWorst(extremes[at], extremes[at + 3]) ? at + 3 : at;
+}
+
+/** The measures of one pose as objects, from its extremes on the outline (for PoseResultView.measures). */
 function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<EnvelopeMeasure, PoseMeasure> {
-  const outSd = partSd(fit.outOfPlane);
-  const inSd = partSd(fit.inPlane);
-  const out = fit.outOfPlane.covariance;
-  const inPlane = fit.inPlane.covariance;
-  const { highest, lowest } = worst.foreAft;
-  const lateral = worst.lateral;
-  const vertical = worst.vertical;
-  return {
-    foreAftOpening: poseMeasure(highest, Math.max(0, highest.valueMm), outSd === null ? null : outSd * spread(out, 1, highest.z, -highest.y)),
-    foreAftClosing: poseMeasure(lowest, Math.max(0, -lowest.valueMm), outSd === null ? null : outSd * spread(out, 1, lowest.z, -lowest.y)),
-    lateral: poseMeasure(lateral, Math.abs(lateral.valueMm), inSd === null ? null : inSd * spread(inPlane, 1, 0, -lateral.z)),
-    vertical: poseMeasure(vertical, Math.abs(vertical.valueMm), inSd === null ? null : inSd * spread(inPlane, 0, 1, vertical.y)),
+  const measure = (name: EnvelopeMeasure, at: PerimeterWorst['foreAft']['highest']): PoseMeasure => {
+    const uncertainty = measureUncertainty(name, at.y, at.z, fit);
+    return { valueMm: measureSize(name, at.valueMm), y: at.y, z: at.z, side: at.side, uncertaintyMm: Number.isNaN(uncertainty) ? null : uncertainty };
   };
+  return {
+    foreAftOpening: measure('foreAftOpening', worst.foreAft.highest),
+    foreAftClosing: measure('foreAftClosing', worst.foreAft.lowest),
+    lateral: measure('lateral', worst.lateral),
+    vertical: measure('vertical', worst.vertical),
+  };
+}
+
+/**
+ * One pose's result. Its extremes on the outline (`worst`) and its measures are built on first
+ * read and kept: the envelope needs only their numbers, which judgePose writes into columns, and
+ * their 15 objects and ~43 boxed numbers were most of what a pose allocated, for results whose
+ * per-pose detail is mostly never read. Both come from the fit's motion and the outline through
+ * the same functions as the columns, so they hold the same bits. toJSON writes the fields in the
+ * order a plain object had them, so an API answer or a signed snapshot is byte for byte the same.
+ */
+class PoseResultView implements PoseResult {
+  readonly poseId: string;
+  readonly isBaseline: boolean;
+  readonly liftTwistDeg: number;
+  readonly twistDeg: number;
+  readonly missingBaselineCount: number;
+  readonly fit: RelativeMotionFit | null;
+  readonly note: string | null;
+  readonly #worstOf: (motion: RigidMotion) => PerimeterWorst;
+  #worst: PerimeterWorst | null | undefined = undefined;
+  #measures: Record<EnvelopeMeasure, PoseMeasure> | null | undefined = undefined;
+
+  constructor(
+    poseId: string,
+    isBaseline: boolean,
+    liftTwistDeg: number,
+    twistDeg: number,
+    missingBaselineCount: number,
+    fit: RelativeMotionFit | null,
+    note: string | null,
+    worstOf: (motion: RigidMotion) => PerimeterWorst,
+  ) {
+    this.poseId = poseId;
+    this.isBaseline = isBaseline;
+    this.liftTwistDeg = liftTwistDeg;
+    this.twistDeg = twistDeg;
+    this.missingBaselineCount = missingBaselineCount;
+    this.fit = fit;
+    this.note = note;
+    this.#worstOf = worstOf;
+  }
+
+  get worst(): PerimeterWorst | null {
+    if (this.#worst === undefined) this.#worst = this.fit === null ? null : this.#worstOf(this.fit.motion);
+    return this.#worst;
+  }
+
+  get measures(): Record<EnvelopeMeasure, PoseMeasure> | null {
+    if (this.#measures === undefined) {
+      const worst = this.worst;
+      this.#measures = worst === null || this.fit === null ? null : poseMeasures(worst, this.fit);
+    }
+    return this.#measures;
+  }
+
+  toJSON(): PoseResult {
+    return {
+      poseId: this.poseId,
+      isBaseline: this.isBaseline,
+      liftTwistDeg: this.liftTwistDeg,
+      twistDeg: this.twistDeg,
+      missingBaselineCount: this.missingBaselineCount,
+      fit: this.fit,
+      worst: this.worst,
+      measures: this.measures,
+      note: this.note,
+    };
+  }
 }
 
 /** The poses' results, the scatter the outlier rule judged against, the flags, and the measures as columns. */
@@ -545,7 +647,10 @@ interface PosePasses {
   judgement: PoseJudgement;
   scatterMm: Record<FitPartName, number>;
   limitFor: (tests: number, part: FitPartName) => number;
+  /** A pose's extremes on the outline as objects (built only when a result's `worst` is read), and as numbers into `extremes`. */
   worstOf: (motion: RigidMotion) => PerimeterWorst;
+  extremesOf: (tx: number, ty: number, tz: number, wx: number, wy: number, wz: number, out: Float64Array) => void;
+  extremes: Float64Array;
   /** The layout whose covariances the poses share, and those copies. */
   sharedLayout: PoseLayout | null;
   covarianceOut: number[];
@@ -579,6 +684,8 @@ function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
     scatterMm: { outOfPlane: READING_SD_MM, inPlane: READING_SD_MM },
     limitFor: () => Number.NaN,
     worstOf: perimeterWorstOn(input.outline),
+    extremesOf: outlineExtremesOn(input.outline),
+    extremes: new Float64Array(3 * EXTREME_STRIDE),
     sharedLayout: null,
     covarianceOut: [],
     covarianceIn: [],
@@ -659,7 +766,7 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
   const isBaseline = i === s.baselineIndex;
   if (layout === null || core === null) {
     const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
-    return poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note);
+    return poseResult(passes, i, isBaseline, null, note);
   }
   const m = passes.motions;
   core.tx = m[6 * i];
@@ -691,13 +798,15 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
   const readings = pose.readings;
   passes.readings = readings;
   const fit = packFit(flat.buffer, core, judgement, passes.labelOf);
-  const worst = passes.worstOf(fit.motion);
-  const measures = poseMeasures(worst, fit);
+  // The measures as numbers, straight into the columns the bounds read (the result's objects for
+  // them are built only if read: PoseResultView).
+  const extremes = passes.extremes;
+  passes.extremesOf(core.tx, core.ty, core.tz, core.wx, core.wy, core.wz, extremes);
   const columns = passes.columns;
   for (const measure of ENVELOPE_MEASURES) {
-    const value = measures[measure];
-    columns[measure].values[i] = value.valueMm;
-    columns[measure].uncertainties[i] = value.uncertaintyMm === null ? Number.NaN : value.uncertaintyMm;
+    const at = extremeAt(measure, extremes);
+    columns[measure].values[i] = measureSize(measure, extremes[at]);
+    columns[measure].uncertainties[i] = measureUncertainty(measure, extremes[at + 1], extremes[at + 2], fit);
   }
   const flags = passes.flags;
   for (const o of fit.outliers) {
@@ -720,22 +829,13 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
       });
     }
   }
-  return poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null);
+  return poseResult(passes, i, false, fit, null);
 }
 
 /** One pose's result, built once with every field (one shape for all poses). */
-function poseResult(
-  poseId: string,
-  isBaseline: boolean,
-  s: Session,
-  i: number,
-  missingBaselineCount: number,
-  fit: RelativeMotionFit | null,
-  worst: PerimeterWorst | null,
-  measures: Record<EnvelopeMeasure, PoseMeasure> | null,
-  note: string | null,
-): PoseResult {
-  return { poseId, isBaseline, liftTwistDeg: s.liftTwists[i], twistDeg: s.relativeTwists[i], missingBaselineCount, fit, worst, measures, note };
+function poseResult(passes: PosePasses, i: number, isBaseline: boolean, fit: RelativeMotionFit | null, note: string | null): PoseResult {
+  const { s, flat } = passes;
+  return new PoseResultView(passes.input.poses[i].id, isBaseline, s.liftTwists[i], s.relativeTwists[i], flat.missingBaseline[i], fit, note, passes.worstOf);
 }
 
 function directionName(direction: TwistDirection): string {
@@ -755,7 +855,8 @@ function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: En
   const slight: string[] = [];
   for (let i = 0; i < poses.length; i++) {
     const pose = poses[i];
-    if (pose.measures === null) continue;
+    // A pose has measures exactly when it has a fit (reading `measures` would build them).
+    if (pose.fit === null) continue;
     if (Math.abs(pose.twistDeg) < MIN_FIT_TWIST_DEG) slight.push(pose.poseId);
     else indexes[pose.twistDeg > 0 ? 'positive' : 'negative'].push(i);
   }
@@ -830,7 +931,7 @@ function measureEnvelope(
   let worstIndex = -1;
   let fitUncertaintyMm: number | null = null;
   for (let i = 0; i < poses.length; i++) {
-    if (poses[i].measures === null) continue;
+    if (poses[i].fit === null) continue;
     if (worstIndex < 0 || values[i] > values[worstIndex]) worstIndex = i;
     if (!Number.isNaN(uncertainties[i])) fitUncertaintyMm = Math.max(fitUncertaintyMm ?? 0, uncertainties[i]);
   }
