@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { ENVELOPE_MEASURES, designEnvelope, type EnvelopeInput, type EnvelopePose } from './envelope';
 import { linearFit } from './linear-fit';
 import { perimeterWorst } from './perimeter';
+import { readingRemarks } from './reading-remarks';
 import { scaleMotion } from './predict-displacement';
 import { buildSyntheticSession, seededNormal, seededRandom, syntheticEnvelopeInput, type SyntheticSessionOptions } from './synthetic-session';
 import { SIX_POINTS, readingsAt } from './test-fixtures';
@@ -536,6 +537,39 @@ describe('designEnvelope result', () => {
     expect(Object.keys(fitted.worst as object)).toEqual(['foreAft', 'lateral', 'vertical']);
     expect(Object.keys(fitted.measures as object)).toEqual(['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical']);
     expect(JSON.parse(JSON.stringify(result.poses[0]))).toMatchObject({ isBaseline: true, fit: null, worst: null, measures: null });
+  });
+
+  it('keeps a result right when designEnvelope runs again before its poses are read', () => {
+    const first = sessionInput({ poses: 5, gaugePoints: 6, seed: 24, mode: 'gap' }, { designTwistDeg: 20 });
+    const atOnce = JSON.stringify(designEnvelope(first));
+    const kept = designEnvelope(first);
+    // A larger session at other points: the computation's scratch arrays are written over.
+    designEnvelope(sessionInput({ poses: 40, gaugePoints: 12, seed: 25, mode: 'gap', proportionalScatter: 0.05 }, { designTwistDeg: 30 }));
+    expect(JSON.stringify(kept)).toBe(atOnce);
+    expect(kept.poses[2].fit!.residuals).toHaveLength(18);
+  });
+
+  it("remarks on the readings from the facts it keeps as it would from the poses' fits (flags, misfits, points nothing checks, mixed layouts)", () => {
+    const motion = { t: { x: 0.6, y: 9, z: 1.2 }, omega: { x: 0.001, y: 0.0002, z: 0 } };
+    const five = [...six.slice(0, 4), { id: 'g', y: 0, z: 630 }];
+    const poses = [4, -8, 12, -16, 6].map((t) => poseAt(`p${t}`, t, scaleMotion(motion, t), five));
+    const d = poses[2].readings.findIndex((r) => r.pointId === 'd' && r.axis === 'foreAft');
+    poses[2].readings[d] = { ...poses[2].readings[d], value: poses[2].readings[d].value + 15 };
+    poses[3].readings = poses[3].readings.filter((r) => r.pointId !== 'g');
+    poses[4].readings = poses[4].readings.filter((r) => r.axis !== 'vertical');
+    const four = six.slice(0, 4);
+    const misfits = [4, -8, 12, -16].map((t) => poseAt(`p${t}`, t, scaleMotion(motion, t), four));
+    const e = misfits[2].readings.findIndex((r) => r.pointId === 'd' && r.axis === 'foreAft');
+    misfits[2].readings[e] = { ...misfits[2].readings[e], value: misfits[2].readings[e].value + 15 };
+    const sessions = [inputOf(poses, { designTwistDeg: 20 }, five), inputOf(misfits, { designTwistDeg: 20 }, four)];
+    for (const input of sessions) {
+      const result = designEnvelope(input);
+      expect(result.readingNotes.length).toBeGreaterThan(1);
+      // readingRemarks(result) reads every pose's fit, built in full.
+      expect(readingRemarks(result)).toEqual(result.readingNotes);
+    }
+    expect(designEnvelope(sessions[0]).flags.map((f) => f.kind)).toEqual(['outlier']);
+    expect(designEnvelope(sessions[1]).flags.map((f) => f.kind)).toContain('misfit');
   });
 
   it("builds a pose's extremes and measures when read, once, matching the outline and the measures the bounds used", () => {
