@@ -10,13 +10,14 @@
  *    cross-axle twist from the lifts, taken relative to the baseline pose's own twist (its readings
  *    are the reference); the relative-motion fit (poseLayout once per layout, fitPoseValues per
  *    pose: only numbers are kept until step 3), identifiability judged against the
- *    opening; the extremes of each displacement on the opening's outline (perimeterWorst) with the
- *    fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
+ *    opening; the extremes of each displacement on the opening's outline (outlineExtremesOn, as
+ *    perimeterWorst gives them) with the fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
  * 3. Outliers: the session's robust residual scatter per fit part (1.4826·median |eᵢ/√(1 − hᵢ)|)
  *    raises the reading SD the outlier rule judges against when the readings scatter more than a
  *    tape is read to (then with a t limit on the scale's effective degrees of freedom, 0.37·Σν);
- *    each pose is judged with judgeOutliers, and only then is its result built, once. Flags are
- *    reported, never acted on.
+ *    each pose is judged with judgeOutliers, its measures go into columns as numbers, and its
+ *    result (PoseResultView) builds its fit, extremes and measures from kept numbers when first
+ *    read. Flags are reported, never acted on.
  * 4. Per measure and twist direction (FL–RR +, FR–RL −), the bound at the design twist
  *    (predictionDirectionBound or toleranceDirectionBound); the larger governs, and the reasons say
  *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
