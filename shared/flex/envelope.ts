@@ -662,6 +662,8 @@ function storedFit(store: PoseStore, i: number): RelativeMotionFit {
  * results whose per-pose detail is often never read. They come through the same functions as the
  * columns the bounds read, so they hold the same bits. toJSON writes the fields in the order a
  * plain object had them, so an API answer or a signed snapshot is byte for byte the same.
+ * fit, worst and measures are getters: a spread ({ ...pose }), Object.keys or structuredClone sees
+ * only the other fields, so read them by name, or copy a result through JSON.
  */
 class PoseResultView implements PoseResult {
   readonly poseId: string;
