@@ -2,6 +2,8 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { ENVELOPE_MEASURES, designEnvelope, type EnvelopeInput, type EnvelopePose } from './envelope';
 import { linearFit } from './linear-fit';
+import { perimeterWorst } from './perimeter';
+import { readingRemarks } from './reading-remarks';
 import { scaleMotion } from './predict-displacement';
 import { buildSyntheticSession, seededNormal, seededRandom, syntheticEnvelopeInput, type SyntheticSessionOptions } from './synthetic-session';
 import { SIX_POINTS, readingsAt } from './test-fixtures';
@@ -512,5 +514,84 @@ describe('designEnvelope result', () => {
     expect(c.inPlane.covariance[4]).toBe(0);
     expect(a.inPlane.covariance[4]).toBeGreaterThan(0);
     expect(d.inPlane.covariance).toEqual(a.inPlane.covariance);
+  });
+
+  it('writes each pose to JSON with the fields of a plain result, in their order, worst and measures included', () => {
+    const result = designEnvelope(sessionInput({ poses: 4, gaugePoints: 6, seed: 22, mode: 'gap' }, { designTwistDeg: 20 }));
+    for (const pose of result.poses) {
+      const plain = {
+        poseId: pose.poseId,
+        isBaseline: pose.isBaseline,
+        liftTwistDeg: pose.liftTwistDeg,
+        twistDeg: pose.twistDeg,
+        missingBaselineCount: pose.missingBaselineCount,
+        fit: pose.fit,
+        worst: pose.worst,
+        measures: pose.measures,
+        note: pose.note,
+      };
+      expect(JSON.stringify(pose)).toBe(JSON.stringify(plain));
+    }
+    const fitted = JSON.parse(JSON.stringify(result.poses[1])) as Record<string, unknown>;
+    expect(Object.keys(fitted)).toEqual(['poseId', 'isBaseline', 'liftTwistDeg', 'twistDeg', 'missingBaselineCount', 'fit', 'worst', 'measures', 'note']);
+    expect(Object.keys(fitted.worst as object)).toEqual(['foreAft', 'lateral', 'vertical']);
+    expect(Object.keys(fitted.measures as object)).toEqual(['foreAftOpening', 'foreAftClosing', 'lateral', 'vertical']);
+    expect(JSON.parse(JSON.stringify(result.poses[0]))).toMatchObject({ isBaseline: true, fit: null, worst: null, measures: null });
+  });
+
+  it('keeps a result right when designEnvelope runs again before its poses are read', () => {
+    const first = sessionInput({ poses: 5, gaugePoints: 6, seed: 24, mode: 'gap' }, { designTwistDeg: 20 });
+    const atOnce = JSON.stringify(designEnvelope(first));
+    const kept = designEnvelope(first);
+    // Another session no larger (so it reuses the computation's scratch arrays, writing over them).
+    designEnvelope(sessionInput({ poses: 5, gaugePoints: 6, seed: 25, mode: 'gap', proportionalScatter: 0.05 }, { designTwistDeg: 30 }));
+    expect(JSON.stringify(kept)).toBe(atOnce);
+    expect(kept.poses[2].fit!.residuals).toHaveLength(18);
+  });
+
+  it("remarks on the readings from the facts it keeps as it would from the poses' fits (flags, misfits, points nothing checks, mixed layouts)", () => {
+    const motion = { t: { x: 0.6, y: 9, z: 1.2 }, omega: { x: 0.001, y: 0.0002, z: 0 } };
+    const five = [...six.slice(0, 4), { id: 'g', y: 0, z: 630 }];
+    const poses = [4, -8, 12, -16, 6].map((t) => poseAt(`p${t}`, t, scaleMotion(motion, t), five));
+    const d = poses[2].readings.findIndex((r) => r.pointId === 'd' && r.axis === 'foreAft');
+    poses[2].readings[d] = { ...poses[2].readings[d], value: poses[2].readings[d].value + 15 };
+    poses[3].readings = poses[3].readings.filter((r) => r.pointId !== 'g');
+    poses[4].readings = poses[4].readings.filter((r) => r.axis !== 'vertical');
+    const four = six.slice(0, 4);
+    const misfits = [4, -8, 12, -16].map((t) => poseAt(`p${t}`, t, scaleMotion(motion, t), four));
+    const e = misfits[2].readings.findIndex((r) => r.pointId === 'd' && r.axis === 'foreAft');
+    misfits[2].readings[e] = { ...misfits[2].readings[e], value: misfits[2].readings[e].value + 15 };
+    const sessions = [inputOf(poses, { designTwistDeg: 20 }, five), inputOf(misfits, { designTwistDeg: 20 }, four)];
+    for (const input of sessions) {
+      const result = designEnvelope(input);
+      expect(result.readingNotes.length).toBeGreaterThan(1);
+      // readingRemarks(result) reads every pose's fit, built in full.
+      expect(readingRemarks(result)).toEqual(result.readingNotes);
+    }
+    expect(designEnvelope(sessions[0]).flags.map((f) => f.kind)).toEqual(['outlier']);
+    expect(designEnvelope(sessions[1]).flags.map((f) => f.kind)).toContain('misfit');
+  });
+
+  it("builds a pose's extremes and measures when read, once, matching the outline and the measures the bounds used", () => {
+    const input = sessionInput({ poses: 6, gaugePoints: 6, seed: 23, mode: 'gap' }, { designTwistDeg: 20 });
+    const result = designEnvelope(input);
+    for (const pose of result.poses.slice(1)) {
+      expect(pose.worst).toBe(pose.worst);
+      expect(pose.measures).toBe(pose.measures);
+      expect(pose.worst).toEqual(perimeterWorst(pose.fit!.motion, input.outline));
+      expect(pose.measures!.foreAftOpening.valueMm).toBe(Math.max(0, pose.worst!.foreAft.highest.valueMm));
+      expect(pose.measures!.foreAftClosing.valueMm).toBe(Math.max(0, -pose.worst!.foreAft.lowest.valueMm));
+      expect(pose.measures!.lateral.valueMm).toBe(Math.abs(pose.worst!.lateral.valueMm));
+      expect(pose.measures!.vertical).toMatchObject({ valueMm: Math.abs(pose.worst!.vertical.valueMm), y: pose.worst!.vertical.y });
+    }
+    for (const measure of ENVELOPE_MEASURES) {
+      const m = result.measures[measure];
+      const values = result.poses.slice(1).map((pose) => pose.measures![measure].valueMm);
+      expect(m.measuredWorstMm).toBe(Math.max(...values));
+      const worstPose = result.poses.find((pose) => pose.poseId === m.measuredWorstPoseId)!;
+      expect(m.measuredWorstAt).toEqual({ y: worstPose.measures![measure].y, z: worstPose.measures![measure].z, side: worstPose.measures![measure].side });
+      const uncertainties = result.poses.slice(1).map((pose) => pose.measures![measure].uncertaintyMm!);
+      expect(m.fitUncertaintyMm).toBe(Math.max(...uncertainties));
+    }
   });
 });

@@ -10,13 +10,14 @@
  *    cross-axle twist from the lifts, taken relative to the baseline pose's own twist (its readings
  *    are the reference); the relative-motion fit (poseLayout once per layout, fitPoseValues per
  *    pose: only numbers are kept until step 3), identifiability judged against the
- *    opening; the extremes of each displacement on the opening's outline (perimeterWorst) with the
- *    fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
+ *    opening; the extremes of each displacement on the opening's outline (outlineExtremesOn, as
+ *    perimeterWorst gives them) with the fit's 1-SD uncertainty there, σ·√(gᵀ(XᵀX)⁻¹g).
  * 3. Outliers: the session's robust residual scatter per fit part (1.4826·median |eᵢ/√(1 − hᵢ)|)
  *    raises the reading SD the outlier rule judges against when the readings scatter more than a
  *    tape is read to (then with a t limit on the scale's effective degrees of freedom, 0.37·Σν);
- *    each pose is judged with judgeOutliers, and only then is its result built, once. Flags are
- *    reported, never acted on.
+ *    each pose is judged with judgeOutliers, its measures go into columns as numbers, and its
+ *    result (PoseResultView) builds its fit, extremes and measures from kept numbers when first
+ *    read. Flags are reported, never acted on.
  * 4. Per measure and twist direction (FL–RR +, FR–RL −), the bound at the design twist
  *    (predictionDirectionBound or toleranceDirectionBound); the larger governs, and the reasons say
  *    which. Poses twisted less than MIN_FIT_TWIST_DEG are measured but carry no slope.
@@ -43,12 +44,32 @@ import {
   type DirectionBound,
   type TwistDirection,
 } from './direction-bound';
-import { packFit, type RelativeMotionFit } from './fit-summary';
+import { buildFit, flaggedReadings, partRemarks, residualSd, uncheckedPoints, type FlaggedReading, type RelativeMotionFit } from './fit-summary';
 import { indexGaugeLocations } from './gauge-index';
 import { normalQuantile } from './normal';
-import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName, type PoseJudgement } from './outlier-rule';
-import { outlineCorners, perimeterWorstOn, validateOutline, type OpeningOutline, type OutlineSide, type OutlineValue, type PerimeterWorst } from './perimeter';
-import { fitPoseValues, loadPartCore, poseBuffer, poseLayout, scratchPoseFitCore, type PoseBuffer, type PoseFitCore, type PoseLayout } from './pose-fit';
+import { OUTLIER_FALSE_ALARM_RATE, judgeOutliers, type FitPartName, type OutlierCheck, type PartJudgement, type PoseJudgement } from './outlier-rule';
+import {
+  EXTREME_STRIDE,
+  lowestIsWorst,
+  outlineCorners,
+  outlineExtremesOn,
+  perimeterWorstOn,
+  validateOutline,
+  type OpeningOutline,
+  type OutlineSide,
+  type PerimeterWorst,
+} from './perimeter';
+import {
+  fitPoseValues,
+  loadPartCore,
+  poseBuffer,
+  poseLayout,
+  scratchPoseFitCore,
+  type PartCore,
+  type PoseBuffer,
+  type PoseFitCore,
+  type PoseLayout,
+} from './pose-fit';
 import { READING_SD_MM } from './relative-motion';
 import { MAD_EFFICIENCY, residualScaleInPlace } from './robust-scale';
 import { roundUpToIncrement } from './round-up';
@@ -56,8 +77,8 @@ import { studentTQuantile } from './student-t';
 import { oneSidedToleranceFactor } from './tolerance-factor';
 import { crossAxleTwistDeg } from './twist';
 import { TWIST_DIRECTION_NAMES, measureReasons } from './measure-reasons';
-import { readingRemarks } from './reading-remarks';
-import { isAxis, type Axis, type GaugeLocation, type GaugeValue, type RigidMotion, type WheelLifts } from './types';
+import { readingRemarks, type RemarkPart, type RemarkPose } from './reading-remarks';
+import { isAxis, type Axis, type FitPartStatus, type GaugeLocation, type GaugeValue, type RigidMotion, type WheelLifts } from './types';
 
 export type EnvelopeMethod = 'prediction' | 'tolerance';
 export type ReadingMode = 'gap' | 'displacement';
@@ -205,6 +226,10 @@ const FAR_EXTRAPOLATION = 1.5;
 /** Fewest standardized residuals for a session scatter estimate (fewer: the reading SD alone). */
 const MIN_SCALE_RESIDUALS = 10;
 const AXIS_OF_CODE: readonly Axis[] = ['foreAft', 'lateral', 'vertical'];
+/** Shared empty lists (read, never written): most poses have no unchecked points and no flags. */
+const NO_POINTS: readonly string[] = [];
+const NO_OUTLIERS: readonly FlaggedReading[] = [];
+const NO_COVARIANCE: number[] = [];
 
 function resolveParameters(raw: EnvelopeInput['parameters']): EnvelopeParameters {
   if (raw === null || typeof raw !== 'object') throw new FlexInputError(FN, 'parameters', 'must be an object');
@@ -355,6 +380,8 @@ interface Flat {
   start: Int32Array;
   count: Int32Array;
   missingBaseline: Int32Array;
+  /** How many flat positions the poses fill. */
+  total: number;
 }
 
 /**
@@ -439,7 +466,7 @@ function flatten(input: EnvelopeInput, s: Session): Flat {
     }
     count[i] = k - start[i];
   }
-  return { buffer, inputIndex, code: codeAt, scatter, start, count, missingBaseline };
+  return { buffer, inputIndex, code: codeAt, scatter, start, count, missingBaseline, total: k };
 }
 
 /** Whether two runs of readings were taken at the same points on the same axes in the same order. */
@@ -484,9 +511,13 @@ function sessionScatter(flat: Flat, layouts: (PoseLayout | null)[]): Record<FitP
   return { outOfPlane: scale(nOut, 0, redundancyOut), inPlane: scale(nIn, values.length - nIn, redundancyIn) };
 }
 
-/** The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if larger; null without readings. */
-function partSd(part: RelativeMotionFit['outOfPlane']): number | null {
-  return part.status === 'none' ? null : Math.max(part.scatterMm, part.residualSdMm ?? 0);
+/**
+ * The reading SD behind a fit part's uncertainty: its judged scatter, or its own residual SD if
+ * larger; NaN without readings. The one rule for the columns (from the core fit) and for a pose's
+ * measures (from its FitPart, which holds the same numbers).
+ */
+function readingSd(status: FitPartStatus, scatterMm: number, residualSdMm: number | null): number {
+  return status === 'none' ? Number.NaN : Math.max(scatterMm, residualSdMm ?? 0);
 }
 
 /** √(gᵀCg) for a symmetric 3×3 C (row-major). */
@@ -494,30 +525,224 @@ function spread(c: readonly number[], g0: number, g1: number, g2: number): numbe
   return Math.sqrt(Math.max(0, g0 * g0 * c[0] + g1 * g1 * c[4] + g2 * g2 * c[8] + 2 * (g0 * g1 * c[1] + g0 * g2 * c[2] + g1 * g2 * c[5])));
 }
 
-function poseMeasure(at: OutlineValue, valueMm: number, uncertaintyMm: number | null): PoseMeasure {
-  return { valueMm, y: at.y, z: at.z, side: at.side, uncertaintyMm };
+/** A measure's size (mm, ≥ 0) from the extreme value behind it: the gap's opening and closing apart, the others either way. */
+function measureSize(measure: EnvelopeMeasure, valueMm: number): number {
+  if (measure === 'foreAftOpening') return Math.max(0, valueMm);
+  if (measure === 'foreAftClosing') return Math.max(0, -valueMm);
+  return Math.abs(valueMm);
 }
 
-/** The measures of one pose from its fit's extremes on the outline, with the fit's 1-SD uncertainty there. */
+/**
+ * The fit's 1-SD uncertainty of a measure at its extreme (y, z), σ·√(gᵀ(XᵀX)⁻¹g); NaN where the
+ * part behind it had no readings (σ NaN). The one place it is worked out, for the columns the
+ * bounds read and for the measures a pose shows.
+ */
+function measureUncertainty(
+  measure: EnvelopeMeasure,
+  y: number,
+  z: number,
+  outSd: number,
+  inSd: number,
+  outCov: readonly number[],
+  inCov: readonly number[],
+): number {
+  if (measure === 'foreAftOpening' || measure === 'foreAftClosing') return Number.isNaN(outSd) ? Number.NaN : outSd * spread(outCov, 1, z, -y);
+  if (Number.isNaN(inSd)) return Number.NaN;
+  return measure === 'lateral' ? inSd * spread(inCov, 1, 0, -z) : inSd * spread(inCov, 0, 1, y);
+}
+
+/** Where each measure's extreme is in outlineExtremesOn's numbers (its value, y and z follow). */
+function extremeAt(measure: EnvelopeMeasure, extremes: Float64Array): number {
+  if (measure === 'foreAftOpening') return 0;
+  if (measure === 'foreAftClosing') return 3;
+  // Lateral and vertical: the larger |value| of the component, as PerimeterWorst's own value.
+  const at = measure === 'lateral' ? EXTREME_STRIDE : 2 * EXTREME_STRIDE;
+  return lowestIsWorst(extremes[at], extremes[at + 3]) ? at + 3 : at;
+}
+
+/** The measures of one pose as objects, from its extremes on the outline (for PoseResultView.measures). */
 function poseMeasures(worst: PerimeterWorst, fit: RelativeMotionFit): Record<EnvelopeMeasure, PoseMeasure> {
-  const outSd = partSd(fit.outOfPlane);
-  const inSd = partSd(fit.inPlane);
-  const out = fit.outOfPlane.covariance;
-  const inPlane = fit.inPlane.covariance;
-  const { highest, lowest } = worst.foreAft;
-  const lateral = worst.lateral;
-  const vertical = worst.vertical;
+  const outSd = readingSd(fit.outOfPlane.status, fit.outOfPlane.scatterMm, fit.outOfPlane.residualSdMm);
+  const inSd = readingSd(fit.inPlane.status, fit.inPlane.scatterMm, fit.inPlane.residualSdMm);
+  const measure = (name: EnvelopeMeasure, at: PerimeterWorst['foreAft']['highest']): PoseMeasure => {
+    const uncertainty = measureUncertainty(name, at.y, at.z, outSd, inSd, fit.outOfPlane.covariance, fit.inPlane.covariance);
+    return { valueMm: measureSize(name, at.valueMm), y: at.y, z: at.z, side: at.side, uncertaintyMm: Number.isNaN(uncertainty) ? null : uncertainty };
+  };
   return {
-    foreAftOpening: poseMeasure(highest, Math.max(0, highest.valueMm), outSd === null ? null : outSd * spread(out, 1, highest.z, -highest.y)),
-    foreAftClosing: poseMeasure(lowest, Math.max(0, -lowest.valueMm), outSd === null ? null : outSd * spread(out, 1, lowest.z, -lowest.y)),
-    lateral: poseMeasure(lateral, Math.abs(lateral.valueMm), inSd === null ? null : inSd * spread(inPlane, 1, 0, -lateral.z)),
-    vertical: poseMeasure(vertical, Math.abs(vertical.valueMm), inSd === null ? null : inSd * spread(inPlane, 0, 1, vertical.y)),
+    foreAftOpening: measure('foreAftOpening', worst.foreAft.highest),
+    foreAftClosing: measure('foreAftClosing', worst.foreAft.lowest),
+    lateral: measure('lateral', worst.lateral),
+    vertical: measure('vertical', worst.vertical),
   };
 }
 
-/** The poses' results, the scatter the outlier rule judged against, the flags, and the measures as columns. */
+const OUTLIER_CHECKS: readonly OutlierCheck[] = ['checked', 'misfitOnly', 'skipped'];
+
+/**
+ * What a session's poses keep, as numbers in columns (per pose i, at i or 2i for the two fit parts),
+ * to build each pose's fit when it is first read: the envelope itself needs none of the fit's
+ * objects, and building them for every pose (about 1.6 KB each) was most of what a run allocated.
+ * Nothing here points into the scratch arrays: the residuals and axes are copies, so a result stays
+ * right after designEnvelope has run again.
+ */
+interface PoseStore {
+  /** Per pose: its layout (null for the baseline and poses without usable readings). */
+  layouts: (PoseLayout | null)[];
+  /** Per pose: tx, ty, tz, wx, wy, wz. */
+  motions: Float64Array;
+  /** Per pose and part: the residuals' sum of squares, the covariance it shares, the outlier check (index in OUTLIER_CHECKS), its limit (NaN: none), misfit (0 or 1), the points nothing checks. */
+  ssrs: Float64Array;
+  covariances: number[][];
+  checks: Uint8Array;
+  limits: Float64Array;
+  misfits: Uint8Array;
+  unchecked: (readonly string[])[];
+  /** Per pose: its flagged readings (null: none). */
+  outliers: (FlaggedReading[] | null)[];
+  /** The flat positions of each pose's readings, and copies of their residuals and axis codes. */
+  start: Int32Array;
+  count: Int32Array;
+  residual: Float64Array;
+  axis: Uint8Array;
+  scatterMm: Record<FitPartName, number>;
+  worstOf: (motion: RigidMotion) => PerimeterWorst;
+  /** Scratch a pose's fit is loaded into before buildFit copies it out. */
+  core: PoseFitCore | null;
+  judgement: Pick<PoseJudgement, 'outOfPlane' | 'inPlane'>;
+}
+
+/** Keeps one part's judgement at `at` (2·pose + part) as numbers. */
+function keepJudgement(store: PoseStore, at: number, part: PartJudgement): void {
+  store.checks[at] = OUTLIER_CHECKS.indexOf(part.check);
+  store.limits[at] = part.limit ?? Number.NaN;
+  store.misfits[at] = part.misfit ? 1 : 0;
+}
+
+/** One part's judgement back from the numbers keepJudgement kept (misfitMm is not part of a fit). */
+function loadJudgement(into: PartJudgement, store: PoseStore, at: number, scatterMm: number): void {
+  const limit = store.limits[at];
+  into.check = OUTLIER_CHECKS[store.checks[at]];
+  into.scatterMm = scatterMm;
+  into.limit = Number.isNaN(limit) ? null : limit;
+  into.misfit = store.misfits[at] === 1;
+}
+
+/** Pose i's fit from the store: what packFit would have given from the pose's buffer (the same buildFit, the same numbers). */
+function storedFit(store: PoseStore, i: number): RelativeMotionFit {
+  const layout = store.layouts[i] as PoseLayout;
+  const core = (store.core ??= scratchPoseFitCore(layout));
+  const m = store.motions;
+  core.tx = m[6 * i];
+  core.ty = m[6 * i + 1];
+  core.tz = m[6 * i + 2];
+  core.wx = m[6 * i + 3];
+  core.wy = m[6 * i + 4];
+  core.wz = m[6 * i + 5];
+  loadPartCore(core.outOfPlane, layout, 'outOfPlane', store.ssrs[2 * i], store.covariances[2 * i]);
+  loadPartCore(core.inPlane, layout, 'inPlane', store.ssrs[2 * i + 1], store.covariances[2 * i + 1]);
+  loadJudgement(store.judgement.outOfPlane, store, 2 * i, store.scatterMm.outOfPlane);
+  loadJudgement(store.judgement.inPlane, store, 2 * i + 1, store.scatterMm.inPlane);
+  return buildFit(
+    core,
+    store.judgement,
+    store.residual,
+    store.axis,
+    store.start[i],
+    store.count[i],
+    store.unchecked[2 * i],
+    store.unchecked[2 * i + 1],
+    store.outliers[i] ?? [],
+  );
+}
+
+/**
+ * One pose's result. Its fit, its extremes on the outline (`worst`) and its measures are built on
+ * first read, from the numbers the session keeps (PoseStore), and then kept: the envelope needs
+ * only numbers, and those objects (about 40 per pose) were most of what a run allocated, for
+ * results whose per-pose detail is often never read. They come through the same functions as the
+ * columns the bounds read, so they hold the same bits. toJSON writes the fields in the order a
+ * plain object had them, so an API answer or a signed snapshot is byte for byte the same.
+ * fit, worst and measures are getters: a spread ({ ...pose }), Object.keys or structuredClone sees
+ * only the other fields, so read them by name, or copy a result through JSON.
+ */
+class PoseResultView implements PoseResult {
+  readonly poseId: string;
+  readonly isBaseline: boolean;
+  readonly liftTwistDeg: number;
+  readonly twistDeg: number;
+  readonly missingBaselineCount: number;
+  readonly note: string | null;
+  readonly #store: PoseStore;
+  readonly #index: number;
+  #fit: RelativeMotionFit | null | undefined;
+  #worst: PerimeterWorst | null | undefined;
+  #measures: Record<EnvelopeMeasure, PoseMeasure> | null | undefined;
+
+  constructor(
+    store: PoseStore,
+    index: number,
+    poseId: string,
+    isBaseline: boolean,
+    liftTwistDeg: number,
+    twistDeg: number,
+    missingBaselineCount: number,
+    note: string | null,
+  ) {
+    this.poseId = poseId;
+    this.isBaseline = isBaseline;
+    this.liftTwistDeg = liftTwistDeg;
+    this.twistDeg = twistDeg;
+    this.missingBaselineCount = missingBaselineCount;
+    this.note = note;
+    this.#store = store;
+    this.#index = index;
+    this.#fit = undefined;
+    this.#worst = undefined;
+    this.#measures = undefined;
+  }
+
+  get fit(): RelativeMotionFit | null {
+    if (this.#fit === undefined) this.#fit = this.#store.layouts[this.#index] === null ? null : storedFit(this.#store, this.#index);
+    return this.#fit;
+  }
+
+  get worst(): PerimeterWorst | null {
+    if (this.#worst === undefined) {
+      const fit = this.fit;
+      this.#worst = fit === null ? null : this.#store.worstOf(fit.motion);
+    }
+    return this.#worst;
+  }
+
+  get measures(): Record<EnvelopeMeasure, PoseMeasure> | null {
+    if (this.#measures === undefined) {
+      const worst = this.worst;
+      this.#measures = worst === null || this.fit === null ? null : poseMeasures(worst, this.fit);
+    }
+    return this.#measures;
+  }
+
+  toJSON(): PoseResult {
+    return {
+      poseId: this.poseId,
+      isBaseline: this.isBaseline,
+      liftTwistDeg: this.liftTwistDeg,
+      twistDeg: this.twistDeg,
+      missingBaselineCount: this.missingBaselineCount,
+      fit: this.fit,
+      worst: this.worst,
+      measures: this.measures,
+      note: this.note,
+    };
+  }
+}
+
+/** The poses' results, the scatter the outlier rule judged against, the flags, the remarks' facts, and the measures as columns. */
 interface Evaluation {
   poses: PoseResult[];
+  /** Per pose: whether it has a fit (and so measures), known without building either. */
+  fitted: Uint8Array;
+  remarkPoses: RemarkPose[];
   scatterMm: Record<FitPartName, number>;
   flags: EnvelopeFlag[];
   columns: MeasureColumns;
@@ -533,10 +758,7 @@ interface PosePasses {
   s: Session;
   flat: Flat;
   corners: number[];
-  /** Per pose: its layout (null for the baseline and poses without usable readings), motion (tx, ty, tz, wx, wy, wz) and each part's sum of squared residuals. */
-  layouts: (PoseLayout | null)[];
-  motions: Float64Array;
-  ssrs: Float64Array;
+  store: PoseStore;
   /** The layout of the last pose fitted, and where its codes are: the next pose read at the same points reuses it. */
   layout: PoseLayout | null;
   layoutStart: number;
@@ -545,43 +767,87 @@ interface PosePasses {
   judgement: PoseJudgement;
   scatterMm: Record<FitPartName, number>;
   limitFor: (tests: number, part: FitPartName) => number;
-  worstOf: (motion: RigidMotion) => PerimeterWorst;
-  /** The layout whose covariances the poses share, and those copies. */
+  /** A pose's extremes on the outline as numbers, into `extremes`. */
+  extremesOf: (tx: number, ty: number, tz: number, wx: number, wy: number, wz: number, out: Float64Array) => void;
+  extremes: Float64Array;
+  /**
+   * The layout the poses being judged share, its covariance copies, the points of its readings
+   * nothing checks, and what the remarks say of its parts: all the same for every pose read at the
+   * same points on the same axes in the same order.
+   */
   sharedLayout: PoseLayout | null;
   covarianceOut: number[];
   covarianceIn: number[];
+  uncheckedOut: readonly string[];
+  uncheckedIn: readonly string[];
+  remarkOut: RemarkPart;
+  remarkIn: RemarkPart;
+  /** The remarks' facts of a fitted pose with no flag of its own, shared by the poses of remarkLayout. */
+  remarkFit: RemarkPose['fit'];
+  remarkLayout: PoseLayout | null;
   /** The readings of the pose being judged, for labelOf. */
   readings: GaugeValue[];
   labelOf: (k: number) => { pointId: string; axis: Axis; index: number };
   columns: MeasureColumns;
   flags: EnvelopeFlag[];
+  fitted: Uint8Array;
+  remarkPoses: RemarkPose[];
 }
 
 function emptyPartJudgement(): PoseJudgement['outOfPlane'] {
   return { check: 'skipped', scatterMm: 0, limit: null, misfit: false, misfitMm: null };
 }
 
+function emptyRemarkPart(): RemarkPart {
+  return { misfit: false, readingCount: 0, parameterCount: 0, reason: null, outlierNote: null };
+}
+
 function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
   const flat = flatten(input, s);
   const count = input.poses.length;
+  const scatterMm = { outOfPlane: READING_SD_MM, inPlane: READING_SD_MM };
+  const store: PoseStore = {
+    layouts: [],
+    motions: new Float64Array(count * 6),
+    ssrs: new Float64Array(count * 2),
+    covariances: [],
+    checks: new Uint8Array(count * 2),
+    limits: new Float64Array(count * 2),
+    misfits: new Uint8Array(count * 2),
+    unchecked: [],
+    outliers: [],
+    start: flat.start,
+    count: flat.count,
+    residual: flat.buffer.residual,
+    axis: flat.buffer.axis,
+    scatterMm,
+    worstOf: perimeterWorstOn(input.outline),
+    core: null,
+    judgement: { outOfPlane: emptyPartJudgement(), inPlane: emptyPartJudgement() },
+  };
   const passes: PosePasses = {
     input,
     s,
     flat,
     corners: outlineCorners(input.outline),
-    layouts: [],
-    motions: new Float64Array(count * 6),
-    ssrs: new Float64Array(count * 2),
+    store,
     layout: null,
     layoutStart: 0,
     core: null,
     judgement: { outOfPlane: emptyPartJudgement(), inPlane: emptyPartJudgement(), flagged: [] },
-    scatterMm: { outOfPlane: READING_SD_MM, inPlane: READING_SD_MM },
+    scatterMm,
     limitFor: () => Number.NaN,
-    worstOf: perimeterWorstOn(input.outline),
+    extremesOf: outlineExtremesOn(input.outline),
+    extremes: new Float64Array(3 * EXTREME_STRIDE),
     sharedLayout: null,
     covarianceOut: [],
     covarianceIn: [],
+    uncheckedOut: NO_POINTS,
+    uncheckedIn: NO_POINTS,
+    remarkOut: emptyRemarkPart(),
+    remarkIn: emptyRemarkPart(),
+    remarkFit: null,
+    remarkLayout: null,
     readings: [],
     labelOf: (k) => {
       const index = flat.inputIndex[k];
@@ -590,17 +856,23 @@ function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
     },
     columns: emptyMeasureColumns(count),
     flags: [],
+    fitted: new Uint8Array(count),
+    remarkPoses: [],
   };
   // First pass: every pose is fitted into one reused core, keeping only numbers: the session's
   // scatter must be known before any pose is judged, and no pose needs objects of its own until then.
   for (let i = 0; i < count; i++) fitPose(passes, i);
+  // The residuals and axes the poses' fits are built from later: copied out of the scratch arrays,
+  // which the next designEnvelope overwrites.
+  store.residual = flat.buffer.residual.slice(0, flat.total);
+  store.axis = flat.buffer.axis.slice(0, flat.total);
 
   const limits = {} as Record<FitPartName, (tests: number) => number>;
-  const scatters = sessionScatter(flat, passes.layouts);
+  const scatters = sessionScatter(flat, store.layouts);
   for (const part of ['outOfPlane', 'inPlane'] as const) {
     const { scaleMm, df } = scatters[part];
     const estimated = scaleMm !== null && scaleMm > READING_SD_MM;
-    passes.scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
+    scatterMm[part] = estimated ? scaleMm : READING_SD_MM;
     const cache = new Map<number, number>();
     limits[part] = (tests) => {
       let limit = cache.get(tests);
@@ -614,18 +886,19 @@ function evaluatePoses(input: EnvelopeInput, s: Session): Evaluation {
   }
   passes.limitFor = (tests, part) => limits[part](tests);
 
-  // Second pass: each pose judged and its result built once; its measures go straight into the
+  // Second pass: each pose judged and its result made once; its measures go straight into the
   // columns the bounds read.
   const poses: PoseResult[] = [];
   for (let i = 0; i < count; i++) poses.push(judgePose(passes, i));
-  return { poses, scatterMm: passes.scatterMm, flags: passes.flags, columns: passes.columns };
+  return { poses, fitted: passes.fitted, remarkPoses: passes.remarkPoses, scatterMm, flags: passes.flags, columns: passes.columns };
 }
 
 /** First pass, one pose: its fit into the shared core, kept as numbers. */
 function fitPose(passes: PosePasses, i: number): void {
   const { flat } = passes;
+  const store = passes.store;
   if (i === passes.s.baselineIndex || flat.count[i] === 0) {
-    passes.layouts.push(null);
+    store.layouts.push(null);
     return;
   }
   flat.buffer.start = flat.start[i];
@@ -638,45 +911,68 @@ function fitPose(passes: PosePasses, i: number): void {
   }
   const core = (passes.core ??= scratchPoseFitCore(layout));
   fitPoseValues(flat.buffer, layout, core);
-  passes.layouts.push(layout);
-  const m = passes.motions;
+  store.layouts.push(layout);
+  const m = store.motions;
   m[6 * i] = core.tx;
   m[6 * i + 1] = core.ty;
   m[6 * i + 2] = core.tz;
   m[6 * i + 3] = core.wx;
   m[6 * i + 4] = core.wy;
   m[6 * i + 5] = core.wz;
-  passes.ssrs[2 * i] = core.outOfPlane.ssr;
-  passes.ssrs[2 * i + 1] = core.inPlane.ssr;
+  store.ssrs[2 * i] = core.outOfPlane.ssr;
+  store.ssrs[2 * i + 1] = core.inPlane.ssr;
 }
 
-/** Second pass, one pose: judged against the session's scatter, and its result. */
+/** A part's remark facts as the remarks read them (see RemarkPose). */
+function remarkPart(
+  kind: FitPartName,
+  core: PartCore,
+  check: OutlierCheck,
+  counts: { lateral: number; vertical: number },
+  unchecked: readonly string[],
+): RemarkPart {
+  const { reason, outlierNote } = partRemarks(kind, core, check, counts, unchecked);
+  return { misfit: false, readingCount: core.readingCount, parameterCount: core.parameterCount, reason, outlierNote };
+}
+
+/** Second pass, one pose: judged against the session's scatter, its flags, its measures into the columns, and its result. */
 function judgePose(passes: PosePasses, i: number): PoseResult {
-  const { input, s, flat } = passes;
+  const { input, s, flat, store } = passes;
   const pose = input.poses[i];
-  const layout = passes.layouts[i];
+  const layout = store.layouts[i];
   const core = passes.core;
   const isBaseline = i === s.baselineIndex;
   if (layout === null || core === null) {
     const note = isBaseline ? 'baseline (reference pose)' : 'no usable readings: left out of the envelope';
-    return poseResult(pose.id, isBaseline, s, i, flat.missingBaseline[i], null, null, null, note);
+    store.covariances.push(NO_COVARIANCE, NO_COVARIANCE);
+    store.unchecked.push(NO_POINTS, NO_POINTS);
+    store.outliers.push(null);
+    return poseResult(passes, i, isBaseline, note, null);
   }
-  const m = passes.motions;
+  const m = store.motions;
   core.tx = m[6 * i];
   core.ty = m[6 * i + 1];
   core.tz = m[6 * i + 2];
   core.wx = m[6 * i + 3];
   core.wy = m[6 * i + 4];
   core.wz = m[6 * i + 5];
+  flat.buffer.start = flat.start[i];
+  flat.buffer.count = flat.count[i];
+  const readings = pose.readings;
+  passes.readings = readings;
   if (layout !== passes.sharedLayout) {
     // Poses read at the same points have the same covariance: they share one copy (read-only by its
-    // type; frozen, its reads in poseMeasures took about 5 % longer).
+    // type; frozen, its reads took about 5 % longer). The points nothing checks are those of the
+    // same readings, and so is what the remarks say of the parts.
     passes.sharedLayout = layout;
     passes.covarianceOut = layout.outOfPlane.shape.covariance.slice();
     passes.covarianceIn = layout.inPlane.shape.covariance.slice();
+    const unchecked = uncheckedPoints(flat.buffer, passes.labelOf);
+    passes.uncheckedOut = unchecked.outOfPlane;
+    passes.uncheckedIn = unchecked.inPlane;
   }
-  loadPartCore(core.outOfPlane, layout, 'outOfPlane', passes.ssrs[2 * i], passes.covarianceOut);
-  loadPartCore(core.inPlane, layout, 'inPlane', passes.ssrs[2 * i + 1], passes.covarianceIn);
+  loadPartCore(core.outOfPlane, layout, 'outOfPlane', store.ssrs[2 * i], passes.covarianceOut);
+  loadPartCore(core.inPlane, layout, 'inPlane', store.ssrs[2 * i + 1], passes.covarianceIn);
   const rotation = Math.max(Math.abs(core.wx), Math.abs(core.wy), Math.abs(core.wz));
   if (!(rotation <= MAX_ROTATION_RAD)) {
     throw new FlexInputError(
@@ -685,26 +981,36 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
       `give a fitted rotation of ${rotation.toFixed(2)} rad, far outside the small-angle model: check the readings and the gauge points' positions`,
     );
   }
-  flat.buffer.start = flat.start[i];
-  flat.buffer.count = flat.count[i];
   const judgement = judgeOutliers(flat.buffer, core, passes.scatterMm, passes.limitFor, passes.judgement);
-  const readings = pose.readings;
-  passes.readings = readings;
-  const fit = packFit(flat.buffer, core, judgement, passes.labelOf);
-  const worst = passes.worstOf(fit.motion);
-  const measures = poseMeasures(worst, fit);
+  // Kept for the pose's fit, built if it is read (storedFit).
+  store.covariances.push(passes.covarianceOut, passes.covarianceIn);
+  store.unchecked.push(passes.uncheckedOut, passes.uncheckedIn);
+  keepJudgement(store, 2 * i, judgement.outOfPlane);
+  keepJudgement(store, 2 * i + 1, judgement.inPlane);
+  const outliers = judgement.flagged.length === 0 ? null : flaggedReadings(flat.buffer, judgement, passes.labelOf);
+  store.outliers.push(outliers);
+  passes.fitted[i] = 1;
+
+  // The measures as numbers, straight into the columns the bounds read.
+  const outSd = readingSd(core.outOfPlane.status, judgement.outOfPlane.scatterMm, residualSd(core.outOfPlane));
+  const inSd = readingSd(core.inPlane.status, judgement.inPlane.scatterMm, residualSd(core.inPlane));
+  const extremes = passes.extremes;
+  passes.extremesOf(core.tx, core.ty, core.tz, core.wx, core.wy, core.wz, extremes);
   const columns = passes.columns;
   for (const measure of ENVELOPE_MEASURES) {
-    const value = measures[measure];
-    columns[measure].values[i] = value.valueMm;
-    columns[measure].uncertainties[i] = value.uncertaintyMm === null ? Number.NaN : value.uncertaintyMm;
+    const at = extremeAt(measure, extremes);
+    columns[measure].values[i] = measureSize(measure, extremes[at]);
+    columns[measure].uncertainties[i] = measureUncertainty(measure, extremes[at + 1], extremes[at + 2], outSd, inSd, passes.covarianceOut, passes.covarianceIn);
   }
+
   const flags = passes.flags;
-  for (const o of fit.outliers) {
-    flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+  if (outliers !== null) {
+    for (const o of outliers) {
+      flags.push({ poseId: pose.id, pointId: o.pointId, axis: o.axis, valueMm: o.value, residualMm: o.residual, score: o.score, kind: 'outlier' });
+    }
   }
   for (const part of ['outOfPlane', 'inPlane'] as const) {
-    if (!fit[part].misfit) continue;
+    if (!judgement[part].misfit) continue;
     const end = flat.start[i] + flat.count[i];
     for (let k = flat.start[i]; k < end; k++) {
       if ((flat.buffer.axis[k] === 0) !== (part === 'outOfPlane')) continue;
@@ -720,22 +1026,39 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
       });
     }
   }
-  return poseResult(pose.id, false, s, i, flat.missingBaseline[i], fit, worst, measures, null);
+  return poseResult(passes, i, false, null, remarkFitOf(passes, layout, judgement, outliers));
 }
 
-/** One pose's result, built once with every field (one shape for all poses). */
-function poseResult(
-  poseId: string,
-  isBaseline: boolean,
-  s: Session,
-  i: number,
-  missingBaselineCount: number,
-  fit: RelativeMotionFit | null,
-  worst: PerimeterWorst | null,
-  measures: Record<EnvelopeMeasure, PoseMeasure> | null,
-  note: string | null,
-): PoseResult {
-  return { poseId, isBaseline, liftTwistDeg: s.liftTwists[i], twistDeg: s.relativeTwists[i], missingBaselineCount, fit, worst, measures, note };
+/**
+ * What the remarks read of a fitted pose's fit: for a pose with no flag of its own, one object
+ * shared by the poses of its layout (the parts' reasons and notes depend on the layout alone).
+ */
+function remarkFitOf(passes: PosePasses, layout: PoseLayout, judgement: PoseJudgement, outliers: FlaggedReading[] | null): RemarkPose['fit'] {
+  if (passes.remarkFit === null || passes.remarkLayout !== layout) {
+    const core = passes.core as PoseFitCore;
+    const counts = { lateral: layout.inPlane.nL, vertical: layout.inPlane.nV };
+    passes.remarkOut = remarkPart('outOfPlane', core.outOfPlane, judgement.outOfPlane.check, counts, passes.uncheckedOut);
+    passes.remarkIn = remarkPart('inPlane', core.inPlane, judgement.inPlane.check, counts, passes.uncheckedIn);
+    passes.remarkFit = { outliers: NO_OUTLIERS, outOfPlane: passes.remarkOut, inPlane: passes.remarkIn };
+    passes.remarkLayout = layout;
+  }
+  const misfitOut = judgement.outOfPlane.misfit;
+  const misfitIn = judgement.inPlane.misfit;
+  if (outliers === null && !misfitOut && !misfitIn) return passes.remarkFit;
+  return {
+    outliers: outliers ?? NO_OUTLIERS,
+    outOfPlane: misfitOut ? { ...passes.remarkOut, misfit: true } : passes.remarkOut,
+    inPlane: misfitIn ? { ...passes.remarkIn, misfit: true } : passes.remarkIn,
+  };
+}
+
+/** One pose's result (one shape for all poses), and the facts the remarks read of it. */
+function poseResult(passes: PosePasses, i: number, isBaseline: boolean, note: string | null, remarkFit: RemarkPose['fit']): PoseResult {
+  const { s, flat } = passes;
+  const poseId = passes.input.poses[i].id;
+  const missingBaselineCount = flat.missingBaseline[i];
+  passes.remarkPoses.push({ poseId, isBaseline, note, missingBaselineCount, fit: remarkFit });
+  return new PoseResultView(passes.store, i, poseId, isBaseline, s.liftTwists[i], s.relativeTwists[i], missingBaselineCount, note);
 }
 
 function directionName(direction: TwistDirection): string {
@@ -750,12 +1073,19 @@ interface DirectionData {
 }
 
 /** The fitted poses of each twist direction, checked as repeats for the tolerance method. */
-function directionData(input: EnvelopeInput, poses: readonly PoseResult[], p: EnvelopeParameters, notes: string[]): Record<TwistDirection, DirectionData> {
+function directionData(
+  input: EnvelopeInput,
+  poses: readonly PoseResult[],
+  fitted: Uint8Array,
+  p: EnvelopeParameters,
+  notes: string[],
+): Record<TwistDirection, DirectionData> {
   const indexes: Record<TwistDirection, number[]> = { positive: [], negative: [] };
   const slight: string[] = [];
   for (let i = 0; i < poses.length; i++) {
     const pose = poses[i];
-    if (pose.measures === null) continue;
+    // A pose has measures exactly when it has a fit (reading either would build it).
+    if (fitted[i] === 0) continue;
     if (Math.abs(pose.twistDeg) < MIN_FIT_TWIST_DEG) slight.push(pose.poseId);
     else indexes[pose.twistDeg > 0 ? 'positive' : 'negative'].push(i);
   }
@@ -821,6 +1151,7 @@ function emptyMeasureColumns(count: number): MeasureColumns {
 function measureEnvelope(
   measure: EnvelopeMeasure,
   poses: readonly PoseResult[],
+  fitted: Uint8Array,
   columns: MeasureColumns,
   data: Record<TwistDirection, DirectionData>,
   p: EnvelopeParameters,
@@ -830,7 +1161,7 @@ function measureEnvelope(
   let worstIndex = -1;
   let fitUncertaintyMm: number | null = null;
   for (let i = 0; i < poses.length; i++) {
-    if (poses[i].measures === null) continue;
+    if (fitted[i] === 0) continue;
     if (worstIndex < 0 || values[i] > values[worstIndex]) worstIndex = i;
     if (!Number.isNaN(uncertainties[i])) fitUncertaintyMm = Math.max(fitUncertaintyMm ?? 0, uncertainties[i]);
   }
@@ -934,10 +1265,11 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
 
   const notes: string[] = [];
   const session: Session = { points: input.gaugePoints, scratch, codeStart, baselineIndex, liftTwists, relativeTwists };
-  const { poses, scatterMm, flags, columns } = evaluatePoses(input, session);
-  if (!poses.some((pose) => pose.fit !== null)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
-  const readingNotes = readingRemarks({ poses, scatterMm, baselineTwistDeg });
-  const data = directionData(input, poses, p, notes);
+  const { poses, fitted, remarkPoses, scatterMm, flags, columns } = evaluatePoses(input, session);
+  if (!fitted.includes(1)) throw new FlexInputError(FN, 'poses', 'need at least one pose with readings besides the baseline');
+  // The remarks read the facts judgePose kept of each pose, so no pose's fit is built for them.
+  const readingNotes = readingRemarks({ poses: remarkPoses, scatterMm, baselineTwistDeg });
+  const data = directionData(input, poses, fitted, p, notes);
 
   const tCache = new Map<number, number>();
   const k1Cache = new Map<number, number>();
@@ -957,6 +1289,6 @@ export function designEnvelope(input: EnvelopeInput): EnvelopeResult {
     },
   };
   const measures = {} as Record<EnvelopeMeasure, MeasureEnvelope>;
-  for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, columns, data, p, settings);
+  for (const measure of ENVELOPE_MEASURES) measures[measure] = measureEnvelope(measure, poses, fitted, columns, data, p, settings);
   return { parameters: p, baselineTwistDeg, scatterMm, poses, measures, flags, readingNotes, notes };
 }

@@ -2,12 +2,12 @@
  * The public summary of one pose's relative-motion fit: the motion, per part (out-of-plane and
  * in-plane) its status and the reasons in the engineer's words, residuals, the parameters'
  * unscaled covariance, the kind of outlier check it allowed, and the flagged readings.
- * Shared by fitRelativeMotion and designEnvelope so both report a fit the same way.
+ * Shared by fitRelativeMotion and designEnvelope so both report a fit the same way (buildFit).
  * See docs/method.md §2–§3.
  */
 import { nounFor, plural } from '../plural';
 import { MAX_EDGE_ERROR_RATIO, type PartCore, type PoseBuffer, type PoseFitCore } from './pose-fit';
-import type { OutlierCheck, PoseJudgement } from './outlier-rule';
+import type { OutlierCheck, PartJudgement, PoseJudgement } from './outlier-rule';
 import type { Axis, FitPartStatus, RigidMotion } from './types';
 
 export interface FitPart {
@@ -119,23 +119,32 @@ function outlierNote(kind: 'outOfPlane' | 'inPlane', core: PartCore, check: Outl
   return (check === 'misfitOnly' ? `${name} readings judged together only (${counts})` : `outlier check skipped for ${name} readings (${counts})`) + alone;
 }
 
+/**
+ * s = √(SSR / (n − p)) of a part's fit; null without redundancy. One place for the fit's summary and
+ * for designEnvelope, which works out the measures' uncertainties before (or without) building it.
+ * @param core the part's core fit. @returns the residual SD (mm), or null.
+ * @example residualSd({ ...core, readingCount: 6, parameterCount: 3, ssr: 0.75 }) // => 0.5
+ */
+export function residualSd(core: PartCore): number | null {
+  const redundancy = core.readingCount - core.parameterCount;
+  return redundancy > 0 ? Math.sqrt(core.ssr / redundancy) : null;
+}
+
 /** Packs one part's core fit and its judgement into the public per-part summary. */
 function summarisePart(
   kind: 'outOfPlane' | 'inPlane',
   core: PartCore,
-  judgement: PoseJudgement,
+  part: PartJudgement,
   rms: number,
   counts: { lateral: number; vertical: number },
   unchecked: readonly string[],
 ): FitPart {
-  const part = kind === 'outOfPlane' ? judgement.outOfPlane : judgement.inPlane;
-  const redundancy = core.readingCount - core.parameterCount;
   return {
     status: core.status,
     readingCount: core.readingCount,
     parameterCount: core.parameterCount,
     residualRms: rms,
-    residualSdMm: redundancy > 0 ? Math.sqrt(core.ssr / redundancy) : null,
+    residualSdMm: residualSd(core),
     reason: partReason(kind, core, counts),
     edgeErrorRatio: core.edgeErrorRatio,
     covariance: core.covariance,
@@ -148,26 +157,54 @@ function summarisePart(
 }
 
 /**
- * The public fit result of a pose from its core fit and judgement (shared with designEnvelope).
- * @param buffer the pose's readings as fitted. @param core their fit. @param judgement the outlier rule's verdict.
- * @param labelOf the point id and axis of a buffer index, and its index in the caller's input.
- * @returns the RelativeMotionFit.
- * @example packFit(buffer, fitPoseParts(buffer, corners), judgement, labelOf).outOfPlane.status // => 'full'
+ * What the remarks on a session say of one part of a pose's fit, as its summary would hold it
+ * (designEnvelope writes them without building the summary).
+ * @param kind the part. @param core its core fit. @param check its outlier check.
+ * @param counts the pose's lateral and vertical readings. @param unchecked the points of its readings nothing checks.
+ * @returns the part's reason and outlier note, as in FitPart.
+ * @example partRemarks('inPlane', core, 'checked', { lateral: 6, vertical: 0 }, []).reason // => 'no vertical readings: tz set to 0'
  */
-export function packFit(
-  buffer: PoseBuffer,
+export function partRemarks(
+  kind: 'outOfPlane' | 'inPlane',
+  core: PartCore,
+  check: OutlierCheck,
+  counts: { lateral: number; vertical: number },
+  unchecked: readonly string[],
+): { reason: string | null; outlierNote: string | null } {
+  return { reason: partReason(kind, core, counts), outlierNote: outlierNote(kind, core, check, unchecked) };
+}
+
+function rmsOf(sum: number, n: number): number {
+  return n === 0 ? 0 : Math.sqrt(sum / n);
+}
+
+/**
+ * The public fit of a pose from its core fit, its parts' judgements, its residuals and what was
+ * found of its readings: the one place a RelativeMotionFit is assembled (packFit from a pose's
+ * buffer; designEnvelope from the numbers it keeps, when a pose's fit is first read).
+ * @param core the motion and the parts' core fits. @param judgement each part's outlier check.
+ * @param residual residuals and @param axis axis codes at [start, start + count).
+ * @param uncheckedOut the points of fore-aft readings nothing checks. @param uncheckedIn the same for lateral and vertical.
+ * @param outliers the flagged readings.
+ * @returns the RelativeMotionFit.
+ * @example buildFit(core, judgement, buffer.residual, buffer.axis, 0, 18, [], [], []).residuals.length // => 18
+ */
+export function buildFit(
   core: PoseFitCore,
-  judgement: PoseJudgement,
-  labelOf: (i: number) => { pointId: string; axis: Axis; index: number },
+  judgement: Pick<PoseJudgement, 'outOfPlane' | 'inPlane'>,
+  residual: Float64Array,
+  axis: Uint8Array,
+  start: number,
+  count: number,
+  uncheckedOut: readonly string[],
+  uncheckedIn: readonly string[],
+  outliers: FlaggedReading[],
 ): RelativeMotionFit {
-  const { start, count, axis, residual, standardized } = buffer;
   const residuals = new Array<number>(count);
   let squaresOut = 0;
   let squaresIn = 0;
   let lateral = 0;
   let vertical = 0;
-  let uncheckedOut: string[] | null = null;
-  let uncheckedIn: string[] | null = null;
   let total = 0;
   for (let k = 0; k < count; k++) {
     const i = start + k;
@@ -180,14 +217,31 @@ export function packFit(
       if (axis[i] === 1) lateral++;
       else vertical++;
     }
-    if (Number.isNaN(standardized[i])) {
-      if (axis[i] === 0) (uncheckedOut ??= []).push(labelOf(i).pointId);
-      else (uncheckedIn ??= []).push(labelOf(i).pointId);
-    }
   }
   const counts = { lateral, vertical };
-  const rmsOf = (sum: number, n: number): number => (n === 0 ? 0 : Math.sqrt(sum / n));
-  const outliers = judgement.flagged.map((i): FlaggedReading => {
+  return {
+    motion: { t: { x: core.tx, y: core.ty, z: core.tz }, omega: { x: core.wx, y: core.wy, z: core.wz } },
+    residuals,
+    residualRms: rmsOf(total, count),
+    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement.outOfPlane, rmsOf(squaresOut, core.outOfPlane.readingCount), counts, uncheckedOut),
+    inPlane: summarisePart('inPlane', core.inPlane, judgement.inPlane, rmsOf(squaresIn, core.inPlane.readingCount), counts, uncheckedIn),
+    outliers,
+  };
+}
+
+/**
+ * The flagged readings of a judged pose, as its fit lists them.
+ * @param buffer the pose's readings as fitted and judged. @param judgement the outlier rule's verdict.
+ * @param labelOf the point id and axis of a buffer index, and its index in the caller's input.
+ * @returns one FlaggedReading per flagged reading, in buffer order.
+ * @example flaggedReadings(buffer, judgement, labelOf)[0].score // => 7.9
+ */
+export function flaggedReadings(
+  buffer: PoseBuffer,
+  judgement: PoseJudgement,
+  labelOf: (i: number) => { pointId: string; axis: Axis; index: number },
+): FlaggedReading[] {
+  return judgement.flagged.map((i): FlaggedReading => {
     const label = labelOf(i);
     return {
       index: label.index,
@@ -199,12 +253,43 @@ export function packFit(
       score: buffer.score[i],
     };
   });
-  return {
-    motion: { t: { x: core.tx, y: core.ty, z: core.tz }, omega: { x: core.wx, y: core.wy, z: core.wz } },
-    residuals,
-    residualRms: rmsOf(total, buffer.count),
-    outOfPlane: summarisePart('outOfPlane', core.outOfPlane, judgement, rmsOf(squaresOut, core.outOfPlane.readingCount), counts, uncheckedOut ?? NONE),
-    inPlane: summarisePart('inPlane', core.inPlane, judgement, rmsOf(squaresIn, core.inPlane.readingCount), counts, uncheckedIn ?? NONE),
-    outliers,
-  };
+}
+
+/**
+ * The points of a pose's readings that alone fix part of its fit (NaN standardized residual), per part.
+ * @param buffer the pose's readings as fitted. @param labelOf the point id of a buffer index.
+ * @returns the fore-aft ones and the lateral and vertical ones, in buffer order (NONE when there are none).
+ * @example uncheckedPoints(buffer, labelOf).inPlane // => ['c']
+ */
+export function uncheckedPoints(
+  buffer: PoseBuffer,
+  labelOf: (i: number) => { pointId: string },
+): { outOfPlane: readonly string[]; inPlane: readonly string[] } {
+  let outOfPlane: string[] | null = null;
+  let inPlane: string[] | null = null;
+  const end = buffer.start + buffer.count;
+  for (let i = buffer.start; i < end; i++) {
+    if (!Number.isNaN(buffer.standardized[i])) continue;
+    if (buffer.axis[i] === 0) (outOfPlane ??= []).push(labelOf(i).pointId);
+    else (inPlane ??= []).push(labelOf(i).pointId);
+  }
+  return { outOfPlane: outOfPlane ?? NONE, inPlane: inPlane ?? NONE };
+}
+
+/**
+ * The public fit result of a pose from its core fit and judgement (fitRelativeMotion).
+ * @param buffer the pose's readings as fitted. @param core their fit. @param judgement the outlier rule's verdict.
+ * @param labelOf the point id and axis of a buffer index, and its index in the caller's input.
+ * @returns the RelativeMotionFit.
+ * @example packFit(buffer, fitPoseParts(buffer, corners), judgement, labelOf).outOfPlane.status // => 'full'
+ */
+export function packFit(
+  buffer: PoseBuffer,
+  core: PoseFitCore,
+  judgement: PoseJudgement,
+  labelOf: (i: number) => { pointId: string; axis: Axis; index: number },
+): RelativeMotionFit {
+  const unchecked = uncheckedPoints(buffer, labelOf);
+  const outliers = flaggedReadings(buffer, judgement, labelOf);
+  return buildFit(core, judgement, buffer.residual, buffer.axis, buffer.start, buffer.count, unchecked.outOfPlane, unchecked.inPlane, outliers);
 }

@@ -1,6 +1,15 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { outlineCorners, perimeterWorst, perimeterWorstOn, sampleOutline, type OpeningOutline } from './perimeter';
+import {
+  EXTREME_STRIDE,
+  lowestIsWorst,
+  outlineCorners,
+  outlineExtremesOn,
+  perimeterWorst,
+  perimeterWorstOn,
+  sampleOutline,
+  type OpeningOutline,
+} from './perimeter';
 import { predictDisplacement } from './predict-displacement';
 import { FlexInputError } from './errors';
 import type { RigidMotion } from './types';
@@ -136,5 +145,41 @@ describe('perimeterWorstOn', () => {
       expect(on(motion)).toEqual(perimeterWorst(motion, outline));
     }
     expect(() => perimeterWorstOn({ ...outline, height: 0 })).toThrowError(/perimeterWorstOn: outline.height/);
+  });
+});
+
+describe('outlineExtremesOn', () => {
+  it("gives perimeterWorst's highest and lowest values and places as numbers, to the bit", () => {
+    const on = outlineExtremesOn(outline);
+    const out = new Float64Array(3 * EXTREME_STRIDE);
+    const motions: RigidMotion[] = [
+      still(),
+      { t: { x: 1, y: -4, z: 2 }, omega: { x: 0.003, y: -0.001, z: 0.002 } },
+      { t: { x: -2.5, y: 7, z: -0.3 }, omega: { x: -0.004, y: 0, z: -0.0015 } },
+      { t: { x: 0.4, y: 0, z: 3 }, omega: { x: 0, y: 0.002, z: 0 } },
+    ];
+    for (const motion of motions) {
+      const worst = perimeterWorst(motion, outline);
+      on(motion.t.x, motion.t.y, motion.t.z, motion.omega.x, motion.omega.y, motion.omega.z, out);
+      (['foreAft', 'lateral', 'vertical'] as const).forEach((axis, c) => {
+        const { highest, lowest } = worst[axis];
+        expect(Array.from(out.subarray(EXTREME_STRIDE * c, EXTREME_STRIDE * (c + 1)))).toEqual([
+          highest.valueMm,
+          highest.y,
+          highest.z,
+          lowest.valueMm,
+          lowest.y,
+          lowest.z,
+        ]);
+        expect(worst[axis].valueMm).toBe(lowestIsWorst(highest.valueMm, lowest.valueMm) ? lowest.valueMm : highest.valueMm);
+      });
+    }
+    expect(() => outlineExtremesOn({ ...outline, width: -1 })).toThrowError(/outlineExtremesOn: outline.width/);
+  });
+
+  it('calls a tie between highest and lowest for the highest', () => {
+    expect(lowestIsWorst(5, -5)).toBe(false);
+    expect(lowestIsWorst(3, -5)).toBe(true);
+    expect(lowestIsWorst(-1, -5)).toBe(true);
   });
 });

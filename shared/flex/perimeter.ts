@@ -122,8 +122,12 @@ export function outlineCorners(outline: OpeningOutline): number[] {
   return [g.left, g.bottom, g.left, g.top, g.right, g.top, g.right, g.bottom];
 }
 
-/** The point of the outline that is farthest in the direction (dy, dz), with the value there. */
-function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz: number): OutlineValue {
+/**
+ * Where the outline is farthest in the direction (dy, dz): y and z written to out[at], out[at + 1],
+ * the side returned. The one place this is worked out, for the objects of perimeterWorst and the
+ * numbers of outlineExtremesOn alike, so both give the same bits.
+ */
+function supportAt(g: Geometry, dy: number, dz: number, out: Float64Array, at: number): OutlineSide {
   let y: number;
   let z: number;
   let side: OutlineSide;
@@ -145,13 +149,36 @@ function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz
     z = (dz > 0 ? g.top - g.r : g.bottom + g.r) + (g.r * dz) / length;
     side = dz > 0 ? (dy > 0 ? 'topLeft' : 'topRight') : dy > 0 ? 'bottomLeft' : 'bottomRight';
   }
+  out[at] = y;
+  out[at + 1] = z;
+  return side;
+}
+
+/**
+ * Whether a component's lowest value, not its highest, is its largest |value| (a tie goes to the
+ * highest). One rule for perimeterWorst and the envelope's measures.
+ * @param highest the largest value. @param lowest the smallest value. @returns true when |lowest| wins.
+ * @example lowestIsWorst(3, -5) // => true
+ */
+export function lowestIsWorst(highest: number, lowest: number): boolean {
+  return Math.abs(lowest) > Math.abs(highest) * (1 + 1e-12);
+}
+
+/** Where support() works its point out: a value read straight back, so no object is kept. */
+const place = new Float64Array(2);
+
+/** The point of the outline that is farthest in the direction (dy, dz), with the value there. */
+function support(g: Geometry, c0: number, cy: number, cz: number, dy: number, dz: number): OutlineValue {
+  const side = supportAt(g, dy, dz, place, 0);
+  const y = place[0];
+  const z = place[1];
   return { valueMm: c0 + cy * y + cz * z, y, z, side };
 }
 
 function extremesOf(g: Geometry, c0: number, cy: number, cz: number): AxisWorst {
   const highest = support(g, c0, cy, cz, cy, cz);
   const lowest = support(g, c0, cy, cz, -cy, -cz);
-  const worst = Math.abs(lowest.valueMm) > Math.abs(highest.valueMm) * (1 + 1e-12) ? lowest : highest;
+  const worst = lowestIsWorst(highest.valueMm, lowest.valueMm) ? lowest : highest;
   return { valueMm: worst.valueMm, y: worst.y, z: worst.z, side: worst.side, highest, lowest };
 }
 
@@ -188,6 +215,39 @@ export function perimeterWorstOn(outline: OpeningOutline): (motion: RigidMotion)
   validateOutline('perimeterWorstOn', outline);
   const g = geometry(outline);
   return (motion) => worstOn(g, motion);
+}
+
+/** outlineExtremesOn's numbers per component: highest value, its y and z, lowest value, its y and z. */
+export const EXTREME_STRIDE = 6;
+
+/** One component's extremes into out[at … at + 5], as extremesOf finds them (same support point, same sum). */
+function extremeNumbersInto(g: Geometry, c0: number, cy: number, cz: number, out: Float64Array, at: number): void {
+  supportAt(g, cy, cz, out, at + 1);
+  out[at] = c0 + cy * out[at + 1] + cz * out[at + 2];
+  supportAt(g, -cy, -cz, out, at + 4);
+  out[at + 3] = c0 + cy * out[at + 4] + cz * out[at + 5];
+}
+
+/**
+ * perimeterWorstOn as numbers only, for designEnvelope's pose loop, which needs the extremes'
+ * values and places but not the 10 objects and 27 boxed numbers of a PerimeterWorst per pose. The
+ * values and places are the bits perimeterWorst gives (the same support function and sums).
+ * @param outline the opening (checked here).
+ * @returns a function writing, for the motion (tx, ty, tz, wx, wy, wz), per component c (0 fore-aft,
+ *   1 lateral, 2 vertical) at out[EXTREME_STRIDE·c]: highest value, y, z, lowest value, y, z.
+ * @example outlineExtremesOn(outline)(0, 5, 0, 0, 0, 0, out); out[6] // => 5 (lateral highest)
+ */
+export function outlineExtremesOn(
+  outline: OpeningOutline,
+): (tx: number, ty: number, tz: number, wx: number, wy: number, wz: number, out: Float64Array) => void {
+  validateOutline('outlineExtremesOn', outline);
+  const g = geometry(outline);
+  // The components' coefficients as in worstOn.
+  return (tx, ty, tz, wx, wy, wz, out) => {
+    extremeNumbersInto(g, tx, -wz, wy, out, 0);
+    extremeNumbersInto(g, ty, 0, -wx, out, EXTREME_STRIDE);
+    extremeNumbersInto(g, tz, wx, 0, out, 2 * EXTREME_STRIDE);
+  };
 }
 
 /** Most points sampleOutline will return; keeps a tiny step from exhausting memory. */

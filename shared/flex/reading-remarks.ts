@@ -12,6 +12,7 @@
 import { MM_WORDS, type LengthWords } from './length-words';
 import type { FitPartName } from './outlier-rule';
 import type { PoseResult } from './envelope';
+import type { FitPart, FlaggedReading } from './fit-summary';
 import { READING_SD_MM } from './relative-motion';
 import { plural } from '../plural';
 
@@ -20,8 +21,19 @@ const AXIS_WORDS = { foreAft: 'fore-aft', lateral: 'lateral', vertical: 'vertica
 /** A baseline twisted more than this is said in the remarks. */
 export const BASELINE_TWIST_NOTE_DEG = 0.5;
 
+/** What the remarks read of one part of a pose's fit (a FitPart has it). */
+export type RemarkPart = Pick<FitPart, 'misfit' | 'readingCount' | 'parameterCount' | 'reason' | 'outlierNote'>;
+
+/**
+ * What the remarks read of a pose (a PoseResult has it): designEnvelope hands its poses' remarks in
+ * this form, so a pose's whole fit is not built just to be remarked on.
+ */
+export interface RemarkPose extends Pick<PoseResult, 'poseId' | 'isBaseline' | 'note' | 'missingBaselineCount'> {
+  fit: { outliers: readonly Pick<FlaggedReading, 'pointId' | 'axis' | 'residual' | 'score'>[]; outOfPlane: RemarkPart; inPlane: RemarkPart } | null;
+}
+
 export interface ReadingFacts {
-  poses: readonly PoseResult[];
+  poses: readonly RemarkPose[];
   /** The reading SD each fit part was judged against; above READING_SD_MM it was estimated from the session. */
   scatterMm: Record<FitPartName, number>;
   baselineTwistDeg: number;
