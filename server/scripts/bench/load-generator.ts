@@ -5,12 +5,14 @@
 // generator before it, decoded every body chunk to a string and appended it to the answer, 50
 // connections in one thread: on the large plain answers its garbage collection made much of the
 // latency it reported.) Every answer is still checked: its status, and its full length — as many
-// body bytes as its Content-Length, or the closing chunk of a chunked one; a short answer, a
+// body bytes as its Content-Length, or a chunked body read to its closing chunk; a short answer, a
 // connection error or a timeout is counted as failed, never as served.
-// Node's own HTTP client (llhttp, the parser of its server) and latency histograms from
+// undici's pool (one connection a client, no pipelining) driven through its dispatch interface,
+// which hands over each body chunk as a Buffer with no stream in between; latency histograms from
 // hdr-histogram-js.
-import http from 'node:http';
+import type { IncomingHttpHeaders } from 'node:http';
 import * as hdr from 'hdr-histogram-js';
+import { Pool, errors } from 'undici';
 
 export interface LoadTarget {
   url: string;
@@ -22,7 +24,7 @@ export interface LoadOptions {
   headers: Record<string, string>;
   /** The status every answer must have (200, or 304 for a revalidation). */
   status?: number;
-  /** A request whose connection stays silent this long is counted as a timeout and its connection closed. */
+  /** A request whose answer's headers, or next body bytes, take longer than this is counted as a timeout. */
   timeoutMs?: number;
 }
 
@@ -32,7 +34,7 @@ export interface TargetRun {
   /** Latency of those answers, from the request's start to the last body byte, in ms. */
   p50: number;
   p99: number;
-  /** Wrong status, short body, connection error or timeout. */
+  /** Wrong status, short body, connection error or timeout (also after the round, for a request sent in it). */
   bad: number;
   /** The first failure seen, to say what went wrong. */
   firstFailure: string | null;
@@ -40,35 +42,24 @@ export interface TargetRun {
   bodyBytes: number;
 }
 
-/** Why an answer is not counted as served, or null when it came in whole with the expected status. */
-export function answerFailure(
-  expectedStatus: number,
-  res: { statusCode?: number; headers: http.IncomingHttpHeaders; complete: boolean },
-  bodyBytes: number,
-): string | null {
-  if (res.statusCode !== expectedStatus) return `status ${res.statusCode}, expected ${expectedStatus}`;
-  // Without a Content-Length the body is chunked (or ends with the connection): the parser marks
-  // it complete only once its end has been read.
-  if (!res.complete) return `body cut short after ${bodyBytes} B`;
-  const declared = res.headers['content-length'];
+/**
+ * Why an answer that came to its end (as HTTP frames it) is not counted as served, or null when
+ * it has the expected status and as many body bytes as it declared.
+ */
+export function answerFailure(expectedStatus: number, status: number, headers: IncomingHttpHeaders, bodyBytes: number): string | null {
+  if (status !== expectedStatus) return `status ${status}, expected ${expectedStatus}`;
+  const declared = headers['content-length'];
   if (declared !== undefined && Number(declared) !== bodyBytes) return `body of ${bodyBytes} B, Content-Length ${declared}`;
   return null;
 }
 
-/** Loads one target for `seconds`: `connections` loops, each one request at a time. */
+/** Loads one target until `until`: `connections` loops, each one request at a time. */
 async function loadTarget(target: LoadTarget, opts: LoadOptions, until: number): Promise<TargetRun> {
   const url = new URL(target.url);
-  const agent = new http.Agent({ keepAlive: true, maxSockets: target.connections });
-  const request: http.RequestOptions = {
-    host: url.hostname,
-    port: url.port,
-    path: url.pathname + url.search,
-    method: 'GET',
-    headers: opts.headers,
-    agent,
-  };
-  const expected = opts.status ?? 200;
   const timeoutMs = opts.timeoutMs ?? 10_000;
+  const pool = new Pool(url.origin, { connections: target.connections, pipelining: 1, headersTimeout: timeoutMs, bodyTimeout: timeoutMs });
+  const path = url.pathname + url.search;
+  const expected = opts.status ?? 200;
   // Microseconds, up to a minute; resized beyond that rather than clipped.
   const latency = hdr.build({ lowestDiscernibleValue: 1, highestTrackableValue: 60_000_000, numberOfSignificantValueDigits: 3 });
   let served = 0;
@@ -79,40 +70,45 @@ async function loadTarget(target: LoadTarget, opts: LoadOptions, until: number):
   const once = () =>
     new Promise<void>((resolve) => {
       const t0 = performance.now();
+      let status = 0;
+      let headers: IncomingHttpHeaders = {};
       let bytes = 0;
-      let settled = false;
       const settle = (failure: string | null) => {
-        if (settled) return;
-        settled = true;
         const t1 = performance.now();
-        // An answer that ends after the round has ended is not counted either way.
-        if (t1 <= until) {
-          if (failure === null) {
-            served++;
-            latency.recordValue(Math.max(1, Math.round((t1 - t0) * 1000)));
-          } else {
-            bad++;
-            firstFailure ??= failure;
-          }
+        if (failure !== null) {
+          bad++;
+          firstFailure ??= failure;
+        } else if (t1 <= until) {
+          // A whole answer that ends after the round has ended is not counted as served in it.
+          served++;
+          latency.recordValue(Math.max(1, Math.round((t1 - t0) * 1000)));
         }
         resolve();
       };
-      const req = http.request(request, (res) => {
-        res.on('data', (chunk: Buffer) => {
-          bytes += chunk.length;
-          bodyBytes += chunk.length;
-        });
-        res.on('end', () => settle(answerFailure(expected, res, bytes)));
-        // A connection closed mid-body ('aborted', then 'error' or 'close' without 'end').
-        res.on('error', (err) => settle(`${err.message} after ${bytes} B`));
-        res.on('close', () => settle(answerFailure(expected, res, bytes)));
-      });
-      req.setTimeout(timeoutMs, () => {
-        settle(`nothing received for ${timeoutMs} ms`);
-        req.destroy();
-      });
-      req.on('error', (err) => settle(err.message));
-      req.end();
+      pool.dispatch(
+        { method: 'GET', path, headers: opts.headers },
+        {
+          // Its presence is what marks this handler as one of undici's current interface.
+          onRequestStart() {},
+          onResponseStart(_controller, statusCode, responseHeaders) {
+            status = statusCode;
+            headers = responseHeaders;
+          },
+          onResponseData(_controller, chunk) {
+            bytes += chunk.length;
+            bodyBytes += chunk.length;
+          },
+          // Called once the parser has read the whole message (Content-Length bytes, or the closing chunk).
+          onResponseEnd() {
+            settle(answerFailure(expected, status, headers, bytes));
+          },
+          // A connection closed mid-answer, a length mismatch undici saw itself, or a timeout.
+          onResponseError(_controller, err) {
+            const timedOut = err instanceof errors.HeadersTimeoutError || err instanceof errors.BodyTimeoutError;
+            settle(timedOut ? `nothing received for ${timeoutMs} ms` : `${err.message} after ${bytes} B`);
+          },
+        },
+      );
     });
 
   const connection = async () => {
@@ -121,7 +117,7 @@ async function loadTarget(target: LoadTarget, opts: LoadOptions, until: number):
   try {
     await Promise.all(Array.from({ length: target.connections }, connection));
   } finally {
-    agent.destroy();
+    await pool.destroy();
   }
   return {
     rps: served / opts.seconds,
