@@ -261,13 +261,23 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
       return { ...result, cpu };
     };
     // Round 0 warms every configuration up (JIT, pools, PostgreSQL's caches) and is not counted.
-    // With the comparison on, each configuration runs through both generators, one right after the other.
+    // With the comparison on, each configuration runs through both generators, one right after the
+    // other, the first of them alternating from round to round: the first run after a pause meets
+    // what the pause left (an instance's idle pool connections closed after 10 s, for one).
     const runs = Object.fromEntries(generators.map((g) => [g, Object.fromEntries(Object.keys(configs).map((k) => [k, [] as Run[]]))]));
     for (let round = 0; round <= ROUNDS; round++) {
       for (const [name, c] of Object.entries(configs)) {
-        for (const g of generators) {
+        for (const g of round % 2 ? generators : [...generators].reverse()) {
           const r = await measure(c, g);
           if (round > 0) runs[g][name].push(r);
+          // Every run's figures as they come, for a look at the rounds behind the medians.
+          const perRequest = cpuPerRequest(r);
+          console.error(
+            `[load] round ${round} ${name} ${g}: ${Math.round(r.rps)} req/s, p50 ${Math.round(r.p50)} ms, p99 ${Math.round(r.p99)} ms` +
+              (r.bad ? `, ${r.bad} failed (${r.firstFailure})` : '') +
+              (perRequest ? `; CPU ms a request ${Object.values(perRequest).map(ms).join(' / ')}` : '') +
+              (r.cpu ? `; machine ${Math.round(r.cpu.machineBusy)} % busy` : ''),
+          );
         }
       }
     }
