@@ -21,7 +21,7 @@ import { randomUUID } from 'node:crypto';
 import http from 'node:http';
 import type { BenchRow } from './report';
 import { sessionChanges, startB2, startInstance, type BenchServer, type Child } from './fixture';
-import { describeCpu, postgresPids, withCpuShare, type CpuShare } from './cpu-share';
+import { describeCpu, postgresPids, processTitle, withCpuShare, type CpuShare } from './cpu-share';
 import { generateLoad, type LoadTarget } from './load-generator';
 
 const CONNECTIONS = 50;
@@ -122,6 +122,20 @@ function wireBytes(url: string, cookie: string, encoding: string | null): Promis
       })
       .on('error', reject);
   });
+}
+
+/** PostgreSQL's processes that began during a run: new connections' backends, autovacuum workers. */
+function newPostgresProcesses(cpu: CpuShare | null): string {
+  const pids = cpu?.started?.PostgreSQL ?? [];
+  if (pids.length === 0) return '';
+  const kinds = new Map<string, number>();
+  for (const pid of pids) {
+    // 'postgres: bench twistlog_bench 127.0.0.1(41234) idle' → 'client backend'
+    const title = processTitle(pid).replace(/^postgres: /, '');
+    const kind = /\d+\.\d+\.\d+\.\d+\(\d+\)/.test(title) ? 'client backend' : title;
+    kinds.set(kind, (kinds.get(kind) ?? 0) + 1);
+  }
+  return `; PostgreSQL processes begun: ${[...kinds].map(([k, n]) => `${n} ${k}`).join(', ')}`;
 }
 
 const ms = (x: number) => (x < 10 ? x.toFixed(2) : x.toFixed(1));
@@ -255,6 +269,9 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
       },
     } satisfies Record<string, Config>;
     type Name = keyof typeof configs;
+    // BENCH_LOAD_CONFIGS=meSignedIn,healthUnsigned (say) runs only those, for a closer look; the table needs them all.
+    const chosen = process.env.BENCH_LOAD_CONFIGS?.split(',');
+    const toRun = Object.entries(configs).filter(([name]) => !chosen || chosen.includes(name));
     const generators: Generator[] = COMPARE_AUTOCANNON ? ['own', 'autocannon'] : ['own'];
     const measure = async (c: Config, generator: Generator): Promise<Run> => {
       const { result, cpu } = await withCpuShare({ [c.server]: c.pids, PostgreSQL: pg, 'load generator': () => [process.pid] }, () => hammer(generator, c));
@@ -266,7 +283,7 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     // what the pause left (an instance's idle pool connections closed after 10 s, for one).
     const runs = Object.fromEntries(generators.map((g) => [g, Object.fromEntries(Object.keys(configs).map((k) => [k, [] as Run[]]))]));
     for (let round = 0; round <= ROUNDS; round++) {
-      for (const [name, c] of Object.entries(configs)) {
+      for (const [name, c] of toRun) {
         for (const g of round % 2 ? generators : [...generators].reverse()) {
           const r = await measure(c, g);
           if (round > 0) runs[g][name].push(r);
@@ -276,11 +293,14 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
             `[load] round ${round} ${name} ${g}: ${Math.round(r.rps)} req/s, p50 ${Math.round(r.p50)} ms, p99 ${Math.round(r.p99)} ms` +
               (r.bad ? `, ${r.bad} failed (${r.firstFailure})` : '') +
               (perRequest ? `; CPU ms a request ${Object.values(perRequest).map(ms).join(' / ')}` : '') +
-              (r.cpu ? `; machine ${Math.round(r.cpu.machineBusy)} % busy` : ''),
+              (r.cpu ? `; machine ${Math.round(r.cpu.machineBusy)} % busy` : '') +
+              newPostgresProcesses(r.cpu),
           );
         }
       }
     }
+    // A subset's figures are the stderr lines above; the table's rows need every configuration.
+    if (chosen) return [];
     const summarize = (g: Generator) => Object.fromEntries(Object.entries(runs[g]).map(([k, v]) => [k, summary(v)])) as Record<Name, Summary>;
     const m = summarize('own');
 
