@@ -15,7 +15,7 @@
 // Each round also reads, from /proc, the CPU that the server, PostgreSQL and the generator used,
 // given per request served, so a ratio can be read beside what it cost and what the cores allow.
 // BENCH_LOAD_AUTOCANNON=1 also runs every configuration through autocannon (the former generator)
-// right after this one's, in the same rounds, to compare the two.
+// right before or after this one's (alternately), in the same rounds, to compare the two.
 import autocannon from 'autocannon';
 import { randomUUID } from 'node:crypto';
 import http from 'node:http';
