@@ -13,6 +13,8 @@ export interface CpuShare {
   /** Percent of all the machine's cores busy (any process), and how many cores there are. */
   machineBusy: number;
   cores: number;
+  /** Per part, the processes that were not there when the run began (new connections' backends, say). */
+  started?: Record<string, number[]>;
 }
 
 function readStat(pid: number): { ppid: number; ticks: number } | null {
@@ -83,7 +85,9 @@ export async function withCpuShare<T>(parts: Record<string, () => number[]>, wor
   const after = snapshot(parts);
   const seconds = (after.at - before.at) / 1000;
   const share: Record<string, number> = {};
+  const started: Record<string, number[]> = {};
   for (const name of Object.keys(parts)) {
+    started[name] = [...after.ticks[name].keys()].filter((pid) => !before.ticks[name].has(pid));
     let ticks = 0;
     for (const [pid, t] of after.ticks[name]) ticks += t - (before.ticks[name].get(pid) ?? 0);
     share[name] = (ticks / TICKS_PER_SECOND / seconds) * 100;
@@ -92,8 +96,17 @@ export async function withCpuShare<T>(parts: Record<string, () => number[]>, wor
   const total = after.machine.total - before.machine.total;
   return {
     result,
-    cpu: { parts: share, machineBusy: total > 0 ? (busy / total) * 100 : 0, cores: after.machine.cores },
+    cpu: { parts: share, machineBusy: total > 0 ? (busy / total) * 100 : 0, cores: after.machine.cores, started },
   };
+}
+
+/** What a process is, from its command line ('postgres: autovacuum worker', say), or 'ended'. */
+export function processTitle(pid: number): string {
+  try {
+    return fs.readFileSync(`/proc/${pid}/cmdline`, 'utf8').split('\0').filter(Boolean).join(' ');
+  } catch {
+    return 'ended';
+  }
 }
 
 /** "app 62 %, PostgreSQL 15 %, load generator 95 % of a core; the 2 cores 97 % busy" */

@@ -1,7 +1,8 @@
-// API under load, measured as ratios in one run: autocannon in this process (never in a server's),
-// 50 connections on loopback, the configurations interleaved round by round so a change in the
-// machine's load (other work on it) falls on all of them alike; each figure is the median of the
-// rounds. The app runs as deployed (bundled, production, logging at info) against:
+// API under load, measured as ratios in one run: the load generator in this process (never in a
+// server's; load-generator.ts: it counts each answer's bytes and checks its status and length, and
+// decodes nothing), 50 connections on loopback, the configurations interleaved round by round so a
+// change in the machine's load (other work on it) falls on all of them alike; each figure is the
+// median of the rounds. The app runs as deployed (bundled, production, logging at info) against:
 // - B2 (bare-b2.ts): the same statements, PostgreSQL-built JSON passed through by a bare handler,
 //   for the review and the pull;
 // - itself without its answer cache (an instance with ANSWER_CACHE_MB=0): what every request costs
@@ -11,37 +12,70 @@
 // Plain requests with no Accept-Encoding, as a load generator sends them (B2 compresses nothing),
 // and for the review and the pull also as a browser asks (Accept-Encoding: gzip, deflate, br), the
 // kept brotli bytes then being sent; the review's size on the wire is measured on its own.
+// Each round also reads, from /proc, the CPU that the server, PostgreSQL and the generator used,
+// given per request served, so a ratio can be read beside what it cost and what the cores allow.
+// BENCH_LOAD_AUTOCANNON=1 also runs every configuration through autocannon (the former generator)
+// right before or after this one's (alternately), in the same rounds, to compare the two.
 import autocannon from 'autocannon';
 import { randomUUID } from 'node:crypto';
 import http from 'node:http';
 import type { BenchRow } from './report';
 import { sessionChanges, startB2, startInstance, type BenchServer, type Child } from './fixture';
-import { describeCpu, postgresPids, withCpuShare, type CpuShare } from './cpu-share';
+import { describeCpu, postgresPids, processTitle, withCpuShare, type CpuShare } from './cpu-share';
+import { generateLoad, type LoadTarget } from './load-generator';
 
 const CONNECTIONS = 50;
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_LOAD_ROUNDS ?? 3);
+const COMPARE_AUTOCANNON = process.env.BENCH_LOAD_AUTOCANNON === '1';
 /** The review's raw size before this work (the issue's measurement), for the wire-bytes ratio. */
 const REVIEW_RAW_BEFORE = 370_707;
 /** What Chromium sends. */
 const BROWSER_ENCODINGS = 'gzip, deflate, br';
+
+type Generator = 'own' | 'autocannon';
 
 interface Run {
   rps: number;
   p50: number;
   p99: number;
   bad: number;
+  firstFailure: string | null;
+  /** Where the CPU went during the round (null without /proc). */
+  cpu: CpuShare | null;
 }
 
-async function hammer(targets: { url: string; connections: number }[], headers: Record<string, string>): Promise<Run> {
-  const results = await Promise.all(targets.map((t) => autocannon({ url: t.url, connections: t.connections, duration: SECONDS, headers })));
+/** One configuration: what is loaded, how it is asked, and the processes that serve it. */
+interface Config {
+  targets: LoadTarget[];
+  headers: Record<string, string>;
+  /** The status every answer must have. */
+  status?: number;
+  /** The name of the serving processes in the CPU figures, and their pids. */
+  server: string;
+  pids: () => number[];
+}
+
+/** Several targets at once: their rates add up; latency is the worse of them. */
+async function hammer(generator: Generator, c: Config): Promise<Omit<Run, 'cpu'>> {
+  if (generator === 'own') {
+    const runs = await generateLoad(c.targets, { seconds: SECONDS, headers: c.headers, status: c.status });
+    return {
+      rps: runs.reduce((n, r) => n + r.rps, 0),
+      p50: Math.max(...runs.map((r) => r.p50)),
+      p99: Math.max(...runs.map((r) => r.p99)),
+      bad: runs.reduce((n, r) => n + r.bad, 0),
+      firstFailure: runs.find((r) => r.firstFailure)?.firstFailure ?? null,
+    };
+  }
+  const results = await Promise.all(c.targets.map((t) => autocannon({ url: t.url, connections: t.connections, duration: SECONDS, headers: c.headers })));
   const bad = results.reduce((n, r) => n + r['4xx'] + r['5xx'] + r.errors + r.timeouts, 0);
-  // Several targets at once: their rates add up; latency is the worse of them.
   return {
     rps: results.reduce((n, r) => n + r.requests.average, 0),
     p50: Math.max(...results.map((r) => r.latency.p50)),
     p99: Math.max(...results.map((r) => r.latency.p99)),
     bad,
+    firstFailure: bad ? 'see autocannon' : null,
   };
 }
 
@@ -54,14 +88,26 @@ function medianCpu(runs: CpuShare[]): CpuShare | null {
   return { parts, machineBusy: median(runs.map((r) => r.machineBusy)), cores: runs[0].cores };
 }
 
+/** Milliseconds of CPU a request served, per part, or null without /proc or with nothing served. */
+function cpuPerRequest(r: Run): Record<string, number> | null {
+  if (!r.cpu || r.rps === 0) return null;
+  return Object.fromEntries(Object.entries(r.cpu.parts).map(([k, pct]) => [k, (pct * 10) / r.rps]));
+}
+
 function summary(runs: Run[]) {
+  const perRequest = runs.map(cpuPerRequest).filter((x): x is Record<string, number> => x !== null);
   return {
     rps: median(runs.map((r) => r.rps)),
     p50: median(runs.map((r) => r.p50)),
     p99: median(runs.map((r) => r.p99)),
     bad: runs.reduce((n, r) => n + r.bad, 0),
+    firstFailure: runs.find((r) => r.firstFailure)?.firstFailure ?? null,
+    cpu: medianCpu(runs.flatMap((r) => (r.cpu ? [r.cpu] : []))),
+    /** Median ms of CPU a request, per part. */
+    cpuMs: perRequest.length ? Object.fromEntries(Object.keys(perRequest[0]).map((k) => [k, median(perRequest.map((p) => p[k]))])) : null,
   };
 }
+type Summary = ReturnType<typeof summary>;
 
 /** Bytes on the wire of one GET with an Accept-Encoding (the body as sent, before decoding). */
 function wireBytes(url: string, cookie: string, encoding: string | null): Promise<{ bytes: number; encoding: string }> {
@@ -78,9 +124,91 @@ function wireBytes(url: string, cookie: string, encoding: string | null): Promis
   });
 }
 
-const fmtRun = (r: ReturnType<typeof summary>) => `${Math.round(r.rps)} req/s, p50 ${r.p50} ms, p99 ${r.p99} ms${r.bad ? `, ${r.bad} failed` : ''}`;
+/** PostgreSQL's processes that began during a run: new connections' backends, autovacuum workers. */
+function newPostgresProcesses(cpu: CpuShare | null): string {
+  const pids = cpu?.started?.PostgreSQL ?? [];
+  if (pids.length === 0) return '';
+  const kinds = new Map<string, number>();
+  for (const pid of pids) {
+    // 'postgres: bench twistlog_bench 127.0.0.1(41234) idle' → 'client backend'
+    const title = processTitle(pid).replace(/^postgres: /, '');
+    const kind = /\d+\.\d+\.\d+\.\d+\(\d+\)/.test(title) ? 'client backend' : title;
+    kinds.set(kind, (kinds.get(kind) ?? 0) + 1);
+  }
+  return `; PostgreSQL processes begun: ${[...kinds].map(([k, n]) => `${n} ${k}`).join(', ')}`;
+}
+
+const ms = (x: number) => (x < 10 ? x.toFixed(2) : x.toFixed(1));
+/** "512 req/s, p50 80 ms, p99 150 ms; CPU a request: app 1.30 ms, PostgreSQL 0.61 ms, load generator 0.20 ms" */
+const fmtRun = (r: Summary) =>
+  `${Math.round(r.rps)} req/s, p50 ${Math.round(r.p50)} ms, p99 ${Math.round(r.p99)} ms` +
+  (r.bad ? `, ${r.bad} failed (${r.firstFailure})` : '') +
+  (r.cpuMs
+    ? `; CPU a request: ${Object.entries(r.cpuMs)
+        .map(([k, v]) => `${k} ${ms(v)} ms`)
+        .join(', ')}`
+    : '');
 const ratio = (a: number, b: number) => (a / b).toFixed(2);
 const verdict = (met: boolean) => (met ? 'met' : 'NOT met');
+
+/**
+ * Whether the review's req/s can grow with a second instance on this machine: the CPU a request
+ * of each part in both configurations (an added instance that costs no more a request scales with
+ * the cores it is given), and the ceilings the cores set at the one instance's CPU a request — one
+ * core for a single Node process's JavaScript, all the machine's cores for the app, PostgreSQL and
+ * the generator together (on a machine that runs them all).
+ */
+function scalingRows(section: string, one: Summary, two: Summary): BenchRow[] {
+  if (!one.cpuMs || !two.cpuMs || !one.cpu) return [];
+  const appOne = one.cpuMs.app;
+  const appTwo = two.cpuMs['two apps'];
+  const allOne = Object.values(one.cpuMs).reduce((x, y) => x + y, 0);
+  const machineCeiling = (one.cpu.cores * 1000) / allOne;
+  const growth = appTwo / appOne;
+  return [
+    {
+      section,
+      measure: '… CPU a request, one instance → two',
+      value:
+        `app ${ms(appOne)} → ${ms(appTwo)} ms (× ${growth.toFixed(2)}), PostgreSQL ${ms(one.cpuMs.PostgreSQL)} → ${ms(two.cpuMs.PostgreSQL)} ms, ` +
+        `load generator ${ms(one.cpuMs['load generator'])} → ${ms(two.cpuMs['load generator'])} ms`,
+    },
+    {
+      section,
+      measure: '… what the cores allow the review, at the one-instance CPU a request',
+      value:
+        `one process on one core ${Math.round(1000 / appOne)} req/s; the machine's ${one.cpu.cores} cores for app, PostgreSQL and generator ${Math.round(machineCeiling)} req/s; ` +
+        `measured: one instance ${Math.round(one.rps)} (${Math.round((one.rps / machineCeiling) * 100)} % of the machine's), two ${Math.round(two.rps)} (${Math.round((two.rps / machineCeiling) * 100)} %)`,
+    },
+  ];
+}
+
+const LABELS: Record<string, string> = {
+  reviewApp: 'session review, app',
+  reviewBrowser: '… as a browser asks',
+  reviewMiss: '… after every change',
+  reviewB2: '… B2',
+  reviewRevalidated: '… asked again unchanged (304)',
+  pullApp: 'sync pull since 0, app',
+  pullBrowser: '… as a browser asks',
+  pullMiss: '… after every change',
+  pullB2: '… B2',
+  meSignedIn: 'GET /api/me',
+  healthUnsigned: 'GET /api/health',
+  reviewTwoInstances: 'session review on two instances',
+};
+
+/** BENCH_LOAD_AUTOCANNON=1: every configuration through both generators, in the same rounds. */
+function comparisonRows(own: Record<string, Summary>, ac: Record<string, Summary>): BenchRow[] {
+  const section = 'API load: the former generator (autocannon) against this one, the same rounds';
+  const ratios = (x: Record<string, Summary>) =>
+    `review ÷ B2 ${ratio(x.reviewApp.rps, x.reviewB2.rps)}, pull ÷ B2 ${ratio(x.pullApp.rps, x.pullB2.rps)}, ` +
+    `/api/me ÷ /api/health ${ratio(x.meSignedIn.rps, x.healthUnsigned.rps)}, two instances ÷ one ${ratio(x.reviewTwoInstances.rps, x.reviewApp.rps)}`;
+  return [
+    ...Object.keys(LABELS).map((k) => ({ section, measure: LABELS[k], value: `autocannon: ${fmtRun(ac[k])} ‖ this generator: ${fmtRun(own[k])}` })),
+    { section, measure: 'ratios', value: `autocannon: ${ratios(ac)} ‖ this generator: ${ratios(own)}` },
+  ];
+}
 
 export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
   // A workshop of its own with two realistic sessions of 30 poses × 12 gauge points × 3 axes,
@@ -113,47 +241,67 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     // Where the CPU went during the one- and two-instance review rounds (warm-up round included
     // in the list, left out of the median like the figures).
     const pgPort = Number(new URL(s.databaseUrl).port);
-    const cpuRuns: Record<'one' | 'two', CpuShare[]> = { one: [], two: [] };
-    const measured = async (key: 'one' | 'two', parts: Record<string, () => number[]>, work: () => Promise<Run>) => {
-      const { result, cpu } = await withCpuShare(parts, work);
-      if (cpu) cpuRuns[key].push(cpu);
-      return result;
-    };
-    const configs: Record<string, () => Promise<Run>> = {
-      reviewApp: () =>
-        measured('one', { app: () => [a.pid], PostgreSQL: () => postgresPids(pgPort), 'load generator': () => [process.pid] }, () =>
-          hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], signedIn),
-        ),
-      reviewBrowser: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS }),
-      reviewMiss: () => hammer([{ url: uncached!.baseUrl + review, connections: CONNECTIONS }], signedIn),
-      reviewB2: () => hammer([{ url: `${b2!.baseUrl}/review/${workshop.teamId}/${sessionId}`, connections: CONNECTIONS }], {}),
-      reviewRevalidated: () => hammer([{ url: a.baseUrl + review, connections: CONNECTIONS }], { ...signedIn, 'if-none-match': etag }),
-      pullApp: () => hammer([{ url: a.baseUrl + pull, connections: CONNECTIONS }], signedIn),
-      pullBrowser: () => hammer([{ url: a.baseUrl + pull, connections: CONNECTIONS }], { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS }),
-      pullMiss: () => hammer([{ url: uncached!.baseUrl + pull, connections: CONNECTIONS }], signedIn),
-      pullB2: () => hammer([{ url: `${b2!.baseUrl}/pull/${workshop.teamId}/${workshop.userId}?since=0`, connections: CONNECTIONS }], {}),
-      meSignedIn: () => hammer([{ url: `${a.baseUrl}/api/me`, connections: CONNECTIONS }], signedIn),
-      healthUnsigned: () => hammer([{ url: `${a.baseUrl}/api/health`, connections: CONNECTIONS }], {}),
-      reviewTwoInstances: () =>
-        measured('two', { 'two apps': () => [a.pid, b!.pid], PostgreSQL: () => postgresPids(pgPort), 'load generator': () => [process.pid] }, () =>
-          hammer(
-            [
-              { url: a.baseUrl + review, connections: CONNECTIONS / 2 },
-              { url: b!.baseUrl + review, connections: CONNECTIONS / 2 },
-            ],
-            signedIn,
-          ),
-        ),
+    const pg = () => postgresPids(pgPort);
+    const app = () => [a.pid];
+    const one = (url: string) => [{ url, connections: CONNECTIONS }];
+    const browser = { ...signedIn, 'accept-encoding': BROWSER_ENCODINGS };
+    const configs = {
+      reviewApp: { targets: one(a.baseUrl + review), headers: signedIn, server: 'app', pids: app },
+      reviewBrowser: { targets: one(a.baseUrl + review), headers: browser, server: 'app', pids: app },
+      reviewMiss: { targets: one(uncached.baseUrl + review), headers: signedIn, server: 'app', pids: () => [uncached!.pid] },
+      reviewB2: { targets: one(`${b2.baseUrl}/review/${workshop.teamId}/${sessionId}`), headers: {}, server: 'B2', pids: () => [b2!.pid] },
+      reviewRevalidated: { targets: one(a.baseUrl + review), headers: { ...signedIn, 'if-none-match': etag }, status: 304, server: 'app', pids: app },
+      pullApp: { targets: one(a.baseUrl + pull), headers: signedIn, server: 'app', pids: app },
+      pullBrowser: { targets: one(a.baseUrl + pull), headers: browser, server: 'app', pids: app },
+      pullMiss: { targets: one(uncached.baseUrl + pull), headers: signedIn, server: 'app', pids: () => [uncached!.pid] },
+      pullB2: { targets: one(`${b2.baseUrl}/pull/${workshop.teamId}/${workshop.userId}?since=0`), headers: {}, server: 'B2', pids: () => [b2!.pid] },
+      meSignedIn: { targets: one(`${a.baseUrl}/api/me`), headers: signedIn, server: 'app', pids: app },
+      healthUnsigned: { targets: one(`${a.baseUrl}/api/health`), headers: {}, server: 'app', pids: app },
+      reviewTwoInstances: {
+        targets: [
+          { url: a.baseUrl + review, connections: CONNECTIONS / 2 },
+          { url: b.baseUrl + review, connections: CONNECTIONS / 2 },
+        ],
+        headers: signedIn,
+        server: 'two apps',
+        pids: () => [a.pid, b!.pid],
+      },
+    } satisfies Record<string, Config>;
+    type Name = keyof typeof configs;
+    // BENCH_LOAD_CONFIGS=meSignedIn,healthUnsigned (say) runs only those, for a closer look; the table needs them all.
+    const chosen = process.env.BENCH_LOAD_CONFIGS?.split(',');
+    const toRun = Object.entries(configs).filter(([name]) => !chosen || chosen.includes(name));
+    const generators: Generator[] = COMPARE_AUTOCANNON ? ['own', 'autocannon'] : ['own'];
+    const measure = async (c: Config, generator: Generator): Promise<Run> => {
+      const { result, cpu } = await withCpuShare({ [c.server]: c.pids, PostgreSQL: pg, 'load generator': () => [process.pid] }, () => hammer(generator, c));
+      return { ...result, cpu };
     };
     // Round 0 warms every configuration up (JIT, pools, PostgreSQL's caches) and is not counted.
-    const runs: Record<string, Run[]> = Object.fromEntries(Object.keys(configs).map((k) => [k, []]));
+    // With the comparison on, each configuration runs through both generators, one right after the
+    // other, the first of them alternating from round to round: the first run after a pause meets
+    // what the pause left (an instance's idle pool connections closed after 10 s, for one).
+    const runs = Object.fromEntries(generators.map((g) => [g, Object.fromEntries(Object.keys(configs).map((k) => [k, [] as Run[]]))]));
     for (let round = 0; round <= ROUNDS; round++) {
-      for (const [name, run] of Object.entries(configs)) {
-        const r = await run();
-        if (round > 0) runs[name].push(r);
+      for (const [name, c] of toRun) {
+        for (const g of round % 2 ? generators : [...generators].reverse()) {
+          const r = await measure(c, g);
+          if (round > 0) runs[g][name].push(r);
+          // Every run's figures as they come, for a look at the rounds behind the medians.
+          const perRequest = cpuPerRequest(r);
+          console.error(
+            `[load] round ${round} ${name} ${g}: ${Math.round(r.rps)} req/s, p50 ${Math.round(r.p50)} ms, p99 ${Math.round(r.p99)} ms` +
+              (r.bad ? `, ${r.bad} failed (${r.firstFailure})` : '') +
+              (perRequest ? `; CPU ms a request ${Object.values(perRequest).map(ms).join(' / ')}` : '') +
+              (r.cpu ? `; machine ${Math.round(r.cpu.machineBusy)} % busy` : '') +
+              newPostgresProcesses(r.cpu),
+          );
+        }
       }
     }
-    const m = Object.fromEntries(Object.entries(runs).map(([k, v]) => [k, summary(v)])) as Record<keyof typeof configs, ReturnType<typeof summary>>;
+    // A subset's figures are the stderr lines above; the table's rows need every configuration.
+    if (chosen) return [];
+    const summarize = (g: Generator) => Object.fromEntries(Object.entries(runs[g]).map(([k, v]) => [k, summary(v)])) as Record<Name, Summary>;
+    const m = summarize('own');
 
     const raw = await wireBytes(a.baseUrl + review, cookie, null);
     const br = await wireBytes(a.baseUrl + review, cookie, 'gzip, deflate, br');
@@ -167,7 +315,7 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     /** An answer's rows: the app with the p99 goal, as a browser asks, after every change, B2, and app ÷ B2. */
     const answerRows = (
       measure: string,
-      run: { app: Run; browser: Run; miss: Run; b2: Run },
+      run: { app: Summary; browser: Summary; miss: Summary; b2: Summary },
       words: { browser: string; miss: string; b2: string },
     ): BenchRow[] => {
       const toB2 = run.app.rps / run.b2.rps;
@@ -205,8 +353,10 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
         value: ratio(m.reviewTwoInstances.rps, m.reviewApp.rps),
         goal: `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}`,
       },
-      { section, measure: '… CPU during the one-instance review (median round)', value: describeCpu(medianCpu(cpuRuns.one.slice(1))) },
-      { section, measure: '… CPU during the two-instance review (median round)', value: describeCpu(medianCpu(cpuRuns.two.slice(1))) },
+      { section, measure: '… CPU during the one-instance review (median round)', value: describeCpu(m.reviewApp.cpu) },
+      { section, measure: '… CPU during the two-instance review (median round)', value: describeCpu(m.reviewTwoInstances.cpu) },
+      ...scalingRows(section, m.reviewApp, m.reviewTwoInstances),
+      ...(COMPARE_AUTOCANNON ? comparisonRows(m, summarize('autocannon')) : []),
       {
         section: 'bytes on the wire',
         measure: 'session review',
