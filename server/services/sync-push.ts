@@ -25,6 +25,7 @@ import {
   field,
   lockNamedRows,
   poseSessions,
+  readAhead,
   recordsJson,
   rowKey,
   select,
@@ -125,7 +126,8 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
     // for the inserts; both are made while PostgreSQL reads and locks the rows the batch names.
     const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => ({ hash: requestHash(req), records: recordsAhead(items) }));
     const hash = ahead.hash;
-    const reads: BatchReads = { rows, poseSessions: poseSessions(auth, transaction) };
+    const poses = poseSessions(auth, transaction);
+    const reads: BatchReads = { rows, poseSessions: poses, lookups: await readAhead(auth, items, rows, poses, transaction) };
     await enforceSyncAccess(auth, items, transaction, undefined, reads);
     const plan = await checkBatch(auth, items, reads, transaction);
     const { accepted, conflicts } = await applyPlan(auth, plan, transaction, ahead.records);
@@ -201,9 +203,9 @@ async function checkBatch(auth: AuthContext, items: Item[], reads: BatchReads, t
     plan.updates.set(entity, updates);
   }
 
-  await checkReferences(auth, byEntity, known, errors, reads.poseSessions, transaction);
-  await checkReadingSlots(auth, plan, errors, transaction);
-  await checkGaugeLabels(auth, plan, errors, transaction);
+  await checkReferences(byEntity, known, errors, reads);
+  await checkReadingSlots(auth, plan, errors, transaction, field, reads.lookups.slots);
+  await checkGaugeLabels(auth, plan, errors, transaction, field, reads.lookups.labels);
 
   if (errors.length) {
     errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
@@ -215,16 +217,9 @@ async function checkBatch(auth: AuthContext, items: Item[], reads: BatchReads, t
   return plan;
 }
 
-async function checkReferences(
-  auth: AuthContext,
-  byEntity: Map<SyncEntity, Item[]>,
-  known: Map<SyncEntity, Set<string>>,
-  errors: FieldError[],
-  poses: PoseSessions,
-  transaction: Transaction,
-) {
+async function checkReferences(byEntity: Map<SyncEntity, Item[]>, known: Map<SyncEntity, Set<string>>, errors: FieldError[], reads: BatchReads) {
   // Referenced ids not in this batch must be the team's rows: poses through the batch's pose
-  // look-up (the access rules and the history read the same), every other table in one query.
+  // look-up (the access rules and the history read the same), every other table as read ahead.
   const wanted = new Map<SyncEntity, Set<string>>();
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
@@ -241,20 +236,11 @@ async function checkReferences(
   const wantedPoses = wanted.get('pose');
   wanted.delete('pose');
   if (wantedPoses) {
-    await poses.load(wantedPoses);
-    for (const id of wantedPoses) if (poses.sessionOf(id)) known.get('pose')!.add(id);
+    // Read ahead with the rest: no statement of its own.
+    await reads.poseSessions.load(wantedPoses);
+    for (const id of wantedPoses) if (reads.poseSessions.sessionOf(id)) known.get('pose')!.add(id);
   }
-  if (wanted.size) {
-    const lists = [...wanted];
-    const rows = await select<{ entity: SyncEntity; id: string }>(
-      lists
-        .map(([entity], k) => `SELECT '${entity}' AS entity, id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($${k + 2}::uuid[])`)
-        .join(' UNION ALL '),
-      [auth.teamId, ...lists.map(([, ids]) => [...ids])],
-      transaction,
-    );
-    for (const r of rows) known.get(r.entity)!.add(r.id);
-  }
+  for (const [entity, ids] of wanted) for (const id of ids) if (reads.lookups.referenced.has(rowKey(entity, id))) known.get(entity)!.add(id);
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
       for (const item of byEntity.get(entity)!) {
