@@ -5,6 +5,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import type { FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
+import { preparedIn } from '../db';
 import { syncOrder, syncTables, type SyncTable } from './sync-tables';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
@@ -52,7 +53,8 @@ export async function lockNamedRows(items: Item[], transaction: Transaction): Pr
   for (const entity of syncOrder) {
     const ids = [...new Set(items.filter((i) => i.entity === entity).map((i) => i.record.id))];
     if (!ids.length) continue;
-    const found = await select(`SELECT * FROM ${syncTables[entity].table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [ids], transaction);
+    const table = syncTables[entity].table;
+    const found = await preparedIn<Row>(transaction, `push-lock-${table}`, `SELECT * FROM ${table} WHERE id = ANY($1::uuid[]) FOR UPDATE`, [ids]);
     for (const r of found) rows.set(rowKey(entity, r.id as string), r);
   }
   return rows;
@@ -298,7 +300,7 @@ export async function bulkInsert(auth: AuthContext, spec: SyncTable, items: Item
   ];
   const sql = `INSERT INTO ${spec.table} (id, team_id, version, ${[...cols, ...extraCols].join(', ')})
     SELECT u.id, $1::uuid, 1, ${[...cols.map((c) => `u.${c}`), ...extraVals].join(', ')} FROM ${src.sql}`;
-  await db().query(sql, { bind: [auth.teamId, ...(needsUser ? [auth.userId] : []), ...src.bind], transaction });
+  await preparedIn(transaction, `push-insert-${spec.table}`, sql, [auth.teamId, ...(needsUser ? [auth.userId] : []), ...src.bind]);
 }
 
 export async function bulkUpdate(auth: AuthContext, spec: SyncTable, items: Item[], transaction: Transaction) {

@@ -26,7 +26,6 @@ import {
   lockNamedRows,
   poseSessions,
   readAhead,
-  recordsJson,
   rowKey,
   select,
   short,
@@ -40,7 +39,18 @@ import { keepConflicts } from './sync-conflicts';
 import { alongside } from './alongside';
 import type { PushRequest, PushResponse, SyncConflict, SyncEntity } from '../../shared/schemas/sync';
 
-const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
+/** Each change's record as JSON: what the batch's hash and its bulk inserts are made of, each record stringified once. */
+const recordTexts = (items: Item[]) => items.map((i) => JSON.stringify(i.record));
+
+/**
+ * The hash of the validated changes as `JSON.stringify(changes)` writes them (`{"entity":…,"record":…}`
+ * each, as zod gives them), which is what every stored hash was taken of; put together from the
+ * records' texts, which the inserts use too.
+ */
+const requestHash = (items: Item[], texts = recordTexts(items)) =>
+  createHash('sha256')
+    .update(`[${items.map((i, k) => `{"entity":${JSON.stringify(i.entity)},"record":${texts[k]}}`).join(',')}]`)
+    .digest('hex');
 
 /** A written change: its index in the batch and the version the server now holds. */
 type Accepted = { index: number; version: number };
@@ -100,14 +110,16 @@ function nameConstraint(items: Item[], constraint: string, key: Record<string, s
 }
 
 /** Each entity's records of the batch as the bulk insert's JSON parameter (used when all of them are new, as in a batch of new readings). */
-function recordsAhead(items: Item[]): Map<SyncEntity, RecordsJson> {
-  const byEntity = new Map<SyncEntity, Item[]>();
-  for (const item of items) {
+function recordsAhead(items: Item[], texts: string[]): Map<SyncEntity, RecordsJson> {
+  const byEntity = new Map<SyncEntity, { items: Item[]; texts: string[] }>();
+  items.forEach((item, k) => {
     const list = byEntity.get(item.entity);
-    if (list) list.push(item);
-    else byEntity.set(item.entity, [item]);
-  }
-  return new Map([...byEntity].map(([entity, list]) => [entity, recordsJson(list)]));
+    if (list) {
+      list.items.push(item);
+      list.texts.push(texts[k]);
+    } else byEntity.set(item.entity, { items: [item], texts: [texts[k]] });
+  });
+  return new Map([...byEntity].map(([entity, list]) => [entity, { items: list.items, text: `[${list.texts.join(',')}]` }]));
 }
 
 async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): Promise<PushResponse> {
@@ -119,12 +131,15 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
       transaction,
     );
     if (earlier) {
-      if (earlier.request_hash !== requestHash(req)) throw new Conflict('this idempotency key was already used for a different batch');
+      if (earlier.request_hash !== requestHash(items)) throw new Conflict('this idempotency key was already used for a different batch');
       return answerOf(req, earlier.response);
     }
     // A new batch: its hash is needed only when its answer is stored, and its records' JSON only
     // for the inserts; both are made while PostgreSQL reads and locks the rows the batch names.
-    const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => ({ hash: requestHash(req), records: recordsAhead(items) }));
+    const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => {
+      const texts = recordTexts(items);
+      return { hash: requestHash(items, texts), records: recordsAhead(items, texts) };
+    });
     const hash = ahead.hash;
     const poses = poseSessions(auth, transaction);
     const reads: BatchReads = { rows, poseSessions: poses, lookups: await readAhead(auth, items, rows, poses, transaction) };
