@@ -48,17 +48,21 @@ export async function preparedSelect<T extends object>(sequelize: Sequelize, nam
 }
 
 /**
- * A statement run as a named prepared statement on a transaction's connection (as preparedSelect
- * does outside one), straight through pg: for the large statements a push sends with every batch,
- * whose text is the same each time. PostgreSQL plans `id = ANY($1)` once instead of weighing each of
- * a thousand ids on every call, and Sequelize's pass over the parameters (a scan of every string
- * for NUL characters: 250 kB of JSON in a batch of readings, where JSON.stringify never leaves one)
- * is skipped. An error is pg's own (code, constraint, detail), as sync-db-errors.ts reads them.
+ * A statement on a transaction's connection straight through pg, for the statements a push sends
+ * with every batch: Sequelize's own work per statement (its options, hooks and retry wrapper, and
+ * a pass over every string parameter for NUL characters: 250 kB of JSON in a batch of readings,
+ * where JSON.stringify never leaves one) is skipped. With `name`, a named prepared statement (as
+ * preparedSelect, for a text that never changes): PostgreSQL plans `id = ANY($1)` once instead of
+ * weighing each of a thousand ids on every call. An error is pg's own (code, constraint, detail),
+ * as isDatabaseUnavailable and sync-db-errors.ts read them.
  */
-export async function preparedIn<T extends object>(transaction: Transaction, name: string, text: string, values: unknown[]): Promise<T[]> {
+export async function queryIn<T extends object>(transaction: Transaction, text: string, values?: unknown[], name?: string): Promise<T[]> {
   const connection = (transaction as unknown as { connection: pg.Client }).connection;
-  return (await connection.query<T>({ name, text, values })).rows;
+  return (await connection.query<T>(name ? { name, text, values } : { text, values })).rows;
 }
+
+export const preparedIn = <T extends object>(transaction: Transaction, name: string, text: string, values: unknown[]) =>
+  queryIn<T>(transaction, text, values, name);
 
 export type Unavailability = 'unreachable' | 'locked' | 'slow' | 'busy';
 

@@ -1,11 +1,11 @@
 // What push and a conflict resolved with the phone's version share: the items of a batch and
 // the plan of what it writes, the uniqueness rules judged on the state after the batch (reading
 // slots, gauge point labels), and the bulk statements that write a plan's rows (one JSON parameter each).
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import type { AuthContext } from '../auth/context';
 import type { FieldError } from '../http/errors';
 import { VehicleModel } from '../models';
-import { preparedIn } from '../db';
+import { preparedIn, queryIn } from '../db';
 import { syncOrder, syncTables, type SyncTable } from './sync-tables';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
@@ -13,8 +13,9 @@ export type Row = Record<string, unknown>;
 
 export const db = (): Sequelize => VehicleModel.sequelize!;
 
-export async function select<T = Row>(sql: string, bind: unknown[], transaction: Transaction): Promise<T[]> {
-  return db().query(sql, { bind, transaction, type: QueryTypes.SELECT }) as Promise<T[]>;
+/** A statement of a batch's transaction that answers with rows (db.ts queryIn: straight through pg). */
+export async function select<T extends object = Row>(sql: string, bind: unknown[], transaction: Transaction): Promise<T[]> {
+  return queryIn<T>(transaction, sql, bind);
 }
 
 export interface Item {

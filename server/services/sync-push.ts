@@ -37,6 +37,7 @@ import {
 } from './sync-batch';
 import { keepConflicts } from './sync-conflicts';
 import { alongside } from './alongside';
+import { preparedIn, queryIn } from '../db';
 import type { PushRequest, PushResponse, SyncConflict, SyncEntity } from '../../shared/schemas/sync';
 
 /** Each change's record as JSON: what the batch's hash and its bulk inserts are made of, each record stringified once. */
@@ -149,27 +150,18 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
     const arrivals = await fieldArrivals(plan, reads.poseSessions);
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
-    await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
+    await queryIn(transaction, 'SET CONSTRAINTS ALL IMMEDIATE');
     // One statement writes what arrived per session into the history and stores the answer.
     const stored = storedAnswer(accepted, conflicts);
-    await db().query(
+    await preparedIn(
+      transaction,
+      'push-stored-answer',
       `WITH arrived AS (
          INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
          SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $3::uuid, u.detail FROM unnest($6::uuid[], $7::jsonb[]) AS u(id, detail)
        )
        INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)`,
-      {
-        bind: [
-          auth.teamId,
-          req.idempotencyKey,
-          auth.userId,
-          hash,
-          JSON.stringify(stored),
-          [...arrivals.keys()],
-          [...arrivals.values()].map((t) => JSON.stringify(t)),
-        ],
-        transaction,
-      },
+      [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(stored), [...arrivals.keys()], [...arrivals.values()].map((t) => JSON.stringify(t))],
     );
     // The first answer is rebuilt from what is stored, as a retry's is: the two cannot differ.
     return answerOf(req, stored);

@@ -5,6 +5,7 @@ import http from 'node:http';
 import zlib from 'node:zlib';
 import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
+import pg from 'pg';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
 import { batchKey, change, gaugePointRecords, poseRecord, pushAccepted, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
@@ -293,14 +294,20 @@ describe("the push's look-ups", () => {
       change('reading', r2),
       change('reading', readingRecord(next.id, f.pointIds[0], 'lateral', 7)),
     ];
+    // Every statement sent to PostgreSQL meanwhile, as pg sends it (some go past Sequelize).
     const sent: { sql: string; bind: unknown[] }[] = [];
-    ts.sequelize.addHook('afterQuery', 'capture', (options, query) => {
-      if (Array.isArray(options.bind)) sent.push({ sql: (query as unknown as { sql: string }).sql, bind: options.bind });
-    });
+    const query = pg.Client.prototype.query;
+    pg.Client.prototype.query = function (this: pg.Client, config: unknown, values?: unknown, ...rest: unknown[]) {
+      const c = config as string | { text: string; values?: unknown[] };
+      const text = typeof c === 'string' ? c : c.text;
+      const bind = typeof c === 'string' ? values : (c.values ?? values);
+      if (Array.isArray(bind)) sent.push({ sql: text, bind });
+      return (query as (...args: unknown[]) => unknown).call(this, config, values, ...rest);
+    } as typeof query;
     try {
       await pushAccepted(f.tester, changes);
     } finally {
-      ts.sequelize.removeHook('afterQuery', 'capture');
+      pg.Client.prototype.query = query;
     }
     // A workshop new since the last ANALYZE: its team id is in no statistics, so the planner takes
     // it for one row and would read the team's change index whole, a cost that grows with the team.
