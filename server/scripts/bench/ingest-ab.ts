@@ -8,8 +8,9 @@
 // Prints per round each bundle's push time, the plain INSERT's, their ratio, and the CPU the app
 // process and PostgreSQL spent in the push (from /proc); at the end the medians per bundle and the
 // load average (each CPU figure includes the push of the session's parents before the timed part,
-// alike for every bundle). At a high load from other work the wall times swing by twice and more from round to
-// round; the CPU figures, which the other work does not add to, stay within a few percent.
+// alike for every bundle, and PostgreSQL's includes its autovacuum). The other work on the machine
+// adds nothing to the CPU figures, but they swing too: on 2026-12-03 at load 4-10, a bundle's
+// PostgreSQL CPU per push ranged over half its median between rounds, the wall time over twice.
 import fs from 'node:fs';
 import os from 'node:os';
 import { startBenchServer, type BenchServer } from './fixture';
