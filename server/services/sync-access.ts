@@ -20,7 +20,7 @@ import { Invalid, type FieldError } from '../http/errors';
 import { syncTables } from './sync-tables';
 import type { Column } from '../../shared/records/define';
 import { readingEditAction } from './review.service';
-import { db, lockNamedRows, poseSessions, rowKey, select, type BatchReads, type PoseSessions, type Row } from './sync-batch';
+import { db, lockNamedRows, poseSessions, rowKey, select, teamRows, type BatchReads, type PoseSessions, type Row } from './sync-batch';
 import type { SyncEntity } from '../../shared/schemas/sync';
 
 /** The action a change needs: one per field, or one that depends on the new value and the server's row (a state's step). */
@@ -172,7 +172,7 @@ export async function enforceSyncAccess(
   const signed = new Set(sessionIds.filter((s) => poses.signed(s)));
   if (unknown.length) {
     const found = await select<{ session_id: string }>(
-      `SELECT DISTINCT session_id FROM envelopes WHERE team_id = $1 AND session_id = ANY($2::uuid[]) AND status = 'signed' AND deleted_at IS NULL`,
+      `SELECT DISTINCT session_id FROM (${teamRows('envelopes', 'session_id', "session_id = ANY($2::uuid[]) AND status = 'signed' AND deleted_at IS NULL", '$1')}) e`,
       [auth.teamId, unknown],
       transaction,
     );

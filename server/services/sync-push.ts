@@ -25,7 +25,7 @@ import {
   field,
   lockNamedRows,
   poseSessions,
-  recordsJson,
+  readAhead,
   rowKey,
   select,
   short,
@@ -37,9 +37,21 @@ import {
 } from './sync-batch';
 import { keepConflicts } from './sync-conflicts';
 import { alongside } from './alongside';
+import { preparedIn, queryIn } from '../db';
 import type { PushRequest, PushResponse, SyncConflict, SyncEntity } from '../../shared/schemas/sync';
 
-const requestHash = (req: PushRequest) => createHash('sha256').update(JSON.stringify(req.changes)).digest('hex');
+/** Each change's record as JSON: what the batch's hash and its bulk inserts are made of, each record stringified once. */
+const recordTexts = (items: Item[]) => items.map((i) => JSON.stringify(i.record));
+
+/**
+ * The hash of the validated changes as `JSON.stringify(changes)` writes them (`{"entity":…,"record":…}`
+ * each, as zod gives them), which is what every stored hash was taken of; put together from the
+ * records' texts, which the inserts use too.
+ */
+const requestHash = (items: Item[], texts = recordTexts(items)) =>
+  createHash('sha256')
+    .update(`[${items.map((i, k) => `{"entity":${JSON.stringify(i.entity)},"record":${texts[k]}}`).join(',')}]`)
+    .digest('hex');
 
 /** A written change: its index in the batch and the version the server now holds. */
 type Accepted = { index: number; version: number };
@@ -99,14 +111,16 @@ function nameConstraint(items: Item[], constraint: string, key: Record<string, s
 }
 
 /** Each entity's records of the batch as the bulk insert's JSON parameter (used when all of them are new, as in a batch of new readings). */
-function recordsAhead(items: Item[]): Map<SyncEntity, RecordsJson> {
-  const byEntity = new Map<SyncEntity, Item[]>();
-  for (const item of items) {
+function recordsAhead(items: Item[], texts: string[]): Map<SyncEntity, RecordsJson> {
+  const byEntity = new Map<SyncEntity, { items: Item[]; texts: string[] }>();
+  items.forEach((item, k) => {
     const list = byEntity.get(item.entity);
-    if (list) list.push(item);
-    else byEntity.set(item.entity, [item]);
-  }
-  return new Map([...byEntity].map(([entity, list]) => [entity, recordsJson(list)]));
+    if (list) {
+      list.items.push(item);
+      list.texts.push(texts[k]);
+    } else byEntity.set(item.entity, { items: [item], texts: [texts[k]] });
+  });
+  return new Map([...byEntity].map(([entity, list]) => [entity, { items: list.items, text: `[${list.texts.join(',')}]` }]));
 }
 
 async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): Promise<PushResponse> {
@@ -118,41 +132,36 @@ async function writeBatch(auth: AuthContext, req: PushRequest, items: Item[]): P
       transaction,
     );
     if (earlier) {
-      if (earlier.request_hash !== requestHash(req)) throw new Conflict('this idempotency key was already used for a different batch');
+      if (earlier.request_hash !== requestHash(items)) throw new Conflict('this idempotency key was already used for a different batch');
       return answerOf(req, earlier.response);
     }
     // A new batch: its hash is needed only when its answer is stored, and its records' JSON only
     // for the inserts; both are made while PostgreSQL reads and locks the rows the batch names.
-    const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => ({ hash: requestHash(req), records: recordsAhead(items) }));
+    const [rows, ahead] = await alongside(lockNamedRows(items, transaction), () => {
+      const texts = recordTexts(items);
+      return { hash: requestHash(items, texts), records: recordsAhead(items, texts) };
+    });
     const hash = ahead.hash;
-    const reads: BatchReads = { rows, poseSessions: poseSessions(auth, transaction) };
+    const poses = poseSessions(auth, transaction);
+    const reads: BatchReads = { rows, poseSessions: poses, lookups: await readAhead(auth, items, rows, poses, transaction) };
     await enforceSyncAccess(auth, items, transaction, undefined, reads);
     const plan = await checkBatch(auth, items, reads, transaction);
     const { accepted, conflicts } = await applyPlan(auth, plan, transaction, ahead.records);
     const arrivals = await fieldArrivals(plan, reads.poseSessions);
     // Slot and label constraints wait for the end of the batch (a swap is fine); check them here,
     // so a violation the checks above missed is named, not found at commit.
-    await db().query('SET CONSTRAINTS ALL IMMEDIATE', { transaction });
+    await queryIn(transaction, 'SET CONSTRAINTS ALL IMMEDIATE');
     // One statement writes what arrived per session into the history and stores the answer.
     const stored = storedAnswer(accepted, conflicts);
-    await db().query(
+    await preparedIn(
+      transaction,
+      'push-stored-answer',
       `WITH arrived AS (
          INSERT INTO history_events (team_id, session_id, entity, entity_id, action, user_id, detail)
          SELECT $1::uuid, u.id, 'session', u.id, 'field.sync', $3::uuid, u.detail FROM unnest($6::uuid[], $7::jsonb[]) AS u(id, detail)
        )
        INSERT INTO sync_batches (team_id, idempotency_key, user_id, request_hash, response) VALUES ($1, $2, $3, $4, $5::jsonb)`,
-      {
-        bind: [
-          auth.teamId,
-          req.idempotencyKey,
-          auth.userId,
-          hash,
-          JSON.stringify(stored),
-          [...arrivals.keys()],
-          [...arrivals.values()].map((t) => JSON.stringify(t)),
-        ],
-        transaction,
-      },
+      [auth.teamId, req.idempotencyKey, auth.userId, hash, JSON.stringify(stored), [...arrivals.keys()], [...arrivals.values()].map((t) => JSON.stringify(t))],
     );
     // The first answer is rebuilt from what is stored, as a retry's is: the two cannot differ.
     return answerOf(req, stored);
@@ -201,9 +210,9 @@ async function checkBatch(auth: AuthContext, items: Item[], reads: BatchReads, t
     plan.updates.set(entity, updates);
   }
 
-  await checkReferences(auth, byEntity, known, errors, reads.poseSessions, transaction);
-  await checkReadingSlots(auth, plan, errors, transaction);
-  await checkGaugeLabels(auth, plan, errors, transaction);
+  await checkReferences(byEntity, known, errors, reads);
+  await checkReadingSlots(auth, plan, errors, transaction, field, reads.lookups.slots);
+  await checkGaugeLabels(auth, plan, errors, transaction, field, reads.lookups.labels);
 
   if (errors.length) {
     errors.sort((a, b) => a.field.localeCompare(b.field, 'en', { numeric: true }));
@@ -215,16 +224,9 @@ async function checkBatch(auth: AuthContext, items: Item[], reads: BatchReads, t
   return plan;
 }
 
-async function checkReferences(
-  auth: AuthContext,
-  byEntity: Map<SyncEntity, Item[]>,
-  known: Map<SyncEntity, Set<string>>,
-  errors: FieldError[],
-  poses: PoseSessions,
-  transaction: Transaction,
-) {
+async function checkReferences(byEntity: Map<SyncEntity, Item[]>, known: Map<SyncEntity, Set<string>>, errors: FieldError[], reads: BatchReads) {
   // Referenced ids not in this batch must be the team's rows: poses through the batch's pose
-  // look-up (the access rules and the history read the same), every other table in one query.
+  // look-up (the access rules and the history read the same), every other table as read ahead.
   const wanted = new Map<SyncEntity, Set<string>>();
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
@@ -241,20 +243,11 @@ async function checkReferences(
   const wantedPoses = wanted.get('pose');
   wanted.delete('pose');
   if (wantedPoses) {
-    await poses.load(wantedPoses);
-    for (const id of wantedPoses) if (poses.sessionOf(id)) known.get('pose')!.add(id);
+    // Read ahead with the rest: no statement of its own.
+    await reads.poseSessions.load(wantedPoses);
+    for (const id of wantedPoses) if (reads.poseSessions.sessionOf(id)) known.get('pose')!.add(id);
   }
-  if (wanted.size) {
-    const lists = [...wanted];
-    const rows = await select<{ entity: SyncEntity; id: string }>(
-      lists
-        .map(([entity], k) => `SELECT '${entity}' AS entity, id FROM ${syncTables[entity].table} WHERE team_id = $1 AND id = ANY($${k + 2}::uuid[])`)
-        .join(' UNION ALL '),
-      [auth.teamId, ...lists.map(([, ids]) => [...ids])],
-      transaction,
-    );
-    for (const r of rows) known.get(r.entity)!.add(r.id);
-  }
+  for (const [entity, ids] of wanted) for (const id of ids) if (reads.lookups.referenced.has(rowKey(entity, id))) known.get(entity)!.add(id);
   for (const entity of syncOrder) {
     for (const ref of syncTables[entity].references) {
       for (const item of byEntity.get(entity)!) {

@@ -5,8 +5,9 @@ import http from 'node:http';
 import zlib from 'node:zlib';
 import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
+import pg from 'pg';
 import { createTeam, signedInAgent, startTestServer, type TestServer } from '../support/test-app';
-import { batchKey, change, poseRecord, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
+import { batchKey, change, gaugePointRecords, poseRecord, pushAccepted, readingRecord, sessionRecord, vehicleWithPoints } from '../support/sync';
 import { PoseModel, ReadingModel, SyncConflictModel, TestSessionModel } from '../../server/models';
 import { pushRequest } from '../../shared/schemas/sync';
 
@@ -270,6 +271,69 @@ function pushOnTheWire(cookie: string, body: unknown, encoding: string): Promise
     req.end(payload);
   });
 }
+
+describe("the push's look-ups", () => {
+  /** Every index a plan (EXPLAIN's JSON) reads through. */
+  const indexesOf = (node: Record<string, unknown>): string[] => [
+    ...(typeof node['Index Name'] === 'string' ? [node['Index Name']] : []),
+    ...((node.Plans as Record<string, unknown>[] | undefined) ?? []).flatMap(indexesOf),
+  ];
+
+  it('read rows by their keys, never the whole team through its change index, even when the statistics do not know the workshop yet', async () => {
+    const f = await fieldSetup();
+    const [r0, r1, r2] = f.readings;
+    await pushAccepted(f.tester, [change('testSession', f.session), change('pose', f.level), change('reading', r0)]);
+    const next = poseRecord(f.session.id, 1);
+    const [extra] = gaugePointRecords(f.vehicleId, ['E']);
+    // Every look-up of a push: the named rows, the poses of its readings, the references it does
+    // not carry, the slots its readings take, the labels its gauge points take, signed envelopes.
+    const changes = [
+      change('gaugePoint', extra),
+      change('pose', next),
+      change('reading', r1),
+      change('reading', r2),
+      change('reading', readingRecord(next.id, f.pointIds[0], 'lateral', 7)),
+    ];
+    // Every statement sent to PostgreSQL meanwhile, as pg sends it (some go past Sequelize).
+    const sent: { sql: string; bind: unknown[] }[] = [];
+    const query = pg.Client.prototype.query;
+    pg.Client.prototype.query = function (this: pg.Client, config: unknown, values?: unknown, ...rest: unknown[]) {
+      const c = config as string | { text: string; values?: unknown[] };
+      const text = typeof c === 'string' ? c : c.text;
+      const bind = typeof c === 'string' ? values : (c.values ?? values);
+      if (Array.isArray(bind)) sent.push({ sql: text, bind });
+      return (query as (...args: unknown[]) => unknown).call(this, config, values, ...rest);
+    } as typeof query;
+    try {
+      await pushAccepted(f.tester, changes);
+    } finally {
+      pg.Client.prototype.query = query;
+    }
+    // A workshop new since the last ANALYZE: its team id is in no statistics, so the planner takes
+    // it for one row and would read the team's change index whole, a cost that grows with the team.
+    await ts.sequelize.query('ANALYZE readings, poses, gauge_points, envelopes, vehicles, test_sessions');
+    const unknownTeam = randomUUID();
+    const reads = sent.filter((s) => /^(SELECT|WITH)\b/.test(s.sql));
+    const used = new Set<string>();
+    await ts.sequelize.transaction(async (transaction) => {
+      // The test database is small enough to be read whole; without that choice, the plans show
+      // which index each statement leads PostgreSQL to, as on a workshop's full tables.
+      await ts.sequelize.query('SET LOCAL enable_seqscan = off', { transaction });
+      for (const { sql, bind } of reads) {
+        const [row] = await ts.sequelize.query<{ 'QUERY PLAN': [{ Plan: Record<string, unknown> }] }>(`EXPLAIN (FORMAT JSON) ${sql}`, {
+          bind: bind.map((v) => (v === f.team.teamId ? unknownTeam : v)),
+          type: QueryTypes.SELECT,
+          transaction,
+        });
+        for (const name of indexesOf(row['QUERY PLAN'][0].Plan)) used.add(name);
+      }
+    });
+    expect([...used].filter((name) => name.endsWith('_team_change'))).toEqual([]);
+    // The slots are read by pose, the labels by vehicle.
+    expect([...used].some((name) => name === 'readings_pose' || name === 'readings_slot')).toBe(true);
+    expect(used.has('gauge_points_label')).toBe(true);
+  });
+});
 
 describe('the push answer on the wire', () => {
   it('is compressed at the fastest settings (gzip level 1, brotli quality 1), and decodes to the same answer', async () => {

@@ -6,12 +6,17 @@
 // Usage, on a cluster of its own: DATABASE_URL=… BUNDLES=old/main.mjs,new/main.mjs ROUNDS=12
 //   node --import tsx server/scripts/bench/ingest-ab.ts
 // Prints per round each bundle's push time, the plain INSERT's, their ratio, and the CPU the app
-// process spent in the push (from /proc); at the end the medians per bundle and the load average.
+// process and PostgreSQL spent in the push (from /proc); at the end the medians per bundle and the
+// load average (each CPU figure includes the push of the session's parents before the timed part,
+// alike for every bundle, and PostgreSQL's includes its autovacuum). The other work on the machine
+// adds nothing to the CPU figures, but they swing too: on 2026-12-03 at load 4-10, a bundle's
+// PostgreSQL CPU per push ranged over half its median between rounds, the wall time over twice.
 import fs from 'node:fs';
 import os from 'node:os';
 import { startBenchServer, type BenchServer } from './fixture';
 import { CLIENT_BATCH_CHANGES } from '../../../shared/schemas/sync';
 import { plainInsert, pushAll } from './ingest';
+import { postgresPids } from './cpu-share';
 
 const bundles = process.env.BUNDLES!.split(',');
 const rounds = Number(process.env.ROUNDS ?? 6);
@@ -23,7 +28,29 @@ function cpuOf(pid: number): number {
   return (Number(fields[11]) + Number(fields[12])) / 100;
 }
 
+/**
+ * CPU seconds the database cluster on `port` has used: the postmaster, its live children (the
+ * backends and helpers) and the children that have ended (the kernel adds them to its counters).
+ */
+function databaseCpu(port: number): number {
+  const [postmaster, ...children] = postgresPids(port);
+  if (postmaster === undefined) return NaN;
+  const fields = (pid: number) => fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+  const own = fields(postmaster);
+  let ticks = Number(own[11]) + Number(own[12]) + Number(own[13]) + Number(own[14]);
+  for (const pid of children) {
+    try {
+      const f = fields(pid);
+      ticks += Number(f[11]) + Number(f[12]);
+    } catch {
+      // ended meanwhile: counted in the postmaster's figures from now on
+    }
+  }
+  return ticks / 100;
+}
+
 async function main() {
+  const dbPort = Number(new URL(process.env.DATABASE_URL!).port);
   const servers: BenchServer[] = [];
   // APP_NODE_OPTIONS (say `--cpu-prof --cpu-prof-dir=…`) goes to the app instances only.
   if (process.env.APP_NODE_OPTIONS) process.env.NODE_OPTIONS = process.env.APP_NODE_OPTIONS;
@@ -34,6 +61,7 @@ async function main() {
   const ratios: number[][] = bundles.map(() => []);
   const cpu: number[][] = bundles.map(() => []);
   const pushes: number[][] = bundles.map(() => []);
+  const dbCpu: number[][] = bundles.map(() => []);
   try {
     // A warm-up round each, not counted.
     for (const s of servers) await pushAll(s, CLIENT_BATCH_CHANGES);
@@ -43,13 +71,20 @@ async function main() {
       for (const k of order) {
         const s = servers[k];
         const before = cpuOf(s.app.pid);
+        const dbBefore = databaseCpu(dbPort);
         const app = await pushAll(s, CLIENT_BATCH_CHANGES);
         const spent = cpuOf(s.app.pid) - before;
+        const dbSpent = databaseCpu(dbPort) - dbBefore;
+        const plainDbBefore = databaseCpu(dbPort);
         const plain = await plainInsert(s);
+        const plainDb = databaseCpu(dbPort) - plainDbBefore;
         ratios[k].push(plain / app);
         pushes[k].push(app);
         cpu[k].push(spent);
-        line.push(`${k}: push ${app.toFixed(0)} ms (app CPU ${(spent * 1000).toFixed(0)} ms), plain ${plain.toFixed(0)} ms, ratio ${(plain / app).toFixed(2)}`);
+        dbCpu[k].push(dbSpent);
+        line.push(
+          `${k}: push ${app.toFixed(0)} ms (app CPU ${(spent * 1000).toFixed(0)} ms, PostgreSQL ${(dbSpent * 1000).toFixed(0)} ms), plain ${plain.toFixed(0)} ms (PostgreSQL ${(plainDb * 1000).toFixed(0)} ms), ratio ${(plain / app).toFixed(2)}`,
+        );
       }
       console.log(`round ${round + 1} [load ${os.loadavg()[0].toFixed(1)}]  ${line.join(' | ')}`);
     }
@@ -58,7 +93,7 @@ async function main() {
   }
   bundles.forEach((b, k) =>
     console.log(
-      `${k} ${b}: median ratio ${median(ratios[k]).toFixed(3)} (${ratios[k].map((r) => r.toFixed(2)).join(' ')}), median push ${median(pushes[k]).toFixed(0)} ms, app CPU ${(median(cpu[k]) * 1000).toFixed(0)} ms per 10,000`,
+      `${k} ${b}: median ratio ${median(ratios[k]).toFixed(3)} (${ratios[k].map((r) => r.toFixed(2)).join(' ')}), median push ${median(pushes[k]).toFixed(0)} ms, app CPU ${(median(cpu[k]) * 1000).toFixed(0)} ms and PostgreSQL's ${(median(dbCpu[k]) * 1000).toFixed(0)} ms per 10,000 (${dbCpu[k].map((c) => (c * 1000).toFixed(0)).join(' ')})`,
     ),
   );
   console.log(
