@@ -20,7 +20,13 @@ export default class TestSummaryReporter implements Reporter {
     const state = testCase.result().state;
     if (state === 'passed') {
       this.summary.passed += 1;
-      if (testCase.diagnostic()?.flaky) this.summary.passedOnRetry.push(`${path.relative(process.cwd(), testCase.module.moduleId)}: ${testCase.fullName}`);
+      if (testCase.diagnostic()?.flaky) {
+        // What the failed try threw (vitest keeps it on a test passed on a retry): without it a
+        // flake leaves nothing to investigate.
+        const first = testCase.result().errors?.[0];
+        const why = first ? ` (the failed try: ${(first.message ?? String(first)).split('\n')[0].slice(0, 300)})` : '';
+        this.summary.passedOnRetry.push(`${path.relative(process.cwd(), testCase.module.moduleId)}: ${testCase.fullName}${why}`);
+      }
     } else if (state === 'failed') this.summary.failed += 1;
     else if (state === 'skipped') this.summary.skipped += 1;
   }
