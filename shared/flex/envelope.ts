@@ -627,17 +627,21 @@ function loadJudgement(into: PartJudgement, store: PoseStore, at: number, scatte
   into.misfit = store.misfits[at] === 1;
 }
 
+/** Pose i's rigid motion (tx, ty, tz, wx, wy, wz) from the store's motion column into a fit core. */
+function loadMotion(core: PoseFitCore, motions: Float64Array, i: number): void {
+  core.tx = motions[6 * i];
+  core.ty = motions[6 * i + 1];
+  core.tz = motions[6 * i + 2];
+  core.wx = motions[6 * i + 3];
+  core.wy = motions[6 * i + 4];
+  core.wz = motions[6 * i + 5];
+}
+
 /** Pose i's fit from the store: what packFit would have given from the pose's buffer (the same buildFit, the same numbers). */
 function storedFit(store: PoseStore, i: number): RelativeMotionFit {
   const layout = store.layouts[i] as PoseLayout;
   const core = (store.core ??= scratchPoseFitCore(layout));
-  const m = store.motions;
-  core.tx = m[6 * i];
-  core.ty = m[6 * i + 1];
-  core.tz = m[6 * i + 2];
-  core.wx = m[6 * i + 3];
-  core.wy = m[6 * i + 4];
-  core.wz = m[6 * i + 5];
+  loadMotion(core, store.motions, i);
   loadPartCore(core.outOfPlane, layout, 'outOfPlane', store.ssrs[2 * i], store.covariances[2 * i]);
   loadPartCore(core.inPlane, layout, 'inPlane', store.ssrs[2 * i + 1], store.covariances[2 * i + 1]);
   loadJudgement(store.judgement.outOfPlane, store, 2 * i, store.scatterMm.outOfPlane);
@@ -949,13 +953,7 @@ function judgePose(passes: PosePasses, i: number): PoseResult {
     store.outliers.push(null);
     return poseResult(passes, i, isBaseline, note, null);
   }
-  const m = store.motions;
-  core.tx = m[6 * i];
-  core.ty = m[6 * i + 1];
-  core.tz = m[6 * i + 2];
-  core.wx = m[6 * i + 3];
-  core.wy = m[6 * i + 4];
-  core.wz = m[6 * i + 5];
+  loadMotion(core, store.motions, i);
   flat.buffer.start = flat.start[i];
   flat.buffer.count = flat.count[i];
   const readings = pose.readings;
