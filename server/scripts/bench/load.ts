@@ -285,8 +285,8 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     };
     // Round 0 warms every configuration up (JIT, pools, PostgreSQL's caches) and is not counted.
     // With the comparison on, each configuration runs through both generators, one right after the
-    // other, the first of them alternating from round to round: the first run after a pause meets
-    // what the pause left (an instance's idle pool connections closed after 10 s, for one).
+    // other, the first of them alternating from round to round, so neither is always the one that
+    // follows the other's load (the unmeasured second in measure keeps the pool warm for both).
     const runs = Object.fromEntries(generators.map((g) => [g, Object.fromEntries(Object.keys(configs).map((k) => [k, [] as Run[]]))]));
     for (let round = 0; round <= ROUNDS; round++) {
       for (const [name, c] of toRun) {
