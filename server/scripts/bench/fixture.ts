@@ -51,6 +51,13 @@ export function appEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
   };
 }
 
+/**
+ * Node's own flags for the app instances only, from APP_NODE_ARGS (space-separated), say
+ * `--cpu-prof --cpu-prof-dir=.data/prof`: on the command line, since Node refuses `--cpu-prof` in
+ * NODE_OPTIONS. A profile is written when the instance exits, which stop() makes it do.
+ */
+const appNodeArgs = () => (process.env.APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+
 /** One app instance: `node <bundle>` (or the TypeScript sources when `bundle` is null), with `env` added, its output discarded. */
 export async function startInstance(
   databaseUrl: string,
@@ -59,7 +66,7 @@ export async function startInstance(
 ): Promise<Child> {
   const port = await freePort();
   const started = performance.now();
-  const child = spawn(process.execPath, bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'], {
+  const child = spawn(process.execPath, [...appNodeArgs(), ...(bundle ? [bundle] : ['--import', 'tsx', 'server/main.ts'])], {
     cwd: repoRoot,
     env: { ...appEnv(databaseUrl, port), ...env },
     stdio: ['ignore', 'ignore', 'inherit'],

@@ -5,6 +5,8 @@
 // unpacked under .data/ with node_modules linked, bundled as build-server.mjs bundles.
 // Usage, on a cluster of its own: DATABASE_URL=… BUNDLES=old/main.mjs,new/main.mjs ROUNDS=12
 //   node --import tsx server/scripts/bench/ingest-ab.ts
+// Profile the app instances with APP_NODE_ARGS="--cpu-prof --cpu-prof-dir=.data/prof" (one
+// .cpuprofile per instance, written when the run stops them).
 // Prints per round each bundle's push time, the plain INSERT's, their ratio, and the CPU the app
 // process and PostgreSQL spent in the push (from /proc); at the end the medians per bundle and the
 // load average (each CPU figure includes the push of the session's parents before the timed part,
@@ -52,8 +54,7 @@ function databaseCpu(port: number): number {
 async function main() {
   const dbPort = Number(new URL(process.env.DATABASE_URL!).port);
   const servers: BenchServer[] = [];
-  // APP_NODE_OPTIONS (say `--cpu-prof --cpu-prof-dir=…`) goes to the app instances only.
-  if (process.env.APP_NODE_OPTIONS) process.env.NODE_OPTIONS = process.env.APP_NODE_OPTIONS;
+  // APP_NODE_ARGS (say `--cpu-prof --cpu-prof-dir=…`) goes to the app instances only (fixture.ts).
   for (const bundle of bundles) {
     process.env.SERVER_BUNDLE = bundle;
     servers.push(await startBenchServer(process.env.DATABASE_URL!));

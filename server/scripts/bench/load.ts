@@ -8,7 +8,10 @@
 // - itself without its answer cache (an instance with ANSWER_CACHE_MB=0): what every request costs
 //   when each follows a change, so the build cost stays in the report;
 // - the unsigned /api/health (one SELECT 1), for a signed-in small route (/api/me);
-// - itself: two instances (25 connections each, at once) against one (50 connections), for the review.
+// - itself: two instances (25 connections each, at once) against one (50 connections), for the review;
+//   as they run on this machine, and with each instance given the same share of a core
+//   (cpu-budget.ts, BENCH_INSTANCE_CORES, 0.4 unless set), as containers' CPU limits give it, so the
+//   ratio shows what a second process adds rather than what this machine's cores have left.
 // Plain requests with no Accept-Encoding, as a load generator sends them (B2 compresses nothing),
 // and for the review and the pull also as a browser asks (Accept-Encoding: gzip, deflate, br), the
 // kept brotli bytes then being sent; the review's size on the wire is measured on its own.
@@ -23,6 +26,7 @@ import type { BenchRow } from './report';
 import { sessionChanges, startB2, startInstance, type BenchServer, type Child } from './fixture';
 import { describeCpu, postgresPids, processTitle, withCpuShare, type CpuShare } from './cpu-share';
 import { generateLoad, type LoadTarget } from './load-generator';
+import { cpuBudget, type CpuBudget } from './cpu-budget';
 
 const CONNECTIONS = 50;
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
@@ -34,6 +38,11 @@ const COMPARE_AUTOCANNON = process.env.BENCH_LOAD_AUTOCANNON === '1';
 const REVIEW_RAW_BEFORE = 370_707;
 /** What Chromium sends. */
 const BROWSER_ENCODINGS = 'gzip, deflate, br';
+/**
+ * Share of a core each budgeted instance is given: two of them, PostgreSQL and the generator at the
+ * one-instance CPU a request (about 0.8, 0.45 and 0.25 ms) stay under this machine's 2 cores.
+ */
+const INSTANCE_CORES = Number(process.env.BENCH_INSTANCE_CORES ?? 0.4);
 
 type Generator = 'own' | 'autocannon';
 
@@ -185,6 +194,23 @@ function scalingRows(section: string, one: Summary, two: Summary): BenchRow[] {
   ];
 }
 
+/**
+ * The review on instances given the same CPU budget each: one against two. The budgets together
+ * stay under what the machine has beside PostgreSQL and the generator, so the ratio measures the
+ * app (whether its instances share anything that serialises them), not the machine's last cores.
+ */
+function budgetRows(section: string, one: Summary | undefined, two: Summary | undefined, noBudget: string | null): BenchRow[] {
+  const measure = `two instances ÷ one, each given ${INSTANCE_CORES} of a core (a CPU quota, as a container's limit)`;
+  if (!one || !two) return [{ section, measure, value: `not measured: ${noBudget ?? 'left out of this run'}` }];
+  const growth = two.rps / one.rps;
+  const cpu = (x: Summary) => (x.cpu ? ` (machine ${Math.round(x.cpu.machineBusy)} % busy)` : '');
+  return [
+    { section, measure: `session review on one instance given ${INSTANCE_CORES} of a core`, value: fmtRun(one) + cpu(one) },
+    { section, measure: `… on two instances given ${INSTANCE_CORES} of a core each (25 + 25 connections)`, value: fmtRun(two) + cpu(two) },
+    { section, measure: `… ${measure}`, value: growth.toFixed(2), goal: `grows with the processes (> 1): ${verdict(growth > 1.05)}` },
+  ];
+}
+
 const LABELS: Record<string, string> = {
   reviewApp: 'session review, app',
   reviewBrowser: '… as a browser asks',
@@ -198,6 +224,8 @@ const LABELS: Record<string, string> = {
   meSignedIn: 'GET /api/me',
   healthUnsigned: 'GET /api/health',
   reviewTwoInstances: 'session review on two instances',
+  reviewOneBudgeted: 'session review, one instance on a CPU budget',
+  reviewTwoBudgeted: 'session review, two instances on a CPU budget each',
 };
 
 /** BENCH_LOAD_AUTOCANNON=1: every configuration through both generators, in the same rounds. */
@@ -207,7 +235,9 @@ function comparisonRows(own: Record<string, Summary>, ac: Record<string, Summary
     `review ÷ B2 ${ratio(x.reviewApp.rps, x.reviewB2.rps)}, pull ÷ B2 ${ratio(x.pullApp.rps, x.pullB2.rps)}, ` +
     `/api/me ÷ /api/health ${ratio(x.meSignedIn.rps, x.healthUnsigned.rps)}, two instances ÷ one ${ratio(x.reviewTwoInstances.rps, x.reviewApp.rps)}`;
   return [
-    ...Object.keys(LABELS).map((k) => ({ section, measure: LABELS[k], value: `autocannon: ${fmtRun(ac[k])} ‖ this generator: ${fmtRun(own[k])}` })),
+    ...Object.keys(LABELS)
+      .filter((k) => own[k] && ac[k])
+      .map((k) => ({ section, measure: LABELS[k], value: `autocannon: ${fmtRun(ac[k])} ‖ this generator: ${fmtRun(own[k])}` })),
     { section, measure: 'ratios', value: `autocannon: ${ratios(ac)} ‖ this generator: ${ratios(own)}` },
   ];
 }
@@ -232,10 +262,27 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
   let b: Child | undefined;
   let b2: Child | undefined;
   let uncached: Child | undefined;
+  /** Two more instances, each under a CPU budget of its own, or why there are none. */
+  const budgeted: { instance: Child; budget: CpuBudget }[] = [];
+  let noBudget: string | null = null;
   try {
     b = await startInstance(s.databaseUrl);
     b2 = await startB2(s.databaseUrl);
     uncached = await startInstance(s.databaseUrl, undefined, { ANSWER_CACHE_MB: '0' });
+    for (const name of ['c', 'd']) {
+      const budget = cpuBudget(name, INSTANCE_CORES);
+      if (typeof budget === 'string') {
+        noBudget = budget;
+        break;
+      }
+      // Started first, then put under the budget: a budget of 0.4 of a core would slow the start only.
+      const instance = await startInstance(s.databaseUrl).catch((err: unknown) => {
+        budget.remove();
+        throw err;
+      });
+      budgeted.push({ instance, budget });
+      budget.add(instance.pid);
+    }
     const review = `/api/sessions/${sessionId}/review`;
     const pull = '/api/sync/pull?since=0';
     // A desk that already holds this review asks again: the validator answers 304.
@@ -268,6 +315,22 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
         server: 'two apps',
         pids: () => [a.pid, b!.pid],
       },
+      ...(budgeted.length === 2
+        ? {
+            reviewOneBudgeted: {
+              targets: one(budgeted[0].instance.baseUrl + review),
+              headers: signedIn,
+              server: 'app',
+              pids: () => [budgeted[0].instance.pid],
+            },
+            reviewTwoBudgeted: {
+              targets: budgeted.map(({ instance }) => ({ url: instance.baseUrl + review, connections: CONNECTIONS / 2 })),
+              headers: signedIn,
+              server: 'two apps',
+              pids: () => budgeted.map(({ instance }) => instance.pid),
+            },
+          }
+        : {}),
     } satisfies Record<string, Config>;
     type Name = keyof typeof configs;
     // BENCH_LOAD_CONFIGS=meSignedIn,healthUnsigned (say) runs only those, for a closer look; the table needs them all.
@@ -319,6 +382,8 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     const section = `API load (${CONNECTIONS} connections, ${ROUNDS} interleaved rounds of ${SECONDS} s, medians)`;
     const meRatio = m.meSignedIn.rps / m.healthUnsigned.rps;
     const twoRatio = m.reviewTwoInstances.rps / m.reviewApp.rps;
+    const budgetedOne = (m as Partial<typeof m>).reviewOneBudgeted;
+    const budgetedTwo = (m as Partial<typeof m>).reviewTwoBudgeted;
     /** An answer's rows: the app with the p99 goal, as a browser asks, after every change, B2, and app ÷ B2. */
     const answerRows = (
       measure: string,
@@ -356,13 +421,15 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
       { section, measure: 'session review on two instances (25 + 25 connections at once)', value: fmtRun(m.reviewTwoInstances) },
       {
         section,
-        measure: '… two instances ÷ one',
+        measure: '… two instances ÷ one, as they run on this machine',
         value: ratio(m.reviewTwoInstances.rps, m.reviewApp.rps),
-        goal: `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}`,
+        // With budgets, the goal is judged on them (below): here the machine's cores are the ceiling.
+        goal: budgetedOne && budgetedTwo ? 'see the budgeted ratio' : `grows with the processes (> 1): ${verdict(twoRatio > 1.05)}`,
       },
       { section, measure: '… CPU during the one-instance review (median round)', value: describeCpu(m.reviewApp.cpu) },
       { section, measure: '… CPU during the two-instance review (median round)', value: describeCpu(m.reviewTwoInstances.cpu) },
       ...scalingRows(section, m.reviewApp, m.reviewTwoInstances),
+      ...budgetRows(section, budgetedOne, budgetedTwo, noBudget),
       ...(COMPARE_AUTOCANNON ? comparisonRows(m, summarize('autocannon')) : []),
       {
         section: 'bytes on the wire',
@@ -380,5 +447,9 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     await b?.stop();
     await b2?.stop();
     await uncached?.stop();
+    for (const { instance, budget } of budgeted) {
+      await instance.stop();
+      budget.remove();
+    }
   }
 }
