@@ -1,5 +1,6 @@
 // Settings from the environment, validated once at start-up so a typo fails loudly.
 import * as z from 'zod';
+import { DEFAULT_POOL_KEEP } from './db';
 
 const env = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
@@ -32,6 +33,10 @@ const env = z.object({
   TRUST_PROXY: z.string().default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
   DB_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
+  /** Connections kept open while the instance is quiet (db.ts PoolKeep); at most DB_POOL_MAX. */
+  DB_POOL_MIN: z.coerce.number().int().min(0).max(100).default(DEFAULT_POOL_KEEP.min),
+  /** How long a connection beyond DB_POOL_MIN may sit unused before it is closed. */
+  DB_POOL_IDLE_MS: z.coerce.number().int().min(1000).default(DEFAULT_POOL_KEEP.idleMs),
   /** Memory for finished review and pull answers, per instance (http/answer-cache.ts); 0 keeps none. */
   ANSWER_CACHE_MB: z.coerce.number().int().min(0).max(16_384).default(64),
 });

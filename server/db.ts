@@ -13,7 +13,22 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
  */
 export const DB_TIMEOUTS = { statementMs: 30_000, lockMs: 5_000, idleInTransactionMs: 60_000 };
 
-export function createSequelize(url: string, poolMax = 10): Sequelize {
+/**
+ * How many connections an instance keeps open while it is quiet, and how long a connection beyond
+ * those may sit unused before it is closed. An instance that closed every connection after a
+ * pause opens them again on the next burst, each with a new PostgreSQL backend (a fork and a
+ * sign-in), in the requests of that burst. Kept connections cost PostgreSQL memory only: the
+ * slots are counted against max_connections at DB_POOL_MAX either way (README, Deployment).
+ */
+export interface PoolKeep {
+  min: number;
+  idleMs: number;
+}
+
+/** Two connections kept, the rest closed after a minute unused (config.ts DB_POOL_MIN, DB_POOL_IDLE_MS). */
+export const DEFAULT_POOL_KEEP: PoolKeep = { min: 2, idleMs: 60_000 };
+
+export function createSequelize(url: string, poolMax = 10, keep: PoolKeep = DEFAULT_POOL_KEEP): Sequelize {
   return new Sequelize(url, {
     dialect: 'postgres',
     dialectModule: pg,
@@ -21,9 +36,11 @@ export function createSequelize(url: string, poolMax = 10): Sequelize {
       statement_timeout: DB_TIMEOUTS.statementMs,
       lock_timeout: DB_TIMEOUTS.lockMs,
       idle_in_transaction_session_timeout: DB_TIMEOUTS.idleInTransactionMs,
+      // Who holds a connection, in pg_stat_activity.
+      application_name: 'twistlog',
     },
     logging: false,
-    pool: { max: poolMax, min: 0, idle: 10_000, acquire: 30_000 },
+    pool: { max: poolMax, min: Math.min(keep.min, poolMax), idle: keep.idleMs, acquire: 30_000 },
     define: { underscored: true, timestamps: true },
   });
 }

@@ -24,7 +24,7 @@ async function main() {
   const started = performance.now();
   const config = loadConfig();
   const logger = pino({ level: config.LOG_LEVEL });
-  const sequelize = createSequelize(config.DATABASE_URL, config.DB_POOL_MAX);
+  const sequelize = createSequelize(config.DATABASE_URL, config.DB_POOL_MAX, { min: config.DB_POOL_MIN, idleMs: config.DB_POOL_IDLE_MS });
   initModels(sequelize);
   const applied = await migrate(sequelize);
   if (applied.length) logger.info({ applied }, 'migrations applied');

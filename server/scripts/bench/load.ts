@@ -338,10 +338,11 @@ export async function runLoadBench(s: BenchServer): Promise<BenchRow[]> {
     const toRun = Object.entries(configs).filter(([name]) => !chosen || chosen.includes(name));
     const generators: Generator[] = COMPARE_AUTOCANNON ? ['own', 'autocannon'] : ['own'];
     const measure = async (c: Config, generator: Generator): Promise<Run> => {
-      // An unmeasured second at the same target first: the instance's pool closes connections
-      // idle 10 s (db.ts), and the other configurations' rounds leave it idle longer than that, so
-      // without it whichever configuration came next (/api/me, never /api/health) met 10 new
-      // PostgreSQL backends mid-run. A busy instance keeps its connections; that is what is measured.
+      // An unmeasured second at the same target first: an instance's pool closes the connections
+      // beyond DB_POOL_MIN once idle DB_POOL_IDLE_MS (db.ts; 10 s before 2026-12-03, when the
+      // other configurations' rounds left /api/me's instance idle that long and each of its rounds
+      // met 10 new PostgreSQL backends mid-run). A busy instance keeps its connections; that is
+      // what is measured, whatever the pool's settings.
       await generateLoad(c.targets, { seconds: PRIME_SECONDS, headers: c.headers, status: c.status });
       const { result, cpu } = await withCpuShare({ [c.server]: c.pids, PostgreSQL: pg, 'load generator': () => [process.pid] }, () => hammer(generator, c));
       return { ...result, cpu };
