@@ -54,9 +54,14 @@ function databaseCpu(port: number): number {
 async function main() {
   const dbPort = Number(new URL(process.env.DATABASE_URL!).port);
   const servers: BenchServer[] = [];
-  // APP_NODE_ARGS (say `--cpu-prof --cpu-prof-dir=…`) goes to the app instances only (fixture.ts).
-  for (const bundle of bundles) {
+  // APP_NODE_ARGS (say `--cpu-prof --cpu-prof-dir=…`) goes to the app instances only (fixture.ts);
+  // BUNDLE_ARGS, one entry per bundle split by '|', adds node flags to one bundle only (say
+  // `|--max-semi-space-size=32` to compare a V8 setting on the same bundle twice).
+  const perBundle = process.env.BUNDLE_ARGS?.split('|') ?? [];
+  const common = process.env.APP_NODE_ARGS ?? '';
+  for (const [k, bundle] of bundles.entries()) {
     process.env.SERVER_BUNDLE = bundle;
+    process.env.APP_NODE_ARGS = `${common} ${perBundle[k] ?? ''}`;
     servers.push(await startBenchServer(process.env.DATABASE_URL!));
   }
   const ratios: number[][] = bundles.map(() => []);
