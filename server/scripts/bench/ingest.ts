@@ -1,7 +1,9 @@
 // Sync ingest: 10,000 readings through the app's own push route (HTTP to the app's process, JSON,
 // validation, checks, one transaction per batch, the batch's stored answer), beside one plain
 // multi-row INSERT of the same rows into the same table from this process, interleaved in the same
-// run. Median of three rounds each.
+// run. Median of five rounds each: the plain INSERT itself swings by a third from round to round
+// (364–733 ms in one run of ingest-ab.ts on 2026-12-03, PostgreSQL's CPU 350–690 ms), and the
+// ratio's denominator is that median.
 import { randomUUID } from 'node:crypto';
 import type { BenchRow } from './report';
 import { CLIENT_BATCH_CHANGES } from '../../../shared/schemas/sync';
@@ -10,7 +12,7 @@ import { sessionChanges, type BenchServer } from './fixture';
 const READINGS = 10_000;
 /** The field client's batch size. */
 const CLIENT_BATCH = CLIENT_BATCH_CHANGES;
-const ROUNDS = 3;
+const ROUNDS = 5;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
