@@ -13,6 +13,20 @@ export interface TestSummary {
   failedModules: number;
 }
 
+/**
+ * A failed try on one line: the error's first lines (a browser step's timeout names the step, and
+ * its call log what it was waiting for: an element not found, not enabled, not visible) and the
+ * line of the test file it was thrown at.
+ */
+export function describeFailure(err: { message?: string; stack?: string }): string {
+  const lines = (err.message ?? String(err))
+    .split('\n')
+    .map((l) => l.trim())
+    .filter(Boolean);
+  const at = (err.stack ?? '').match(/([\w./-]+\.test\.tsx?:\d+)/)?.[1];
+  return `${lines.slice(0, 8).join(' ⏎ ').slice(0, 800)}${at ? ` [at ${at}]` : ''}`;
+}
+
 export default class TestSummaryReporter implements Reporter {
   private summary: TestSummary = { passed: 0, failed: 0, skipped: 0, passedOnRetry: [], failedModules: 0 };
 
@@ -24,7 +38,7 @@ export default class TestSummaryReporter implements Reporter {
         // What the failed try threw (vitest keeps it on a test passed on a retry): without it a
         // flake leaves nothing to investigate.
         const first = testCase.result().errors?.[0];
-        const why = first ? ` (the failed try: ${(first.message ?? String(first)).split('\n')[0].slice(0, 300)})` : '';
+        const why = first ? ` (the failed try: ${describeFailure(first)})` : '';
         this.summary.passedOnRetry.push(`${path.relative(process.cwd(), testCase.module.moduleId)}: ${testCase.fullName}${why}`);
       }
     } else if (state === 'failed') this.summary.failed += 1;
