@@ -15,6 +15,16 @@ describe('describeFailure', () => {
     );
   });
 
+  it("adds the lines that differ when an object's assertion says only that it differs", () => {
+    const err = {
+      message: 'expected { Object (path, findings, ...) } to deeply equal { Object (path, findings, ...) }',
+      diff: '- Expected\n+ Received\n\n  {\n    "findings": [],\n-   "small": [],\n+   "small": [\n+     "a \\"Forgot your password?\\" 160×20",\n+   ],\n  }',
+    };
+    expect(describeFailure(err)).toBe(
+      'expected { Object (path, findings, ...) } to deeply equal { Object (path, findings, ...) } {diff: - Expected ⏎ + Received ⏎ - "small": [], ⏎ + "small": [ ⏎ + "a \\"Forgot your password?\\" 160×20", ⏎ + ],}',
+    );
+  });
+
   it('gives a plain message as it is, without a place when the stack names no test file', () => {
     expect(describeFailure({ message: 'expected 2 to be 1' })).toBe('expected 2 to be 1');
   });

@@ -3,6 +3,7 @@
 // It writes the counts as JSON to the file named by TWISTLOG_TEST_SUMMARY; test.mjs reads them.
 import fs from 'node:fs';
 import path from 'node:path';
+import { stripVTControlCharacters } from 'node:util';
 import type { Reporter, TestCase, TestModule } from 'vitest/node';
 
 export interface TestSummary {
@@ -18,13 +19,20 @@ export interface TestSummary {
  * its call log what it was waiting for: an element not found, not enabled, not visible) and the
  * line of the test file it was thrown at.
  */
-export function describeFailure(err: { message?: string; stack?: string }): string {
-  const lines = (err.message ?? String(err))
-    .split('\n')
-    .map((l) => l.trim())
-    .filter(Boolean);
+export function describeFailure(err: { message?: string; stack?: string; diff?: string }): string {
+  const lines = (text: string) =>
+    stripVTControlCharacters(text)
+      .split('\n')
+      .map((l) => l.replace(/\s+/g, ' ').trim())
+      .filter(Boolean);
   const at = (err.stack ?? '').match(/([\w./-]+\.test\.tsx?:\d+)/)?.[1];
-  return `${lines.slice(0, 8).join(' ⏎ ').slice(0, 800)}${at ? ` [at ${at}]` : ''}`;
+  // An assertion on a whole object says only "expected { Object … }": the lines that differ say what.
+  const changed = lines(err.diff ?? '').filter((l) => /^[-+]\s/.test(l));
+  const diff = changed.length ? ` {diff: ${changed.slice(0, 12).join(' ⏎ ').slice(0, 800)}}` : '';
+  return `${lines(err.message ?? String(err))
+    .slice(0, 8)
+    .join(' ⏎ ')
+    .slice(0, 800)}${diff}${at ? ` [at ${at}]` : ''}`;
 }
 
 export default class TestSummaryReporter implements Reporter {
