@@ -1,6 +1,6 @@
 import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { useMe } from '@/lib/auth/get-me';
-import { useCan } from '@/lib/auth/can';
+import { startPath } from '@/lib/auth/start-page';
 import { pathTo, routes } from '@/paths';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { ConfirmSignUpPage, SignUpPage } from '@/features/auth/components/sign-up-page';
@@ -34,9 +34,9 @@ function RequireSignIn() {
 }
 
 function Home() {
-  const can = useCan();
-  // Who records but does not review (a tester) starts in the field; everyone else at the desk.
-  return <Navigate to={pathTo(can('session.record') && !can('session.review') ? 'fieldSessions' : 'desk')} replace />;
+  // Only a signed-in person gets here (RequireSignIn), so their role is known.
+  const me = useMe();
+  return <Navigate to={me.data ? startPath(me.data.role) : pathTo('signIn')} replace />;
 }
 
 // The signed-out pages come with the app (a link between them must not wait on a chunk while the

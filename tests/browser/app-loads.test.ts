@@ -2,7 +2,8 @@
 import { describe, expect, it } from 'vitest';
 import path from 'node:path';
 import { screenshotDir, browserHarness } from '../support/browser';
-import { DEMO_SIGN_IN } from '../../server/seed/demo';
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_SIGN_IN } from '../../server/seed/demo';
+import { MembershipModel } from '../../server/models';
 
 const h = browserHarness({ seedDemo: true });
 
@@ -23,5 +24,40 @@ describe('the built app', () => {
     const font = await page.evaluate(() => getComputedStyle(document.body).fontFamily);
     expect(font).toMatch(/Atkinson Hyperlegible/);
     await page.close();
+  });
+
+  // Signing in goes to the person's start page in one step. Through '/' and its redirect, a tap
+  // on a menu link made in between could be undone by the redirect landing after it.
+  it('signs each person in straight to their start page, never by way of /', async () => {
+    // The demo's roles as seeded: another file of the run may have made the tester an engineer.
+    for (const p of DEMO_PEOPLE) await MembershipModel.update({ role: p.role }, { where: { userId: p.id } });
+    for (const [who, start] of [
+      [DEMO_PEOPLE.find((p) => p.role === 'engineer')!, '/desk'],
+      [DEMO_PEOPLE.find((p) => p.role === 'tester')!, '/field'],
+    ] as const) {
+      const context = await h.browser.newContext({ viewport: { width: 390, height: 844 } });
+      const page = await context.newPage();
+      // Every address the page's history takes, in order, as the app changes it.
+      await page.addInitScript(() => {
+        const seen: string[] = [];
+        (window as unknown as { __paths: string[] }).__paths = seen;
+        for (const method of ['pushState', 'replaceState'] as const) {
+          const original = history[method].bind(history);
+          history[method] = (data: unknown, unused: string, url?: string | URL | null) => {
+            original(data, unused, url);
+            seen.push(location.pathname);
+          };
+        }
+      });
+      await page.goto(h.ts.baseUrl + '/sign-in');
+      await page.getByLabel('E-mail').fill(who.email);
+      await page.getByLabel('Password').fill(DEMO_PASSWORD);
+      // What the router did on loading the sign-in page is not the sign-in's.
+      await page.evaluate(() => ((window as unknown as { __paths: string[] }).__paths.length = 0));
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.waitForURL(`**${start}`);
+      expect(await page.evaluate(() => (window as unknown as { __paths: string[] }).__paths)).toEqual([start]);
+      await context.close();
+    }
   });
 });

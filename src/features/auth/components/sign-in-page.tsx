@@ -1,10 +1,14 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
+import { useQueryClient } from '@tanstack/react-query';
 import { signInInput, useSignIn } from '../api/sign-in';
 import { pathTo } from '@/paths';
+import { meQuery } from '@/lib/auth/get-me';
+import { startPath } from '@/lib/auth/start-page';
 
 export function SignInPage() {
   const signIn = useSignIn();
+  const queryClient = useQueryClient();
   const navigate = useNavigate();
   const [error, setError] = useState<string | null>(null);
 
@@ -17,7 +21,15 @@ export function SignInPage() {
       return;
     }
     setError(null);
-    signIn.mutate(parsed.data, { onSuccess: () => navigate(pathTo('home')) });
+    // Straight to the person's start page: by way of the home address, its redirect could land
+    // after a tap on a menu link and undo it. Who is signed in is read first (the pages behind
+    // sign-in read it anyway); without an answer, the home address sorts it out.
+    signIn.mutate(parsed.data, {
+      onSuccess: async () => {
+        const me = await queryClient.fetchQuery(meQuery()).catch(() => null);
+        navigate(me ? startPath(me.role) : pathTo('home'));
+      },
+    });
   }
 
   return (
