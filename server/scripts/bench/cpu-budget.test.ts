@@ -1,15 +1,9 @@
 // A CPU budget holds a busy process to its share of a core (the budgeted two-instance rows of
 // `npm run bench` rest on it); where the machine has no writable CPU cgroup it says why instead.
 import { spawn } from 'node:child_process';
-import fs from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { cpuBudget } from './cpu-budget';
-
-/** CPU seconds (user + system) of a process, from /proc. */
-function cpuSeconds(pid: number) {
-  const rest = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
-  return (Number(rest[11]) + Number(rest[12])) / 100;
-}
+import { cpuSecondsOf } from './cpu-share';
 
 describe('cpuBudget', () => {
   it('holds a busy process to its share of a core, or names why it cannot', async () => {
@@ -22,10 +16,10 @@ describe('cpuBudget', () => {
     const busy = spawn(process.execPath, ['-e', 'for (;;) {}']);
     try {
       budget.add(busy.pid!);
-      const before = cpuSeconds(busy.pid!);
+      const before = cpuSecondsOf(busy.pid!);
       const started = performance.now();
       await new Promise((r) => setTimeout(r, 1500));
-      const share = (cpuSeconds(busy.pid!) - before) / ((performance.now() - started) / 1000);
+      const share = (cpuSecondsOf(busy.pid!) - before) / ((performance.now() - started) / 1000);
       // Unbudgeted, the loop takes a whole core (1.0); the quota allows 0.2 a period, and the
       // counters' 10 ms ticks leave some slack.
       expect(share).toBeGreaterThan(0.1);

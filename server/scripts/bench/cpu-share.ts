@@ -17,16 +17,30 @@ export interface CpuShare {
   started?: Record<string, number[]>;
 }
 
-function readStat(pid: number): { ppid: number; ticks: number } | null {
+/**
+ * A process's /proc stat fields after its command name (which may itself hold spaces and
+ * parentheses), or null when it has ended: [0] is field 3 (state), [1] ppid, [11] utime,
+ * [12] stime, [13] and [14] the children's that have ended, in clock ticks.
+ */
+export function statFields(pid: number): string[] | null {
   try {
     const text = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
-    // Fields after the command name, which may itself hold spaces and parentheses.
-    const rest = text.slice(text.lastIndexOf(')') + 2).split(' ');
-    // rest[0] is field 3 (state): ppid is field 4, utime 14, stime 15.
-    return { ppid: Number(rest[1]), ticks: Number(rest[11]) + Number(rest[12]) };
+    return text.slice(text.lastIndexOf(')') + 2).split(' ');
   } catch {
     return null; // the process has ended
   }
+}
+
+function readStat(pid: number): { ppid: number; ticks: number } | null {
+  const rest = statFields(pid);
+  return rest ? { ppid: Number(rest[1]), ticks: Number(rest[11]) + Number(rest[12]) } : null;
+}
+
+/** CPU seconds (user + system) a live process has used. */
+export function cpuSecondsOf(pid: number): number {
+  const stat = readStat(pid);
+  if (!stat) throw new Error(`process ${pid} has ended`);
+  return stat.ticks / TICKS_PER_SECOND;
 }
 
 function allPids(): number[] {

@@ -13,22 +13,15 @@
 // alike for every bundle, and PostgreSQL's includes its autovacuum). The other work on the machine
 // adds nothing to the CPU figures, but they swing too: on 2026-12-03 at load 4-10, a bundle's
 // PostgreSQL CPU per push ranged over half its median between rounds, the wall time over twice.
-import fs from 'node:fs';
 import os from 'node:os';
 import { startBenchServer, type BenchServer } from './fixture';
 import { CLIENT_BATCH_CHANGES } from '../../../shared/schemas/sync';
 import { plainInsert, pushAll } from './ingest';
-import { postgresPids } from './cpu-share';
+import { cpuSecondsOf, postgresPids, statFields } from './cpu-share';
 
 const bundles = process.env.BUNDLES!.split(',');
 const rounds = Number(process.env.ROUNDS ?? 6);
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
-
-/** CPU seconds (user + system) a process has used, from /proc. */
-function cpuOf(pid: number): number {
-  const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
-  return (Number(fields[11]) + Number(fields[12])) / 100;
-}
 
 /**
  * CPU seconds the database cluster on `port` has used: the postmaster, its live children (the
@@ -36,17 +29,13 @@ function cpuOf(pid: number): number {
  */
 function databaseCpu(port: number): number {
   const [postmaster, ...children] = postgresPids(port);
-  if (postmaster === undefined) return NaN;
-  const fields = (pid: number) => fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
-  const own = fields(postmaster);
+  const own = postmaster === undefined ? null : statFields(postmaster);
+  if (!own) return NaN;
   let ticks = Number(own[11]) + Number(own[12]) + Number(own[13]) + Number(own[14]);
   for (const pid of children) {
-    try {
-      const f = fields(pid);
-      ticks += Number(f[11]) + Number(f[12]);
-    } catch {
-      // ended meanwhile: counted in the postmaster's figures from now on
-    }
+    // One that ended meanwhile is counted in the postmaster's figures from now on.
+    const f = statFields(pid);
+    if (f) ticks += Number(f[11]) + Number(f[12]);
   }
   return ticks / 100;
 }
@@ -76,10 +65,10 @@ async function main() {
       const line: string[] = [];
       for (const k of order) {
         const s = servers[k];
-        const before = cpuOf(s.app.pid);
+        const before = cpuSecondsOf(s.app.pid);
         const dbBefore = databaseCpu(dbPort);
         const app = await pushAll(s, CLIENT_BATCH_CHANGES);
-        const spent = cpuOf(s.app.pid) - before;
+        const spent = cpuSecondsOf(s.app.pid) - before;
         const dbSpent = databaseCpu(dbPort) - dbBefore;
         const plainDbBefore = databaseCpu(dbPort);
         const plain = await plainInsert(s);
